@@ -1,0 +1,65 @@
+package units
+
+import (
+	"math"
+	"strconv"
+	"strings"
+)
+
+// Plain digits are used for magnitudes in [plainMin, plainMax); outside
+// that range Format uses exponent notation.
+const (
+	plainMin = 1e-6
+	plainMax = 1e12
+)
+
+// Format writes v rounded to sig significant figures (sig below 1 counts
+// as 1, above 17 as 17).
+//
+// Magnitudes in [1e-6, 1e12) are written in plain digits ("0.000123",
+// "19.7", "1230000"); others in exponent notation ("1.23e-9", "4.56e15").
+// Significant trailing zeros are kept ("20.0" for 20 at 3 figures), zero is
+// "0" whatever its sign, and negative values never round to "-0".
+// NaN is written "NaN" and both infinities "Inf", so that callers can
+// detect them; they are never meant to be shown.
+func Format(v float64, sig int) string {
+	switch {
+	case math.IsNaN(v):
+		return "NaN"
+	case math.IsInf(v, 0):
+		return "Inf"
+	case v == 0:
+		return "0"
+	}
+	sig = min(max(sig, 1), 17)
+	// 'e' formatting rounds the exact binary value correctly; it gives
+	// [-]d.ddde±xx with exactly sig digits.
+	e := strconv.FormatFloat(v, 'e', sig-1, 64)
+	sign := ""
+	if e[0] == '-' {
+		sign, e = "-", e[1:]
+	}
+	mant, expText, _ := strings.Cut(e, "e")
+	exp, _ := strconv.Atoi(expText) // FormatFloat always writes a valid exponent
+	digits := strings.Replace(mant, ".", "", 1)
+
+	if r := math.Pow10(exp); r < plainMin || r >= plainMax {
+		return sign + mant + "e" + strconv.Itoa(exp)
+	}
+	var b strings.Builder
+	b.WriteString(sign)
+	switch {
+	case exp >= len(digits)-1: // integer, padded with zeros
+		b.WriteString(digits)
+		b.WriteString(strings.Repeat("0", exp-(len(digits)-1)))
+	case exp >= 0:
+		b.WriteString(digits[:exp+1])
+		b.WriteByte('.')
+		b.WriteString(digits[exp+1:])
+	default:
+		b.WriteString("0.")
+		b.WriteString(strings.Repeat("0", -exp-1))
+		b.WriteString(digits)
+	}
+	return b.String()
+}
