@@ -1,0 +1,37 @@
+package units
+
+import "math"
+
+// FromSI converts si, an SI value of dimension dim, to the unit spelled
+// unit. A pressure (dim Pressure) is absolute in SI: gauge and unmarked
+// units subtract ambient (Pa), absolute units do not. Pressure and Stress
+// units are interchangeable, but a stress takes no (a) or (g) mark;
+// temperature units serve for a TemperatureDifference, without offset.
+// A unit of another dimension, or a result that is not finite, is an error.
+func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, error) {
+	u, err := LookupUnit(unit)
+	if err != nil {
+		return 0, err
+	}
+	if !dim.valid() {
+		return 0, newError(unit, ": cannot show unknown "+dim.String())
+	}
+	difference, problem := readAs(u, dim)
+	if problem != "" {
+		return 0, newError(unit, problem)
+	}
+	if dim == Pressure && u.Ref != Absolute {
+		si -= ambient
+	}
+	if !finite(si) {
+		return 0, newError(unit, ": the value to show is not a finite number")
+	}
+	v := u.fromSI(si, difference)
+	if !finite(v) {
+		return 0, newError(unit, ": the value is out of range in this unit")
+	}
+	return v, nil
+}
+
+// finite reports whether v is neither NaN nor infinite.
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

@@ -1,0 +1,119 @@
+package units
+
+import (
+	"errors"
+	"math"
+	"strconv"
+	"strings"
+)
+
+// Parse reads s, a number and a unit ("32 mm", "6 bar(g)", "20 degC"; the
+// space is optional) or, for Dimensionless, a plain number or a percentage,
+// as the dimension want. See LookupUnit for the unit spellings.
+//
+// The dimension settles what the unit alone leaves open: a pressure unit
+// read as a Stress must carry no (a) or (g) mark, and a temperature read as
+// a TemperatureDifference is a difference ("18 degF" is 10 K). Negative
+// absolute temperatures and negative absolute pressures are rejected.
+//
+// A failure is an *Error whose message starts with the quoted text, e.g.
+// `"28 psi" is a pressure; takes a length (mm, cm, m, in, ft)`.
+func Parse(s string, want Dimension) (Quantity, error) {
+	text := strings.TrimSpace(s)
+	if !want.valid() {
+		return Quantity{}, newError(text, ": cannot be read as unknown "+want.String())
+	}
+	if text == "" {
+		return Quantity{}, newError(text, ": empty; expected "+want.article()+" ("+want.Examples()+")")
+	}
+	numText, rest := splitNumber(text)
+	if numText == "" {
+		return Quantity{}, newError(text, notNumber(text))
+	}
+	if len(rest) > 1 && (rest[0] == ',') && rest[1] >= '0' && rest[1] <= '9' {
+		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
+	}
+	v, err := strconv.ParseFloat(numText, 64)
+	if errors.Is(err, strconv.ErrRange) {
+		return Quantity{}, newError(text, ": number out of range")
+	} else if err != nil {
+		return Quantity{}, newError(text, ": not a number")
+	}
+
+	unitText := strings.TrimSpace(rest)
+	if unitText == "" && want != Dimensionless {
+		return Quantity{}, newError(text, ": "+want.article()+" needs a unit ("+want.Examples()+")")
+	}
+	u, ok := unitIndex[normalize(unitText)]
+	if !ok {
+		e := newError(text, ": unknown unit "+quote(unitText))
+		e.Suggest = suggest(normalize(unitText), func(u Unit) bool { return fits(u, want) })
+		if e.Suggest != "" {
+			e.msg += "; did you mean " + quote(e.Suggest) + "?"
+		} else {
+			e.msg += "; " + want.article() + " takes " + want.Examples()
+		}
+		return Quantity{}, e
+	}
+	difference, problem := readAs(u, want)
+	if problem != "" {
+		return Quantity{}, newError(text, problem)
+	}
+	value := u.toSI(v, difference)
+	switch {
+	case math.IsInf(value, 0):
+		return Quantity{}, newError(text, ": number out of range")
+	case want == Temperature && value < 0:
+		return Quantity{}, newError(text, ": below absolute zero")
+	case want == Pressure && u.Ref == Absolute && value < 0:
+		return Quantity{}, newError(text, ": an absolute pressure cannot be negative")
+	}
+	return Quantity{Value: value, Dim: want, Unit: u, Text: text}, nil
+}
+
+// splitNumber splits s into a leading decimal number (sign, digits with at
+// most one point, optional exponent) and the rest. The number is "" when s
+// does not start with one.
+func splitNumber(s string) (number, rest string) {
+	i := 0
+	if i < len(s) && (s[i] == '+' || s[i] == '-') {
+		i++
+	}
+	digits := 0
+	for ; i < len(s) && isDigit(s[i]); i++ {
+		digits++
+	}
+	if i < len(s) && s[i] == '.' {
+		i++
+		for ; i < len(s) && isDigit(s[i]); i++ {
+			digits++
+		}
+	}
+	if digits == 0 {
+		return "", s
+	}
+	if i < len(s) && (s[i] == 'e' || s[i] == 'E') {
+		j := i + 1
+		if j < len(s) && (s[j] == '+' || s[j] == '-') {
+			j++
+		}
+		if j < len(s) && isDigit(s[j]) {
+			for j < len(s) && isDigit(s[j]) {
+				j++
+			}
+			i = j
+		}
+	}
+	return s[:i], s[i:]
+}
+
+func isDigit(c byte) bool { return '0' <= c && c <= '9' }
+
+// notNumber returns the message for text that does not start with a number.
+func notNumber(text string) string {
+	t := strings.ToLower(strings.TrimLeft(text, "+-"))
+	if strings.HasPrefix(t, "nan") || strings.HasPrefix(t, "inf") {
+		return ": not a finite number"
+	}
+	return ": not a number"
+}

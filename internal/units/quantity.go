@@ -1,0 +1,21 @@
+package units
+
+// Quantity is a parsed value.
+type Quantity struct {
+	// Value is in SI units. A pressure is the number in Pa as written, gauge
+	// or absolute according to Unit.Ref; use Absolute for the absolute value.
+	Value float64
+	Dim   Dimension // the dimension it was read as
+	Unit  Unit      // the unit written
+	Text  string    // the original text, trimmed
+}
+
+// Absolute returns the absolute value of a pressure, adding the ambient
+// pressure (Pa) when the unit was gauge or unmarked. For other dimensions
+// it returns Value.
+func (q Quantity) Absolute(ambient float64) float64 {
+	if q.Dim == Pressure && q.Unit.Ref != Absolute {
+		return q.Value + ambient
+	}
+	return q.Value
+}

@@ -1,0 +1,57 @@
+package units
+
+import "strings"
+
+// suggest returns the accepted spelling closest to the normalized unit key,
+// or "" when none is close. Only units for which accept returns true are
+// considered (all when accept is nil). A spelling that differs only in case
+// wins; otherwise the smallest edit distance, at most 1 for keys of up to
+// three letters and 2 for longer ones, ties going to the earlier table row.
+func suggest(key string, accept func(Unit) bool) string {
+	if key == "" {
+		return ""
+	}
+	ok := func(e indexEntry) bool { return e.key != "" && (accept == nil || accept(e.unit)) }
+	for _, e := range unitSpellings {
+		if ok(e) && strings.EqualFold(e.key, key) {
+			return e.key
+		}
+	}
+	limit := 1
+	if len([]rune(key)) > 3 {
+		limit = 2
+	}
+	best, bestDist := "", limit+1
+	lower := strings.ToLower(key)
+	for _, e := range unitSpellings {
+		if !ok(e) {
+			continue
+		}
+		if d := editDistance(lower, strings.ToLower(e.key)); d < bestDist {
+			best, bestDist = e.key, d
+		}
+	}
+	return best
+}
+
+// editDistance is the Levenshtein distance between a and b, counted in runes.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}
