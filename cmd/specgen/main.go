@@ -1,0 +1,178 @@
+// Command specgen builds documentation sites whose engineering numbers are
+// computed from calculation blocks in the pages.
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"runtime/debug"
+
+	"specgen/internal/site"
+)
+
+// Exit statuses.
+const (
+	exitOK       = 0
+	exitFailed   = 1 // a failed claim or a danger-level caution
+	exitBadInput = 2 // bad input or usage
+)
+
+// command is one subcommand.
+type command struct {
+	name    string
+	summary string
+	run     func(args []string, stdout, stderr io.Writer) int
+}
+
+func commands() []command {
+	return []command{
+		{"build", "build the site into the output folder", runBuild},
+		{"version", "print the version", runVersion},
+		{"help", "show help for a command", runHelp},
+	}
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+func run(args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		usage(stderr)
+		return exitBadInput
+	}
+	name := args[0]
+	if name == "-h" || name == "-help" || name == "--help" {
+		usage(stdout)
+		return exitOK
+	}
+	for _, c := range commands() {
+		if c.name == name {
+			return c.run(args[1:], stdout, stderr)
+		}
+	}
+	fmt.Fprintf(stderr, "specgen: unknown command %q\n\n", name)
+	usage(stderr)
+	return exitBadInput
+}
+
+func usage(w io.Writer) {
+	fmt.Fprintln(w, "specgen: build documentation whose numbers are computed, not typed.")
+	fmt.Fprintln(w, "\nUsage: specgen COMMAND [options]\n\nCommands:")
+	for _, c := range commands() {
+		fmt.Fprintf(w, "  %-9s %s\n", c.name, c.summary)
+	}
+	fmt.Fprintln(w, "\nRun 'specgen help COMMAND' for a command's options.")
+}
+
+// newFlags returns a flag set whose errors go to stderr and do not exit.
+func newFlags(name, synopsis string, stderr io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	fs.Usage = func() {
+		fmt.Fprintf(fs.Output(), "Usage: specgen %s\n\nOptions:\n", synopsis)
+		fs.PrintDefaults()
+	}
+	return fs
+}
+
+// parseFlags parses args and rejects stray arguments. It returns the exit
+// status to use when parsing did not succeed, or -1.
+func parseFlags(fs *flag.FlagSet, args []string) int {
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			return exitOK
+		}
+		return exitBadInput
+	}
+	if fs.NArg() > 0 {
+		fmt.Fprintf(fs.Output(), "specgen %s: unexpected argument %q\n", fs.Name(), fs.Arg(0))
+		fs.Usage()
+		return exitBadInput
+	}
+	return -1
+}
+
+// report prints an error and returns exit status 2. Input errors already
+// start with their file:line; other failures (a disk, a permission) get the
+// program's name.
+func report(stderr io.Writer, err error) int {
+	if site.IsInputError(err) {
+		fmt.Fprintln(stderr, err)
+	} else {
+		fmt.Fprintln(stderr, "specgen:", err)
+	}
+	return exitBadInput
+}
+
+func runBuild(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("build", "build [-C dir] [-out dir]", stderr)
+	dir := fs.String("C", ".", "site root: the folder holding content/")
+	out := fs.String("out", site.DefaultOut, "output folder, relative to the site root")
+	if code := parseFlags(fs, args); code >= 0 {
+		return code
+	}
+	sum, err := site.Build(*dir, site.Options{Out: *out})
+	if err != nil {
+		return report(stderr, err)
+	}
+	fmt.Fprintf(stdout, "built %d pages into %s\n", sum.Pages, sum.Out)
+	return exitOK
+}
+
+func runVersion(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("version", "version", stderr)
+	if code := parseFlags(fs, args); code >= 0 {
+		return code
+	}
+	fmt.Fprintln(stdout, "specgen", version())
+	return exitOK
+}
+
+// version is the module version when built by "go install", else the VCS
+// revision that go build stamps, else "devel".
+func version() string {
+	info, ok := debug.ReadBuildInfo()
+	if !ok {
+		return "devel"
+	}
+	if v := info.Main.Version; v != "" && v != "(devel)" {
+		return v
+	}
+	rev, dirty := "", false
+	for _, s := range info.Settings {
+		switch s.Key {
+		case "vcs.revision":
+			rev = s.Value
+		case "vcs.modified":
+			dirty = s.Value == "true"
+		}
+	}
+	if rev == "" {
+		return "devel"
+	}
+	if len(rev) > 12 {
+		rev = rev[:12]
+	}
+	if dirty {
+		rev += "+changes"
+	}
+	return "devel " + rev
+}
+
+func runHelp(args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		usage(stdout)
+		return exitOK
+	}
+	for _, c := range commands() {
+		if c.name == args[0] && c.name != "help" {
+			return c.run([]string{"-h"}, stdout, stdout)
+		}
+	}
+	fmt.Fprintf(stderr, "specgen help: unknown command %q\n", args[0])
+	return exitBadInput
+}

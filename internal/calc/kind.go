@@ -1,0 +1,190 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"specgen/internal/units"
+)
+
+// Kind is one engineering model: the inputs it takes, the results it gives
+// and the function that turns one into the other.
+type Kind struct {
+	Name    string // the block's `kind` value
+	Summary string // one line, for `specgen explain`
+	Doc     string // the model written out: assumptions and formulas
+	Inputs  []InputSpec
+	Results []ResultSpec
+	// Evaluate computes the results from validated inputs. Input problems
+	// that single-input ranges cannot catch are returned as *InputError.
+	Evaluate func(in *Inputs) (*Outcome, error)
+}
+
+// InputSpec describes one input key of a kind.
+type InputSpec struct {
+	Name    string
+	Dim     units.Dimension
+	Default string // as the user would write it; "" means required unless Optional
+	// Optional inputs may be left out; the model decides what their absence
+	// means (one of two alternatives, say).
+	Optional bool
+	Range    Range
+	Meaning  string // one line
+}
+
+// Range bounds an input's SI value. A zero Range allows every finite value.
+type Range struct {
+	Min, Max         float64
+	HasMin, HasMax   bool
+	MinOpen, MaxOpen bool // the bound itself is excluded
+}
+
+// Positive allows values above zero.
+var Positive = Range{Min: 0, HasMin: true, MinOpen: true}
+
+// NonNegative allows zero and values above it.
+var NonNegative = Range{Min: 0, HasMin: true}
+
+// Between allows min <= v <= max.
+func Between(min, max float64) Range {
+	return Range{Min: min, Max: max, HasMin: true, HasMax: true}
+}
+
+// Contains reports whether v lies in the range.
+func (r Range) Contains(v float64) bool {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return false
+	}
+	if r.HasMin && (v < r.Min || (r.MinOpen && v == r.Min)) {
+		return false
+	}
+	if r.HasMax && (v > r.Max || (r.MaxOpen && v == r.Max)) {
+		return false
+	}
+	return true
+}
+
+// ResultSpec describes one result of a kind.
+type ResultSpec struct {
+	Name    string
+	Dim     units.Dimension
+	Unit    string // default display unit
+	Meaning string
+}
+
+// Inputs holds a block's validated input values in SI units, pressures
+// absolute, with defaults filled in.
+type Inputs struct {
+	Ambient float64 // ambient pressure, Pa absolute
+	values  map[string]float64
+	given   map[string]bool
+}
+
+// NewInputs returns inputs with the given SI values, all marked as given.
+func NewInputs(ambient float64, values map[string]float64) *Inputs {
+	in := &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{}}
+	for k, v := range values {
+		in.Set(k, v, true)
+	}
+	return in
+}
+
+// Set stores a value; given says whether the user wrote it (not a default).
+func (in *Inputs) Set(name string, v float64, given bool) {
+	in.values[name] = v
+	in.given[name] = given
+}
+
+// Value returns an input's SI value (0 when absent).
+func (in *Inputs) Value(name string) float64 { return in.values[name] }
+
+// Has reports whether the input has a value, given or default.
+func (in *Inputs) Has(name string) bool {
+	_, ok := in.values[name]
+	return ok
+}
+
+// Given reports whether the user wrote the input.
+func (in *Inputs) Given(name string) bool { return in.given[name] }
+
+// Names returns the names of all inputs with a value, sorted.
+func (in *Inputs) Names() []string {
+	names := make([]string, 0, len(in.values))
+	for k := range in.values {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	return names
+}
+
+// Result is one computed value with the working that produced it.
+type Result struct {
+	Name  string
+	Value float64 // SI; pressures absolute
+	Dim   units.Dimension
+	Trace Trace
+}
+
+// Trace is the working behind a result, as a reviewer would check it by hand.
+type Trace struct {
+	Formula     string // symbolic, e.g. "Vs = A · s"
+	Substituted string // the same with numbers and units, e.g. "= 804 mm2 · 28 mm"
+}
+
+// Level is a caution's signal word (ANSI Z535), in rising order of hazard.
+type Level int
+
+// The signal words.
+const (
+	Notice Level = iota + 1
+	Caution
+	Warning
+	Danger
+)
+
+func (l Level) String() string {
+	switch l {
+	case Notice:
+		return "NOTICE"
+	case Caution:
+		return "CAUTION"
+	case Warning:
+		return "WARNING"
+	case Danger:
+		return "DANGER"
+	}
+	return fmt.Sprintf("Level(%d)", int(l))
+}
+
+// CautionNote is one caution raised by a block's numbers.
+type CautionNote struct {
+	Level   Level
+	Rule    string // our rule id, e.g. "no-delivery"
+	Message string
+}
+
+// Curve is a sampled series for charts, in SI units.
+type Curve struct {
+	Name   string
+	XDim   units.Dimension
+	YDim   units.Dimension
+	X, Y   []float64
+	Dashed bool
+}
+
+// Outcome is everything a kind computes for one block.
+type Outcome struct {
+	Results  []Result
+	Cautions []CautionNote
+	Curves   []Curve
+}
+
+// InputError is a problem with one input that its range cannot express,
+// such as a rod shorter than the crank radius.
+type InputError struct {
+	Key     string // the input to blame (its line is reported)
+	Message string // what is wrong and what is allowed
+}
+
+func (e *InputError) Error() string { return e.Key + ": " + e.Message }

@@ -1,0 +1,42 @@
+package render
+
+import (
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/parser"
+	"github.com/yuin/goldmark/text"
+)
+
+// mdLinkTransformer points links to .md files at the .html pages built from
+// them, so one link works both in a repository's file view and in the site.
+type mdLinkTransformer struct{}
+
+func (mdLinkTransformer) Transform(doc *ast.Document, reader text.Reader, pc parser.Context) {
+	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if !entering {
+			return ast.WalkContinue, nil
+		}
+		if link, ok := n.(*ast.Link); ok {
+			link.Destination = []byte(RewriteLink(string(link.Destination)))
+		}
+		return ast.WalkContinue, nil
+	})
+}
+
+// RewriteLink turns a relative link to "x.md" (with an optional #fragment
+// or ?query) into "x.html". Absolute URLs and other files are left alone.
+func RewriteLink(dest string) string {
+	if dest == "" || strings.Contains(dest, "://") || strings.HasPrefix(dest, "/") ||
+		strings.HasPrefix(dest, "#") || strings.HasPrefix(strings.ToLower(dest), "mailto:") {
+		return dest
+	}
+	path, rest := dest, ""
+	if i := strings.IndexAny(dest, "#?"); i >= 0 {
+		path, rest = dest[:i], dest[i:]
+	}
+	if !strings.HasSuffix(strings.ToLower(path), ".md") {
+		return dest
+	}
+	return path[:len(path)-len(".md")] + ".html" + rest
+}

@@ -1,0 +1,73 @@
+package render
+
+import (
+	"bytes"
+
+	"github.com/yuin/goldmark/ast"
+)
+
+// Heading is one entry of a page's table of contents.
+type Heading struct {
+	Level int
+	ID    string
+	Text  string
+}
+
+// Headings lists the document's headings from level 2 to maxLevel, in order.
+func (d *Document) Headings(maxLevel int) []Heading {
+	var out []Heading
+	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if !entering {
+			return ast.WalkContinue, nil
+		}
+		h, ok := n.(*ast.Heading)
+		if !ok {
+			return ast.WalkContinue, nil
+		}
+		if h.Level >= 2 && h.Level <= maxLevel {
+			id, _ := h.AttributeString("id")
+			idBytes, _ := id.([]byte)
+			out = append(out, Heading{Level: h.Level, ID: string(idBytes), Text: plainText(h, d.Source)})
+		}
+		return ast.WalkSkipChildren, nil
+	})
+	return out
+}
+
+// Title returns the text of the first level-1 heading, or "".
+func (d *Document) Title() string {
+	for n := d.Root.FirstChild(); n != nil; n = n.NextSibling() {
+		if h, ok := n.(*ast.Heading); ok && h.Level == 1 {
+			return plainText(h, d.Source)
+		}
+	}
+	return ""
+}
+
+// plainText is the text content of a node, without markup.
+func plainText(n ast.Node, source []byte) string {
+	var buf bytes.Buffer
+	_ = ast.Walk(n, func(c ast.Node, entering bool) (ast.WalkStatus, error) {
+		if !entering {
+			return ast.WalkContinue, nil
+		}
+		switch t := c.(type) {
+		case *ast.Text:
+			buf.Write(t.Segment.Value(source))
+			if t.SoftLineBreak() {
+				buf.WriteByte(' ')
+			}
+		case *ast.String:
+			buf.Write(t.Value)
+		case *ast.CodeSpan:
+			for cc := t.FirstChild(); cc != nil; cc = cc.NextSibling() {
+				if tt, ok := cc.(*ast.Text); ok {
+					buf.Write(tt.Segment.Value(source))
+				}
+			}
+			return ast.WalkSkipChildren, nil
+		}
+		return ast.WalkContinue, nil
+	})
+	return buf.String()
+}

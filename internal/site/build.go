@@ -1,0 +1,279 @@
+package site
+
+import (
+	"bytes"
+	"fmt"
+	"html/template"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"sync"
+
+	"specgen/internal/render"
+)
+
+// StaticDir is the optional folder of a site root copied into the output as is.
+const StaticDir = "static"
+
+// DefaultOut is the output folder, relative to the site root, when none is given.
+const DefaultOut = "dist"
+
+// Options are the settings of one build.
+type Options struct {
+	Out string // output folder; relative paths are taken from the site root
+}
+
+// Summary tells what a build wrote.
+type Summary struct {
+	Out   string // absolute output folder
+	Pages int
+}
+
+// Site is a loaded site: configuration, layouts and parsed pages.
+type Site struct {
+	Root    string
+	Config  Config
+	Pages   []*Page // sorted by content path
+	nav     *navNode
+	reading []*Page // reading order, for previous and next
+	md      *render.Markdown
+	layouts *layouts
+}
+
+// Load reads a site root: configuration, templates and every page.
+func Load(root string) (*Site, error) {
+	root, err := filepath.Abs(root)
+	if err != nil {
+		return nil, err
+	}
+	cfg, err := LoadConfig(root)
+	if err != nil {
+		return nil, err
+	}
+	lay, err := loadLayouts(root)
+	if err != nil {
+		return nil, err
+	}
+	rels, err := findPages(root)
+	if err != nil {
+		return nil, err
+	}
+	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML))}
+	s.Pages = make([]*Page, len(rels))
+	errs := make([]error, len(rels))
+	parallel(len(rels), func(i int) {
+		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md)
+	})
+	if err := collect(errs); err != nil {
+		return nil, err
+	}
+	if err := checkOutputClashes(s.Pages); err != nil {
+		return nil, err
+	}
+	var tplErrs ErrorList
+	for _, p := range s.Pages {
+		if _, err := s.layouts.lookup(p.Front.Template); err != nil {
+			tplErrs = append(tplErrs, &Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+		}
+	}
+	if err := tplErrs.sorted(); err != nil {
+		return nil, err
+	}
+	s.nav, s.reading = buildNav(s.Pages)
+	return s, nil
+}
+
+// Build loads the site at root and writes it to the output folder. The
+// previous output stays untouched unless the whole build succeeds.
+func Build(root string, opts Options) (*Summary, error) {
+	s, err := Load(root)
+	if err != nil {
+		return nil, err
+	}
+	return s.Write(opts)
+}
+
+// Write renders every page and swaps the finished output into place.
+func (s *Site) Write(opts Options) (*Summary, error) {
+	out := opts.Out
+	if out == "" {
+		out = DefaultOut
+	}
+	if !filepath.IsAbs(out) {
+		out = filepath.Join(s.Root, out)
+	}
+	out = filepath.Clean(out)
+	if err := checkOutputDir(s.Root, out); err != nil {
+		return nil, err
+	}
+	files, err := s.render()
+	if err != nil {
+		return nil, err
+	}
+	st, err := newStaging(out)
+	if err != nil {
+		return nil, err
+	}
+	names := sortedKeys(files)
+	errs := make([]error, len(names))
+	parallel(len(names), func(i int) {
+		errs[i] = st.write(names[i], files[names[i]])
+	})
+	if err := collect(errs); err != nil {
+		st.abandon()
+		return nil, err
+	}
+	if err := st.commit(); err != nil {
+		st.abandon()
+		return nil, err
+	}
+	return &Summary{Out: out, Pages: len(s.Pages)}, nil
+}
+
+// render produces every output file in memory, keyed by output path.
+func (s *Site) render() (map[string][]byte, error) {
+	files := map[string][]byte{}
+	static, err := readStatic(s.Root)
+	if err != nil {
+		return nil, err
+	}
+	for name, data := range static {
+		files[name] = data
+	}
+	for name, data := range s.layouts.assets {
+		files["assets/"+name] = data
+	}
+	files["assets/syntax.css"] = render.SyntaxCSS()
+	results, err := s.resultsJSON()
+	if err != nil {
+		return nil, err
+	}
+	files["results.json"] = results
+	pages := make([][]byte, len(s.Pages))
+	errs := make([]error, len(s.Pages))
+	parallel(len(s.Pages), func(i int) {
+		pages[i], errs[i] = s.renderPage(s.Pages[i])
+	})
+	if err := collect(errs); err != nil {
+		return nil, err
+	}
+	var clashes ErrorList
+	for i, p := range s.Pages {
+		if _, ok := files[p.Out]; ok {
+			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its page %s clashes with a file of the same name in static/ or the assets", p.Out)})
+		}
+		files[p.Out] = pages[i]
+	}
+	if err := clashes.sorted(); err != nil {
+		return nil, err
+	}
+	return files, nil
+}
+
+// PageData is what a page template receives.
+type PageData struct {
+	Site        SiteData
+	Page        PageInfo
+	Root        string // relative prefix from the page to the site root: "", "../", ...
+	Nav         []NavItem
+	Breadcrumbs []Link
+	Prev, Next  *Link
+}
+
+// SiteData describes the site for templates.
+type SiteData struct {
+	Title       string
+	Description string
+	Home        string // URL of the home page, relative to the current page
+}
+
+// PageInfo describes the current page for templates.
+type PageInfo struct {
+	Title       string
+	Description string
+	Source      string // the Markdown file, relative to the site root
+	URL         string // the page's own output path from the site root
+	Content     template.HTML
+	TOC         []render.Heading
+}
+
+func (s *Site) renderPage(p *Page) ([]byte, error) {
+	body, err := s.md.Render(p.Doc)
+	if err != nil {
+		return nil, &Error{File: p.File, Msg: "rendering: " + err.Error()}
+	}
+	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
+	data := PageData{
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + "index.html"},
+		Page: PageInfo{
+			Title:       p.Title,
+			Description: p.Front.Description,
+			Source:      p.File,
+			URL:         p.Out,
+			Content:     template.HTML(body),
+			TOC:         p.Doc.Headings(3),
+		},
+		Root:        rootPrefix,
+		Nav:         navFor(s.nav, p, rootPrefix),
+		Breadcrumbs: breadcrumbsFor(s.nav, p, rootPrefix),
+	}
+	for i, q := range s.reading {
+		if q != p {
+			continue
+		}
+		if i > 0 {
+			data.Prev = &Link{Title: s.reading[i-1].Title, URL: rootPrefix + s.reading[i-1].Out}
+		}
+		if i+1 < len(s.reading) {
+			data.Next = &Link{Title: s.reading[i+1].Title, URL: rootPrefix + s.reading[i+1].Out}
+		}
+	}
+	tpl, err := s.layouts.lookup(p.Front.Template)
+	if err != nil {
+		return nil, &Error{File: p.File, Msg: err.Error()}
+	}
+	var buf bytes.Buffer
+	if err := tpl.Execute(&buf, data); err != nil {
+		return nil, &Error{File: TemplatesDir + "/" + tpl.Name(), Msg: "while laying out " + p.File + ": " + err.Error()}
+	}
+	return buf.Bytes(), nil
+}
+
+// parallel runs f(0..n-1) on all cores.
+func parallel(n int, f func(i int)) {
+	workers := min(runtime.GOMAXPROCS(0), n)
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				f(i)
+			}
+		}()
+	}
+	for i := 0; i < n; i++ {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+}
+
+// collect joins the input errors of a parallel step, sorted by place; a
+// failure of the machine wins over input errors.
+func collect(errs []error) error {
+	var list ErrorList
+	for _, err := range errs {
+		switch e := err.(type) {
+		case nil:
+		case *Error:
+			list = append(list, e)
+		case ErrorList:
+			list = append(list, e...)
+		default:
+			return err
+		}
+	}
+	return list.sorted()
+}

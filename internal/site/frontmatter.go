@@ -1,0 +1,90 @@
+package site
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/calc"
+)
+
+// FrontMatter is the TOML header of a page, between "+++" lines.
+type FrontMatter struct {
+	Title       string `toml:"title"`
+	Order       int    `toml:"order"`
+	Description string `toml:"description"`
+	Template    string `toml:"template"`
+}
+
+var frontMatterKeys = []string{"description", "order", "template", "title"}
+
+// splitFrontMatter separates a leading "+++" block from the body. It returns
+// the TOML, the body and the number of file lines before the body.
+func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset int, err error) {
+	const fence = "+++"
+	first, rest, _ := bytes.Cut(src, []byte("\n"))
+	if strings.TrimRight(string(first), "\r \t") != fence {
+		return nil, src, 0, nil
+	}
+	line := 1
+	pos := len(first) + 1
+	for len(rest) > 0 || pos <= len(src) {
+		var l []byte
+		l, rest, _ = bytes.Cut(rest, []byte("\n"))
+		line++
+		if strings.TrimRight(string(l), "\r \t") == fence {
+			return src[len(first)+1 : pos], src[min(pos+len(l)+1, len(src)):], line, nil
+		}
+		pos += len(l) + 1
+		if len(rest) == 0 {
+			break
+		}
+	}
+	return nil, nil, 0, &Error{File: file, Line: 1, Msg: `front matter opened with "+++" is never closed; end it with a line holding only "+++"`}
+}
+
+// parseFrontMatter decodes a page's front matter strictly: unknown keys and
+// wrong types are errors that name the line.
+func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []byte, int, error) {
+	var fm FrontMatter
+	head, body, offset, err := splitFrontMatter(file, src)
+	if err != nil || head == nil {
+		return fm, nil, body, offset, err
+	}
+	text := string(head)
+	lines := calc.KeyLines(text)
+	md, err := toml.Decode(text, &fm)
+	if err != nil {
+		return fm, nil, nil, 0, tomlError(file, 1, err, "front matter")
+	}
+	var errs ErrorList
+	for _, k := range md.Undecoded() {
+		key := k.String()
+		msg := fmt.Sprintf("front matter: unknown key %q; allowed: %s", key, strings.Join(frontMatterKeys, ", "))
+		if s := calc.Suggest(key, frontMatterKeys); s != "" {
+			msg = fmt.Sprintf("front matter: unknown key %q; did you mean %q? (allowed: %s)", key, s, strings.Join(frontMatterKeys, ", "))
+		}
+		errs = append(errs, &Error{File: file, Line: 1 + lines[key], Msg: msg})
+	}
+	if len(errs) > 0 {
+		return fm, nil, nil, 0, errs.sorted()
+	}
+	return fm, lines, body, offset, nil
+}
+
+// tomlError turns a TOML decoding error into an Error at the right file
+// line. base is the file line of the document's first line, minus one.
+func tomlError(file string, base int, err error, what string) error {
+	var pe toml.ParseError
+	if errors.As(err, &pe) {
+		msg := pe.Message
+		if pe.LastKey != "" && !strings.Contains(msg, pe.LastKey) {
+			msg = pe.LastKey + ": " + msg
+		}
+		return &Error{File: file, Line: base + max(pe.Position.Line, 1), Msg: what + ": " + msg}
+	}
+	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
+}

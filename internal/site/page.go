@@ -1,0 +1,156 @@
+package site
+
+import (
+	"fmt"
+	"io/fs"
+	"os"
+	"path"
+	"path/filepath"
+	"sort"
+	"strings"
+	"unicode/utf8"
+
+	"specgen/internal/render"
+)
+
+// ContentDir is the folder of a site root that holds the pages.
+const ContentDir = "content"
+
+// Page is one Markdown page of the site.
+type Page struct {
+	File  string // path for messages, relative to the site root: "content/a/b.md"
+	Rel   string // path relative to content/: "a/b.md"
+	Out   string // output path relative to the output folder: "a/b.html"
+	Front FrontMatter
+	// frontLines maps front-matter keys to their TOML line (file line - 1).
+	frontLines map[string]int
+	Title      string
+	Doc        *render.Document
+}
+
+// Dir is the page's folder relative to content/, "" for the top level.
+func (p *Page) Dir() string {
+	d := path.Dir(p.Rel)
+	if d == "." {
+		return ""
+	}
+	return d
+}
+
+// frontLine is the file line of a front-matter key (1 when unknown).
+func (p *Page) frontLine(key string) int { return 1 + p.frontLines[key] }
+
+// IsIndex reports whether the page is its folder's index.md.
+func (p *Page) IsIndex() bool { return path.Base(p.Rel) == "index.md" }
+
+// findPages lists content/**/*.md, sorted, skipping hidden files and folders.
+func findPages(root string) ([]string, error) {
+	dir := filepath.Join(root, ContentDir)
+	info, err := os.Stat(dir)
+	if err != nil || !info.IsDir() {
+		return nil, &Error{File: ContentDir, Msg: "no content/ folder here; a site root holds content/ with Markdown pages (use -C to point at the site root)"}
+	}
+	var rels []string
+	err = filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		name := d.Name()
+		if p != dir && strings.HasPrefix(name, ".") {
+			if d.IsDir() {
+				return filepath.SkipDir
+			}
+			return nil
+		}
+		if !d.IsDir() && strings.EqualFold(filepath.Ext(name), ".md") {
+			rel, err := filepath.Rel(dir, p)
+			if err != nil {
+				return err
+			}
+			rels = append(rels, filepath.ToSlash(rel))
+		}
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	if len(rels) == 0 {
+		return nil, &Error{File: ContentDir, Msg: "no Markdown pages (*.md) in content/"}
+	}
+	sort.Strings(rels)
+	return rels, nil
+}
+
+// loadPage reads and parses one page.
+func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
+	file := ContentDir + "/" + rel
+	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
+	if err != nil {
+		return nil, err
+	}
+	if !utf8.Valid(src) {
+		return nil, &Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
+	}
+	fm, lines, body, offset, err := parseFrontMatter(file, src)
+	if err != nil {
+		return nil, err
+	}
+	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
+	p.Doc = md.Parse(body, offset)
+	p.Title = fm.Title
+	if p.Title == "" {
+		p.Title = p.Doc.Title()
+	}
+	if p.Title == "" {
+		p.Title = titleFromName(rel)
+	}
+	return p, nil
+}
+
+// titleFromName makes "tank-fill.md" into "Tank fill".
+func titleFromName(rel string) string {
+	name := strings.TrimSuffix(path.Base(rel), path.Ext(rel))
+	if name == "index" {
+		name = path.Base(path.Dir(rel))
+		if name == "." {
+			return "Home"
+		}
+	}
+	name = strings.NewReplacer("-", " ", "_", " ").Replace(name)
+	if name == "" {
+		return rel
+	}
+	r, size := utf8.DecodeRuneInString(name)
+	return strings.ToUpper(string(r)) + name[size:]
+}
+
+func firstInvalidUTF8Line(src []byte) int {
+	line := 1
+	for i := 0; i < len(src); {
+		r, size := utf8.DecodeRune(src[i:])
+		if r == utf8.RuneError && size == 1 {
+			return line
+		}
+		if r == '\n' {
+			line++
+		}
+		i += size
+	}
+	return line
+}
+
+// checkOutputClashes reports two pages that would write the same file,
+// such as "a.md" and "A.md" on a case-insensitive disk, or "a.MD".
+func checkOutputClashes(pages []*Page) error {
+	seen := map[string]*Page{}
+	var errs ErrorList
+	for _, p := range pages {
+		key := strings.ToLower(p.Out)
+		if other, ok := seen[key]; ok {
+			errs = append(errs, &Error{File: p.File, Msg: fmt.Sprintf("writes the same page as %s (%s); rename one", other.File, p.Out)})
+			continue
+		}
+		seen[key] = p
+	}
+	return errs.sorted()
+}

@@ -1,0 +1,100 @@
+package site
+
+import (
+	"fmt"
+	"html/template"
+	"io/fs"
+	"os"
+	"path"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"specgen/templates"
+)
+
+// TemplatesDir is the optional folder of a site root whose files replace
+// or add to the embedded default templates and assets.
+const TemplatesDir = "templates"
+
+// layouts is the set of page templates, each a complete HTML page, plus
+// the stylesheet and other assets shipped with them.
+type layouts struct {
+	set    *template.Template
+	names  []string          // page template names without ".html"
+	assets map[string][]byte // path under assets/ → content
+}
+
+// loadLayouts reads the embedded templates, then the site's overrides.
+func loadLayouts(root string) (*layouts, error) {
+	files := map[string][]byte{}
+	err := fs.WalkDir(templates.FS, ".", func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() || path.Ext(p) == ".go" {
+			return err
+		}
+		b, err := fs.ReadFile(templates.FS, p)
+		files[p] = b
+		return err
+	})
+	if err != nil {
+		return nil, err
+	}
+	siteDir := filepath.Join(root, TemplatesDir)
+	if info, err := os.Stat(siteDir); err == nil && info.IsDir() {
+		err := filepath.WalkDir(siteDir, func(p string, d fs.DirEntry, err error) error {
+			if err != nil || d.IsDir() || strings.HasPrefix(d.Name(), ".") {
+				return err
+			}
+			rel, err := filepath.Rel(siteDir, p)
+			if err != nil {
+				return err
+			}
+			b, err := os.ReadFile(p)
+			files[filepath.ToSlash(rel)] = b
+			return err
+		})
+		if err != nil {
+			return nil, err
+		}
+	}
+	l := &layouts{set: template.New("").Funcs(templateFuncs), assets: map[string][]byte{}}
+	names := make([]string, 0, len(files))
+	for name := range files {
+		names = append(names, name)
+	}
+	sort.Strings(names)
+	for _, name := range names {
+		switch {
+		case strings.HasPrefix(name, "assets/"):
+			l.assets[strings.TrimPrefix(name, "assets/")] = files[name]
+		case path.Ext(name) == ".html" && !strings.Contains(name, "/"):
+			if _, err := l.set.New(name).Parse(string(files[name])); err != nil {
+				return nil, &Error{File: TemplatesDir + "/" + name, Msg: "template: " + strings.TrimPrefix(err.Error(), "template: ")}
+			}
+			if !strings.HasPrefix(name, "_") {
+				l.names = append(l.names, strings.TrimSuffix(name, ".html"))
+			}
+		}
+	}
+	if l.set.Lookup("page.html") == nil {
+		return nil, &Error{File: TemplatesDir + "/page.html", Msg: "the default page template is missing"}
+	}
+	return l, nil
+}
+
+// lookup returns the page template for a front-matter template name.
+func (l *layouts) lookup(name string) (*template.Template, error) {
+	if name == "" {
+		name = "page"
+	}
+	t := l.set.Lookup(name + ".html")
+	if t == nil || strings.HasPrefix(name, "_") {
+		return nil, fmt.Errorf("template %q does not exist; allowed: %s", name, strings.Join(l.names, ", "))
+	}
+	return t, nil
+}
+
+var templateFuncs = template.FuncMap{
+	// indent gives a table-of-contents entry its depth as a CSS class suffix.
+	"indent": func(level int) int { return level - 2 },
+}
