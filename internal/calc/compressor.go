@@ -1,0 +1,458 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+
+	"specgen/internal/units"
+)
+
+// compressorKind models one single-acting compressor stage of identical,
+// evenly phased cylinders: slider-crank geometry, the ideal polytropic
+// cycle with clearance re-expansion, piston force, crank torque and power.
+var compressorKind = Kind{
+	Name:    "compressor",
+	Summary: "one single-acting stage: slider-crank geometry, polytropic cycle with clearance re-expansion, forces, torque, power",
+	Doc:     compressorDoc,
+	Inputs: []InputSpec{
+		{Name: "bore", Dim: units.Length, Range: Positive, Meaning: "cylinder bore (piston diameter)"},
+		{Name: "stroke", Dim: units.Length, Optional: true, Range: Positive, Meaning: "piston stroke, twice the crank radius; give stroke or crank_radius"},
+		{Name: "crank_radius", Dim: units.Length, Optional: true, Range: Positive, Meaning: "crank throw, half the stroke; give stroke or crank_radius"},
+		{Name: "rod_length", Dim: units.Length, Range: Positive, Meaning: "connecting rod length between centres; must exceed the crank radius"},
+		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: Positive, Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
+		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: Positive, Meaning: "clearance volume over swept volume; give clearance_volume or clearance_ratio"},
+		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased (a whole number)"},
+		{Name: "speed", Dim: units.RotationalSpeed, Range: Positive, Meaning: "crankshaft speed"},
+		{Name: "discharge_pressure", Dim: units.Pressure, Range: Positive, Meaning: "pressure the cylinder delivers against"},
+		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: Positive, Meaning: "pressure in the cylinder during suction; default: ambient"},
+		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: Positive, Meaning: "air temperature at the inlet"},
+		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion (1 isothermal, 1.4 adiabatic air)"},
+		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true}, Meaning: "indicated power over shaft power"},
+		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: Positive, Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
+	},
+	Results: []ResultSpec{
+		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
+		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
+		{Name: "displacement", Dim: units.Volume, Unit: "cm3", Meaning: "volume all pistons sweep in one revolution"},
+		{Name: "displacement_rate", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "displacement times speed"},
+		{Name: "clearance_ratio", Dim: units.Dimensionless, Unit: "", Meaning: "clearance volume over swept volume"},
+		{Name: "compression_ratio", Dim: units.Dimensionless, Unit: "", Meaning: "largest over smallest cylinder volume, (Vs + Vc)/Vc"},
+		{Name: "pressure_ratio", Dim: units.Dimensionless, Unit: "", Meaning: "discharge over inlet pressure, both absolute"},
+		{Name: "volumetric_efficiency", Dim: units.Dimensionless, Unit: "", Meaning: "air drawn in per stroke over swept volume, from clearance re-expansion only"},
+		{Name: "free_air_delivery", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "air delivered, as volume at inlet conditions"},
+		{Name: "max_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "dead-head pressure: what the cylinder reaches with the outlet blocked"},
+		{Name: "discharge_temperature", Dim: units.Temperature, Unit: "degC", Meaning: "air temperature at the end of compression"},
+		{Name: "peak_piston_force", Dim: units.Force, Unit: "N", Meaning: "largest gas force on one piston against the crankcase"},
+		{Name: "mean_piston_speed", Dim: units.Velocity, Unit: "m/s", Meaning: "twice the stroke times speed"},
+		{Name: "max_rod_angle", Dim: units.Angle, Unit: "deg", Meaning: "largest angle of the rod to the line of stroke"},
+		{Name: "indicated_work", Dim: units.Energy, Unit: "J", Meaning: "gas work of all cylinders in one revolution"},
+		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time"},
+		{Name: "isothermal_power", Dim: units.Power, Unit: "W", Meaning: "power to compress the same air isothermally, the ideal"},
+		{Name: "shaft_power", Dim: units.Power, Unit: "W", Meaning: "power the drive must supply: indicated over mechanical efficiency"},
+		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work over one radian: the steady drive torque without friction"},
+		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
+		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
+	},
+	Evaluate: evaluateCompressor,
+}
+
+// maxCylinders bounds the cylinder count: small machines have a few.
+const maxCylinders = 32
+
+// cycleSteps is the least number of crank-angle steps per revolution
+// (0.05° each) at which the torque curves are sampled.
+const cycleSteps = 7200
+
+// curvePoints is the number of intervals per revolution in the published
+// crank-angle and p-V curves (0.5°); it divides cycleSteps.
+const curvePoints = 720
+
+const compressorDoc = `The compressor kind models one single-acting compression stage: z identical
+cylinders on one crankshaft, each with bore D, stroke s = 2R, rod length L and
+clearance volume Vc, turning at N revolutions per second, drawing air at p1, T1
+and delivering it at p2 (pressures absolute).
+
+Assumptions
+- Ideal valves: no pressure drop, no leakage, no throttling; suction happens at
+  exactly p1 and delivery at exactly p2.
+- Compression and re-expansion of the clearance gas both follow p·V^n = const
+  with the same polytropic index n (1 ≤ n ≤ 1.67; n = 1 is isothermal).
+- Volumetric efficiency comes from clearance re-expansion only: no heating of
+  the charge by the cylinder walls, no leakage past the rings or valves.
+- The air drawn in is at inlet conditions (p1, T1); free air delivery is that
+  volume per unit time, the idea behind ISO 1217.
+- The crankcase behind the piston is at ambient pressure.
+- The cylinders are evenly phased: cylinder k reaches top dead centre 360°·k/z
+  after cylinder 0, and their torques add on the one crankshaft.
+- Constant crank speed for the inertia torque.
+
+Geometry
+  A = π/4·D²   Vs = A·s   V_d = z·Vs   V̇_d = V_d·N   c = Vc/Vs
+  CR = (Vs + Vc)/Vc   c_m = 2·s·N   φ_max = asin(R/L)
+  Piston travel from TDC (exact slider-crank):
+  x(θ) = R·(1 − cos θ) + L − sqrt(L² − R²·sin² θ)
+
+Cycle
+  r = p2/p1   η_v = 1 − c·(r^(1/n) − 1)   FAD = η_v·V̇_d
+  p_max = p1·CR^n (dead-head)   T2 = T1·r^((n−1)/n)
+  W = z·n/(n−1)·p1·Vi·(r^((n−1)/n) − 1) with Vi = η_v·Vs (per revolution)
+  W = z·p1·Vi·ln r when n = 1
+  P_i = W·N   P_iso = z·p1·Vi·ln r·N   P_s = P_i/η_m
+  F_peak = (p_top − p_amb)·A, p_top = p2 (or p_max when lower)
+
+Torque
+  The cylinder pressure p(θ) follows re-expansion, suction, compression and
+  delivery over 0..360° from TDC. The gas load torque on the crank, by virtual
+  work, is T(θ) = −(p(θ) − p_amb)·A·dx/dθ (positive when the crank drives the
+  piston), summed over the cylinders and sampled every 0.05° of crank angle or
+  finer. T_m = W/2π; peak_torque is the largest summed load torque;
+  energy_fluctuation is the max − min of ∫(T_m − T(θ))dθ over a revolution,
+  the energy a flywheel must absorb. With a reciprocating mass m per
+  cylinder, the inertia torque m·ω²·(d²x/dθ²)·(dx/dθ) is drawn as a separate
+  curve; it is not in the results.
+
+Limits
+- When p2 ≥ p_max the discharge valve never opens: volumetric efficiency,
+  free air delivery and indicated work are 0 and a DANGER caution is raised.
+- Real machines deliver less than η_v·V̇_d (heating, leakage, valve losses)
+  and need more than P_s; treat the results as upper bounds on delivery and
+  lower bounds on power.
+- The discharge temperature assumes the same n; real discharge temperatures
+  depend on cooling.`
+
+// compressorInput is a compressor block's inputs in SI, absolute pressures.
+type compressorInput struct {
+	bore, crankRadius, rod float64
+	clearanceVolume        float64
+	clearanceRatio         float64
+	clearanceGiven         bool // the ratio was derived from a given volume
+	cylinders              int
+	omega                  float64 // rad/s
+	p1, p2, ambient        float64
+	t1, n, etaMech         float64
+	mass                   float64 // 0 when not given
+}
+
+// readCompressorInput applies the checks that single-input ranges cannot.
+func readCompressorInput(in *Inputs) (compressorInput, error) {
+	c := compressorInput{
+		bore:    in.Value("bore"),
+		rod:     in.Value("rod_length"),
+		omega:   in.Value("speed"),
+		p2:      in.Value("discharge_pressure"),
+		ambient: in.Ambient,
+		p1:      in.Ambient,
+		t1:      in.Value("inlet_temperature"),
+		n:       in.Value("polytropic_index"),
+		etaMech: in.Value("mechanical_efficiency"),
+		mass:    in.Value("reciprocating_mass"),
+	}
+	switch {
+	case in.Has("stroke") && in.Has("crank_radius"):
+		return c, &InputError{Key: "stroke", Message: "give either stroke or crank_radius, not both (stroke = 2 × crank radius)"}
+	case in.Has("stroke"):
+		c.crankRadius = in.Value("stroke") / 2
+	case in.Has("crank_radius"):
+		c.crankRadius = in.Value("crank_radius")
+	default:
+		return c, &InputError{Key: "stroke", Message: "missing: give stroke or crank_radius (a length, e.g. \"32 mm\")"}
+	}
+	if c.rod <= c.crankRadius {
+		return c, &InputError{Key: "rod_length", Message: fmt.Sprintf(
+			"rod length %s must exceed the crank radius %s (half the stroke)",
+			show(c.rod*1e3, "mm"), show(c.crankRadius*1e3, "mm"))}
+	}
+	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
+	switch {
+	case in.Has("clearance_volume") && in.Has("clearance_ratio"):
+		return c, &InputError{Key: "clearance_volume", Message: "give either clearance_volume or clearance_ratio, not both"}
+	case in.Has("clearance_volume"):
+		c.clearanceVolume = in.Value("clearance_volume")
+		c.clearanceRatio = c.clearanceVolume / swept
+		c.clearanceGiven = true
+	case in.Has("clearance_ratio"):
+		c.clearanceRatio = in.Value("clearance_ratio")
+		c.clearanceVolume = c.clearanceRatio * swept
+	default:
+		return c, &InputError{Key: "clearance_volume", Message: "missing: give clearance_volume (a volume, e.g. \"1.8 cm3\") or clearance_ratio (e.g. 0.05)"}
+	}
+	z := in.Value("cylinders")
+	if z != math.Trunc(z) {
+		return c, &InputError{Key: "cylinders", Message: fmt.Sprintf("%s is not a whole number of cylinders", units.Format(z, 6))}
+	}
+	c.cylinders = int(z)
+	if in.Has("inlet_pressure") {
+		c.p1 = in.Value("inlet_pressure")
+	}
+	if c.p2 <= c.p1 {
+		return c, &InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
+			"discharge pressure %s must be above the inlet pressure %s",
+			show(c.p2/1e5, "bar(a)"), show(c.p1/1e5, "bar(a)"))}
+	}
+	return c, nil
+}
+
+// show formats a value already scaled to unit at 4 significant figures.
+func show(v float64, unit string) string {
+	if unit == "" {
+		return units.Format(v, 4)
+	}
+	return units.Format(v, 4) + " " + unit
+}
+
+// polytropicWork returns the work to compress a volume v drawn in at p1
+// through a pressure ratio r along p·V^n = const, with delivery:
+// n/(n−1)·p1·v·(r^((n−1)/n) − 1), or p1·v·ln r when n = 1. Expm1 keeps
+// it accurate as n approaches 1.
+func polytropicWork(p1, v, r, n float64) float64 {
+	if n == 1 {
+		return p1 * v * math.Log(r)
+	}
+	return n / (n - 1) * p1 * v * math.Expm1((n-1)/n*math.Log(r))
+}
+
+func evaluateCompressor(in *Inputs) (*Outcome, error) {
+	c, err := readCompressorInput(in)
+	if err != nil {
+		return nil, err
+	}
+	var (
+		z      = float64(c.cylinders)
+		stroke = 2 * c.crankRadius
+		revs   = c.omega / (2 * math.Pi) // rev/s
+		area   = math.Pi / 4 * c.bore * c.bore
+		swept  = area * stroke
+		disp   = z * swept
+		rate   = disp * revs
+		cr     = (swept + c.clearanceVolume) / c.clearanceVolume
+		r      = c.p2 / c.p1
+		pMax   = c.p1 * math.Pow(cr, c.n)
+		ve     = 1 - c.clearanceRatio*(math.Pow(r, 1/c.n)-1)
+	)
+	delivers := ve > 0
+	if !delivers {
+		ve = 0
+	}
+	vi := ve * swept
+	work := z * polytropicWork(c.p1, vi, r, c.n)
+	power := work * revs
+	isoPower := z * polytropicWork(c.p1, vi, r, 1) * revs
+	pTop := math.Min(c.p2, pMax)
+	meanTorque := work / (2 * math.Pi)
+
+	cyc := &indicatorCycle{
+		crank:     sliderCrank{r: c.crankRadius, l: c.rod},
+		area:      area,
+		clearance: c.clearanceVolume,
+		p1:        c.p1,
+		p2:        c.p2,
+		n:         c.n,
+		ambient:   c.ambient,
+	}
+	steps := crankSteps(c.cylinders)
+	gasOne := sampleRevolution(steps, cyc.gasTorque)
+	gas := phaseSum(gasOne, c.cylinders)
+	peakTorque := gas[0]
+	for _, t := range gas {
+		peakTorque = math.Max(peakTorque, t)
+	}
+	eLow, eHigh := excessEnergyRange(gas, meanTorque)
+
+	// Trace helpers in convenient units.
+	mm := func(v float64) string { return show(v*1e3, "mm") }
+	mm2 := func(v float64) string { return show(v*1e6, "mm²") }
+	cm3 := func(v float64) string { return show(v*1e6, "cm³") }
+	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	num := func(v float64) string { return show(v, "") }
+	rps := show(revs, "rev/s")
+	nWord := num(c.n)
+
+	res := []Result{
+		{Name: "piston_area", Value: area, Dim: units.Area, Trace: Trace{
+			"A = π/4 · D²", "= π/4 · (" + mm(c.bore) + ")²"}},
+		{Name: "swept_volume", Value: swept, Dim: units.Volume, Trace: Trace{
+			"Vs = A · s", "= " + mm2(area) + " · " + mm(stroke)}},
+		{Name: "displacement", Value: disp, Dim: units.Volume, Trace: Trace{
+			"V_d = z · Vs", "= " + num(z) + " · " + cm3(swept)}},
+		{Name: "displacement_rate", Value: rate, Dim: units.VolumeFlow, Trace: Trace{
+			"V̇_d = V_d · N", "= " + cm3(disp) + " · " + rps}},
+		clearanceResult(c, swept),
+		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: Trace{
+			"CR = (Vs + Vc) / Vc", "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
+		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: Trace{
+			"r = p2 / p1", "= " + bara(c.p2) + " / " + bara(c.p1)}},
+		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: Trace{
+			"η_v = 1 − c·(r^(1/n) − 1)", "= 1 − " + num(c.clearanceRatio) + "·(" + num(r) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
+		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: Trace{
+			"FAD = η_v · V̇_d", "= " + num(ve) + " · " + show(rate*6e4, "L/min")}},
+		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: Trace{
+			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
+		{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
+			"T2 = T1 · r^((n−1)/n)", "= " + show(c.t1, "K") + " · " + num(r) + "^((" + nWord + " − 1)/" + nWord + ")"}},
+		{Name: "peak_piston_force", Value: (pTop - c.ambient) * area, Dim: units.Force, Trace: peakForceTrace(delivers, bara(pTop), bara(c.ambient), mm2(area))},
+		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: Trace{
+			"c_m = 2 · s · N", "= 2 · " + mm(stroke) + " · " + rps}},
+		{Name: "max_rod_angle", Value: math.Asin(c.crankRadius / c.rod), Dim: units.Angle, Trace: Trace{
+			"φ_max = asin(R / L)", "= asin(" + mm(c.crankRadius) + " / " + mm(c.rod) + ")"}},
+		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: workTrace(num(z), bara(c.p1), cm3(vi), num(r), c.n)},
+		{Name: "indicated_power", Value: power, Dim: units.Power, Trace: Trace{
+			"P_i = W · N", "= " + show(work, "J") + " · " + rps}},
+		{Name: "isothermal_power", Value: isoPower, Dim: units.Power, Trace: Trace{
+			"P_iso = z · p1 · Vi · ln r · N", "= " + num(z) + " · " + bara(c.p1) + " · " + cm3(vi) + " · ln " + num(r) + " · " + rps}},
+		{Name: "shaft_power", Value: power / c.etaMech, Dim: units.Power, Trace: Trace{
+			"P_s = P_i / η_m", "= " + show(power, "W") + " / " + num(c.etaMech)}},
+		{Name: "mean_torque", Value: meanTorque, Dim: units.Torque, Trace: Trace{
+			"T_m = W / 2π", "= " + show(work, "J") + " / 2π"}},
+		{Name: "peak_torque", Value: peakTorque, Dim: units.Torque, Trace: Trace{
+			"T_peak = max over θ of Σ −(p(θ) − p_amb)·A·dx/dθ",
+			fmt.Sprintf("= %s, over %d crank steps, %s", show(peakTorque, "N m"), steps, phasing(c.cylinders))}},
+		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: Trace{
+			"ΔE = max − min of ∫(T_m − T(θ)) dθ", "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
+	}
+
+	out := &Outcome{Results: res, Curves: compressorCurves(cyc, c, gas, steps)}
+	if !delivers {
+		out.Cautions = append(out.Cautions, CautionNote{Level: Danger, Rule: "no-delivery", Message: fmt.Sprintf(
+			"The discharge valve never opens: the discharge pressure %s is at or above the dead-head pressure %s "+
+				"(inlet pressure × compression ratio^n), so the cylinder delivers no air and only compresses and "+
+				"re-expands what it traps. Reduce the clearance volume or the discharge pressure.",
+			bara(c.p2), bara(pMax))})
+	}
+	return out, nil
+}
+
+// clearanceResult reports the clearance ratio, derived or as given.
+func clearanceResult(c compressorInput, swept float64) Result {
+	t := Trace{"c = Vc / Vs", "= " + show(c.clearanceVolume*1e6, "cm³") + " / " + show(swept*1e6, "cm³")}
+	if !c.clearanceGiven {
+		t = Trace{"c (given)", "= " + show(c.clearanceRatio, "")}
+	}
+	return Result{Name: "clearance_ratio", Value: c.clearanceRatio, Dim: units.Dimensionless, Trace: t}
+}
+
+// noDelivery annotates a volumetric efficiency that came out at or below zero.
+func noDelivery(delivers bool) string {
+	if delivers {
+		return ""
+	}
+	return " ≤ 0: no delivery, reported as 0"
+}
+
+// peakForceTrace shows the piston force at the top pressure of the cycle.
+func peakForceTrace(delivers bool, top, ambient, area string) Trace {
+	if delivers {
+		return Trace{"F = (p2 − p_amb) · A", "= (" + top + " − " + ambient + ") · " + area}
+	}
+	return Trace{"F = (p_max − p_amb) · A (no delivery: p_max < p2)", "= (" + top + " − " + ambient + ") · " + area}
+}
+
+// workTrace shows the indicated work per revolution, isothermal when n = 1.
+func workTrace(z, p1, vi, r string, n float64) Trace {
+	if n == 1 {
+		return Trace{"W = z · p1 · Vi · ln r, Vi = η_v · Vs", "= " + z + " · " + p1 + " · " + vi + " · ln " + r}
+	}
+	nw, nm1 := show(n, ""), show(n-1, "")
+	return Trace{"W = z · n/(n−1) · p1 · Vi · (r^((n−1)/n) − 1), Vi = η_v · Vs",
+		"= " + z + " · " + nw + "/" + nm1 + " · " + p1 + " · " + vi + " · (" + r + "^(" + nm1 + "/" + nw + ") − 1)"}
+}
+
+// phasing describes how the cylinders are spaced on the crank.
+func phasing(z int) string {
+	if z == 1 {
+		return "one cylinder"
+	}
+	return fmt.Sprintf("%d cylinders %s° apart", z, units.Format(360/float64(z), 4))
+}
+
+// crankSteps returns the number of crank-angle samples per revolution: the
+// least multiple of both cycleSteps and z, so that every cylinder's phase
+// falls on a sample.
+func crankSteps(z int) int {
+	a, b := cycleSteps, z
+	for b != 0 {
+		a, b = b, a%b
+	}
+	return cycleSteps / a * z
+}
+
+// sampleRevolution samples f at m equal steps of crank angle, θ_i = 2π·i/m.
+func sampleRevolution(m int, f func(theta float64) float64) []float64 {
+	out := make([]float64, m)
+	for i := range out {
+		out[i] = f(2 * math.Pi * float64(i) / float64(m))
+	}
+	return out
+}
+
+// phaseSum adds the curve of z evenly phased cylinders: cylinder k passes
+// TDC at 2π·k/z, so its value at step i is one's at step i − k·m/z.
+// len(one) must be a multiple of z.
+func phaseSum(one []float64, z int) []float64 {
+	m := len(one)
+	sum := make([]float64, m)
+	for k := range z {
+		shift := k * m / z
+		for i := range sum {
+			sum[i] += one[(i-shift+m)%m]
+		}
+	}
+	return sum
+}
+
+// excessEnergyRange integrates T_m − T(θ) over one revolution of periodic
+// samples (trapezoidal rule) and returns the lowest and highest running
+// value, counting the start as zero.
+func excessEnergyRange(torque []float64, mean float64) (low, high float64) {
+	h := 2 * math.Pi / float64(len(torque))
+	e := 0.0
+	for i := range torque {
+		next := torque[(i+1)%len(torque)]
+		e += h * (2*mean - torque[i] - next) / 2
+		low, high = math.Min(low, e), math.Max(high, e)
+	}
+	return low, high
+}
+
+// compressorCurves returns the p-V diagram of one cylinder with its
+// isothermal compression line, and the crankshaft torque curves.
+func compressorCurves(cyc *indicatorCycle, c compressorInput, gas []float64, steps int) []Curve {
+	stride := steps / curvePoints
+	pick := func(f func(i int) float64) []float64 {
+		out := make([]float64, 0, curvePoints+1)
+		for i := 0; i <= steps; i += stride {
+			out = append(out, f(i%steps))
+		}
+		return out
+	}
+	angle := func(i int) float64 { return 2 * math.Pi * float64(i) / float64(steps) }
+	pv := Curve{Name: "pv", XDim: units.Volume, YDim: units.Pressure,
+		X: pick(func(i int) float64 { return cyc.volume(angle(i)) }),
+		Y: pick(func(i int) float64 { return cyc.pressure(angle(i)) })}
+
+	// Isothermal compression from bottom dead centre to the discharge
+	// pressure (or to the clearance volume, whichever comes first).
+	bottom := cyc.clearance + 2*c.crankRadius*cyc.area
+	end := math.Max(bottom*c.p1/c.p2, cyc.clearance)
+	iso := Curve{Name: "isothermal", XDim: units.Volume, YDim: units.Pressure, Dashed: true}
+	const isoPoints = 100
+	for i := range isoPoints + 1 {
+		v := bottom + (end-bottom)*float64(i)/isoPoints
+		iso.X = append(iso.X, v)
+		iso.Y = append(iso.Y, c.p1*bottom/v)
+	}
+
+	theta := pick(angle)
+	curves := []Curve{pv, iso, {Name: "gas_torque", XDim: units.Angle, YDim: units.Torque,
+		X: theta, Y: pick(func(i int) float64 { return gas[i] })}}
+	if c.mass > 0 {
+		inertia := phaseSum(sampleRevolution(steps, func(t float64) float64 {
+			return cyc.inertiaTorque(t, c.mass, c.omega)
+		}), c.cylinders)
+		curves = append(curves,
+			Curve{Name: "inertia_torque", XDim: units.Angle, YDim: units.Torque,
+				X: theta, Y: pick(func(i int) float64 { return inertia[i] })},
+			Curve{Name: "total_torque", XDim: units.Angle, YDim: units.Torque,
+				X: theta, Y: pick(func(i int) float64 { return gas[i] + inertia[i] })})
+	}
+	return curves
+}
