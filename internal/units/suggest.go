@@ -7,11 +7,20 @@ import "strings"
 // considered (all when accept is nil). A spelling that differs only in case
 // wins; otherwise the smallest edit distance, at most 1 for keys of up to
 // three letters and 2 for longer ones, ties going to the earlier table row.
+// A pressure mark on a unit that takes none ("atm(g)", "degC(a)") suggests
+// the unit without it.
 func suggest(key string, accept func(Unit) bool) string {
 	if key == "" {
 		return ""
 	}
 	ok := func(e indexEntry) bool { return e.key != "" && (accept == nil || accept(e.unit)) }
+	for _, mark := range []string{"(a)", "(g)"} {
+		if base, found := strings.CutSuffix(key, mark); found {
+			if u, known := unitIndex[base]; known && ok(indexEntry{base, u}) {
+				return base
+			}
+		}
+	}
 	for _, e := range unitSpellings {
 		if ok(e) && strings.EqualFold(e.key, key) {
 			return e.key
