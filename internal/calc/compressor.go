@@ -3,6 +3,7 @@ package calc
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"specgen/internal/units"
 )
@@ -192,12 +193,17 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 	return c, nil
 }
 
-// show formats a value already scaled to unit at 4 significant figures.
+// show formats a value already scaled to unit at 4 significant figures,
+// without trailing zeros after the decimal point ("28 mm", "1.013 bar(a)").
 func show(v float64, unit string) string {
-	if unit == "" {
-		return units.Format(v, 4)
+	s := units.Format(v, 4)
+	if strings.Contains(s, ".") && !strings.Contains(s, "e") {
+		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
 	}
-	return units.Format(v, 4) + " " + unit
+	if unit == "" {
+		return s
+	}
+	return s + " " + unit
 }
 
 // polytropicWork returns the work to compress a volume v drawn in at p1

@@ -1,0 +1,435 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/units"
+)
+
+// standardAtmosphere is the ambient pressure of the reference cases unless
+// a case sets its own (ISO 2533: 101 325 Pa).
+const standardAtmosphere = 101325.0
+
+// compressorCase is one testdata/reference/compressor/*.toml file: a worked
+// example with its inputs as a user writes them and the results to check.
+type compressorCase struct {
+	Source      string
+	FromMemory  bool `toml:"from_memory"`
+	Note        string
+	Ambient     string  // optional, a pressure
+	GasConstant float64 `toml:"gas_constant"` // J/(kg K), for checks per kg drawn in
+	Inputs      map[string]any
+	Check       []struct {
+		Result    string
+		Basis     string // "" or "inlet_mass": divide by the mass drawn in
+		Value     string
+		Tolerance string // "0.5%" or an absolute quantity
+	}
+}
+
+// caseInputs turns input strings into validated SI inputs the way a block's
+// decoder does: parse each per its InputSpec, pressures absolute against
+// ambient, defaults filled, ranges checked.
+func caseInputs(k Kind, raw map[string]any, ambient float64) (*Inputs, error) {
+	in := NewInputs(ambient, nil)
+	known := map[string]bool{}
+	for _, spec := range k.Inputs {
+		known[spec.Name] = true
+		text, given := "", false
+		if v, ok := raw[spec.Name]; ok {
+			text, given = fmt.Sprint(v), true
+		} else if spec.Default != "" {
+			text = spec.Default
+		} else if spec.Optional {
+			continue
+		} else {
+			return nil, fmt.Errorf("%s: missing", spec.Name)
+		}
+		q, err := units.Parse(text, spec.Dim)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", spec.Name, err)
+		}
+		v := q.Absolute(ambient)
+		if !spec.Range.Contains(v) {
+			return nil, fmt.Errorf("%s: %s out of range", spec.Name, text)
+		}
+		in.Set(spec.Name, v, given)
+	}
+	for name := range raw {
+		if !known[name] {
+			return nil, fmt.Errorf("%s: unknown input", name)
+		}
+	}
+	return in, nil
+}
+
+// evaluateCase evaluates the compressor kind on raw inputs.
+func evaluateCase(t testing.TB, raw map[string]any, ambient float64) (*Inputs, *Outcome) {
+	t.Helper()
+	in, err := caseInputs(compressorKind, raw, ambient)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, err := compressorKind.Evaluate(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return in, out
+}
+
+// resultMap indexes an outcome's results by name.
+func resultMap(out *Outcome) map[string]Result {
+	m := map[string]Result{}
+	for _, r := range out.Results {
+		m[r.Name] = r
+	}
+	return m
+}
+
+// checkWellFormed checks that the outcome has every declared result, in
+// order, each finite and with a trace.
+func checkWellFormed(t *testing.T, label string, out *Outcome) {
+	t.Helper()
+	if len(out.Results) != len(compressorKind.Results) {
+		t.Fatalf("%s: %d results, %d declared", label, len(out.Results), len(compressorKind.Results))
+	}
+	for i, spec := range compressorKind.Results {
+		r := out.Results[i]
+		if r.Name != spec.Name || r.Dim != spec.Dim {
+			t.Errorf("%s: result %d is %s (%v), declared %s (%v)", label, i, r.Name, r.Dim, spec.Name, spec.Dim)
+		}
+		if math.IsNaN(r.Value) || math.IsInf(r.Value, 0) {
+			t.Errorf("%s: %s = %g", label, r.Name, r.Value)
+		}
+		if r.Trace.Formula == "" || !strings.HasPrefix(r.Trace.Substituted, "= ") ||
+			strings.Contains(r.Trace.Substituted, "NaN") || strings.Contains(r.Trace.Substituted, "Inf") {
+			t.Errorf("%s: %s has trace %q / %q", label, r.Name, r.Trace.Formula, r.Trace.Substituted)
+		}
+	}
+	for _, c := range out.Curves {
+		for i := range c.X {
+			if math.IsNaN(c.X[i]+c.Y[i]) || math.IsInf(c.X[i]+c.Y[i], 0) {
+				t.Fatalf("%s: curve %s point %d is (%g, %g)", label, c.Name, i, c.X[i], c.Y[i])
+			}
+		}
+	}
+}
+
+func TestCompressorReference(t *testing.T) {
+	files, err := filepath.Glob("../../testdata/reference/compressor/*.toml")
+	if err != nil || len(files) < 3 {
+		t.Fatalf("want at least three reference cases, found %d (%v)", len(files), err)
+	}
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			var c compressorCase
+			md, err := toml.DecodeFile(f, &c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if un := md.Undecoded(); len(un) > 0 {
+				t.Fatalf("unknown keys %v", un)
+			}
+			if c.Source == "" || c.Note == "" || len(c.Check) == 0 {
+				t.Fatal("a case needs a source, a note and checks")
+			}
+			ambient := standardAtmosphere
+			if c.Ambient != "" {
+				q, err := units.Parse(c.Ambient, units.Pressure)
+				if err != nil {
+					t.Fatal(err)
+				}
+				ambient = q.Absolute(0)
+			}
+			in, out := evaluateCase(t, c.Inputs, ambient)
+			checkWellFormed(t, filepath.Base(f), out)
+			got := resultMap(out)
+			for _, ch := range c.Check {
+				r, ok := got[ch.Result]
+				if !ok {
+					t.Errorf("no result %q", ch.Result)
+					continue
+				}
+				v, dim := r.Value, r.Dim
+				switch ch.Basis {
+				case "":
+				case "inlet_mass":
+					v, dim = perInletMass(t, r, got, in, c.GasConstant), units.SpecificEnergy
+				default:
+					t.Fatalf("%s: unknown basis %q", ch.Result, ch.Basis)
+				}
+				want, err := units.Parse(ch.Value, dim)
+				if err != nil {
+					t.Fatalf("%s: %v", ch.Result, err)
+				}
+				wantSI := want.Absolute(ambient)
+				tol := tolerance(t, ch.Tolerance, dim, wantSI)
+				t.Logf("%s = %.6g SI, want %.6g ± %.3g", ch.Result, v, wantSI, tol)
+				if math.Abs(v-wantSI) > tol {
+					t.Errorf("%s = %.6g SI, want %s = %.6g SI ± %.3g (%s)", ch.Result, v, ch.Value, wantSI, tol, c.Source)
+				}
+			}
+		})
+	}
+}
+
+// perInletMass divides a work per revolution, or a power, by the mass of
+// air drawn in per revolution, or per second: m = p1·η_v·V_d / (R·T1).
+func perInletMass(t *testing.T, r Result, got map[string]Result, in *Inputs, gasConstant float64) float64 {
+	t.Helper()
+	if gasConstant <= 0 {
+		t.Fatal("basis inlet_mass needs gas_constant")
+	}
+	p1 := in.Ambient
+	if in.Has("inlet_pressure") {
+		p1 = in.Value("inlet_pressure")
+	}
+	perRev := p1 * got["volumetric_efficiency"].Value * got["displacement"].Value /
+		(gasConstant * in.Value("inlet_temperature"))
+	switch r.Dim {
+	case units.Energy:
+		return r.Value / perRev
+	case units.Power:
+		return r.Value / (perRev * in.Value("speed") / (2 * math.Pi))
+	}
+	t.Fatalf("%s: basis inlet_mass applies to a work or a power", r.Name)
+	return 0
+}
+
+// tolerance reads "0.5%" (of want) or an absolute quantity; temperatures
+// and pressures are read as differences.
+func tolerance(t *testing.T, s string, dim units.Dimension, want float64) float64 {
+	t.Helper()
+	if pct, ok := strings.CutSuffix(strings.TrimSpace(s), "%"); ok {
+		q, err := units.Parse(pct, units.Dimensionless)
+		if err != nil {
+			t.Fatalf("tolerance %q: %v", s, err)
+		}
+		return math.Abs(want) * q.Value / 100
+	}
+	switch dim {
+	case units.Temperature:
+		dim = units.TemperatureDifference
+	case units.Pressure:
+		dim = units.Stress
+	}
+	q, err := units.Parse(s, dim)
+	if err != nil {
+		t.Fatalf("tolerance %q: %v", s, err)
+	}
+	return q.Value
+}
+
+// benchBlock is a two-cylinder bench compressor with a reciprocating mass,
+// so that every curve is computed.
+func benchBlock() map[string]any {
+	return map[string]any{
+		"bore": "28 mm", "stroke": "32 mm", "rod_length": "70 mm",
+		"clearance_volume": "1.5 cm3", "cylinders": 2, "speed": "1500 rpm",
+		"discharge_pressure": "6 bar", "reciprocating_mass": "85 g",
+	}
+}
+
+// withInputs returns benchBlock with some inputs replaced or removed (nil).
+func withInputs(changes map[string]any) map[string]any {
+	raw := benchBlock()
+	for k, v := range changes {
+		if v == nil {
+			delete(raw, k)
+		} else {
+			raw[k] = v
+		}
+	}
+	return raw
+}
+
+func TestCompressorNoDelivery(t *testing.T) {
+	// c = 0.5: dead-head p1·3^1.3 = 4.17 bar(a), below 10 bar(a).
+	_, out := evaluateCase(t, withInputs(map[string]any{
+		"clearance_volume": nil, "clearance_ratio": 0.5, "discharge_pressure": "10 bar(a)",
+	}), standardAtmosphere)
+	checkWellFormed(t, "no delivery", out)
+	got := resultMap(out)
+	for _, name := range []string{"volumetric_efficiency", "free_air_delivery", "indicated_work", "indicated_power", "isothermal_power", "shaft_power", "mean_torque"} {
+		if v := got[name].Value; v != 0 {
+			t.Errorf("%s = %g with no delivery, want 0", name, v)
+		}
+	}
+	dead := standardAtmosphere * math.Pow(3, 1.3)
+	if v := got["max_pressure"].Value; math.Abs(v-dead) > 1e-9*dead {
+		t.Errorf("max_pressure = %g Pa, want p1·CR^n = %g Pa", v, dead)
+	}
+	// The piston never sees more than the dead-head pressure.
+	area := got["piston_area"].Value
+	if v, want := got["peak_piston_force"].Value, (dead-standardAtmosphere)*area; math.Abs(v-want) > 1e-9*want {
+		t.Errorf("peak_piston_force = %g N, want (p_max − p_amb)·A = %g N", v, want)
+	}
+	if len(out.Cautions) != 1 || out.Cautions[0].Level != Danger || out.Cautions[0].Rule != "no-delivery" ||
+		!strings.Contains(out.Cautions[0].Message, "10 bar(a)") || !strings.Contains(out.Cautions[0].Message, show(dead/1e5, "bar(a)")) {
+		t.Errorf("cautions = %+v, want one DANGER no-delivery naming 10 bar(a) and the dead-head pressure", out.Cautions)
+	}
+}
+
+func TestCompressorDeliveringHasNoCaution(t *testing.T) {
+	_, out := evaluateCase(t, benchBlock(), standardAtmosphere)
+	checkWellFormed(t, "bench", out)
+	if len(out.Cautions) != 0 {
+		t.Errorf("cautions = %+v, want none", out.Cautions)
+	}
+}
+
+// TestCompressorIsothermal: n = 1 is the isothermal limit, T2 = T1 and the
+// indicated power equals the isothermal power (any thermodynamics text).
+func TestCompressorIsothermal(t *testing.T) {
+	in, out := evaluateCase(t, withInputs(map[string]any{"polytropic_index": 1}), standardAtmosphere)
+	checkWellFormed(t, "n = 1", out)
+	got := resultMap(out)
+	if v, want := got["discharge_temperature"].Value, in.Value("inlet_temperature"); math.Abs(v-want) > 1e-9 {
+		t.Errorf("discharge_temperature = %g K, want T1 = %g K", v, want)
+	}
+	if v, want := got["indicated_power"].Value, got["isothermal_power"].Value; math.Abs(v-want) > 1e-12*want {
+		t.Errorf("indicated_power = %g W, isothermal_power = %g W; equal at n = 1", v, want)
+	}
+	// Just above 1 the polytropic work tends to the isothermal one.
+	_, near := evaluateCase(t, withInputs(map[string]any{"polytropic_index": 1.000001}), standardAtmosphere)
+	if v, want := resultMap(near)["indicated_power"].Value, got["indicated_power"].Value; math.Abs(v-want) > 1e-5*want {
+		t.Errorf("indicated_power at n = 1.000001 is %g W, at n = 1 %g W", v, want)
+	}
+}
+
+func TestCompressorInputErrors(t *testing.T) {
+	cases := []struct {
+		changes map[string]any
+		key     string
+		says    []string
+	}{
+		{map[string]any{"rod_length": "15 mm"}, "rod_length", []string{"15 mm", "16 mm"}},
+		{map[string]any{"rod_length": "16 mm"}, "rod_length", []string{"16 mm"}},
+		{map[string]any{"crank_radius": "16 mm"}, "stroke", []string{"not both"}},
+		{map[string]any{"stroke": nil}, "stroke", []string{"crank_radius"}},
+		{map[string]any{"clearance_ratio": 0.05}, "clearance_volume", []string{"not both"}},
+		{map[string]any{"clearance_volume": nil}, "clearance_volume", []string{"clearance_ratio"}},
+		{map[string]any{"cylinders": 1.5}, "cylinders", []string{"1.5", "whole number"}},
+		{map[string]any{"discharge_pressure": "1 bar(a)"}, "discharge_pressure", []string{"1 bar(a)", "1.013 bar(a)"}},
+		{map[string]any{"discharge_pressure": "2 bar(a)", "inlet_pressure": "2 bar(a)"}, "discharge_pressure", []string{"2 bar(a)"}},
+	}
+	for _, c := range cases {
+		in, err := caseInputs(compressorKind, withInputs(c.changes), standardAtmosphere)
+		if err != nil {
+			t.Fatalf("%v: %v", c.changes, err)
+		}
+		out, err := compressorKind.Evaluate(in)
+		var ie *InputError
+		if !errors.As(err, &ie) || out != nil {
+			t.Errorf("%v: got %v, %v; want an *InputError", c.changes, out, err)
+			continue
+		}
+		if ie.Key != c.key {
+			t.Errorf("%v: error blames %q, want %q", c.changes, ie.Key, c.key)
+		}
+		for _, s := range c.says {
+			if !strings.Contains(ie.Message, s) {
+				t.Errorf("%v: message %q does not say %q", c.changes, ie.Message, s)
+			}
+		}
+	}
+}
+
+// TestCompressorCrankshaftTorque: summed over evenly phased cylinders, the
+// sampled gas torque averages to the mean torque W/2π, the inertia torque
+// to zero (its integral is the change of kinetic energy over a period),
+// and crank_radius is the same as half the stroke.
+func TestCompressorCrankshaftTorque(t *testing.T) {
+	for _, z := range []int{1, 2, 3, 7} {
+		_, out := evaluateCase(t, withInputs(map[string]any{"cylinders": z}), standardAtmosphere)
+		checkWellFormed(t, fmt.Sprint(z, " cylinders"), out)
+		got := resultMap(out)
+		curves := map[string]Curve{}
+		for _, c := range out.Curves {
+			curves[c.Name] = c
+		}
+		for _, name := range []string{"pv", "isothermal", "gas_torque", "inertia_torque", "total_torque"} {
+			if len(curves[name].X) < 2 || len(curves[name].X) != len(curves[name].Y) {
+				t.Fatalf("z=%d: curve %s missing or ragged", z, name)
+			}
+		}
+		if !curves["isothermal"].Dashed {
+			t.Errorf("isothermal curve is not dashed")
+		}
+		mean := func(c Curve) float64 { // the last point repeats the first
+			s := 0.0
+			for _, y := range c.Y[:len(c.Y)-1] {
+				s += y
+			}
+			return s / float64(len(c.Y)-1)
+		}
+		tm := got["mean_torque"].Value
+		if v := mean(curves["gas_torque"]); math.Abs(v-tm) > 1e-3*tm {
+			t.Errorf("z=%d: mean of gas_torque curve %g N m, mean_torque %g N m", z, v, tm)
+		}
+		if v := mean(curves["inertia_torque"]); math.Abs(v) > 1e-6*got["peak_torque"].Value {
+			t.Errorf("z=%d: inertia torque averages %g N m, want 0", z, v)
+		}
+		if got["peak_torque"].Value < tm || got["energy_fluctuation"].Value <= 0 {
+			t.Errorf("z=%d: peak_torque %g N m below mean %g N m or energy_fluctuation %g J not positive",
+				z, got["peak_torque"].Value, tm, got["energy_fluctuation"].Value)
+		}
+	}
+	_, byStroke := evaluateCase(t, benchBlock(), standardAtmosphere)
+	_, byRadius := evaluateCase(t, withInputs(map[string]any{"stroke": nil, "crank_radius": "16 mm"}), standardAtmosphere)
+	for i, r := range byStroke.Results {
+		if r.Value != byRadius.Results[i].Value {
+			t.Errorf("%s: %g from stroke, %g from crank_radius", r.Name, r.Value, byRadius.Results[i].Value)
+		}
+	}
+}
+
+// TestExcessEnergySinusoid: for T = T_m + a·sin kθ the running excess
+// energy ∫(T_m − T)dθ = (a/k)(cos kθ − 1) swings by 2a/k.
+func TestExcessEnergySinusoid(t *testing.T) {
+	for _, k := range []float64{1, 2, 3} {
+		const tm, a = 4.0, 1.5
+		torque := sampleRevolution(cycleSteps, func(th float64) float64 { return tm + a*math.Sin(k*th) })
+		low, high := excessEnergyRange(torque, tm)
+		if want := 2 * a / k; math.Abs(high-low-want) > 1e-6*want {
+			t.Errorf("k=%g: swing %g J, want 2a/k = %g J", k, high-low, want)
+		}
+	}
+}
+
+// TestPhaseSum: evenly phased sinusoids cancel (the z-th roots of unity sum
+// to zero) and a constant adds up z times.
+func TestPhaseSum(t *testing.T) {
+	for _, z := range []int{2, 3, 5, 8} {
+		m := crankSteps(z)
+		if m%z != 0 || m%curvePoints != 0 || m < cycleSteps {
+			t.Fatalf("z=%d: %d steps", z, m)
+		}
+		sum := phaseSum(sampleRevolution(m, func(th float64) float64 { return 1 + math.Sin(th) }), z)
+		for i, v := range sum {
+			if math.Abs(v-float64(z)) > 1e-12*float64(z) {
+				t.Fatalf("z=%d: sum at step %d is %g, want %d", z, i, v, z)
+			}
+		}
+	}
+}
+
+func BenchmarkCompressorEvaluate(b *testing.B) {
+	in, err := caseInputs(compressorKind, benchBlock(), standardAtmosphere)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := compressorKind.Evaluate(in); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
