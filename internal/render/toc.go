@@ -34,14 +34,17 @@ func (d *Document) Headings(maxLevel int) []Heading {
 	return out
 }
 
-// Title returns the text of the first level-1 heading, or "".
-func (d *Document) Title() string {
-	for n := d.Root.FirstChild(); n != nil; n = n.NextSibling() {
-		if h, ok := n.(*ast.Heading); ok && h.Level == 1 {
-			return plainText(h, d.Source)
-		}
+// TakeTitle removes a level-1 heading that opens the document and returns
+// its text, or "" when the document does not open with one. The layout shows
+// the page title itself, so the body must not repeat it.
+func (d *Document) TakeTitle() string {
+	first := d.Root.FirstChild()
+	h, ok := first.(*ast.Heading)
+	if !ok || h.Level != 1 {
+		return ""
 	}
-	return ""
+	d.Root.RemoveChild(d.Root, h)
+	return plainText(h, d.Source)
 }
 
 // plainText is the text content of a node, without markup.

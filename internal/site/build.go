@@ -2,6 +2,7 @@ package site
 
 import (
 	"bytes"
+	"cmp"
 	"fmt"
 	"html/template"
 	"path/filepath"
@@ -190,6 +191,7 @@ type SiteData struct {
 // PageInfo describes the current page for templates.
 type PageInfo struct {
 	Title       string
+	Heading     string // the visible h1: the page's own heading, else the title
 	Description string
 	Source      string // the Markdown file, relative to the site root
 	URL         string // the page's own output path from the site root
@@ -207,6 +209,7 @@ func (s *Site) renderPage(p *Page) ([]byte, error) {
 		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + "index.html"},
 		Page: PageInfo{
 			Title:       p.Title,
+			Heading:     cmp.Or(p.Heading, p.Title),
 			Description: p.Front.Description,
 			Source:      p.File,
 			URL:         p.Out,

@@ -51,7 +51,7 @@ func LoadConfig(root string) (Config, error) {
 	text := string(src)
 	md, err := toml.Decode(text, &cfg)
 	if err != nil {
-		return cfg, tomlError(ConfigFile, 0, err, "site configuration")
+		return cfg, tomlError(ConfigFile, 0, text, err, "site configuration")
 	}
 	lines := calc.KeyLines(text)
 	var errs ErrorList

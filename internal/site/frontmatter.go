@@ -58,7 +58,7 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 	lines := calc.KeyLines(text)
 	md, err := toml.Decode(text, &fm)
 	if err != nil {
-		return fm, nil, nil, 0, tomlError(file, 1, err, "front matter")
+		return fm, nil, nil, 0, tomlError(file, 1, text, err, "front matter")
 	}
 	var errs ErrorList
 	for _, k := range md.Undecoded() {
@@ -77,14 +77,19 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 
 // tomlError turns a TOML decoding error into an Error at the right file
 // line. base is the file line of the document's first line, minus one.
-func tomlError(file string, base int, err error, what string) error {
+func tomlError(file string, base int, text string, err error, what string) error {
 	var pe toml.ParseError
 	if errors.As(err, &pe) {
+		line := max(pe.Position.Line, 1)
+		// The parser counts a newline it stopped at as the next line.
+		if s := pe.Position.Start; s > 0 && s <= len(text) {
+			line = strings.Count(text[:s], "\n") + 1
+		}
 		msg := pe.Message
 		if pe.LastKey != "" && !strings.Contains(msg, pe.LastKey) {
 			msg = pe.LastKey + ": " + msg
 		}
-		return &Error{File: file, Line: base + max(pe.Position.Line, 1), Msg: what + ": " + msg}
+		return &Error{File: file, Line: base + line, Msg: what + ": " + msg}
 	}
 	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
 }

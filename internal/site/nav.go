@@ -122,7 +122,12 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 		}
 		return out
 	}
-	return items(root, 0)
+	top := items(root, 0)
+	if root.Page != nil {
+		home := NavItem{Title: root.Page.Title, URL: rootPrefix + root.Page.Out, Current: root.Page == p}
+		top = append([]NavItem{home}, top...)
+	}
+	return top
 }
 
 // breadcrumbsFor lists the folders above p, from the home page down.

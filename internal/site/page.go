@@ -24,7 +24,8 @@ type Page struct {
 	Front FrontMatter
 	// frontLines maps front-matter keys to their TOML line (file line - 1).
 	frontLines map[string]int
-	Title      string
+	Title      string // for navigation and <title>
+	Heading    string // the page's own level-1 heading, if it opens with one
 	Doc        *render.Document
 }
 
@@ -97,9 +98,10 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 	}
 	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
 	p.Doc = md.Parse(body, offset)
+	p.Heading = p.Doc.TakeTitle()
 	p.Title = fm.Title
 	if p.Title == "" {
-		p.Title = p.Doc.Title()
+		p.Title = p.Heading
 	}
 	if p.Title == "" {
 		p.Title = titleFromName(rel)

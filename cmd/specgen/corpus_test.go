@@ -1,0 +1,136 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// corpusCase is one file of testdata/bad: a small site and what specgen
+// must say about it. Layout:
+//
+//	# what the case is about
+//	exit 2
+//	want <a substring of the messages>   (any number of lines)
+//	args <command line, default: build>  (optional)
+//	-- path/in/site --
+//	file content; the four characters \xff stand for that byte
+type corpusCase struct {
+	exit  int
+	wants []string
+	args  []string
+	files map[string][]byte
+}
+
+func readCase(t *testing.T, path string) corpusCase {
+	t.Helper()
+	src, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := corpusCase{exit: -1, files: map[string][]byte{}, args: []string{"build"}}
+	var current string
+	for _, line := range strings.SplitAfter(string(src), "\n") {
+		trimmed := strings.TrimRight(line, "\r\n")
+		if strings.HasPrefix(trimmed, "-- ") && strings.HasSuffix(trimmed, " --") {
+			current = strings.TrimSuffix(strings.TrimPrefix(trimmed, "-- "), " --")
+			c.files[current] = nil
+			continue
+		}
+		if current != "" {
+			c.files[current] = append(c.files[current], strings.ReplaceAll(line, `\xff`, "\xff")...)
+			continue
+		}
+		switch {
+		case strings.HasPrefix(trimmed, "exit "):
+			c.exit, err = strconv.Atoi(strings.TrimPrefix(trimmed, "exit "))
+			if err != nil {
+				t.Fatalf("%s: bad exit line", path)
+			}
+		case strings.HasPrefix(trimmed, "want "):
+			c.wants = append(c.wants, strings.TrimPrefix(trimmed, "want "))
+		case strings.HasPrefix(trimmed, "args "):
+			c.args = strings.Fields(strings.TrimPrefix(trimmed, "args "))
+		}
+	}
+	if c.exit < 0 || len(c.wants) == 0 || len(c.files) == 0 {
+		t.Fatalf("%s: a case needs an exit line, want lines and files", path)
+	}
+	return c
+}
+
+// TestBadInputCorpus runs every case of testdata/bad: each must exit with
+// its status, say what it promises, never panic, never show NaN, and leave
+// no output folder behind.
+// leak matches what must never reach a user: a Go panic or a non-number.
+var leak = regexp.MustCompile(`panic|goroutine \d|\bNaN\b|[+-]?\bInf\b`)
+
+func TestBadInputCorpus(t *testing.T) {
+	paths, err := filepath.Glob(filepath.Join("..", "..", "testdata", "bad", "*.txtar"))
+	if err != nil || len(paths) == 0 {
+		t.Fatalf("no corpus: %v", err)
+	}
+	for _, path := range paths {
+		name := strings.TrimSuffix(filepath.Base(path), ".txtar")
+		t.Run(name, func(t *testing.T) {
+			c := readCase(t, path)
+			root := t.TempDir()
+			for rel, data := range c.files {
+				p := filepath.Join(root, filepath.FromSlash(rel))
+				if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+					t.Fatal(err)
+				}
+				if err := os.WriteFile(p, data, 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
+			args := append(append([]string{}, c.args...), "-C", root)
+			var stdout, stderr bytes.Buffer
+			code := run(args, &stdout, &stderr)
+			msg := stderr.String()
+			if code != c.exit {
+				t.Errorf("exit %d, want %d; stderr:\n%s", code, c.exit, msg)
+			}
+			for _, w := range c.wants {
+				if !strings.Contains(msg, w) {
+					t.Errorf("stderr lacks %q; got:\n%s", w, msg)
+				}
+			}
+			if m := leak.FindString(msg + stdout.String()); m != "" {
+				t.Errorf("output holds %q:\n%s", m, msg)
+			}
+			if c.exit == exitBadInput {
+				if _, err := os.Stat(filepath.Join(root, "dist")); err == nil {
+					t.Error("a failed build left an output folder")
+				}
+			}
+		})
+	}
+}
+
+func TestUsage(t *testing.T) {
+	cases := []struct {
+		args []string
+		code int
+		want string
+	}{
+		{nil, exitBadInput, "Commands:"},
+		{[]string{"frobnicate"}, exitBadInput, `unknown command "frobnicate"`},
+		{[]string{"help"}, exitOK, "build"},
+		{[]string{"help", "build"}, exitOK, "-out"},
+		{[]string{"build", "-nosuchflag"}, exitBadInput, "flag provided but not defined"},
+		{[]string{"build", "stray"}, exitBadInput, `unexpected argument "stray"`},
+		{[]string{"version"}, exitOK, "specgen "},
+	}
+	for _, c := range cases {
+		var stdout, stderr bytes.Buffer
+		code := run(c.args, &stdout, &stderr)
+		if code != c.code || !strings.Contains(stdout.String()+stderr.String(), c.want) {
+			t.Errorf("specgen %v: exit %d, output %q; want exit %d and %q", c.args, code, stdout.String()+stderr.String(), c.code, c.want)
+		}
+	}
+}

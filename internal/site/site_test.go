@@ -1,0 +1,303 @@
+package site
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"flag"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"regexp"
+	"sort"
+	"strings"
+	"testing"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
+
+// copyTree copies a folder, so tests never write into testdata/.
+func copyTree(t testing.TB, src, dst string) {
+	t.Helper()
+	err := filepath.WalkDir(src, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(src, p)
+		target := filepath.Join(dst, rel)
+		if d.IsDir() {
+			return os.MkdirAll(target, 0o755)
+		}
+		b, err := os.ReadFile(p)
+		if err != nil {
+			return err
+		}
+		return os.WriteFile(target, b, 0o644)
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+}
+
+// readTree returns every file under dir, keyed by slash path.
+func readTree(t testing.TB, dir string) map[string][]byte {
+	t.Helper()
+	files := map[string][]byte{}
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		b, err := os.ReadFile(p)
+		files[filepath.ToSlash(rel)] = b
+		return err
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return files
+}
+
+func treeHash(t testing.TB, dir string) string {
+	files := readTree(t, dir)
+	names := sortedKeys(files)
+	h := sha256.New()
+	for _, n := range names {
+		h.Write([]byte(n + "\x00"))
+		h.Write(files[n])
+		h.Write([]byte{0})
+	}
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+func buildCopy(t *testing.T, fixture string) (root string) {
+	t.Helper()
+	root = t.TempDir()
+	copyTree(t, filepath.Join("..", "..", "testdata", "site", fixture), root)
+	return root
+}
+
+// TestGoldenPages compares every output file of the small test site with
+// testdata/site/basic.golden/. Run with -update to accept new output.
+func TestGoldenPages(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	got := readTree(t, filepath.Join(root, DefaultOut))
+	golden := filepath.Join("..", "..", "testdata", "site", "basic.golden")
+	if *update {
+		if err := os.RemoveAll(golden); err != nil {
+			t.Fatal(err)
+		}
+		for name, data := range got {
+			p := filepath.Join(golden, filepath.FromSlash(name))
+			if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(p, data, 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+		return
+	}
+	want := readTree(t, golden)
+	for _, name := range sortedKeys(want) {
+		if !bytes.Equal(got[name], want[name]) {
+			t.Errorf("%s differs from the golden file (run go test ./internal/site -run TestGoldenPages -update to accept)", name)
+		}
+	}
+	for _, name := range sortedKeys(got) {
+		if _, ok := want[name]; !ok {
+			t.Errorf("%s is new output without a golden file", name)
+		}
+	}
+}
+
+func TestPageLayout(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(root, DefaultOut)
+	read := func(name string) string {
+		b, err := os.ReadFile(filepath.Join(out, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return string(b)
+	}
+	setup := read("guide/setup.html")
+	for _, want := range []string{
+		`&lt;b&gt;raw&lt;/b&gt;`,           // inline raw HTML escaped
+		`&lt;div class=&quot;x&quot;&gt;`,  // block raw HTML escaped
+		`<a href="../index.html">Home</a>`, // breadcrumb and navigation, relative
+		`rel="prev"`, `rel="next"`,         // previous and next
+		`<a href="#wiring">Wiring</a>`,                       // in-page table of contents
+		`class="hl-chroma"`,                                  // highlighted code
+		`plain text, not guessed`,                            // unknown language shown plain
+		`href="../assets/specgen.css"`,                       // stylesheet relative to the page
+		`<a href="../guide/setup.html" aria-current="page">`, // current page marked
+	} {
+		if !strings.Contains(setup, want) {
+			t.Errorf("guide/setup.html lacks %s", want)
+		}
+	}
+	if strings.Contains(setup, "<b>raw</b>") || strings.Contains(setup, `<div class="x">`) {
+		t.Error("raw HTML reached the page unescaped")
+	}
+	if strings.Contains(setup, "javascript:") {
+		t.Error("a javascript: link reached the page")
+	}
+	index := read("index.html")
+	for _, want := range []string{`href="guide/index.html"`, `href="guide/setup.html#wiring"`, `href="https://example.org/spec.md"`, `class="footnote-ref"`, `<table>`} {
+		if !strings.Contains(index, want) {
+			t.Errorf("index.html lacks %s", want)
+		}
+	}
+	if got := read("notes.txt"); got != "plain static file\n" {
+		t.Errorf("static file copied as %q", got)
+	}
+	teardown := read("guide/teardown.html")
+	if !strings.Contains(teardown, "<title>Teardown &amp; storage · Test Bench Notes</title>") {
+		t.Error("title from the first heading missing or unescaped")
+	}
+}
+
+func TestRawHTMLAllowedByConfig(t *testing.T) {
+	root := buildCopy(t, "basic")
+	cfg := "title = \"T\"\n[markdown]\nraw_html = true\n"
+	if err := os.WriteFile(filepath.Join(root, ConfigFile), []byte(cfg), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	b, _ := os.ReadFile(filepath.Join(root, DefaultOut, "guide", "setup.html"))
+	if !bytes.Contains(b, []byte("<b>raw</b>")) {
+		t.Error("raw_html = true did not let raw HTML through")
+	}
+}
+
+func TestRebuildIsByteIdentical(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	first := treeHash(t, filepath.Join(root, DefaultOut))
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	if second := treeHash(t, filepath.Join(root, DefaultOut)); first != second {
+		t.Error("two builds of the same tree differ")
+	}
+}
+
+func TestFailedBuildLeavesOutputUntouched(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	before := treeHash(t, filepath.Join(root, DefaultOut))
+	bad := "+++\ntitel = \"oops\"\n+++\nbody\n"
+	if err := os.WriteFile(filepath.Join(root, "content", "guide", "setup.md"), []byte(bad), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !IsInputError(err) {
+		t.Fatalf("want an input error, got %v", err)
+	}
+	if after := treeHash(t, filepath.Join(root, DefaultOut)); after != before {
+		t.Error("a failed build changed the previous output")
+	}
+	entries, _ := os.ReadDir(root)
+	for _, e := range entries {
+		if strings.HasPrefix(e.Name(), ".dist") {
+			t.Errorf("a failed build left %s behind", e.Name())
+		}
+	}
+}
+
+func TestRefusedOutputFolders(t *testing.T) {
+	root := buildCopy(t, "basic")
+	foreign := filepath.Join(root, "mine")
+	if err := os.MkdirAll(foreign, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(foreign, "thesis.txt"), []byte("keep me"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	other := t.TempDir()
+	if err := os.MkdirAll(filepath.Join(other, "content"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		name, out, why string
+	}{
+		{"site root", ".", "is the site root"},
+		{"site root spelled absolute", root, "is the site root"},
+		{"above the root", "..", "above the site root"},
+		{"inside content", "content/out", "inside the site's sources"},
+		{"holds content", other, "holds a content/ folder"},
+		{"foreign files", "mine", "did not write"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := Build(root, Options{Out: c.out})
+			if err == nil || !strings.Contains(err.Error(), c.why) {
+				t.Fatalf("want refusal %q, got %v", c.why, err)
+			}
+		})
+	}
+	if b, err := os.ReadFile(filepath.Join(foreign, "thesis.txt")); err != nil || string(b) != "keep me" {
+		t.Error("a refused folder was touched")
+	}
+}
+
+// TestDemoLinksResolve builds the repository's demo site and checks that
+// every relative href and src in it points at a file of the output.
+func TestDemoLinksResolve(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "site")
+	if _, err := Build(filepath.Join("..", ".."), Options{Out: out}); err != nil {
+		t.Fatal(err)
+	}
+	files := readTree(t, out)
+	ref := regexp.MustCompile(`(?:href|src)="([^"]*)"`)
+	ids := regexp.MustCompile(`id="([^"]*)"`)
+	var pages []string
+	for name := range files {
+		if strings.HasSuffix(name, ".html") {
+			pages = append(pages, name)
+		}
+	}
+	sort.Strings(pages)
+	if len(pages) < 8 {
+		t.Fatalf("demo has %d pages, want at least 8", len(pages))
+	}
+	for _, page := range pages {
+		for _, m := range ref.FindAllStringSubmatch(string(files[page]), -1) {
+			link := m[1]
+			if strings.Contains(link, "://") || strings.HasPrefix(link, "mailto:") {
+				continue
+			}
+			if strings.HasPrefix(link, "/") {
+				t.Errorf("%s: link %q is not relative", page, link)
+				continue
+			}
+			target, frag, _ := strings.Cut(link, "#")
+			if target == "" {
+				target = page
+			} else {
+				target = filepath.ToSlash(filepath.Join(filepath.Dir(page), target))
+			}
+			data, ok := files[target]
+			if !ok {
+				t.Errorf("%s: link %q points at a missing file", page, link)
+				continue
+			}
+			if frag != "" && !strings.Contains(string(data), `id="`+frag+`"`) {
+				t.Errorf("%s: link %q points at a missing anchor (ids: %d)", page, link, len(ids.FindAllString(string(data), -1)))
+			}
+		}
+	}
+}
