@@ -3,6 +3,8 @@ package units
 import (
 	"math"
 	"testing"
+
+	"gonum.org/v1/gonum/unit/constant"
 )
 
 // dimensionNamed returns the dimension whose String is name.
@@ -50,5 +52,13 @@ func TestNIST(t *testing.T) {
 		if !closeTo(q.Value, c.SI, c.RelTol) {
 			t.Errorf("Parse(%q, %s) = %.10g, want %.10g ± %g (%s)", c.Text, c.Dim, q.Value, c.SI, c.RelTol, c.Source)
 		}
+	}
+}
+
+// TestGravity checks the standard gravity behind lbf and kgf against gonum,
+// a general-purpose reference library (CGPM 1901: g_n = 9.80665 m/s2, exact).
+func TestGravity(t *testing.T) {
+	if gravity != float64(constant.StandardGravity) {
+		t.Errorf("standard gravity %g, gonum has %g", gravity, float64(constant.StandardGravity))
 	}
 }

@@ -7,13 +7,16 @@ import "strings"
 // considered (all when accept is nil). A spelling that differs only in case
 // wins; otherwise the smallest edit distance, at most 1 for keys of up to
 // three letters and 2 for longer ones, ties going to the earlier table row.
-// A pressure mark on a unit that takes none ("atm(g)", "degC(a)") suggests
+// Known slips ("C" for "degC") come first. A pressure mark on a unit that takes none ("atm(g)", "degC(a)") suggests
 // the unit without it.
 func suggest(key string, accept func(Unit) bool) string {
 	if key == "" {
 		return ""
 	}
 	ok := func(e indexEntry) bool { return e.key != "" && (accept == nil || accept(e.unit)) }
+	if hint, found := hints[key]; found && ok(indexEntry{hint, unitIndex[hint]}) {
+		return hint
+	}
 	for _, mark := range []string{"(a)", "(g)"} {
 		if base, found := strings.CutSuffix(key, mark); found {
 			if u, known := unitIndex[base]; known && ok(indexEntry{base, u}) {
@@ -42,6 +45,10 @@ func suggest(key string, accept func(Unit) bool) string {
 	}
 	return best
 }
+
+// hints are near misses that edit distance gets wrong: "C" is closer to
+// "K" than to "degC".
+var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h"}
 
 // editDistance is the Levenshtein distance between a and b, counted in runes.
 func editDistance(a, b string) int {
