@@ -16,20 +16,20 @@ var compressorKind = Kind{
 	Summary: "one single-acting stage: slider-crank geometry, polytropic cycle with clearance re-expansion, forces, torque, power",
 	Doc:     compressorDoc,
 	Inputs: []InputSpec{
-		{Name: "bore", Dim: units.Length, Range: Positive, Meaning: "cylinder bore (piston diameter)"},
-		{Name: "stroke", Dim: units.Length, Optional: true, Range: Positive, Meaning: "piston stroke, twice the crank radius; give stroke or crank_radius"},
-		{Name: "crank_radius", Dim: units.Length, Optional: true, Range: Positive, Meaning: "crank throw, half the stroke; give stroke or crank_radius"},
-		{Name: "rod_length", Dim: units.Length, Range: Positive, Meaning: "connecting rod length between centres; must exceed the crank radius"},
-		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: Positive, Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
-		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: Positive, Meaning: "clearance volume over swept volume; give clearance_volume or clearance_ratio"},
-		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased (a whole number)"},
-		{Name: "speed", Dim: units.RotationalSpeed, Range: Positive, Meaning: "crankshaft speed"},
-		{Name: "discharge_pressure", Dim: units.Pressure, Range: Positive, Meaning: "pressure the cylinder delivers against"},
-		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: Positive, Meaning: "pressure in the cylinder during suction; default: ambient"},
-		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: Positive, Meaning: "air temperature at the inlet"},
-		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion (1 isothermal, 1.4 adiabatic air)"},
-		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true}, Meaning: "indicated power over shaft power"},
-		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: Positive, Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
+		{Name: "bore", Dim: units.Length, Range: Between(1e-4, 10), Meaning: "cylinder bore (piston diameter), 0.1 mm to 10 m"},
+		{Name: "stroke", Dim: units.Length, Optional: true, Range: Between(1e-4, 10), Meaning: "piston stroke, twice the crank radius, 0.1 mm to 10 m; give stroke or crank_radius"},
+		{Name: "crank_radius", Dim: units.Length, Optional: true, Range: Between(5e-5, 5), Meaning: "crank throw, half the stroke, 0.05 mm to 5 m; give stroke or crank_radius"},
+		{Name: "rod_length", Dim: units.Length, Range: Between(1e-4, 50), Meaning: "connecting rod length between centres, up to 50 m; must exceed the crank radius"},
+		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: positiveUpTo(100), Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
+		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: Between(minClearanceRatio, 100), Meaning: "clearance volume over swept volume, 1e-6 to 100; give clearance_volume or clearance_ratio"},
+		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased, 1 to 32"},
+		{Name: "speed", Dim: units.RotationalSpeed, Range: positiveUpTo(1e5), Meaning: "crankshaft speed, up to 1e5 rad/s"},
+		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
+		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: Between(1, 1e9), Meaning: "pressure in the cylinder during suction, 1 Pa(a) to 1 GPa; default: ambient"},
+		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: positiveUpTo(1e4), Meaning: "air temperature at the inlet"},
+		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
+		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
+		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3), Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
 	},
 	Results: []ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
@@ -57,8 +57,21 @@ var compressorKind = Kind{
 	Evaluate: evaluateCompressor,
 }
 
-// maxCylinders bounds the cylinder count: small machines have a few.
-const maxCylinders = 32
+// The input bounds are generous for small machines; they keep every
+// formula finite.
+const (
+	maxCylinders      = 32
+	minClearanceRatio = 1e-6 // "negligible clearance"; CR^n stays finite
+	// minRodExcess is how much longer than the crank the rod must be, as a
+	// fraction of the crank radius, for the slider-crank formulas to stay
+	// finite at 90° of crank angle.
+	minRodExcess = 1e-9
+)
+
+// positiveUpTo allows values above zero up to max.
+func positiveUpTo(max float64) Range {
+	return Range{Min: 0, Max: max, HasMin: true, HasMax: true, MinOpen: true}
+}
 
 // cycleSteps is the least number of crank-angle steps per revolution
 // (0.05° each) at which the torque curves are sampled.
@@ -158,7 +171,7 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 	default:
 		return c, &InputError{Key: "stroke", Message: "missing: give stroke or crank_radius (a length, e.g. \"32 mm\")"}
 	}
-	if c.rod <= c.crankRadius {
+	if c.rod <= c.crankRadius*(1+minRodExcess) {
 		return c, &InputError{Key: "rod_length", Message: fmt.Sprintf(
 			"rod length %s must exceed the crank radius %s (half the stroke)",
 			show(c.rod*1e3, "mm"), show(c.crankRadius*1e3, "mm"))}
@@ -171,6 +184,11 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 		c.clearanceVolume = in.Value("clearance_volume")
 		c.clearanceRatio = c.clearanceVolume / swept
 		c.clearanceGiven = true
+		if c.clearanceRatio < minClearanceRatio {
+			return c, &InputError{Key: "clearance_volume", Message: fmt.Sprintf(
+				"clearance volume %s is less than a millionth of the swept volume %s; for negligible clearance use clearance_ratio = %g",
+				show(c.clearanceVolume*1e9, "mm³"), show(swept*1e6, "cm³"), minClearanceRatio)}
+		}
 	case in.Has("clearance_ratio"):
 		c.clearanceRatio = in.Value("clearance_ratio")
 		c.clearanceVolume = c.clearanceRatio * swept
@@ -243,10 +261,9 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 	work := z * polytropicWork(c.p1, vi, r, c.n)
 	power := work * revs
 	isoPower := z * polytropicWork(c.p1, vi, r, 1) * revs
-	pTop := math.Min(c.p2, pMax)
 	meanTorque := work / (2 * math.Pi)
 
-	cyc := &indicatorCycle{
+	cyc := newIndicatorCycle(indicatorCycle{
 		crank:     sliderCrank{r: c.crankRadius, l: c.rod},
 		area:      area,
 		clearance: c.clearanceVolume,
@@ -254,7 +271,7 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 		p2:        c.p2,
 		n:         c.n,
 		ambient:   c.ambient,
-	}
+	})
 	steps := crankSteps(c.cylinders)
 	gasOne := sampleRevolution(steps, cyc.gasTorque)
 	gas := phaseSum(gasOne, c.cylinders)
@@ -295,7 +312,7 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
 			"T2 = T1 · r^((n−1)/n)", "= " + show(c.t1, "K") + " · " + num(r) + "^((" + nWord + " − 1)/" + nWord + ")"}},
-		{Name: "peak_piston_force", Value: (pTop - c.ambient) * area, Dim: units.Force, Trace: peakForceTrace(delivers, bara(pTop), bara(c.ambient), mm2(area))},
+		{Name: "peak_piston_force", Value: (cyc.top - c.ambient) * area, Dim: units.Force, Trace: peakForceTrace(delivers, bara(cyc.top), bara(c.ambient), mm2(area))},
 		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: Trace{
 			"c_m = 2 · s · N", "= 2 · " + mm(stroke) + " · " + rps}},
 		{Name: "max_rod_angle", Value: math.Asin(c.crankRadius / c.rod), Dim: units.Angle, Trace: Trace{
@@ -367,7 +384,7 @@ func phasing(z int) string {
 	if z == 1 {
 		return "one cylinder"
 	}
-	return fmt.Sprintf("%d cylinders %s° apart", z, units.Format(360/float64(z), 4))
+	return fmt.Sprintf("%d cylinders %s° apart", z, show(360/float64(z), ""))
 }
 
 // crankSteps returns the number of crank-angle samples per revolution: the
@@ -437,7 +454,7 @@ func compressorCurves(cyc *indicatorCycle, c compressorInput, gas []float64, ste
 
 	// Isothermal compression from bottom dead centre to the discharge
 	// pressure (or to the clearance volume, whichever comes first).
-	bottom := cyc.clearance + 2*c.crankRadius*cyc.area
+	bottom := cyc.bottom
 	end := math.Max(bottom*c.p1/c.p2, cyc.clearance)
 	iso := Curve{Name: "isothermal", XDim: units.Volume, YDim: units.Pressure, Dashed: true}
 	const isoPoints = 100

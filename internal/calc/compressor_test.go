@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -431,5 +432,53 @@ func BenchmarkCompressorEvaluate(b *testing.B) {
 		if _, err := compressorKind.Evaluate(in); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestCompressorExtremes evaluates combinations of every input at the ends
+// of its allowed range: each must give an *InputError or finite results and
+// curves, never a NaN, an Inf or a panic.
+func TestCompressorExtremes(t *testing.T) {
+	base, err := caseInputs(compressorKind, withInputs(map[string]any{"clearance_volume": nil, "clearance_ratio": 0.05}), standardAtmosphere)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ends := func(r Range) []float64 {
+		low := r.Min
+		if r.MinOpen {
+			low = math.Nextafter(r.Min, math.Inf(1))
+		}
+		return []float64{low, r.Max}
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	finiteOutcomes := 0
+	for trial := range 300 {
+		in := NewInputs(standardAtmosphere, nil)
+		for _, spec := range compressorKind.Inputs {
+			if !base.Has(spec.Name) && spec.Name != "inlet_pressure" {
+				continue
+			}
+			v := base.Value(spec.Name)
+			if spec.Name == "inlet_pressure" {
+				v = standardAtmosphere
+			}
+			if pick := rng.IntN(3); pick < 2 {
+				v = ends(spec.Range)[pick]
+			}
+			in.Set(spec.Name, v, true)
+		}
+		out, err := compressorKind.Evaluate(in)
+		if err != nil {
+			var ie *InputError
+			if !errors.As(err, &ie) {
+				t.Fatalf("trial %d: %v is not an *InputError", trial, err)
+			}
+			continue
+		}
+		finiteOutcomes++
+		checkWellFormed(t, fmt.Sprintf("trial %d %v", trial, in.values), out)
+	}
+	if finiteOutcomes < 50 {
+		t.Errorf("only %d of 300 trials evaluated; the test exercises too little", finiteOutcomes)
 	}
 }

@@ -58,6 +58,16 @@ type indicatorCycle struct {
 	p1, p2    float64 // inlet and discharge pressure, Pa absolute
 	n         float64 // polytropic index, compression and re-expansion
 	ambient   float64 // crankcase pressure behind the piston, Pa absolute
+	bottom    float64 // volume at bottom dead centre, m3
+	top       float64 // pressure at TDC: p2, or the dead-head pressure when lower
+}
+
+// newIndicatorCycle completes c with its volume at bottom dead centre and
+// its pressure at TDC.
+func newIndicatorCycle(c indicatorCycle) *indicatorCycle {
+	c.bottom = c.clearance + 2*c.crank.r*c.area
+	c.top = math.Min(c.p2, c.p1*math.Pow(c.bottom/c.clearance, c.n))
+	return &c
 }
 
 // volume returns the gas volume in the cylinder at crank angle theta.
@@ -65,22 +75,14 @@ func (c *indicatorCycle) volume(theta float64) float64 {
 	return c.clearance + c.area*c.crank.position(theta)
 }
 
-// topPressure returns the pressure at TDC: the discharge pressure, or the
-// dead-head pressure when that is lower.
-func (c *indicatorCycle) topPressure() float64 {
-	bottom := c.clearance + 2*c.crank.r*c.area
-	return math.Min(c.p2, c.p1*math.Pow(bottom/c.clearance, c.n))
-}
-
 // pressure returns the cylinder pressure (Pa absolute) at crank angle
 // theta; the suction stroke runs from 0 to π, compression from π to 2π.
 func (c *indicatorCycle) pressure(theta float64) float64 {
 	v := c.volume(theta)
 	if math.Mod(theta, 2*math.Pi) <= math.Pi {
-		return math.Max(c.topPressure()*math.Pow(c.clearance/v, c.n), c.p1)
+		return math.Max(c.top*math.Pow(c.clearance/v, c.n), c.p1)
 	}
-	bottom := c.clearance + 2*c.crank.r*c.area
-	return math.Min(c.p1*math.Pow(bottom/v, c.n), c.p2)
+	return math.Min(c.p1*math.Pow(c.bottom/v, c.n), c.p2)
 }
 
 // gasTorque returns the load torque that the gas on the piston puts on the

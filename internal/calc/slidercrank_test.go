@@ -101,8 +101,8 @@ func TestIndicatorCycleWork(t *testing.T) {
 				if ve <= 0 {
 					continue
 				}
-				cyc := &indicatorCycle{crank: g, area: area, clearance: c * swept,
-					p1: 95000, p2: 95000 * r, n: n, ambient: 101325}
+				cyc := newIndicatorCycle(indicatorCycle{crank: g, area: area, clearance: c * swept,
+					p1: 95000, p2: 95000 * r, n: n, ambient: 101325})
 				got := cycleWork(sampleRevolution(cycleSteps, cyc.gasTorque))
 				want := polytropicWork(95000, ve*swept, r, n)
 				if rel := math.Abs(got-want) / want; rel > 1e-6 {
@@ -121,8 +121,8 @@ func TestIndicatorCycleNoDelivery(t *testing.T) {
 	area := math.Pi / 4 * 0.028 * 0.028
 	swept := area * 2 * g.r
 	for _, n := range []float64{1, 1.3} {
-		cyc := &indicatorCycle{crank: g, area: area, clearance: 0.2 * swept,
-			p1: 101325, p2: 101325 * 20, n: n, ambient: 101325}
+		cyc := newIndicatorCycle(indicatorCycle{crank: g, area: area, clearance: 0.2 * swept,
+			p1: 101325, p2: 101325 * 20, n: n, ambient: 101325})
 		got := cycleWork(sampleRevolution(cycleSteps, cyc.gasTorque))
 		if scale := 101325 * swept; math.Abs(got) > 1e-9*scale {
 			t.Errorf("n=%g: ∮T dθ = %g J with no delivery, want 0 (scale p1·Vs = %g J)", n, got, scale)
