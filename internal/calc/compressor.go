@@ -50,7 +50,7 @@ var compressorKind = Kind{
 		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time"},
 		{Name: "isothermal_power", Dim: units.Power, Unit: "W", Meaning: "power to compress the same air isothermally, the ideal"},
 		{Name: "shaft_power", Dim: units.Power, Unit: "W", Meaning: "power the drive must supply: indicated over mechanical efficiency"},
-		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work over one radian: the steady drive torque without friction"},
+		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the steady drive torque without friction"},
 		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
 	},
@@ -123,7 +123,10 @@ Torque
   energy_fluctuation is the max − min of ∫(T_m − T(θ))dθ over a revolution,
   the energy a flywheel must absorb. With a reciprocating mass m per
   cylinder, the inertia torque m·ω²·(d²x/dθ²)·(dx/dθ) is drawn as a separate
-  curve; it is not in the results.
+  curve; it is not in the results, nor in the peak piston force.
+  Curves: pv (one cylinder, with the isothermal compression line dashed for
+  comparison); gas_torque, inertia_torque and total_torque (all cylinders,
+  over crank angle).
 
 Limits
 - When p2 ≥ p_max the discharge valve never opens: volumetric efficiency,

@@ -88,8 +88,11 @@ func cycleWork(torque []float64) float64 {
 
 // TestIndicatorCycleWork integrates the sampled gas torque over a
 // revolution, ∮T dθ = −∮(p − p_amb) dV, and compares it with the closed
-// form n/(n−1)·p1·Vi·(r^((n−1)/n) − 1), Vi = (1 − c(r^(1/n) − 1))·Vs, of
-// any thermodynamics text (p1·Vi·ln r for n = 1), to 1e-6 relative.
+// form n/(n−1)·p1·Vi·(r^((n−1)/n) − 1), Vi = (1 − c(r^(1/n) − 1))·Vs
+// (p1·Vi·ln r for n = 1), to 1e-6 relative. The closed form with clearance
+// is derived in Eastop & McConkey, Applied Thermodynamics, 5th ed., ch. 9
+// (from memory), and is checked against their worked examples in
+// testdata/reference/compressor.
 func TestIndicatorCycleWork(t *testing.T) {
 	g := sliderCrank{r: 0.016, l: 0.070}
 	area := math.Pi / 4 * 0.028 * 0.028
