@@ -30,7 +30,7 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text))
 	}
-	if len(rest) > 1 && (rest[0] == ',') && rest[1] >= '0' && rest[1] <= '9' {
+	if len(rest) > 1 && rest[0] == ',' && isDigit(rest[1]) {
 		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
 	}
 	v, err := strconv.ParseFloat(numText, 64)
