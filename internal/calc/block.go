@@ -1,0 +1,256 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/units"
+)
+
+// Block is one decoded calculation block: a fenced code block whose info
+// string is "calc", holding one TOML document.
+type Block struct {
+	ID    string
+	Kind  *Kind
+	Title string
+	File  string // page, relative to the site root
+	Line  int    // file line of the opening fence
+	// Source is the block's TOML as written.
+	Source string
+	// Values are the inputs as written, by key.
+	Values map[string]Value
+	// Ambient is the ambient pressure text, "" for the default.
+	Ambient Value
+	Expect  []Claim
+	Show    Show
+	lines   map[string]int // TOML-relative line of each key
+}
+
+// Value is one input as the user wrote it.
+type Value struct {
+	Text string // the string, or the number's TOML text
+	// Ref is the block and result of a "=id.result" reference, else empty.
+	RefBlock, RefResult string
+	Line                int // file line
+}
+
+// Show is the [show] table: which results in which units, and charts.
+type Show struct {
+	Outputs []Output
+	Charts  []string
+}
+
+// Output is one entry of [show] outputs: a result and the unit to show it in.
+type Output struct {
+	Name string
+	Unit string // "" for the result's default
+}
+
+// Common keys every block takes besides its kind's inputs.
+var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show"}
+
+// DefaultAmbient is the ambient pressure when a block names none (1 atm).
+const DefaultAmbient = 101325.0
+
+var idPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9_-]*$`)
+
+// refPattern matches a reference to another block's result.
+var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]*)\s*$`)
+
+// ParseBlock decodes one calc block. file and fenceLine place it for error
+// messages: TOML line k is file line fenceLine+k.
+func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
+	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}}
+	var raw map[string]any
+	if _, err := toml.Decode(src, &raw); err != nil {
+		return nil, b.tomlError(err)
+	}
+	b.lines = KeyLines(src)
+	var errs Errors
+	fail := func(key, format string, args ...any) {
+		errs = append(errs, &Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
+	}
+
+	id, ok := raw["id"].(string)
+	switch {
+	case raw["id"] == nil:
+		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
+	case !ok:
+		fail("id", "%s is not a string; write id = \"name\"", tomlText(raw["id"]))
+	case !idPattern.MatchString(id):
+		fail("id", "%q is not allowed; an id is lower-case letters, digits, '-' and '_', starting with a letter or digit", id)
+	}
+	b.ID = id
+
+	kindName, ok := raw["kind"].(string)
+	switch {
+	case raw["kind"] == nil:
+		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(KindNames(), ", ") + ")"})
+	case !ok:
+		fail("kind", "%s is not a string; one of %s", tomlText(raw["kind"]), strings.Join(KindNames(), ", "))
+	default:
+		k, found := LookupKind(kindName)
+		if !found {
+			msg := fmt.Sprintf("unknown kind %q; allowed: %s", kindName, strings.Join(KindNames(), ", "))
+			if s := Suggest(kindName, KindNames()); s != "" {
+				msg = fmt.Sprintf("unknown kind %q; did you mean %q? (allowed: %s)", kindName, s, strings.Join(KindNames(), ", "))
+			}
+			fail("kind", "%s", msg)
+		}
+		b.Kind = k
+	}
+	if t, present := raw["title"]; present {
+		if s, ok := t.(string); ok {
+			b.Title = s
+		} else {
+			fail("title", "%s is not a string", tomlText(t))
+		}
+	}
+	if len(errs) > 0 || b.Kind == nil {
+		return nil, errs.orNil()
+	}
+
+	keys := make([]string, 0, len(raw))
+	for k := range raw {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	allowed := append(append([]string{}, commonKeys...), b.Kind.inputNames()...)
+	for _, key := range keys {
+		v := raw[key]
+		switch key {
+		case "id", "kind", "title":
+			continue
+		case "expect":
+			claims, err := b.decodeExpect(v)
+			errs = append(errs, err...)
+			b.Expect = claims
+			continue
+		case "show":
+			errs = append(errs, b.decodeShow(v)...)
+			continue
+		}
+		if _, isInput := b.Kind.input(key); !isInput && key != "ambient_pressure" {
+			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))
+			if s := Suggest(key, allowed); s != "" {
+				msg = fmt.Sprintf("unknown key for kind %s; did you mean %q?", b.Kind.Name, s)
+			}
+			fail(key, "%s", msg)
+			continue
+		}
+		val, err := b.decodeValue(key, v)
+		if err != nil {
+			errs = append(errs, err)
+			continue
+		}
+		if key == "ambient_pressure" {
+			b.Ambient = val
+			continue
+		}
+		b.Values[key] = val
+	}
+	for _, in := range b.Kind.Inputs {
+		if _, given := b.Values[in.Name]; !given && in.Default == "" && !in.Optional {
+			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
+				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, in.Dim.Examples())})
+		}
+	}
+	if err := errs.orNil(); err != nil {
+		return nil, err
+	}
+	return b, nil
+}
+
+// decodeValue reads one input: a quantity string, a plain number (only for
+// dimensionless inputs) or a "=id.result" reference.
+func (b *Block) decodeValue(key string, v any) (Value, *Error) {
+	line := b.lineOf(key)
+	bad := func(format string, args ...any) (Value, *Error) {
+		return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
+	}
+	dim := units.Pressure
+	if spec, ok := b.Kind.input(key); ok {
+		dim = spec.Dim
+	}
+	switch t := v.(type) {
+	case string:
+		if strings.HasPrefix(strings.TrimSpace(t), "=") {
+			m := refPattern.FindStringSubmatch(t)
+			if m == nil {
+				return bad("%q is not a reference; write \"=block.result\", e.g. \"=low.discharge_temperature\"", t)
+			}
+			return Value{Text: strings.TrimSpace(t), RefBlock: m[1], RefResult: m[2], Line: line}, nil
+		}
+		return Value{Text: t, Line: line}, nil
+	case int64:
+		if dim != units.Dimensionless {
+			return bad("%d has no unit; %s takes %s, written as a string such as \"%d %s\"", t, key, dimPhrase(dim), t, firstExample(dim))
+		}
+		return Value{Text: strconv.FormatInt(t, 10), Line: line}, nil
+	case float64:
+		if math.IsNaN(t) || math.IsInf(t, 0) {
+			return bad("%v is not a finite number", t)
+		}
+		if dim != units.Dimensionless {
+			return bad("%v has no unit; %s takes %s, written as a string such as \"%v %s\"", t, key, dimPhrase(dim), t, firstExample(dim))
+		}
+		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
+	}
+	return bad("%s is not a quantity; write a string such as \"32 mm\"", tomlText(v))
+}
+
+// lineOf is the file line of a key ("expect.displacement" for tables).
+func (b *Block) lineOf(key string) int {
+	if l, ok := b.lines[key]; ok {
+		return b.Line + l
+	}
+	return b.Line
+}
+
+// tomlError places a TOML syntax error on its file line.
+func (b *Block) tomlError(err error) error {
+	var pe toml.ParseError
+	if errors.As(err, &pe) {
+		line := max(pe.Position.Line, 1)
+		if s := pe.Position.Start; s > 0 && s <= len(b.Source) {
+			line = strings.Count(b.Source[:s], "\n") + 1
+		}
+		msg := "TOML: " + pe.Message
+		if pe.LastKey != "" && !strings.Contains(pe.Message, pe.LastKey) {
+			msg = pe.LastKey + ": " + msg
+		}
+		return Errors{{File: b.File, Line: b.Line + line, Msg: msg}}
+	}
+	return Errors{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
+}
+
+// tomlText shows a decoded TOML value as the user would have written it.
+func tomlText(v any) string {
+	switch t := v.(type) {
+	case string:
+		return strconv.Quote(t)
+	case []any:
+		return "an array"
+	case map[string]any:
+		return "a table"
+	case bool:
+		return strconv.FormatBool(t)
+	}
+	return fmt.Sprint(v)
+}
+
+func dimPhrase(d units.Dimension) string {
+	return "a " + d.String() + " (" + d.Examples() + ")"
+}
+
+func firstExample(d units.Dimension) string {
+	ex, _, _ := strings.Cut(d.Examples(), ",")
+	return strings.TrimSpace(ex)
+}

@@ -1,0 +1,436 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"specgen/internal/units"
+)
+
+// Options are the site-wide settings of an evaluation.
+type Options struct {
+	SigFigs int // significant figures of displayed values (default 3)
+}
+
+// Set is every evaluated block of a site.
+type Set struct {
+	Blocks []*Evaluated // sorted by id
+	byID   map[string]*Evaluated
+	opts   Options
+}
+
+// Lookup returns the evaluated block with the given id.
+func (s *Set) Lookup(id string) (*Evaluated, bool) {
+	e, ok := s.byID[id]
+	return e, ok
+}
+
+// IDs lists every block id, sorted.
+func (s *Set) IDs() []string {
+	ids := make([]string, len(s.Blocks))
+	for i, e := range s.Blocks {
+		ids[i] = e.Block.ID
+	}
+	return ids
+}
+
+// Evaluated is one block with its inputs read, its results computed and its
+// claims checked.
+type Evaluated struct {
+	Block    *Block
+	Ambient  float64 // Pa absolute
+	Inputs   []InputValue
+	Results  []Result
+	Claims   []ClaimResult
+	Cautions []CautionNote
+	Curves   []Curve
+	sigFigs  int
+}
+
+// InputValue is one input as read: what was written, or the default.
+type InputValue struct {
+	Name    string
+	Text    string // as written, or the default's text
+	Value   float64
+	Dim     units.Dimension
+	Default bool   // not written by the user
+	From    string // "=id.result" when the value came from another block
+}
+
+// Result returns the result named name.
+func (e *Evaluated) Result(name string) (Result, bool) {
+	for _, r := range e.Results {
+		if r.Name == name {
+			return r, true
+		}
+	}
+	return Result{}, false
+}
+
+// SigFigs is the number of significant figures the block's values show.
+func (e *Evaluated) SigFigs() int { return e.sigFigs }
+
+// Failed reports whether any claim of the block fails.
+func (e *Evaluated) Failed() bool {
+	for _, c := range e.Claims {
+		if !c.OK {
+			return true
+		}
+	}
+	return false
+}
+
+// DisplayUnit is the unit a result shows in: the block's [show] choice,
+// else the kind's default.
+func (e *Evaluated) DisplayUnit(name string) string {
+	for _, o := range e.Block.Show.Outputs {
+		if o.Name == name && o.Unit != "" {
+			return o.Unit
+		}
+	}
+	if spec, ok := e.Block.Kind.result(name); ok {
+		return spec.Unit
+	}
+	return ""
+}
+
+// Format shows a result in a unit ("" for its display unit) with the
+// site's significant figures: "19.7 cm3".
+func (e *Evaluated) Format(name, unit string) (string, error) {
+	r, ok := e.Result(name)
+	if !ok {
+		return "", fmt.Errorf("block %s has no result %q", e.Block.ID, name)
+	}
+	if unit == "" {
+		unit = e.DisplayUnit(name)
+	}
+	return FormatValue(r.Value, r.Dim, unit, e.Ambient, e.sigFigs)
+}
+
+// FormatValue shows an SI value in unit with sig significant figures.
+func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, sig int) (string, error) {
+	if dim == units.Dimensionless && unit == "" {
+		return units.Format(si, sig), nil
+	}
+	v, err := units.FromSI(si, dim, unit, ambient)
+	if err != nil {
+		return "", err
+	}
+	u, err := units.LookupUnit(unit)
+	if err != nil {
+		return "", err
+	}
+	if u.Symbol == "" {
+		return units.Format(v, sig), nil
+	}
+	return units.Format(v, sig) + " " + u.Symbol, nil
+}
+
+// Evaluate checks every block of a site together (ids unique, references
+// known and acyclic), then evaluates them in dependency order.
+func Evaluate(blocks []*Block, opts Options) (*Set, error) {
+	if opts.SigFigs == 0 {
+		opts.SigFigs = 3
+	}
+	set := &Set{byID: map[string]*Evaluated{}, opts: opts}
+	var errs Errors
+	byID := map[string]*Block{}
+	for _, b := range blocks {
+		if other, dup := byID[b.ID]; dup {
+			errs = append(errs, &Error{File: b.File, Line: b.lineOf("id"), Key: "id",
+				Msg: fmt.Sprintf("%q is already used by the block at %s:%d; ids are unique in the site", b.ID, other.File, other.lineOf("id"))})
+			continue
+		}
+		byID[b.ID] = b
+	}
+	ids := make([]string, 0, len(byID))
+	for id := range byID {
+		ids = append(ids, id)
+	}
+	sort.Strings(ids)
+	for _, id := range ids {
+		errs = append(errs, checkRefs(byID[id], byID, ids)...)
+	}
+	if err := errs.orNil(); err != nil {
+		return nil, err
+	}
+	order, err := dependencyOrder(byID, ids)
+	if err != nil {
+		return nil, err
+	}
+	failed := map[string]bool{}
+	for _, b := range order {
+		if dependsOnFailed(b, failed) {
+			failed[b.ID] = true
+			continue
+		}
+		e, err := evaluateBlock(b, set, opts)
+		if err != nil {
+			var list Errors
+			if errors.As(err, &list) {
+				errs = append(errs, list...)
+			} else {
+				errs = append(errs, &Error{File: b.File, Line: b.Line, Msg: err.Error()})
+			}
+			failed[b.ID] = true
+			continue
+		}
+		set.byID[b.ID] = e
+	}
+	if err := errs.orNil(); err != nil {
+		return nil, err
+	}
+	for _, id := range ids {
+		set.Blocks = append(set.Blocks, set.byID[id])
+	}
+	return set, nil
+}
+
+func dependsOnFailed(b *Block, failed map[string]bool) bool {
+	for _, v := range b.Values {
+		if v.RefBlock != "" && failed[v.RefBlock] {
+			return true
+		}
+	}
+	return false
+}
+
+// checkRefs checks that every "=id.result" of b names a block and one of
+// its results, of the input's dimension.
+func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
+	var errs Errors
+	for _, key := range sortedValueKeys(b) {
+		v := b.Values[key]
+		if v.RefBlock == "" {
+			continue
+		}
+		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
+		target, ok := byID[v.RefBlock]
+		if !ok {
+			msg := fmt.Sprintf("%q refers to block %q, which does not exist", v.Text, v.RefBlock)
+			if s := Suggest(v.RefBlock, ids); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			fail(msg)
+			continue
+		}
+		if target == b {
+			fail(fmt.Sprintf("%q refers to its own block", v.Text))
+			continue
+		}
+		spec, ok := target.Kind.result(v.RefResult)
+		if !ok {
+			msg := fmt.Sprintf("%q: block %s (%s) has no result %q", v.Text, target.ID, target.Kind.Name, v.RefResult)
+			if s := Suggest(v.RefResult, target.Kind.resultNames()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			fail(msg)
+			continue
+		}
+		in, _ := b.Kind.input(key)
+		if spec.Dim != in.Dim {
+			fail(fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(spec.Dim), key, dimPhrase(in.Dim)))
+		}
+	}
+	return errs
+}
+
+func sortedValueKeys(b *Block) []string {
+	keys := make([]string, 0, len(b.Values))
+	for k := range b.Values {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	return keys
+}
+
+// dependencyOrder sorts blocks so that each comes after the blocks it
+// refers to; a cycle is an error that names every block on it.
+func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
+	const (
+		unseen = iota
+		active
+		done
+	)
+	state := map[string]int{}
+	var order []*Block
+	var stack []string
+	var visit func(id string) error
+	visit = func(id string) error {
+		switch state[id] {
+		case done:
+			return nil
+		case active:
+			start := 0
+			for i, s := range stack {
+				if s == id {
+					start = i
+				}
+			}
+			cycle := append(append([]string{}, stack[start:]...), id)
+			b := byID[stack[len(stack)-1]]
+			key, line := refKeyTo(b, id)
+			return Errors{{File: b.File, Line: line, Key: key,
+				Msg: "references go round in a circle: " + strings.Join(cycle, " → ") + "; break the circle by giving one value directly"}}
+		}
+		state[id] = active
+		stack = append(stack, id)
+		b := byID[id]
+		for _, key := range sortedValueKeys(b) {
+			if ref := b.Values[key].RefBlock; ref != "" {
+				if err := visit(ref); err != nil {
+					return err
+				}
+			}
+		}
+		stack = stack[:len(stack)-1]
+		state[id] = done
+		order = append(order, b)
+		return nil
+	}
+	for _, id := range ids {
+		if err := visit(id); err != nil {
+			return nil, err
+		}
+	}
+	return order, nil
+}
+
+// refKeyTo finds the key of b that refers to block id.
+func refKeyTo(b *Block, id string) (string, int) {
+	for _, key := range sortedValueKeys(b) {
+		if v := b.Values[key]; v.RefBlock == id {
+			return key, v.Line
+		}
+	}
+	return "", b.Line
+}
+
+// evaluateBlock reads a block's inputs (references from set), runs its
+// model and checks its claims.
+func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
+	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
+	var errs Errors
+	fail := func(key string, line int, msg string) {
+		errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg})
+	}
+	if b.Ambient.Text != "" {
+		q, err := units.Parse(b.Ambient.Text, units.Pressure)
+		switch {
+		case err != nil:
+			fail("ambient_pressure", b.Ambient.Line, err.Error())
+		case q.Unit.Ref != units.Absolute:
+			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"14.7 psia\"", b.Ambient.Text))
+		case q.Value < 1e3 || q.Value > 2e5:
+			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q is not an atmosphere a workshop sees; allowed: 10 kPa(a) to 200 kPa(a)", b.Ambient.Text))
+		default:
+			e.Ambient = q.Value
+		}
+	}
+	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{}}
+	for _, spec := range b.Kind.Inputs {
+		v, given := b.Values[spec.Name]
+		text := spec.Default
+		line := b.Line
+		if given {
+			text, line = v.Text, v.Line
+		} else if text == "" {
+			continue
+		}
+		iv := InputValue{Name: spec.Name, Text: text, Dim: spec.Dim, Default: !given}
+		var value float64
+		var shownUnit string
+		if given && v.RefBlock != "" {
+			src, _ := set.Lookup(v.RefBlock)
+			r, _ := src.Result(v.RefResult)
+			value = r.Value
+			iv.From = v.Text
+			shown, err := src.Format(v.RefResult, "")
+			if err == nil {
+				iv.Text = shown
+			}
+			shownUnit = src.DisplayUnit(v.RefResult)
+		} else {
+			q, err := units.Parse(text, spec.Dim)
+			if err != nil {
+				fail(spec.Name, line, err.Error())
+				continue
+			}
+			value = q.Absolute(e.Ambient)
+			shownUnit = q.Unit.Symbol
+		}
+		if !spec.Range.Contains(value) {
+			fail(spec.Name, line, fmt.Sprintf("%q is out of range; allowed: %s", iv.Text, describeRange(spec, shownUnit, e.Ambient, opts.SigFigs)))
+			continue
+		}
+		iv.Value = value
+		e.Inputs = append(e.Inputs, iv)
+		in.Set(spec.Name, value, given)
+	}
+	if err := errs.orNil(); err != nil {
+		return nil, err
+	}
+	out, err := b.Kind.Evaluate(in)
+	if err != nil {
+		var ie *InputError
+		if errors.As(err, &ie) {
+			line := b.Line
+			if v, ok := b.Values[ie.Key]; ok {
+				line = v.Line
+			}
+			return nil, Errors{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
+		}
+		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
+	}
+	for _, r := range out.Results {
+		if math.IsNaN(r.Value) || math.IsInf(r.Value, 0) {
+			return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: result %s is not a finite number with these inputs; check that they describe a real machine", b.ID, r.Name)}}
+		}
+	}
+	e.Results, e.Cautions, e.Curves = out.Results, out.Cautions, out.Curves
+	for _, c := range b.Expect {
+		r, ok := e.Result(c.Result)
+		if !ok {
+			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the model gave no value for this result"}}
+		}
+		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
+	}
+	return e, nil
+}
+
+// describeRange words an input's allowed range in the unit the user wrote.
+func describeRange(spec InputSpec, unit string, ambient float64, sig int) string {
+	show := func(v float64) string {
+		if unit == "" || spec.Dim == units.Dimensionless {
+			return units.Format(v, sig)
+		}
+		s, err := FormatValue(v, spec.Dim, unit, ambient, sig)
+		if err != nil {
+			return units.Format(v, sig)
+		}
+		return s
+	}
+	r := spec.Range
+	var parts []string
+	if r.HasMin {
+		op := ">="
+		if r.MinOpen {
+			op = ">"
+		}
+		parts = append(parts, op+" "+show(r.Min))
+	}
+	if r.HasMax {
+		op := "<="
+		if r.MaxOpen {
+			op = "<"
+		}
+		parts = append(parts, op+" "+show(r.Max))
+	}
+	if len(parts) == 0 {
+		return "a finite value"
+	}
+	return strings.Join(parts, " and ")
+}

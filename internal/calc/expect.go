@@ -1,0 +1,308 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+
+	"specgen/internal/units"
+)
+
+// Claim is one line of a block's [expect] table: what the prose says a
+// result is.
+type Claim struct {
+	Result string // result name
+	Text   string // the claim as written
+	Line   int
+	Op     ClaimOp
+	Value  float64 // in the claim's unit
+	Unit   string
+	// Tolerance is absolute, in the claim's unit; RelTol a fraction of
+	// Value. At most one is set; for OpAbout with neither, the precision
+	// written sets Tolerance.
+	Tolerance, RelTol float64
+}
+
+// ClaimOp is how a claim compares.
+type ClaimOp int
+
+// The claim forms.
+const (
+	OpAbout ClaimOp = iota // "22.5 cm3 ± 2%", "20 cm3"
+	OpAtLeast              // ">= 15 L/min"
+	OpAtMost               // "<= 120 degC"
+	OpAbove                // "> 15 L/min"
+	OpBelow                // "< 120 degC"
+)
+
+var claimOps = []struct {
+	prefix string
+	op     ClaimOp
+}{{">=", OpAtLeast}, {"≥", OpAtLeast}, {"<=", OpAtMost}, {"≤", OpAtMost}, {">", OpAbove}, {"<", OpBelow}}
+
+// claimNumber splits "22.5 cm3" off the front of a claim.
+var tolSplit = regexp.MustCompile(`\s*(±|\+/-|\+-)\s*`)
+
+const claimForms = `"22.5 cm3 ± 2%", "22.5 cm3 ± 0.5 cm3", "20 cm3" (to the precision written), ">= 15 L/min", "<= 120 degC"`
+
+// ParseClaim reads a claim about a result of dimension dim.
+func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
+	c := Claim{Result: result, Text: text}
+	s := strings.TrimSpace(text)
+	bad := func(why string) (Claim, error) {
+		return c, fmt.Errorf("%q %s; a claim reads like %s", text, why, claimForms)
+	}
+	for _, o := range claimOps {
+		if strings.HasPrefix(s, o.prefix) {
+			c.Op = o.op
+			s = strings.TrimSpace(s[len(o.prefix):])
+			break
+		}
+	}
+	main, tol := s, ""
+	if loc := tolSplit.FindStringIndex(s); loc != nil {
+		if c.Op != OpAbout {
+			return bad("mixes a bound with a tolerance")
+		}
+		main, tol = s[:loc[0]], strings.TrimSpace(s[loc[1]:])
+		if tol == "" {
+			return bad("has no tolerance after ±")
+		}
+	}
+	if main == "" {
+		return bad("has no value")
+	}
+	q, err := units.Parse(main, dim)
+	if err != nil {
+		return c, fmt.Errorf("%s; a claim reads like %s", err.Error(), claimForms)
+	}
+	c.Unit = q.Unit.Symbol
+	num, _ := splitClaimNumber(main)
+	c.Value, _ = strconv.ParseFloat(num, 64)
+	switch {
+	case tol == "" && c.Op == OpAbout:
+		c.Tolerance = halfLastDigit(num)
+	case strings.HasSuffix(tol, "%"):
+		f, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(tol, "%")), 64)
+		if err != nil || f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
+			return bad("has a tolerance that is not a percentage")
+		}
+		c.RelTol = f / 100
+	case tol != "":
+		f, err := strconv.ParseFloat(tol, 64)
+		if err != nil {
+			// A tolerance with its own unit: convert to the claim's unit.
+			tq, terr := units.Parse(tol, differenceOf(dim))
+			if terr != nil {
+				return c, fmt.Errorf("tolerance %s; a claim reads like %s", terr.Error(), claimForms)
+			}
+			// A tolerance is a difference: scale it, never offset it.
+			f = tq.Value / q.Unit.Factor
+		}
+		if f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
+			return bad("has a negative or endless tolerance")
+		}
+		c.Tolerance = math.Abs(f)
+	}
+	return c, nil
+}
+
+// differenceOf is the dimension of a difference of dim: a tolerance on a
+// temperature is a temperature difference; on a pressure, a stress-like
+// difference that is neither gauge nor absolute.
+func differenceOf(dim units.Dimension) units.Dimension {
+	switch dim {
+	case units.Temperature:
+		return units.TemperatureDifference
+	case units.Pressure:
+		return units.Stress
+	}
+	return dim
+}
+
+// splitClaimNumber returns the leading number text of a claim value.
+func splitClaimNumber(s string) (string, string) {
+	i := 0
+	for i < len(s) && strings.ContainsRune("+-0123456789.eE", rune(s[i])) {
+		if (s[i] == 'e' || s[i] == 'E') && (i+1 >= len(s) || !strings.ContainsRune("+-0123456789", rune(s[i+1]))) {
+			break
+		}
+		i++
+	}
+	return s[:i], s[i:]
+}
+
+// halfLastDigit is half a unit in the last written digit: "20" → 0.5,
+// "19.70" → 0.005, "2.5e3" → 50.
+func halfLastDigit(num string) float64 {
+	mant, exp := num, 0
+	if i := strings.IndexAny(num, "eE"); i >= 0 {
+		mant = num[:i]
+		exp, _ = strconv.Atoi(num[i+1:])
+	}
+	decimals := 0
+	if i := strings.IndexByte(mant, '.'); i >= 0 {
+		decimals = len(mant) - i - 1
+	}
+	return 0.5 * math.Pow(10, float64(exp-decimals))
+}
+
+// ClaimResult is a claim checked against the computed value.
+type ClaimResult struct {
+	Claim    Claim
+	OK       bool
+	Computed float64 // in the claim's unit
+	Message  string
+}
+
+// Check compares the claim with a result's SI value.
+func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) ClaimResult {
+	v, err := units.FromSI(si, dim, c.Unit, ambient)
+	r := ClaimResult{Claim: c, Computed: v}
+	if err != nil {
+		r.Message = fmt.Sprintf("%s: cannot compare: %v", c.Result, err)
+		return r
+	}
+	// Guard against binary rounding deciding a claim at its edge.
+	eps := 1e-9 * math.Max(math.Abs(v), math.Abs(c.Value))
+	switch c.Op {
+	case OpAbout:
+		tol := c.Tolerance + c.RelTol*math.Abs(c.Value)
+		r.OK = math.Abs(v-c.Value) <= tol+eps
+	case OpAtLeast:
+		r.OK = v >= c.Value-eps
+	case OpAtMost:
+		r.OK = v <= c.Value+eps
+	case OpAbove:
+		r.OK = v > c.Value
+	case OpBelow:
+		r.OK = v < c.Value
+	}
+	computed := units.Format(v, max(sig, 3)) + " " + c.Unit
+	if r.OK {
+		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
+	} else {
+		r.Message = fmt.Sprintf("%s: claim %q fails: computed %s", c.Result, c.Text, computed)
+	}
+	return r
+}
+
+// decodeExpect reads the [expect] table.
+func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
+	table, ok := v.(map[string]any)
+	if !ok {
+		return nil, Errors{{File: b.File, Line: b.lineOf("expect"), Key: "expect", Msg: "must be a table: [expect] with lines such as displacement = \"22.5 cm3 ± 2%\""}}
+	}
+	names := make([]string, 0, len(table))
+	for k := range table {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	var claims []Claim
+	var errs Errors
+	for _, name := range names {
+		key := "expect." + name
+		line := b.lineOf(key)
+		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		spec, found := b.Kind.result(name)
+		if !found {
+			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
+			if s := Suggest(name, b.Kind.resultNames()); s != "" {
+				msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, s)
+			}
+			fail(msg)
+			continue
+		}
+		text, isString := table[name].(string)
+		if !isString {
+			fail(fmt.Sprintf("%s is not a claim; write a string such as %s", tomlText(table[name]), claimForms))
+			continue
+		}
+		c, err := ParseClaim(name, text, spec.Dim)
+		if err != nil {
+			fail(err.Error())
+			continue
+		}
+		c.Line = line
+		claims = append(claims, c)
+	}
+	return claims, errs
+}
+
+// decodeShow reads the [show] table.
+func (b *Block) decodeShow(v any) Errors {
+	table, ok := v.(map[string]any)
+	if !ok {
+		return Errors{{File: b.File, Line: b.lineOf("show"), Key: "show", Msg: "must be a table: [show] with outputs = [...] and charts = [...]"}}
+	}
+	var errs Errors
+	keys := make([]string, 0, len(table))
+	for k := range table {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	for _, k := range keys {
+		key := "show." + k
+		line := b.lineOf(key)
+		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		list, isList := table[k].([]any)
+		if k != "outputs" && k != "charts" {
+			fail("unknown key; [show] takes outputs and charts")
+			continue
+		}
+		if !isList {
+			fail(fmt.Sprintf("%s is not a list; write %s = [\"...\"]", tomlText(table[k]), k))
+			continue
+		}
+		for _, item := range list {
+			s, isString := item.(string)
+			if !isString {
+				fail(fmt.Sprintf("%s is not a string", tomlText(item)))
+				continue
+			}
+			if k == "charts" {
+				if !contains(b.Kind.Charts, s) {
+					allowed := "none for this kind"
+					if len(b.Kind.Charts) > 0 {
+						allowed = strings.Join(b.Kind.Charts, ", ")
+					}
+					fail(fmt.Sprintf("unknown chart %q; allowed: %s", s, allowed))
+					continue
+				}
+				b.Show.Charts = append(b.Show.Charts, s)
+				continue
+			}
+			name, unit, _ := strings.Cut(strings.TrimSpace(s), " ")
+			spec, found := b.Kind.result(name)
+			if !found {
+				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
+				if sug := Suggest(name, b.Kind.resultNames()); sug != "" {
+					msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, sug)
+				}
+				fail(msg)
+				continue
+			}
+			unit = strings.TrimSpace(unit)
+			if unit != "" {
+				if _, err := units.FromSI(1, spec.Dim, unit, 0); err != nil {
+					fail(fmt.Sprintf("%s: %v; %s is %s", name, err, name, dimPhrase(spec.Dim)))
+					continue
+				}
+			}
+			b.Show.Outputs = append(b.Show.Outputs, Output{Name: name, Unit: unit})
+		}
+	}
+	return errs
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
