@@ -30,6 +30,9 @@ type command struct {
 func commands() []command {
 	return []command{
 		{"build", "build the site into the output folder", runBuild},
+		{"check", "evaluate every calculation and claim without writing a site", runCheck},
+		{"calc", "evaluate one calculation block from a TOML file", runCalc},
+		{"explain", "list the kinds of calculation, or explain one", runExplain},
 		{"version", "print the version", runVersion},
 		{"help", "show help for a command", runHelp},
 	}
@@ -109,16 +112,28 @@ func report(stderr io.Writer, err error) int {
 }
 
 func runBuild(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("build", "build [-C dir] [-out dir]", stderr)
+	fs := newFlags("build", "build [-C dir] [-out dir] [-strict]", stderr)
 	dir := fs.String("C", ".", "site root: the folder holding content/")
 	out := fs.String("out", site.DefaultOut, "output folder, relative to the site root")
+	strict := fs.Bool("strict", false, "fail like check, writing nothing, when a claim fails or a DANGER caution is raised")
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
-	sum, err := site.Build(*dir, site.Options{Out: *out})
+	s, err := site.Load(*dir)
 	if err != nil {
 		return report(stderr, err)
 	}
+	problems := s.Problems()
+	if *strict && len(problems) > 0 {
+		printProblems(stderr, problems)
+		fmt.Fprintf(stderr, "build -strict: %d problems; nothing written\n", len(problems))
+		return exitFailed
+	}
+	sum, err := s.Write(site.Options{Out: *out})
+	if err != nil {
+		return report(stderr, err)
+	}
+	printProblems(stderr, problems)
 	fmt.Fprintf(stdout, "built %d pages into %s\n", sum.Pages, sum.Out)
 	return exitOK
 }

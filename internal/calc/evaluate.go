@@ -126,7 +126,7 @@ func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, 
 	if u.Symbol == "" {
 		return units.Format(v, sig), nil
 	}
-	return units.Format(v, sig) + " " + u.Symbol, nil
+	return units.Format(v, sig) + " " + units.Pretty(u.Symbol), nil
 }
 
 // Evaluate checks every block of a site together (ids unique, references

@@ -181,7 +181,7 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	case OpBelow:
 		r.OK = v < c.Value
 	}
-	computed := units.Format(v, max(sig, 3)) + " " + c.Unit
+	computed := strings.TrimSpace(units.Format(v, max(sig, 3)) + " " + units.Pretty(c.Unit))
 	if r.OK {
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
 	} else {

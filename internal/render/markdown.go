@@ -42,6 +42,7 @@ func New(opts ...Option) *Markdown {
 	rendererOpts := []renderer.Option{
 		renderer.WithNodeRenderers(
 			util.Prioritized(&codeBlockRenderer{}, 100),
+			util.Prioritized(&calcRenderer{}, 100),
 		),
 	}
 	if m.rawHTML {
@@ -55,7 +56,11 @@ func New(opts ...Option) *Markdown {
 		goldmark.WithExtensions(extension.GFM, extension.Footnote),
 		goldmark.WithParserOptions(
 			parser.WithAutoHeadingID(),
-			parser.WithASTTransformers(util.Prioritized(mdLinkTransformer{}, 100)),
+			parser.WithASTTransformers(
+				util.Prioritized(mdLinkTransformer{}, 100),
+				util.Prioritized(calcBlockTransformer{}, 100),
+			),
+			parser.WithInlineParsers(util.Prioritized(valueRefParser{}, 500)),
 		),
 		goldmark.WithRendererOptions(rendererOpts...),
 	)

@@ -10,6 +10,7 @@ import (
 	"strings"
 	"sync"
 
+	"specgen/internal/calc"
 	"specgen/internal/render"
 )
 
@@ -39,6 +40,9 @@ type Site struct {
 	reading []*Page // reading order, for previous and next
 	md      *render.Markdown
 	layouts *layouts
+	// Calc holds every evaluated calculation block of the site.
+	Calc      *calc.Set
+	blockPage map[string]*Page // block id → the page that holds it
 }
 
 // Load reads a site root: configuration, templates and every page.
@@ -78,6 +82,9 @@ func Load(root string) (*Site, error) {
 		}
 	}
 	if err := tplErrs.sorted(); err != nil {
+		return nil, err
+	}
+	if err := s.evaluate(); err != nil {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)

@@ -27,6 +27,8 @@ type Page struct {
 	Title      string // for navigation and <title>
 	Heading    string // the page's own level-1 heading, if it opens with one
 	Doc        *render.Document
+	// blocks are the page's calculation blocks, decoded, in order.
+	blocks []pageBlock
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
@@ -105,6 +107,9 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 	}
 	if p.Title == "" {
 		p.Title = titleFromName(rel)
+	}
+	if err := parseBlocks(p); err != nil {
+		return nil, err
 	}
 	return p, nil
 }

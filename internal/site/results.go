@@ -3,48 +3,55 @@ package site
 import (
 	"bytes"
 	"encoding/json"
+
+	"specgen/internal/units"
 )
 
 // ResultsVersion is the schema version of results.json.
 const ResultsVersion = 1
 
-// resultsFile is the layout of results.json (see DESIGN.md).
-type resultsFile struct {
+// ResultsFile is the layout of results.json (see DESIGN.md).
+type ResultsFile struct {
 	Version int           `json:"version"`
-	Blocks  []resultBlock `json:"blocks"`
+	Blocks  []ResultBlock `json:"blocks"`
 }
 
-type resultBlock struct {
+// ResultBlock is one block in results.json.
+type ResultBlock struct {
 	ID       string                `json:"id"`
 	Kind     string                `json:"kind"`
 	Page     string                `json:"page"`
 	Line     int                   `json:"line"`
-	Inputs   map[string]inputJSON  `json:"inputs"`
-	Results  map[string]resultJSON `json:"results"`
-	Expect   []expectJSON          `json:"expect"`
-	Cautions []cautionJSON         `json:"cautions"`
+	Inputs   map[string]InputJSON  `json:"inputs"`
+	Results  map[string]ResultJSON `json:"results"`
+	Expect   []ExpectJSON          `json:"expect"`
+	Cautions []CautionJSON         `json:"cautions"`
 }
 
-type inputJSON struct {
+// InputJSON is one input: SI value and unit, and the text as written.
+type InputJSON struct {
 	Value float64 `json:"value"`
 	Unit  string  `json:"unit"`
 	Text  string  `json:"text"`
 }
 
-type resultJSON struct {
+// ResultJSON is one result: SI value and unit, and how pages show it.
+type ResultJSON struct {
 	Value   float64 `json:"value"`
 	Unit    string  `json:"unit"`
 	Display string  `json:"display"`
 }
 
-type expectJSON struct {
+// ExpectJSON is one checked claim.
+type ExpectJSON struct {
 	Name    string `json:"name"`
 	Claim   string `json:"claim"`
 	OK      bool   `json:"ok"`
 	Message string `json:"message"`
 }
 
-type cautionJSON struct {
+// CautionJSON is one caution.
+type CautionJSON struct {
 	Level   string `json:"level"`
 	Rule    string `json:"rule"`
 	Message string `json:"message"`
@@ -53,12 +60,58 @@ type cautionJSON struct {
 // resultsJSON renders results.json: blocks sorted by id, map keys sorted
 // (encoding/json sorts them), indented, so builds are byte-identical.
 func (s *Site) resultsJSON() ([]byte, error) {
-	f := resultsFile{Version: ResultsVersion, Blocks: []resultBlock{}}
 	var buf bytes.Buffer
 	enc := json.NewEncoder(&buf)
 	enc.SetIndent("", "  ")
-	if err := enc.Encode(f); err != nil {
+	if err := enc.Encode(s.Results()); err != nil {
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// Results returns the contents of results.json.
+func (s *Site) Results() ResultsFile {
+	f := ResultsFile{Version: ResultsVersion, Blocks: []ResultBlock{}}
+	if s.Calc == nil {
+		return f
+	}
+	for _, e := range s.Calc.Blocks {
+		b := ResultBlock{
+			ID:       e.Block.ID,
+			Kind:     e.Block.Kind.Name,
+			Page:     e.Block.File,
+			Line:     e.Block.Line,
+			Inputs:   map[string]InputJSON{},
+			Results:  map[string]ResultJSON{},
+			Expect:   []ExpectJSON{},
+			Cautions: []CautionJSON{},
+		}
+		for _, in := range e.Inputs {
+			b.Inputs[in.Name] = InputJSON{Value: in.Value, Unit: siUnit(in.Dim), Text: in.Text}
+		}
+		for _, r := range e.Results {
+			display, err := e.Format(r.Name, "")
+			if err != nil {
+				display = units.Format(r.Value, e.SigFigs())
+			}
+			b.Results[r.Name] = ResultJSON{Value: r.Value, Unit: siUnit(r.Dim), Display: display}
+		}
+		for _, c := range e.Claims {
+			b.Expect = append(b.Expect, ExpectJSON{Name: c.Claim.Result, Claim: c.Claim.Text, OK: c.OK, Message: c.Message})
+		}
+		for _, c := range e.Cautions {
+			b.Cautions = append(b.Cautions, CautionJSON{Level: c.Level.String(), Rule: c.Rule, Message: c.Message})
+		}
+		f.Blocks = append(f.Blocks, b)
+	}
+	return f
+}
+
+// siUnit is the SI unit results.json states for a dimension; pressures are
+// absolute and say so.
+func siUnit(d units.Dimension) string {
+	if d == units.Pressure {
+		return "Pa(a)"
+	}
+	return units.DefaultUnit(d)
 }

@@ -1,0 +1,81 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+
+	"specgen/internal/calc"
+	"specgen/internal/render"
+)
+
+func runCalc(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("calc", "calc [-sig N] FILE.toml", stderr)
+	sig := fs.Int("sig", 3, "significant figures of the values shown (2 to 8)")
+	if err := fs.Parse(args); err != nil {
+		return exitBadInput
+	}
+	if fs.NArg() != 1 {
+		fmt.Fprintln(stderr, "specgen calc: give one TOML file holding one calculation block")
+		fs.Usage()
+		return exitBadInput
+	}
+	if *sig < 2 || *sig > 8 {
+		fmt.Fprintf(stderr, "specgen calc: -sig %d is out of range; allowed: 2 to 8\n", *sig)
+		return exitBadInput
+	}
+	file := fs.Arg(0)
+	src, err := os.ReadFile(file)
+	if err != nil {
+		fmt.Fprintln(stderr, "specgen calc:", err)
+		return exitBadInput
+	}
+	b, err := calc.ParseBlock(file, 0, string(src))
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	set, err := calc.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	e, _ := set.Lookup(b.ID)
+	render.WriteText(stdout, e)
+	if e.Failed() {
+		return exitFailed
+	}
+	for _, c := range e.Cautions {
+		if c.Level >= calc.Danger {
+			return exitFailed
+		}
+	}
+	return exitOK
+}
+
+func runExplain(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("explain", "explain [KIND]", stderr)
+	if err := fs.Parse(args); err != nil {
+		return exitBadInput
+	}
+	switch fs.NArg() {
+	case 0:
+		calc.ExplainKinds(stdout)
+		return exitOK
+	case 1:
+		k, ok := calc.LookupKind(fs.Arg(0))
+		if !ok {
+			msg := fmt.Sprintf("specgen explain: unknown kind %q", fs.Arg(0))
+			if s := calc.Suggest(fs.Arg(0), calc.KindNames()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			fmt.Fprintln(stderr, msg)
+			calc.ExplainKinds(stderr)
+			return exitBadInput
+		}
+		k.Explain(stdout)
+		return exitOK
+	}
+	fmt.Fprintln(stderr, "specgen explain: give at most one kind")
+	return exitBadInput
+}

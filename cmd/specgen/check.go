@@ -1,0 +1,65 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+
+	"specgen/internal/site"
+)
+
+// checkReport is the -format json output of check.
+type checkReport struct {
+	Version  int            `json:"version"`
+	OK       bool           `json:"ok"`
+	Tally    site.Tally     `json:"tally"`
+	Problems []site.Problem `json:"problems"`
+}
+
+func runCheck(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("check", "check [-C dir] [-format text|json]", stderr)
+	dir := fs.String("C", ".", "site root: the folder holding content/")
+	format := fs.String("format", "text", "output format: text or json")
+	if code := parseFlags(fs, args); code >= 0 {
+		return code
+	}
+	if *format != "text" && *format != "json" {
+		fmt.Fprintf(stderr, "specgen check: -format %q is not allowed; allowed: text, json\n", *format)
+		return exitBadInput
+	}
+	s, err := site.Load(*dir)
+	if err != nil {
+		return report(stderr, err)
+	}
+	problems := s.Problems()
+	tally := s.Tally()
+	if *format == "json" {
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		if problems == nil {
+			problems = []site.Problem{}
+		}
+		if err := enc.Encode(checkReport{Version: 1, OK: len(problems) == 0, Tally: tally, Problems: problems}); err != nil {
+			return report(stderr, err)
+		}
+	} else {
+		printProblems(stdout, problems)
+		fmt.Fprintf(stdout, "%d pages, %d blocks, %d claims (%d failed), %d cautions (%d DANGER)\n",
+			tally.Pages, tally.Blocks, tally.Claims, tally.FailedClaims, tally.Cautions, tally.Dangers)
+	}
+	if len(problems) > 0 {
+		return exitFailed
+	}
+	return exitOK
+}
+
+// printProblems writes one line per failed claim or DANGER caution.
+func printProblems(w io.Writer, problems []site.Problem) {
+	for _, p := range problems {
+		if p.Type == "caution" {
+			fmt.Fprintf(w, "%s:%d: %s: %s [%s]: %s\n", p.File, p.Line, p.Block, p.Level, p.Name, p.Message)
+			continue
+		}
+		fmt.Fprintf(w, "%s:%d: %s: %s\n", p.File, p.Line, p.Block, p.Message)
+	}
+}

@@ -1,0 +1,68 @@
+package render
+
+import (
+	"bytes"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/parser"
+	"github.com/yuin/goldmark/text"
+
+	"specgen/internal/calc"
+)
+
+// KindCalcBlock is the AST kind of a calculation block.
+var KindCalcBlock = ast.NewNodeKind("CalcBlock")
+
+// CalcBlock is a fenced code block whose info string is "calc". The site
+// evaluates its Source and sets Eval before the page is rendered.
+type CalcBlock struct {
+	ast.BaseBlock
+	Source    string
+	FenceLine int // 1-based line of the opening fence in the document body
+	Eval      *calc.Evaluated
+}
+
+// Kind implements ast.Node.
+func (n *CalcBlock) Kind() ast.NodeKind { return KindCalcBlock }
+
+// Dump implements ast.Node.
+func (n *CalcBlock) Dump(source []byte, level int) {
+	ast.DumpHelper(n, source, level, map[string]string{"Source": n.Source}, nil)
+}
+
+// calcBlockTransformer swaps "calc" fences for CalcBlock nodes, so that
+// chroma never sees them and the site can find them.
+type calcBlockTransformer struct{}
+
+func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc parser.Context) {
+	source := reader.Source()
+	var fences []*ast.FencedCodeBlock
+	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if f, ok := n.(*ast.FencedCodeBlock); ok && entering && f.Info != nil && string(f.Language(source)) == "calc" {
+			fences = append(fences, f)
+		}
+		return ast.WalkContinue, nil
+	})
+	for _, f := range fences {
+		var src bytes.Buffer
+		lines := f.Lines()
+		for i := 0; i < lines.Len(); i++ {
+			seg := lines.At(i)
+			src.Write(seg.Value(source))
+		}
+		n := &CalcBlock{Source: src.String(), FenceLine: bytes.Count(source[:f.Info.Segment.Start], []byte("\n")) + 1}
+		f.Parent().ReplaceChild(f.Parent(), f, n)
+	}
+}
+
+// CalcBlocks lists the document's calculation blocks in order.
+func (d *Document) CalcBlocks() []*CalcBlock {
+	var out []*CalcBlock
+	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if b, ok := n.(*CalcBlock); ok && entering {
+			out = append(out, b)
+		}
+		return ast.WalkContinue, nil
+	})
+	return out
+}

@@ -1,0 +1,223 @@
+package render
+
+import (
+	"html"
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/renderer"
+	"github.com/yuin/goldmark/util"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
+)
+
+// calcRenderer writes calculation blocks and inline values.
+type calcRenderer struct{}
+
+func (r *calcRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
+	reg.Register(KindCalcBlock, r.renderBlock)
+	reg.Register(KindValueRef, r.renderValue)
+}
+
+func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	n := node.(*ValueRef)
+	name := esc(n.Block + "." + n.Result)
+	text := esc(n.Shown)
+	if n.Shown == "" {
+		// Only reachable when a page is rendered without evaluation.
+		text = "=[" + name + "]"
+	}
+	if n.Href != "" {
+		_, _ = w.WriteString(`<a class="sg-value" href="` + esc(n.Href) + `" title="computed: ` + name + `">` + text + `</a>`)
+	} else {
+		_, _ = w.WriteString(`<span class="sg-value" title="computed: ` + name + `">` + text + `</span>`)
+	}
+	return ast.WalkSkipChildren, nil
+}
+
+func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	n := node.(*CalcBlock)
+	if n.Eval == nil {
+		writeCode(w, "toml", n.Source)
+		return ast.WalkSkipChildren, nil
+	}
+	WriteCalcBlock(w, n.Eval, n.Source)
+	return ast.WalkSkipChildren, nil
+}
+
+// BlockAnchor is the id of a block's section in its page.
+func BlockAnchor(id string) string { return "calc-" + id }
+
+// WriteCalcBlock writes one evaluated block: inputs, results with their
+// working, claims, cautions and the block's source.
+func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string) {
+	b := e.Block
+	anchor := BlockAnchor(b.ID)
+	title := b.Title
+	if title == "" {
+		title = b.ID
+	}
+	ws := func(s ...string) {
+		for _, x := range s {
+			_, _ = w.WriteString(x)
+		}
+	}
+	state := "sg-calc-ok"
+	if e.Failed() {
+		state = "sg-calc-failed"
+	}
+	ws(`<section class="sg-calc `, state, `" id="`, esc(anchor), `" aria-labelledby="`, esc(anchor), `-title">`, "\n")
+	ws(`<header class="sg-calc-head"><h3 class="sg-calc-title" id="`, esc(anchor), `-title">`, esc(title), `</h3>`)
+	ws(`<p class="sg-calc-meta"><span>`, esc(b.Kind.Name), `</span> <code>`, esc(b.ID), `</code></p></header>`, "\n")
+
+	for _, c := range e.Cautions {
+		WriteCaution(w, c.Level, c.Message, b.ID+": "+c.Rule)
+	}
+	if len(e.Claims) > 0 {
+		ws(`<ul class="sg-claims" aria-label="Claims in the text">`, "\n")
+		for _, c := range e.Claims {
+			cls, word := "sg-claim-held", "holds"
+			if !c.OK {
+				cls, word = "sg-claim-failed", "FAILS"
+			}
+			computed := units.Format(c.Computed, max(e.SigFigs(), 3)) + " " + units.Pretty(c.Claim.Unit)
+			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed <q>`,
+				esc(c.Claim.Text), `</q>, computed <strong>`, esc(strings.TrimSpace(computed)), "</strong></li>\n")
+		}
+		ws("</ul>\n")
+	}
+
+	ws(`<div class="sg-calc-tables">`, "\n")
+	writeInputs(w, e)
+	writeResults(w, e)
+	ws("</div>\n")
+	ws(`<details class="sg-calc-source"><summary>Block source</summary>`, "\n")
+	writeCode(w, "toml", source)
+	ws("</details>\n</section>\n")
+}
+
+func writeInputs(w util.BufWriter, e *calc.Evaluated) {
+	_, _ = w.WriteString(`<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th></tr></thead><tbody>` + "\n")
+	for _, in := range e.Inputs {
+		value := esc(in.Text)
+		if in.Dim == units.Pressure {
+			value = esc(pressurePair(in.Value, unitOf(in.Text), e))
+		}
+		note := ""
+		switch {
+		case in.Default:
+			note = ` <span class="sg-note">default</span>`
+		case in.From != "":
+			note = ` <span class="sg-note">from <code>` + esc(strings.TrimPrefix(in.From, "=")) + `</code></span>`
+		}
+		_, _ = w.WriteString(`<tr><th scope="row"><code>` + esc(in.Name) + `</code></th><td class="sg-num">` + value + note + "</td></tr>\n")
+	}
+	_, _ = w.WriteString("</tbody></table>\n")
+}
+
+func writeResults(w util.BufWriter, e *calc.Evaluated) {
+	_, _ = w.WriteString(`<table class="sg-calc-out"><caption>Results</caption><thead><tr><th scope="col">Result</th><th scope="col">Value</th><th scope="col">Working</th></tr></thead><tbody>` + "\n")
+	shown := map[string]bool{}
+	for _, o := range e.Block.Show.Outputs {
+		shown[o.Name] = true
+	}
+	order := make([]calc.Result, 0, len(e.Results))
+	for _, o := range e.Block.Show.Outputs {
+		if r, ok := e.Result(o.Name); ok {
+			order = append(order, r)
+		}
+	}
+	for _, r := range e.Results {
+		if !shown[r.Name] {
+			order = append(order, r)
+		}
+	}
+	seen := map[string]bool{}
+	for _, r := range order {
+		if seen[r.Name] {
+			continue
+		}
+		seen[r.Name] = true
+		value, err := e.Format(r.Name, "")
+		if err != nil {
+			value = units.Format(r.Value, e.SigFigs())
+		}
+		if r.Dim == units.Pressure {
+			value = pressurePair(r.Value, e.DisplayUnit(r.Name), e)
+		}
+		cls := ""
+		if shown[r.Name] {
+			cls = ` class="sg-shown"`
+		}
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code></th><td class="sg-num">` + esc(value) + `</td><td>`)
+		if r.Trace.Formula != "" {
+			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
+			if r.Trace.Substituted != "" {
+				_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
+			}
+			_, _ = w.WriteString(`<p><code>= ` + esc(value) + `</code></p></details>`)
+		}
+		_, _ = w.WriteString("</td></tr>\n")
+	}
+	_, _ = w.WriteString("</tbody></table>\n")
+}
+
+// pressurePair shows an absolute pressure both gauge and absolute, in the
+// family of unit: "6.00 bar(g) · 7.01 bar(a)".
+func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
+	base := pressureBase(unit)
+	g, errG := calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, e.SigFigs())
+	a, errA := calc.FormatValue(abs, units.Pressure, base+"(a)", e.Ambient, e.SigFigs())
+	if errG != nil || errA != nil {
+		s, _ := calc.FormatValue(abs, units.Pressure, "Pa(a)", e.Ambient, e.SigFigs())
+		return s
+	}
+	return g + " · " + a
+}
+
+// pressureBase is the unit of a pressure without its gauge or absolute mark.
+func pressureBase(unit string) string {
+	u, err := units.LookupUnit(unit)
+	if err != nil || u.Dim != units.Pressure {
+		return "bar"
+	}
+	s := strings.TrimSuffix(strings.TrimSuffix(u.Symbol, "(a)"), "(g)")
+	switch s {
+	case "atm", "torr":
+		return "kPa"
+	}
+	if _, err := units.LookupUnit(s + "(a)"); err != nil {
+		return "bar"
+	}
+	return s
+}
+
+// unitOf is the unit part of a quantity text such as "6 bar".
+func unitOf(text string) string {
+	q, err := units.Parse(text, units.Pressure)
+	if err != nil {
+		return "bar"
+	}
+	return q.Unit.Symbol
+}
+
+// WriteCaution writes one caution box with its signal word.
+func WriteCaution(w util.BufWriter, level calc.Level, message, source string) {
+	word := level.String()
+	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
+		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
+		`<p class="sg-caution-text">` + esc(message) + `</p>`)
+	if source != "" {
+		_, _ = w.WriteString(`<p class="sg-caution-source">` + esc(source) + `</p>`)
+	}
+	_, _ = w.WriteString("</aside>\n")
+}
+
+func esc(s string) string { return html.EscapeString(s) }

@@ -1,0 +1,66 @@
+package render
+
+import (
+	"fmt"
+	"io"
+	"text/tabwriter"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
+)
+
+// WriteText writes an evaluated block as plain text for a terminal:
+// inputs, results with their working, claims and cautions.
+func WriteText(w io.Writer, e *calc.Evaluated) {
+	b := e.Block
+	title := b.Title
+	if title == "" {
+		title = b.ID
+	}
+	fmt.Fprintf(w, "%s (%s %s)\n\nInputs\n", title, b.Kind.Name, b.ID)
+	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	for _, in := range e.Inputs {
+		value := in.Text
+		if in.Dim == units.Pressure {
+			value = pressurePair(in.Value, unitOf(in.Text), e)
+		}
+		note := ""
+		switch {
+		case in.Default:
+			note = "(default)"
+		case in.From != "":
+			note = "(from " + in.From + ")"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\n", in.Name, value, note)
+	}
+	_ = tw.Flush()
+	fmt.Fprintln(w, "\nResults")
+	tw = tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	for _, r := range e.Results {
+		value, err := e.Format(r.Name, "")
+		if err != nil {
+			value = units.Format(r.Value, e.SigFigs())
+		}
+		if r.Dim == units.Pressure {
+			value = pressurePair(r.Value, e.DisplayUnit(r.Name), e)
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", r.Name, value, r.Trace.Formula, r.Trace.Substituted)
+	}
+	_ = tw.Flush()
+	if len(e.Claims) > 0 {
+		fmt.Fprintln(w, "\nClaims")
+		for _, c := range e.Claims {
+			mark := "holds"
+			if !c.OK {
+				mark = "FAILS"
+			}
+			fmt.Fprintf(w, "  %-5s  %s\n", mark, c.Message)
+		}
+	}
+	if len(e.Cautions) > 0 {
+		fmt.Fprintln(w, "\nCautions")
+		for _, c := range e.Cautions {
+			fmt.Fprintf(w, "  %s [%s] %s\n", c.Level, c.Rule, c.Message)
+		}
+	}
+}

@@ -1,0 +1,136 @@
+package site
+
+import (
+	"errors"
+	"fmt"
+	"path"
+	"strings"
+
+	"specgen/internal/calc"
+	"specgen/internal/render"
+)
+
+// pageBlock ties a decoded block to its node in a page.
+type pageBlock struct {
+	block *calc.Block
+	node  *render.CalcBlock
+}
+
+// parseBlocks decodes the calculation blocks of a page.
+func parseBlocks(p *Page) error {
+	var errs ErrorList
+	for _, n := range p.Doc.CalcBlocks() {
+		b, err := calc.ParseBlock(p.File, n.FenceLine+p.Doc.LineOffset, n.Source)
+		if err != nil {
+			errs = append(errs, fromCalc(err)...)
+			continue
+		}
+		p.blocks = append(p.blocks, pageBlock{block: b, node: n})
+	}
+	return errs.sorted()
+}
+
+// fromCalc turns calc errors into site errors.
+func fromCalc(err error) ErrorList {
+	var list calc.Errors
+	if errors.As(err, &list) {
+		out := make(ErrorList, len(list))
+		for i, e := range list {
+			msg := e.Msg
+			if e.Key != "" {
+				msg = e.Key + ": " + msg
+			}
+			out[i] = &Error{File: e.File, Line: e.Line, Msg: msg}
+		}
+		return out
+	}
+	var one *calc.Error
+	if errors.As(err, &one) {
+		return fromCalc(calc.Errors{one})
+	}
+	return ErrorList{{Msg: err.Error()}}
+}
+
+// evaluate runs every block of the site, then resolves the value
+// references of every page.
+func (s *Site) evaluate() error {
+	var blocks []*calc.Block
+	s.blockPage = map[string]*Page{}
+	for _, p := range s.Pages {
+		for _, pb := range p.blocks {
+			blocks = append(blocks, pb.block)
+			if _, dup := s.blockPage[pb.block.ID]; !dup {
+				s.blockPage[pb.block.ID] = p
+			}
+		}
+	}
+	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs})
+	if err != nil {
+		return fromCalc(err).sorted()
+	}
+	s.Calc = set
+	for _, p := range s.Pages {
+		for _, pb := range p.blocks {
+			pb.node.Eval, _ = set.Lookup(pb.block.ID)
+		}
+	}
+	var errs ErrorList
+	for _, p := range s.Pages {
+		for _, ref := range p.Doc.ValueRefs() {
+			if err := s.resolveRef(p, ref); err != nil {
+				errs = append(errs, err)
+			}
+		}
+	}
+	return errs.sorted()
+}
+
+// resolveRef formats one inline value and links it to its block.
+func (s *Site) resolveRef(p *Page, ref *render.ValueRef) *Error {
+	line := p.Doc.Line(ref.Offset)
+	written := "=[" + ref.Block + "." + ref.Result
+	if ref.Unit != "" {
+		written += " " + ref.Unit
+	}
+	written += "]"
+	fail := func(format string, args ...any) *Error {
+		return &Error{File: p.File, Line: line, Msg: written + ": " + fmt.Sprintf(format, args...)}
+	}
+	e, ok := s.Calc.Lookup(ref.Block)
+	if !ok {
+		msg := fmt.Sprintf("there is no block %q in the site", ref.Block)
+		if sug := calc.Suggest(ref.Block, s.Calc.IDs()); sug != "" {
+			msg += fmt.Sprintf("; did you mean %q?", sug)
+		}
+		return fail("%s", msg)
+	}
+	if _, ok := e.Result(ref.Result); !ok {
+		names := make([]string, len(e.Results))
+		for i, r := range e.Results {
+			names[i] = r.Name
+		}
+		msg := fmt.Sprintf("block %s (%s) has no result %q", ref.Block, e.Block.Kind.Name, ref.Result)
+		if sug := calc.Suggest(ref.Result, names); sug != "" {
+			msg += fmt.Sprintf("; did you mean %q?", sug)
+		} else {
+			msg += "; results: " + strings.Join(names, ", ")
+		}
+		return fail("%s", msg)
+	}
+	shown, err := e.Format(ref.Result, ref.Unit)
+	if err != nil {
+		return fail("%v", err)
+	}
+	ref.Shown = shown
+	target := s.blockPage[ref.Block]
+	ref.Href = "#" + render.BlockAnchor(ref.Block)
+	if target != p {
+		ref.Href = relativeURL(p.Out, target.Out) + ref.Href
+	}
+	return nil
+}
+
+// relativeURL is the link from output page from to output page to.
+func relativeURL(from, to string) string {
+	return strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to)
+}
