@@ -31,11 +31,11 @@ type ClaimOp int
 
 // The claim forms.
 const (
-	OpAbout ClaimOp = iota // "22.5 cm3 ± 2%", "20 cm3"
-	OpAtLeast              // ">= 15 L/min"
-	OpAtMost               // "<= 120 degC"
-	OpAbove                // "> 15 L/min"
-	OpBelow                // "< 120 degC"
+	OpAbout   ClaimOp = iota // "22.5 cm3 ± 2%", "20 cm3"
+	OpAtLeast                // ">= 15 L/min"
+	OpAtMost                 // "<= 120 degC"
+	OpAbove                  // "> 15 L/min"
+	OpBelow                  // "< 120 degC"
 )
 
 var claimOps = []struct {
