@@ -126,7 +126,10 @@ func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, 
 	if u.Symbol == "" {
 		return units.Format(v, sig), nil
 	}
-	return units.Format(v, sig) + " " + units.Pretty(u.Symbol), nil
+	if pretty := units.Pretty(u.Symbol); pretty != "°" {
+		return units.Format(v, sig) + " " + pretty, nil
+	}
+	return units.Format(v, sig) + "°", nil
 }
 
 // Evaluate checks every block of a site together (ids unique, references

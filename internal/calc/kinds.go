@@ -33,6 +33,9 @@ func (k *Kind) input(name string) (InputSpec, bool) {
 	return InputSpec{}, false
 }
 
+// ResultSpec returns the kind's result spec named name.
+func (k *Kind) ResultSpec(name string) (ResultSpec, bool) { return k.result(name) }
+
 // result returns the kind's result spec named name.
 func (k *Kind) result(name string) (ResultSpec, bool) {
 	for _, r := range k.Results {

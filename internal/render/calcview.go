@@ -156,7 +156,11 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		if shown[r.Name] {
 			cls = ` class="sg-shown"`
 		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code></th><td class="sg-num">` + esc(value) + `</td><td>`)
+		meaning := ""
+		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
+			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
+		}
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + esc(value) + `</td><td>`)
 		if r.Trace.Formula != "" {
 			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {

@@ -6,11 +6,29 @@ import (
 	"github.com/yuin/goldmark/ast"
 )
 
-// Heading is one entry of a page's table of contents.
+// Heading is one entry of a page's table of contents, with the headings
+// of the next level below it.
 type Heading struct {
-	Level int
-	ID    string
-	Text  string
+	Level    int
+	ID       string
+	Text     string
+	Children []Heading
+}
+
+// Nest arranges a flat list of headings into a tree by level.
+func Nest(flat []Heading) []Heading {
+	var out []Heading
+	for i := 0; i < len(flat); {
+		h := flat[i]
+		j := i + 1
+		for j < len(flat) && flat[j].Level > h.Level {
+			j++
+		}
+		h.Children = Nest(flat[i+1 : j])
+		out = append(out, h)
+		i = j
+	}
+	return out
 }
 
 // Headings lists the document's headings from level 2 to maxLevel, in order.

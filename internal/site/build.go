@@ -203,7 +203,8 @@ type PageInfo struct {
 	Source      string // the Markdown file, relative to the site root
 	URL         string // the page's own output path from the site root
 	Content     template.HTML
-	TOC         []render.Heading
+	TOC         []render.Heading // nested by level
+	TOCCount    int              // headings in the TOC, all levels
 }
 
 func (s *Site) renderPage(p *Page) ([]byte, error) {
@@ -221,7 +222,8 @@ func (s *Site) renderPage(p *Page) ([]byte, error) {
 			Source:      p.File,
 			URL:         p.Out,
 			Content:     template.HTML(body),
-			TOC:         p.Doc.Headings(3),
+			TOCCount:    len(p.Doc.Headings(3)),
+			TOC:         render.Nest(p.Doc.Headings(3)),
 		},
 		Root:        rootPrefix,
 		Nav:         navFor(s.nav, p, rootPrefix),

@@ -57,7 +57,7 @@ func loadLayouts(root string) (*layouts, error) {
 			return nil, err
 		}
 	}
-	l := &layouts{set: template.New("").Funcs(templateFuncs), assets: map[string][]byte{}}
+	l := &layouts{set: template.New(""), assets: map[string][]byte{}}
 	names := make([]string, 0, len(files))
 	for name := range files {
 		names = append(names, name)
@@ -94,7 +94,3 @@ func (l *layouts) lookup(name string) (*template.Template, error) {
 	return t, nil
 }
 
-var templateFuncs = template.FuncMap{
-	// indent gives a table-of-contents entry its depth as a CSS class suffix.
-	"indent": func(level int) int { return level - 2 },
-}
