@@ -1,0 +1,101 @@
+package render
+
+import (
+	"bufio"
+	"bytes"
+	"io"
+	"strings"
+	"testing"
+
+	"specgen/internal/calc"
+)
+
+const stageBlock = `id = "low"
+kind = "compressor"
+title = "Low <stage> & co"
+bore = "28 mm"
+stroke = "32 mm"
+rod_length = "70 mm"
+clearance_volume = "1.5 cm3"
+speed = "900 rpm"
+discharge_pressure = "6 bar"
+
+[expect]
+swept_volume = "79 cm3"
+free_air_delivery = ">= 10 L/min"
+
+[show]
+outputs = ["free_air_delivery L/min", "max_pressure psi"]
+`
+
+func evaluated(t testing.TB, src string) *calc.Evaluated {
+	t.Helper()
+	b, err := calc.ParseBlock("content/x.md", 10, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	set, err := calc.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup(b.ID)
+	return e
+}
+
+func TestCalcBlockHTML(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	WriteCalcBlock(w, e, stageBlock)
+	_ = w.Flush()
+	out := buf.String()
+	for _, want := range []string{
+		`id="calc-low"`,
+		`Low &lt;stage&gt; &amp; co`, // titles are escaped
+		`sg-calc-failed`,
+		// π/4 · 28² · 32 mm³ = 19 704 mm³ (by hand): the failed claim shows the truth.
+		`<span class="sg-claim-mark">FAILS</span> <code>swept_volume</code> claimed <q>79 cm3</q>, computed <strong>19.7 cm³</strong>`,
+		`<span class="sg-claim-mark">holds</span> <code>free_air_delivery</code>`,
+		// 6 bar gauge on 1 atm: 7.01325 bar absolute.
+		`6.00 bar(g) · 7.01 bar(a)`,
+		`<span class="sg-note">default</span>`,
+		`<details class="sg-trace"><summary>working</summary>`,
+		`<tr class="sg-shown"><th scope="row"><code>free_air_delivery</code>`,
+		`psi(g) · `,
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("block HTML lacks %s", want)
+		}
+	}
+	// [show] outputs come first, in their order.
+	if strings.Index(out, "<code>free_air_delivery</code>") > strings.Index(out, "<code>piston_area</code>") {
+		t.Error("shown outputs are not listed first")
+	}
+}
+
+func TestValueRefRendering(t *testing.T) {
+	md := New()
+	doc := md.Parse([]byte("It sweeps =[low.swept_volume cm3] per stroke.\n"), 0)
+	refs := doc.ValueRefs()
+	if len(refs) != 1 || refs[0].Block != "low" || refs[0].Result != "swept_volume" || refs[0].Unit != "cm3" {
+		t.Fatalf("refs = %+v", refs)
+	}
+	refs[0].Shown, refs[0].Href = "19.7 cm³", "#calc-low"
+	html, err := md.Render(doc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := `<p>It sweeps <a class="sg-value" href="#calc-low" title="computed: low.swept_volume">19.7 cm³</a> per stroke.</p>`
+	if !strings.Contains(string(html), want) {
+		t.Errorf("got %s", html)
+	}
+}
+
+func BenchmarkRenderCalcBlock(b *testing.B) {
+	e := evaluated(b, stageBlock)
+	w := bufio.NewWriter(io.Discard)
+	b.ReportAllocs()
+	for b.Loop() {
+		WriteCalcBlock(w, e, stageBlock)
+	}
+}
