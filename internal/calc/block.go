@@ -30,7 +30,10 @@ type Block struct {
 	Ambient Value
 	Expect  []Claim
 	Show    Show
-	lines   map[string]int // TOML-relative line of each key
+	// Acknowledge maps caution rule ids to the block's reason for
+	// accepting them.
+	Acknowledge map[string]string
+	lines       map[string]int // TOML-relative line of each key
 }
 
 // Value is one input as the user wrote it.
@@ -38,7 +41,17 @@ type Value struct {
 	Text string // the string, or the number's TOML text
 	// Ref is the block and result of a "=id.result" reference, else empty.
 	RefBlock, RefResult string
-	Line                int // file line
+	// Links are the block ids a Link or LinkList input names.
+	Links []string
+	Line  int // file line
+}
+
+// deps lists the blocks a value needs evaluated first.
+func (v Value) deps() []string {
+	if v.RefBlock != "" {
+		return []string{v.RefBlock}
+	}
+	return v.Links
 }
 
 // Show is the [show] table: which results in which units, and charts.
@@ -54,7 +67,7 @@ type Output struct {
 }
 
 // Common keys every block takes besides its kind's inputs.
-var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show"}
+var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
 
 // DefaultAmbient is the ambient pressure when a block names none (1 atm).
 const DefaultAmbient = 101325.0
@@ -136,6 +149,9 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		case "show":
 			errs = append(errs, b.decodeShow(v)...)
 			continue
+		case "acknowledge":
+			errs = append(errs, b.decodeAcknowledge(v)...)
+			continue
 		}
 		if _, isInput := b.Kind.input(key); !isInput && key != "ambient_pressure" {
 			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))
@@ -176,8 +192,15 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
 	dim := units.Pressure
-	if spec, ok := b.Kind.input(key); ok {
+	spec, isInput := b.Kind.input(key)
+	if isInput {
 		dim = spec.Dim
+		switch spec.Type {
+		case Name:
+			return b.decodeName(key, line, v)
+		case Link, LinkList:
+			return b.decodeLinks(spec, line, v)
+		}
 	}
 	switch t := v.(type) {
 	case string:
@@ -204,6 +227,96 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
 	}
 	return bad("%s is not a quantity; write a string such as \"32 mm\"", tomlText(v))
+}
+
+// decodeName reads a Name input: a string, or a number written bare (a
+// property class such as 8.8).
+func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
+	switch t := v.(type) {
+	case string:
+		if strings.TrimSpace(t) == "" {
+			return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: "must not be empty"}
+		}
+		return Value{Text: strings.TrimSpace(t), Line: line}, nil
+	case int64:
+		return Value{Text: strconv.FormatInt(t, 10), Line: line}, nil
+	case float64:
+		return Value{Text: strconv.FormatFloat(t, 'f', -1, 64), Line: line}, nil
+	}
+	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", tomlText(v))}
+}
+
+// decodeLinks reads a Link (one block id) or LinkList (an array of ids).
+func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
+	bad := func(format string, args ...any) (Value, *Error) {
+		return Value{}, &Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
+	}
+	var ids []string
+	switch t := v.(type) {
+	case string:
+		ids = []string{t}
+	case []any:
+		if spec.Type != LinkList {
+			return bad("takes one block id, such as \"low\"; not a list")
+		}
+		for _, item := range t {
+			s, ok := item.(string)
+			if !ok {
+				return bad("%s is not a block id; write a list of strings such as [\"receiver\"]", tomlText(item))
+			}
+			ids = append(ids, s)
+		}
+	default:
+		return bad("%s is not a block id; write the id of another block as a string", tomlText(v))
+	}
+	for _, id := range ids {
+		if !idPattern.MatchString(id) {
+			return bad("%q is not a block id (lower-case letters, digits, '-' and '_')", id)
+		}
+	}
+	if len(ids) == 0 {
+		return bad("names no block")
+	}
+	return Value{Text: strings.Join(ids, ", "), Links: ids, Line: line}, nil
+}
+
+// decodeAcknowledge reads [acknowledge]: caution rule ids with reasons.
+func (b *Block) decodeAcknowledge(v any) Errors {
+	table, ok := v.(map[string]any)
+	if !ok {
+		return Errors{{File: b.File, Line: b.lineOf("acknowledge"), Key: "acknowledge",
+			Msg: "must be a table: [acknowledge] with lines such as stored-energy = \"why this is accepted\""}}
+	}
+	var errs Errors
+	b.Acknowledge = map[string]string{}
+	ids := RuleIDs()
+	for _, rule := range sortedKeys(table) {
+		key := "acknowledge." + rule
+		reason, isString := table[rule].(string)
+		switch {
+		case !knownRule(rule):
+			msg := fmt.Sprintf("unknown caution rule %q; rules: %s", rule, strings.Join(ids, ", "))
+			if s := Suggest(rule, ids); s != "" {
+				msg = fmt.Sprintf("unknown caution rule %q; did you mean %q?", rule, s)
+			}
+			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key, Msg: msg})
+		case !isString || strings.TrimSpace(reason) == "":
+			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key,
+				Msg: "give the reason as a string; an acknowledgement without a reason is not accepted"})
+		default:
+			b.Acknowledge[rule] = strings.TrimSpace(reason)
+		}
+	}
+	return errs
+}
+
+func sortedKeys[V any](m map[string]V) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	return keys
 }
 
 // lineOf is the file line of a key ("expect.displacement" for tables).

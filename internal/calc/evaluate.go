@@ -12,7 +12,8 @@ import (
 
 // Options are the site-wide settings of an evaluation.
 type Options struct {
-	SigFigs int // significant figures of displayed values (default 3)
+	SigFigs int  // significant figures of displayed values (default 3)
+	Env     *Env // materials and safety settings (default DefaultEnv)
 }
 
 // Set is every evaluated block of a site.
@@ -48,6 +49,7 @@ type Evaluated struct {
 	Cautions []CautionNote
 	Curves   []Curve
 	sigFigs  int
+	in       *Inputs // what the model saw, for the caution rules
 }
 
 // InputValue is one input as read: what was written, or the default.
@@ -58,6 +60,26 @@ type InputValue struct {
 	Dim     units.Dimension
 	Default bool   // not written by the user
 	From    string // "=id.result" when the value came from another block
+	Type    InputType
+	Links   []string // the blocks a Link or LinkList input names
+}
+
+// linked is the view of e that a block linking to it gets.
+func (e *Evaluated) linked() *Linked {
+	l := &Linked{ID: e.Block.ID, Kind: e.Block.Kind.Name, Ambient: e.Ambient,
+		Results: map[string]float64{}, Inputs: map[string]float64{}, Names: map[string]string{}, Curves: e.Curves}
+	for _, r := range e.Results {
+		l.Results[r.Name] = r.Value
+	}
+	for _, in := range e.Inputs {
+		switch in.Type {
+		case Quantity:
+			l.Inputs[in.Name] = in.Value
+		case Name:
+			l.Names[in.Name] = in.Text
+		}
+	}
+	return l
 }
 
 // Result returns the result named name.
@@ -138,6 +160,12 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if opts.SigFigs == 0 {
 		opts.SigFigs = 3
 	}
+	if opts.Env == nil {
+		if _, err := DefaultMaterials(); err != nil {
+			return nil, err
+		}
+		opts.Env = DefaultEnv()
+	}
 	set := &Set{byID: map[string]*Evaluated{}, opts: opts}
 	var errs Errors
 	byID := map[string]*Block{}
@@ -189,13 +217,16 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	for _, id := range ids {
 		set.Blocks = append(set.Blocks, set.byID[id])
 	}
+	applyRules(set)
 	return set, nil
 }
 
 func dependsOnFailed(b *Block, failed map[string]bool) bool {
 	for _, v := range b.Values {
-		if v.RefBlock != "" && failed[v.RefBlock] {
-			return true
+		for _, id := range v.deps() {
+			if failed[id] {
+				return true
+			}
 		}
 	}
 	return false
@@ -207,10 +238,29 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 	var errs Errors
 	for _, key := range sortedValueKeys(b) {
 		v := b.Values[key]
+		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
+		if len(v.Links) > 0 {
+			in, _ := b.Kind.input(key)
+			for _, id := range v.Links {
+				target, ok := byID[id]
+				switch {
+				case !ok:
+					msg := fmt.Sprintf("names block %q, which does not exist", id)
+					if s := Suggest(id, ids); s != "" {
+						msg += fmt.Sprintf("; did you mean %q?", s)
+					}
+					fail(msg)
+				case target == b:
+					fail(fmt.Sprintf("names its own block %q", id))
+				case len(in.LinkKinds) > 0 && !contains(in.LinkKinds, target.Kind.Name):
+					fail(fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(in.LinkKinds, " or ")))
+				}
+			}
+			continue
+		}
 		if v.RefBlock == "" {
 			continue
 		}
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		target, ok := byID[v.RefBlock]
 		if !ok {
 			msg := fmt.Sprintf("%q refers to block %q, which does not exist", v.Text, v.RefBlock)
@@ -283,7 +333,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 		stack = append(stack, id)
 		b := byID[id]
 		for _, key := range sortedValueKeys(b) {
-			if ref := b.Values[key].RefBlock; ref != "" {
+			for _, ref := range b.Values[key].deps() {
 				if err := visit(ref); err != nil {
 					return err
 				}
@@ -305,7 +355,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 // refKeyTo finds the key of b that refers to block id.
 func refKeyTo(b *Block, id string) (string, int) {
 	for _, key := range sortedValueKeys(b) {
-		if v := b.Values[key]; v.RefBlock == id {
+		if v := b.Values[key]; contains(v.deps(), id) {
 			return key, v.Line
 		}
 	}
@@ -333,9 +383,46 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 			e.Ambient = q.Value
 		}
 	}
-	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{}}
+	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
+		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env}
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
+		switch spec.Type {
+		case Name:
+			if !given && spec.Default == "" {
+				continue
+			}
+			text, line := spec.Default, b.Line
+			if given {
+				text, line = v.Text, v.Line
+			}
+			if spec.Choices != nil {
+				choices := spec.Choices(opts.Env)
+				if !contains(choices, text) {
+					msg := fmt.Sprintf("%q is not known; allowed: %s", text, strings.Join(choices, ", "))
+					if s := Suggest(text, choices); s != "" {
+						msg = fmt.Sprintf("%q is not known; did you mean %q? (allowed: %s)", text, s, strings.Join(choices, ", "))
+					}
+					fail(spec.Name, line, msg)
+					continue
+				}
+			}
+			in.SetName(spec.Name, text, given)
+			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: text, Default: !given, Type: Name})
+			continue
+		case Link, LinkList:
+			if !given {
+				continue
+			}
+			var linked []*Linked
+			for _, id := range v.Links {
+				src, _ := set.Lookup(id)
+				linked = append(linked, src.linked())
+			}
+			in.SetLinks(spec.Name, linked)
+			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Type: spec.Type, Links: v.Links})
+			continue
+		}
 		text := spec.Default
 		line := b.Line
 		if given {
@@ -394,6 +481,7 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 		}
 	}
 	e.Results, e.Cautions, e.Curves = out.Results, out.Cautions, out.Curves
+	e.in = in
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {

@@ -22,16 +22,34 @@ type Kind struct {
 	Evaluate func(in *Inputs) (*Outcome, error)
 }
 
+// InputType is what an input's value is.
+type InputType int
+
+// The input types.
+const (
+	Quantity InputType = iota // "32 mm", a plain number, or "=id.result"
+	Name                      // a name from a list: a material, a thread size
+	Link                      // the id of another block: supply = "low"
+	LinkList                  // a list of block ids: protects = ["tank", "wall"]
+)
+
 // InputSpec describes one input key of a kind.
 type InputSpec struct {
 	Name    string
-	Dim     units.Dimension
+	Type    InputType
+	Dim     units.Dimension // for Quantity inputs
 	Default string // as the user would write it; "" means required unless Optional
 	// Optional inputs may be left out; the model decides what their absence
 	// means (one of two alternatives, say).
 	Optional bool
 	Range    Range
 	Meaning  string // one line
+	// LinkKinds are the kinds a Link or LinkList input may name; empty
+	// allows any kind.
+	LinkKinds []string
+	// Choices lists the values a Name input allows (for messages and
+	// checks); nil allows any non-empty name the model checks itself.
+	Choices func(env *Env) []string
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.
@@ -72,6 +90,11 @@ type ResultSpec struct {
 	Dim     units.Dimension
 	Unit    string // default display unit
 	Meaning string
+	// Factor marks a safety factor, checked against the site's minimum.
+	// FactorMaterial names the Name input holding the part's material;
+	// "" means a ductile metal (steel bolts).
+	Factor         bool
+	FactorMaterial string
 }
 
 // Inputs holds a block's validated input values in SI units, pressures
@@ -80,15 +103,59 @@ type Inputs struct {
 	Ambient float64 // ambient pressure, Pa absolute
 	values  map[string]float64
 	given   map[string]bool
+	names   map[string]string
+	links   map[string][]*Linked
+	env     *Env
 }
 
-// NewInputs returns inputs with the given SI values, all marked as given.
+// NewInputs returns inputs with the given SI values, all marked as given,
+// in the default environment.
 func NewInputs(ambient float64, values map[string]float64) *Inputs {
-	in := &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{}}
+	in := &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+		names: map[string]string{}, links: map[string][]*Linked{}, env: DefaultEnv()}
 	for k, v := range values {
 		in.Set(k, v, true)
 	}
 	return in
+}
+
+// SetName stores a Name input.
+func (in *Inputs) SetName(key, value string, given bool) {
+	in.names[key] = value
+	in.given[key] = given
+}
+
+// SetLinks stores the blocks a Link or LinkList input names.
+func (in *Inputs) SetLinks(key string, linked []*Linked) {
+	in.links[key] = linked
+	in.given[key] = true
+}
+
+// NameOf returns a Name input ("" when absent).
+func (in *Inputs) NameOf(key string) string { return in.names[key] }
+
+// LinkOf returns the block a Link input names, or nil.
+func (in *Inputs) LinkOf(key string) *Linked {
+	if l := in.links[key]; len(l) > 0 {
+		return l[0]
+	}
+	return nil
+}
+
+// LinksOf returns the blocks a LinkList input names.
+func (in *Inputs) LinksOf(key string) []*Linked { return in.links[key] }
+
+// Env returns the site settings the block is evaluated in.
+func (in *Inputs) Env() *Env { return in.env }
+
+// Linked is another block's evaluation, as a block that links to it sees it.
+type Linked struct {
+	ID, Kind string
+	Ambient  float64
+	Results  map[string]float64 // SI
+	Inputs   map[string]float64 // SI, with defaults
+	Names    map[string]string
+	Curves   []Curve
 }
 
 // Set stores a value; given says whether the user wrote it (not a default).
@@ -102,8 +169,11 @@ func (in *Inputs) Value(name string) float64 { return in.values[name] }
 
 // Has reports whether the input has a value, given or default.
 func (in *Inputs) Has(name string) bool {
-	_, ok := in.values[name]
-	return ok
+	if _, ok := in.values[name]; ok {
+		return true
+	}
+	_, ok := in.names[name]
+	return ok || len(in.links[name]) > 0
 }
 
 // Given reports whether the user wrote the input.
@@ -163,6 +233,9 @@ type CautionNote struct {
 	Level   Level
 	Rule    string // our rule id, e.g. "no-delivery"
 	Message string
+	// Acknowledged is the block's reason for accepting this caution, from
+	// its [acknowledge] table; an acknowledged caution is still shown.
+	Acknowledged string
 }
 
 // Curve is a sampled series for charts, in SI units.

@@ -1,0 +1,313 @@
+package calc
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+
+	"specgen/internal/units"
+)
+
+// Rule is one caution rule: it looks at the evaluated blocks of a site and
+// raises cautions on some of them.
+type Rule struct {
+	ID      string
+	Level   Level  // the highest level it raises
+	Summary string // what it watches, for explain and the docs
+	check   func(s *Set) []raised
+}
+
+// raised is a caution a rule puts on a block.
+type raised struct {
+	block *Evaluated
+	note  CautionNote
+}
+
+// Thresholds of the rules, with their basis.
+const (
+	// hotMargin: a discharge within this of a part's temperature limit is a
+	// WARNING (the issue's figure; thermocouple and model error are of this order).
+	hotMargin = 10.0 // K
+	// dangerFactor: below this safety factor a part is a DANGER whatever the
+	// site's minimum (common practice: no margin left for flaws or fatigue).
+	dangerFactor = 1.5
+	// Stored energy: above 1 kJ a NOTICE, above 10 kJ a WARNING. The basis is
+	// the energy of an isentropic expansion to ambient; 1 kJ is about the
+	// energy of a 1 kg mass dropped from 100 m (common practice for "enough to
+	// hurt"; from memory, several pneumatic-test guides use thresholds of this order).
+	storedEnergyNotice  = 1e3  // J
+	storedEnergyWarning = 10e3 // J
+)
+
+// rules is every caution rule, in the order they are applied.
+var rules = []Rule{
+	{ID: "no-delivery", Level: Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
+	{ID: "hot-discharge", Level: Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", check: hotDischarge},
+	{ID: "low-safety-factor", Level: Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", check: lowSafetyFactor},
+	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
+	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
+	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
+	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
+}
+
+// Rules lists the caution rules.
+func Rules() []Rule { return rules }
+
+// RuleIDs lists the rule ids, sorted.
+func RuleIDs() []string {
+	ids := make([]string, len(rules))
+	for i, r := range rules {
+		ids[i] = r.ID
+	}
+	sort.Strings(ids)
+	return ids
+}
+
+func knownRule(id string) bool {
+	for _, r := range rules {
+		if r.ID == id {
+			return true
+		}
+	}
+	return false
+}
+
+// applyRules raises every rule's cautions on the set's blocks, marks the
+// ones a block acknowledges, and sorts each block's cautions by level.
+func applyRules(s *Set) {
+	for _, r := range rules {
+		if r.check == nil {
+			continue
+		}
+		for _, c := range r.check(s) {
+			c.note.Rule = r.ID
+			c.block.Cautions = append(c.block.Cautions, c.note)
+		}
+	}
+	for _, e := range s.Blocks {
+		for i := range e.Cautions {
+			e.Cautions[i].Acknowledged = e.Block.Acknowledge[e.Cautions[i].Rule]
+		}
+		sort.SliceStable(e.Cautions, func(i, j int) bool { return e.Cautions[i].Level > e.Cautions[j].Level })
+	}
+}
+
+// material returns the material a Name input of e names.
+func (e *Evaluated) material(key string) (Material, bool) {
+	if e.in == nil {
+		return Material{}, false
+	}
+	name := e.in.NameOf(key)
+	if name == "" {
+		return Material{}, false
+	}
+	m, err := e.in.Env().Materials.Lookup(name)
+	return m, err == nil
+}
+
+func (e *Evaluated) show(si float64, dim units.Dimension, unit string) string {
+	s, err := FormatValue(si, dim, unit, e.Ambient, e.sigFigs)
+	if err != nil {
+		return units.Format(si, e.sigFigs)
+	}
+	return s
+}
+
+func hotDischarge(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		t2, ok := e.Result("discharge_temperature")
+		if !ok {
+			continue
+		}
+		for _, key := range []string{"head_material", "valve_material"} {
+			m, ok := e.material(key)
+			if !ok {
+				continue
+			}
+			limit := m.TemperatureLimit()
+			what := "service temperature limit"
+			if limit == m.HeatDeflection {
+				what = "heat deflection temperature"
+			}
+			msg := fmt.Sprintf("discharge temperature %s against the %s %s of %s %s (%s)",
+				e.show(t2.Value, units.Temperature, "degC"), strings.TrimSuffix(key, "_material"), what, m.Label,
+				e.show(limit, units.Temperature, "degC"), "typical value: verify for your material")
+			switch {
+			case t2.Value > limit:
+				out = append(out, raised{e, CautionNote{Level: Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
+			case t2.Value > limit-hotMargin:
+				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within 10 K of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+			}
+		}
+	}
+	return out
+}
+
+func lowSafetyFactor(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		for _, spec := range e.Block.Kind.Results {
+			if !spec.Factor {
+				continue
+			}
+			r, ok := e.Result(spec.Name)
+			if !ok {
+				continue
+			}
+			m, hasMaterial := e.material(spec.FactorMaterial)
+			min := e.in.Env().Safety.MinimumFactorMetal
+			basis := "metal"
+			if hasMaterial {
+				min = e.in.Env().Safety.MinimumFor(m)
+				basis = m.Label
+			}
+			factor := units.Format(r.Value, e.sigFigs)
+			switch {
+			case r.Value < dangerFactor:
+				out = append(out, raised{e, CautionNote{Level: Danger, Message: fmt.Sprintf(
+					"%s is %s, below %s: the part is close to failing at its working load. Redesign it before it is pressurised.",
+					spec.Name, factor, units.Format(dangerFactor, 2))}})
+			case r.Value < min:
+				out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
+					"%s is %s, below the site's minimum of %s for %s. Thicken or strengthen the part, or lower the pressure.",
+					spec.Name, factor, units.Format(min, 2), basis)}})
+			}
+		}
+	}
+	return out
+}
+
+// pressureParts are the blocks with an allowable pressure.
+func pressureParts(s *Set) []*Evaluated {
+	var parts []*Evaluated
+	for _, e := range s.Blocks {
+		if _, ok := e.Result("allowable_pressure"); ok {
+			parts = append(parts, e)
+		}
+	}
+	return parts
+}
+
+// links reports whether e names id in any of its Link or LinkList inputs.
+func (e *Evaluated) links(id string) bool {
+	for _, in := range e.Inputs {
+		if contains(in.Links, id) {
+			return true
+		}
+	}
+	return false
+}
+
+func noRelief(s *Set) []raised {
+	var out []raised
+	parts := pressureParts(s)
+	var valves []*Evaluated
+	for _, e := range s.Blocks {
+		if _, ok := e.Result("cracking_pressure"); ok && e.Block.Kind.Name == "valve" {
+			valves = append(valves, e)
+		}
+	}
+	for _, c := range s.Blocks {
+		dead, ok := c.Result("max_pressure")
+		if !ok || c.Block.Kind.Name != "compressor" {
+			continue
+		}
+		for _, p := range parts {
+			exposed := p.Block.File == c.Block.File || p.links(c.Block.ID)
+			for _, v := range valves {
+				if v.links(c.Block.ID) && v.links(p.Block.ID) {
+					exposed = true
+				}
+			}
+			allow, _ := p.Result("allowable_pressure")
+			if !exposed || dead.Value <= allow.Value {
+				continue
+			}
+			// The relief must open below the part's allowable pressure.
+			relieved := false
+			var tooHigh []string
+			for _, v := range valves {
+				if !v.links(c.Block.ID) && !v.links(p.Block.ID) {
+					continue
+				}
+				set, _ := v.Result("cracking_pressure")
+				// cracking_pressure is a difference across the seat; the
+				// valve vents to ambient, so it opens at ambient + that.
+				if set.Value+v.Ambient <= allow.Value {
+					relieved = true
+					break
+				}
+				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, v.show(set.Value, units.Stress, "bar")))
+			}
+			if relieved {
+				continue
+			}
+			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
+				c.Block.ID, c.show(dead.Value, units.Pressure, "bar"), p.show(allow.Value, units.Pressure, "bar"), p.Block.ID,
+				p.show(allow.Value, units.Pressure, "bar"), c.Block.ID)
+			if len(tooHigh) > 0 {
+				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
+			}
+			out = append(out, raised{c, CautionNote{Level: Danger, Message: msg}})
+		}
+	}
+	return out
+}
+
+func storedEnergy(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		r, ok := e.Result("stored_energy")
+		if !ok || r.Value <= storedEnergyNotice {
+			continue
+		}
+		level := Notice
+		if r.Value > storedEnergyWarning {
+			level = Warning
+		}
+		out = append(out, raised{e, CautionNote{Level: level, Message: fmt.Sprintf(
+			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
+			e.show(r.Value, units.Energy, "kJ"))}})
+	}
+	return out
+}
+
+func printedPart(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		isPart := false
+		if _, ok := e.Result("allowable_pressure"); ok {
+			isPart = true
+		}
+		for _, key := range []string{"material", "head_material", "valve_material"} {
+			m, ok := e.material(key)
+			if !ok || !m.Printable || (key == "material" && !isPart && e.Block.Kind.Name != "valve") {
+				continue
+			}
+			out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
+				"%s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
+				strings.ReplaceAll(key, "_", " "), m.Label)}})
+		}
+	}
+	return out
+}
+
+func vacuumVessel(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		if e.Block.Kind.Name != "vacuum" {
+			continue
+		}
+		out = append(out, raised{e, CautionNote{Level: Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded."}})
+	}
+	return out
+}
+
+// StandardCaution is shown on every page with a pressure calculation.
+const StandardCaution = "Compressed air stores energy that can burst vessels, throw parts and inject air through skin. " +
+	"The figures on this page come from simplified models and are not a certification. " +
+	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
+// PressureKinds are the kinds whose pages carry the standard caution.
+var PressureKinds = []string{"bolts", "compressor", "motor", "multistage", "tank", "tube", "vacuum", "valve"}

@@ -1,0 +1,288 @@
+package calc
+
+import (
+	_ "embed"
+	"fmt"
+	"sort"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/units"
+)
+
+// MaterialClass sorts materials for safety factors and cautions.
+type MaterialClass string
+
+// The material classes.
+const (
+	Plastic MaterialClass = "plastic"
+	Metal   MaterialClass = "metal"
+)
+
+// Material is one engineering material with typical properties in SI.
+type Material struct {
+	Name      string // key, e.g. "petg"
+	Label     string // for people, e.g. "PETG"
+	Class     MaterialClass
+	Printable bool // a 3D-printing plastic
+	Brittle   bool // fails without yielding (cast iron, PMMA): the higher minimum factor
+	// Strengths and stiffness, Pa. YieldStrength is 0 where a material has
+	// no defined yield point.
+	TensileStrength, YieldStrength, ElasticModulus float64
+	Density                                        float64 // kg/m3
+	PoissonRatio                                   float64
+	// Temperature limits, K. HeatDeflection is 0 for metals.
+	ServiceTemperature, HeatDeflection float64
+	Source                             string // where the typical values come from
+}
+
+// DesignStrength is the strength safety factors are taken against: yield
+// where the material has one, else tensile strength. It returns the value
+// and its name for traces.
+func (m Material) DesignStrength() (float64, string) {
+	if m.YieldStrength > 0 {
+		return m.YieldStrength, "yield strength"
+	}
+	return m.TensileStrength, "tensile strength"
+}
+
+// TemperatureLimit is the lowest of the service temperature and, for
+// plastics, the heat deflection temperature.
+func (m Material) TemperatureLimit() float64 {
+	if m.HeatDeflection > 0 && m.HeatDeflection < m.ServiceTemperature {
+		return m.HeatDeflection
+	}
+	return m.ServiceTemperature
+}
+
+// Materials is a table of materials by name.
+type Materials struct {
+	byName map[string]Material
+}
+
+//go:embed materials.toml
+var materialsTOML string
+
+// materialRow is one table of materials.toml or of [materials] in
+// specgen.toml, as written.
+type materialRow map[string]any
+
+var materialKeys = []string{
+	"brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
+	"printable", "service_temperature", "source", "tensile_strength", "yield_strength",
+}
+
+// builtinMaterials is materials.toml, read once; a test keeps it valid.
+var builtinMaterials, builtinMaterialsErr = ParseMaterials(materialsTOML, nil)
+
+// DefaultMaterials returns the built-in table.
+func DefaultMaterials() (*Materials, error) {
+	if builtinMaterialsErr != nil {
+		return nil, fmt.Errorf("built-in materials table: %w", builtinMaterialsErr)
+	}
+	return builtinMaterials, nil
+}
+
+// ParseMaterials reads a materials table, each row over the same row of
+// base (nil for none) so that a site can override single properties.
+func ParseMaterials(src string, base *Materials) (*Materials, error) {
+	var rows map[string]materialRow
+	if _, err := toml.Decode(src, &rows); err != nil {
+		return nil, err
+	}
+	return base.With(rows, KeyLines(src), "")
+}
+
+// With returns the table with rows added or overriding base rows key by
+// key. lines and file place errors (lines of "name.key").
+func (m *Materials) With(rows map[string]materialRow, lines map[string]int, file string) (*Materials, error) {
+	out := &Materials{byName: map[string]Material{}}
+	if m != nil {
+		for k, v := range m.byName {
+			out.byName[k] = v
+		}
+	}
+	names := make([]string, 0, len(rows))
+	for n := range rows {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	var errs Errors
+	for _, name := range names {
+		mat, isBase := out.byName[name]
+		if !isBase {
+			mat = Material{Name: name}
+		}
+		fail := func(key, msg string) {
+			errs = append(errs, &Error{File: file, Line: lines["materials."+name+"."+key] + lines[name+"."+key], Key: "materials." + name + "." + key, Msg: msg})
+		}
+		row := rows[name]
+		keys := make([]string, 0, len(row))
+		for k := range row {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		for _, key := range keys {
+			if err := mat.set(key, row[key]); err != nil {
+				fail(key, err.Error())
+			}
+		}
+		if !isBase {
+			for _, required := range []string{"class", "tensile_strength", "elastic_modulus", "density", "service_temperature"} {
+				if _, ok := row[required]; !ok {
+					errs = append(errs, &Error{File: file, Line: lines["materials."+name] + lines[name], Key: "materials." + name,
+						Msg: "a new material needs " + required + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
+				}
+			}
+		}
+		if mat.Label == "" {
+			mat.Label = name
+		}
+		out.byName[name] = mat
+	}
+	if err := errs.orNil(); err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+// set reads one property of a material row.
+func (m *Material) set(key string, v any) error {
+	quantity := func(dim units.Dimension, dst *float64) error {
+		s, ok := v.(string)
+		if !ok {
+			return fmt.Errorf("%s is not a quantity; write a string such as \"50 MPa\"", tomlText(v))
+		}
+		q, err := units.Parse(s, dim)
+		if err != nil {
+			return err
+		}
+		if q.Value <= 0 {
+			return fmt.Errorf("%q must be above zero", s)
+		}
+		*dst = q.Value
+		return nil
+	}
+	text := func(dst *string) error {
+		s, ok := v.(string)
+		if !ok {
+			return fmt.Errorf("%s is not a string", tomlText(v))
+		}
+		*dst = s
+		return nil
+	}
+	flag := func(dst *bool) error {
+		b, ok := v.(bool)
+		if !ok {
+			return fmt.Errorf("%s is not true or false", tomlText(v))
+		}
+		*dst = b
+		return nil
+	}
+	switch key {
+	case "label":
+		return text(&m.Label)
+	case "source":
+		return text(&m.Source)
+	case "class":
+		var c string
+		if err := text(&c); err != nil {
+			return err
+		}
+		if c != string(Plastic) && c != string(Metal) {
+			return fmt.Errorf("%q is not a class; allowed: plastic, metal", c)
+		}
+		m.Class = MaterialClass(c)
+	case "printable":
+		return flag(&m.Printable)
+	case "brittle":
+		return flag(&m.Brittle)
+	case "tensile_strength":
+		return quantity(units.Stress, &m.TensileStrength)
+	case "yield_strength":
+		return quantity(units.Stress, &m.YieldStrength)
+	case "elastic_modulus":
+		return quantity(units.Stress, &m.ElasticModulus)
+	case "density":
+		return quantity(units.Density, &m.Density)
+	case "service_temperature":
+		return quantity(units.Temperature, &m.ServiceTemperature)
+	case "heat_deflection_temperature":
+		return quantity(units.Temperature, &m.HeatDeflection)
+	case "poisson_ratio":
+		f, ok := v.(float64)
+		if !ok || f <= 0 || f >= 0.5 {
+			return fmt.Errorf("%s is not allowed; Poisson's ratio is a number between 0 and 0.5", tomlText(v))
+		}
+		m.PoissonRatio = f
+	default:
+		msg := fmt.Sprintf("unknown material property; allowed: %s", strings.Join(materialKeys, ", "))
+		if s := Suggest(key, materialKeys); s != "" {
+			msg = fmt.Sprintf("unknown material property; did you mean %q?", s)
+		}
+		return fmt.Errorf("%s", msg)
+	}
+	return nil
+}
+
+// Lookup returns the material named name, or an error that lists the
+// names (with a suggestion for a near miss).
+func (m *Materials) Lookup(name string) (Material, error) {
+	if mat, ok := m.byName[name]; ok {
+		return mat, nil
+	}
+	names := m.Names()
+	if s := Suggest(name, names); s != "" {
+		return Material{}, fmt.Errorf("unknown material %q; did you mean %q? (materials: %s)", name, s, strings.Join(names, ", "))
+	}
+	return Material{}, fmt.Errorf("unknown material %q; materials: %s (add your own under [materials] in specgen.toml)", name, strings.Join(names, ", "))
+}
+
+// Names lists the materials, sorted.
+func (m *Materials) Names() []string {
+	names := make([]string, 0, len(m.byName))
+	for n := range m.byName {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	return names
+}
+
+// Env is the site-wide setting a block is evaluated in.
+type Env struct {
+	Materials *Materials
+	Safety    Safety
+}
+
+// Safety holds the site's minimum safety factors.
+type Safety struct {
+	// MinimumFactorMetal applies to ductile metals; MinimumFactorBrittle to
+	// plastics and brittle materials, which fail with less warning.
+	MinimumFactorMetal, MinimumFactorBrittle float64
+}
+
+// DefaultSafety is common practice for small pressure parts built without
+// a code: 2.5 on the design strength of a ductile metal, 4 for plastics and
+// brittle materials (common practice; check your local rules).
+var DefaultSafety = Safety{MinimumFactorMetal: 2.5, MinimumFactorBrittle: 4}
+
+// MinimumFor is the minimum safety factor for a part of material m.
+func (s Safety) MinimumFor(m Material) float64 {
+	if m.Class == Plastic || m.Brittle {
+		return s.MinimumFactorBrittle
+	}
+	return s.MinimumFactorMetal
+}
+
+// DefaultEnv is the environment of a site with no settings.
+func DefaultEnv() *Env {
+	mats := builtinMaterials
+	if mats == nil {
+		mats = &Materials{byName: map[string]Material{}}
+	}
+	return &Env{Materials: mats, Safety: DefaultSafety}
+}
+
+// materialChoices lists the material names, for Name inputs.
+func materialChoices(env *Env) []string { return env.Materials.Names() }
