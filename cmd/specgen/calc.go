@@ -46,7 +46,7 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		return exitFailed
 	}
 	for _, c := range e.Cautions {
-		if c.Level >= calc.Danger {
+		if c.Level >= calc.Danger && c.Acknowledged == "" {
 			return exitFailed
 		}
 	}

@@ -229,8 +229,8 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 	return bad("%s is not a quantity; write a string such as \"32 mm\"", tomlText(v))
 }
 
-// decodeName reads a Name input: a string, or a number written bare (a
-// property class such as 8.8).
+// decodeName reads a Name input: a string, a number written bare (a
+// property class such as 8.8) or a boolean ("true", "false").
 func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
 	switch t := v.(type) {
 	case string:
@@ -242,6 +242,8 @@ func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
 		return Value{Text: strconv.FormatInt(t, 10), Line: line}, nil
 	case float64:
 		return Value{Text: strconv.FormatFloat(t, 'f', -1, 64), Line: line}, nil
+	case bool:
+		return Value{Text: strconv.FormatBool(t), Line: line}, nil
 	}
 	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", tomlText(v))}
 }

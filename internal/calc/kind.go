@@ -38,7 +38,7 @@ type InputSpec struct {
 	Name    string
 	Type    InputType
 	Dim     units.Dimension // for Quantity inputs
-	Default string // as the user would write it; "" means required unless Optional
+	Default string          // as the user would write it; "" means required unless Optional
 	// Optional inputs may be left out; the model decides what their absence
 	// means (one of two alternatives, say).
 	Optional bool

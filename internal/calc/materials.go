@@ -64,9 +64,9 @@ type Materials struct {
 //go:embed materials.toml
 var materialsTOML string
 
-// materialRow is one table of materials.toml or of [materials] in
-// specgen.toml, as written.
-type materialRow map[string]any
+// MaterialRow is one table of materials.toml or of [materials] in
+// specgen.toml, as written: property name to TOML value.
+type MaterialRow map[string]any
 
 var materialKeys = []string{
 	"brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
@@ -87,7 +87,7 @@ func DefaultMaterials() (*Materials, error) {
 // ParseMaterials reads a materials table, each row over the same row of
 // base (nil for none) so that a site can override single properties.
 func ParseMaterials(src string, base *Materials) (*Materials, error) {
-	var rows map[string]materialRow
+	var rows map[string]MaterialRow
 	if _, err := toml.Decode(src, &rows); err != nil {
 		return nil, err
 	}
@@ -96,7 +96,7 @@ func ParseMaterials(src string, base *Materials) (*Materials, error) {
 
 // With returns the table with rows added or overriding base rows key by
 // key. lines and file place errors (lines of "name.key").
-func (m *Materials) With(rows map[string]materialRow, lines map[string]int, file string) (*Materials, error) {
+func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file string) (*Materials, error) {
 	out := &Materials{byName: map[string]Material{}}
 	if m != nil {
 		for k, v := range m.byName {

@@ -31,19 +31,26 @@ func (n *CalcBlock) Dump(source []byte, level int) {
 }
 
 // calcBlockTransformer swaps "calc" fences for CalcBlock nodes, so that
-// chroma never sees them and the site can find them.
+// chroma never sees them and the site can find them, and "cautions" fences
+// for CautionList nodes.
 type calcBlockTransformer struct{}
 
 func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc parser.Context) {
 	source := reader.Source()
 	var fences []*ast.FencedCodeBlock
 	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
-		if f, ok := n.(*ast.FencedCodeBlock); ok && entering && f.Info != nil && string(f.Language(source)) == "calc" {
-			fences = append(fences, f)
+		if f, ok := n.(*ast.FencedCodeBlock); ok && entering && f.Info != nil {
+			if lang := string(f.Language(source)); lang == "calc" || lang == "cautions" {
+				fences = append(fences, f)
+			}
 		}
 		return ast.WalkContinue, nil
 	})
 	for _, f := range fences {
+		if string(f.Language(source)) == "cautions" {
+			f.Parent().ReplaceChild(f.Parent(), f, &CautionList{})
+			continue
+		}
 		var src bytes.Buffer
 		lines := f.Lines()
 		for i := 0; i < lines.Len(); i++ {

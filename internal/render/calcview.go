@@ -1,6 +1,7 @@
 package render
 
 import (
+	"bufio"
 	"html"
 	"strings"
 
@@ -18,6 +19,7 @@ type calcRenderer struct{}
 func (r *calcRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(KindCalcBlock, r.renderBlock)
 	reg.Register(KindValueRef, r.renderValue)
+	reg.Register(KindCautionList, r.renderCautionList)
 }
 
 func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -78,7 +80,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string) {
 	ws(`<p class="sg-calc-meta"><span>`, esc(b.Kind.Name), `</span> <code>`, esc(b.ID), `</code></p></header>`, "\n")
 
 	for _, c := range e.Cautions {
-		WriteCaution(w, c.Level, c.Message, b.ID+": "+c.Rule)
+		WriteCaution(w, c, "Rule "+c.Rule+", block "+b.ID)
 	}
 	if len(e.Claims) > 0 {
 		ws(`<ul class="sg-claims" aria-label="Claims in the text">`, "\n")
@@ -212,16 +214,32 @@ func unitOf(text string) string {
 	return q.Unit.Symbol
 }
 
-// WriteCaution writes one caution box with its signal word.
-func WriteCaution(w util.BufWriter, level calc.Level, message, source string) {
-	word := level.String()
+// WriteCaution writes one caution box with its signal word, and the
+// block's acknowledgement when it has one.
+func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
+	word := c.Level.String()
 	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
 		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
-		`<p class="sg-caution-text">` + esc(message) + `</p>`)
+		`<p class="sg-caution-text">` + esc(c.Message) + `</p>`)
+	if c.Acknowledged != "" {
+		_, _ = w.WriteString(`<p class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(c.Acknowledged) + `</p>`)
+	}
 	if source != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-source">` + esc(source) + `</p>`)
 	}
 	_, _ = w.WriteString("</aside>\n")
+}
+
+// StandardCautionHTML is the box every page with a pressure calculation
+// carries.
+func StandardCautionHTML() string {
+	var b strings.Builder
+	w := bufio.NewWriter(&b)
+	_, _ = w.WriteString(`<div class="sg-standard-caution">`)
+	WriteCaution(w, calc.CautionNote{Level: calc.Warning, Message: calc.StandardCaution}, "")
+	_, _ = w.WriteString("</div>\n")
+	_ = w.Flush()
+	return b.String()
 }
 
 func esc(s string) string { return html.EscapeString(s) }

@@ -205,6 +205,9 @@ type PageInfo struct {
 	Content     template.HTML
 	TOC         []render.Heading // nested by level
 	TOCCount    int              // headings in the TOC, all levels
+	// Caution is the standard compressed-air caution on pages with a
+	// pressure calculation, else empty.
+	Caution template.HTML
 }
 
 func (s *Site) renderPage(p *Page) ([]byte, error) {
@@ -223,6 +226,7 @@ func (s *Site) renderPage(p *Page) ([]byte, error) {
 			URL:         p.Out,
 			Content:     template.HTML(body),
 			TOCCount:    len(p.Doc.Headings(3)),
+			Caution:     s.standardCaution(p),
 			TOC:         render.Nest(p.Doc.Headings(3)),
 		},
 		Root:        rootPrefix,
@@ -249,6 +253,13 @@ func (s *Site) renderPage(p *Page) ([]byte, error) {
 		return nil, &Error{File: TemplatesDir + "/" + tpl.Name(), Msg: "while laying out " + p.File + ": " + err.Error()}
 	}
 	return buf.Bytes(), nil
+}
+
+func (s *Site) standardCaution(p *Page) template.HTML {
+	if !s.showsPressureCalc(p) {
+		return ""
+	}
+	return template.HTML(render.StandardCautionHTML())
 }
 
 // parallel runs f(0..n-1) on all cores.

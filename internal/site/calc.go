@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"path"
+	"slices"
+	"sort"
 	"strings"
 
 	"specgen/internal/calc"
@@ -64,7 +66,7 @@ func (s *Site) evaluate() error {
 			}
 		}
 	}
-	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs})
+	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env})
 	if err != nil {
 		return fromCalc(err).sorted()
 	}
@@ -72,6 +74,18 @@ func (s *Site) evaluate() error {
 	for _, p := range s.Pages {
 		for _, pb := range p.blocks {
 			pb.node.Eval, _ = set.Lookup(pb.block.ID)
+		}
+	}
+	items := s.cautionItems()
+	for _, p := range s.Pages {
+		for _, list := range p.Doc.CautionLists() {
+			for _, it := range items {
+				it.Href = relativeURL(p.Out, s.blockPage[it.Block].Out) + "#" + render.BlockAnchor(it.Block)
+				if s.blockPage[it.Block] == p {
+					it.Href = "#" + render.BlockAnchor(it.Block)
+				}
+				list.Items = append(list.Items, it)
+			}
 		}
 	}
 	var errs ErrorList
@@ -83,6 +97,40 @@ func (s *Site) evaluate() error {
 		}
 	}
 	return errs.sorted()
+}
+
+// cautionItems lists every caution of the site, the most severe first,
+// then by block id.
+func (s *Site) cautionItems() []render.CautionItem {
+	var items []render.CautionItem
+	for _, e := range s.Calc.Blocks {
+		for _, c := range e.Cautions {
+			items = append(items, render.CautionItem{CautionNote: c, Block: e.Block.ID, BlockTitle: e.Block.Title})
+		}
+	}
+	sort.SliceStable(items, func(i, j int) bool {
+		if items[i].Level != items[j].Level {
+			return items[i].Level > items[j].Level
+		}
+		return items[i].Block < items[j].Block
+	})
+	return items
+}
+
+// showsPressureCalc reports whether a page holds, or quotes values of, a
+// calculation of a kind that involves pressure.
+func (s *Site) showsPressureCalc(p *Page) bool {
+	for _, pb := range p.blocks {
+		if slices.Contains(calc.PressureKinds, pb.block.Kind.Name) {
+			return true
+		}
+	}
+	for _, ref := range p.Doc.ValueRefs() {
+		if e, ok := s.Calc.Lookup(ref.Block); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
+			return true
+		}
+	}
+	return false
 }
 
 // resolveRef formats one inline value and links it to its block.

@@ -23,6 +23,19 @@ type Config struct {
 	Description string         `toml:"description"`
 	SigFigs     int            `toml:"sig_figs"`
 	Markdown    MarkdownConfig `toml:"markdown"`
+	Safety      SafetyConfig   `toml:"safety"`
+	// Materials adds materials or overrides properties of built-in ones.
+	Materials map[string]calc.MaterialRow `toml:"materials"`
+	// env is the calculation environment the settings make.
+	env *calc.Env
+}
+
+// SafetyConfig holds the site's minimum safety factors. MinimumFactor, when
+// set, applies to every material; the other two set one class each.
+type SafetyConfig struct {
+	MinimumFactor        float64 `toml:"minimum_factor"`
+	MinimumFactorMetal   float64 `toml:"minimum_factor_metal"`
+	MinimumFactorPlastic float64 `toml:"minimum_factor_plastic"`
 }
 
 // MarkdownConfig holds the Markdown settings.
@@ -31,11 +44,55 @@ type MarkdownConfig struct {
 	RawHTML bool `toml:"raw_html"`
 }
 
-var configKeys = []string{"description", "markdown", "markdown.raw_html", "sig_figs", "title"}
+var configKeys = []string{"description", "markdown", "markdown.raw_html", "materials", "safety", "safety.minimum_factor",
+	"safety.minimum_factor_metal", "safety.minimum_factor_plastic", "sig_figs", "title"}
 
 // DefaultConfig is the configuration of a site without specgen.toml.
 func DefaultConfig() Config {
-	return Config{Title: "Build documentation", SigFigs: 3}
+	return Config{Title: "Build documentation", SigFigs: 3, env: calc.DefaultEnv()}
+}
+
+// makeEnv builds the calculation environment: built-in materials with the
+// site's additions, and the minimum safety factors.
+func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
+	var errs ErrorList
+	env := calc.DefaultEnv()
+	safety := calc.DefaultSafety
+	for _, f := range []struct {
+		key   string
+		value float64
+		dst   []*float64
+	}{
+		{"minimum_factor", cfg.Safety.MinimumFactor, []*float64{&safety.MinimumFactorMetal, &safety.MinimumFactorBrittle}},
+		{"minimum_factor_metal", cfg.Safety.MinimumFactorMetal, []*float64{&safety.MinimumFactorMetal}},
+		{"minimum_factor_plastic", cfg.Safety.MinimumFactorPlastic, []*float64{&safety.MinimumFactorBrittle}},
+	} {
+		key := "safety." + f.key
+		if _, set := lines[key]; !set {
+			continue
+		}
+		if f.value < 1 || f.value > 100 {
+			errs = append(errs, &Error{File: ConfigFile, Line: lines[key],
+				Msg: fmt.Sprintf("%s: %v is out of range; allowed: 1 to 100 (a factor below 1 accepts failure)", key, f.value)})
+			continue
+		}
+		for _, d := range f.dst {
+			*d = f.value
+		}
+	}
+	env.Safety = safety
+	if len(cfg.Materials) > 0 {
+		base, err := calc.DefaultMaterials()
+		if err != nil {
+			return env, append(errs, &Error{Msg: err.Error()})
+		}
+		mats, err := base.With(cfg.Materials, lines, ConfigFile)
+		if err != nil {
+			return env, append(errs, fromCalc(err)...)
+		}
+		env.Materials = mats
+	}
+	return env, errs
 }
 
 // LoadConfig reads root/specgen.toml if it exists.
@@ -70,6 +127,9 @@ func LoadConfig(root string) (Config, error) {
 	if strings.TrimSpace(cfg.Title) == "" {
 		errs = append(errs, &Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
 	}
+	env, envErrs := cfg.makeEnv(lines)
+	errs = append(errs, envErrs...)
+	cfg.env = env
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
 	if len(errs) > 0 {
 		return cfg, errs

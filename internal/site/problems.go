@@ -31,7 +31,7 @@ func (s *Site) Problems() []Problem {
 			}
 		}
 		for _, c := range e.Cautions {
-			if c.Level >= calc.Danger {
+			if c.Level >= calc.Danger && c.Acknowledged == "" {
 				out = append(out, Problem{File: e.Block.File, Line: e.Block.Line, Block: e.Block.ID, Type: "caution", Name: c.Rule, Level: c.Level.String(), Message: c.Message})
 			}
 		}
@@ -52,7 +52,7 @@ type Tally struct {
 	Claims       int `json:"claims"`
 	FailedClaims int `json:"failed_claims"`
 	Cautions     int `json:"cautions"`
-	Dangers      int `json:"dangers"`
+	Dangers      int `json:"dangers"` // not acknowledged
 }
 
 // Tally counts the site's blocks, claims and cautions.
@@ -71,7 +71,7 @@ func (s *Site) Tally() Tally {
 		}
 		t.Cautions += len(e.Cautions)
 		for _, c := range e.Cautions {
-			if c.Level >= calc.Danger {
+			if c.Level >= calc.Danger && c.Acknowledged == "" {
 				t.Dangers++
 			}
 		}

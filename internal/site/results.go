@@ -52,9 +52,10 @@ type ExpectJSON struct {
 
 // CautionJSON is one caution.
 type CautionJSON struct {
-	Level   string `json:"level"`
-	Rule    string `json:"rule"`
-	Message string `json:"message"`
+	Level        string `json:"level"`
+	Rule         string `json:"rule"`
+	Message      string `json:"message"`
+	Acknowledged string `json:"acknowledged,omitempty"` // the block's reason for accepting it
 }
 
 // resultsJSON renders results.json: blocks sorted by id, map keys sorted
@@ -100,7 +101,7 @@ func (s *Site) Results() ResultsFile {
 			b.Expect = append(b.Expect, ExpectJSON{Name: c.Claim.Result, Claim: c.Claim.Text, OK: c.OK, Message: c.Message})
 		}
 		for _, c := range e.Cautions {
-			b.Cautions = append(b.Cautions, CautionJSON{Level: c.Level.String(), Rule: c.Rule, Message: c.Message})
+			b.Cautions = append(b.Cautions, CautionJSON{Level: c.Level.String(), Rule: c.Rule, Message: c.Message, Acknowledged: c.Acknowledged})
 		}
 		f.Blocks = append(f.Blocks, b)
 	}

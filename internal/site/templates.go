@@ -93,4 +93,3 @@ func (l *layouts) lookup(name string) (*template.Template, error) {
 	}
 	return t, nil
 }
-

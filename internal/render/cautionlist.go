@@ -1,0 +1,72 @@
+package render
+
+import (
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/util"
+
+	"specgen/internal/calc"
+)
+
+// KindCautionList is the AST kind of a site-wide caution list.
+var KindCautionList = ast.NewNodeKind("CautionList")
+
+// CautionList is a fenced block whose info string is "cautions": the site
+// fills Items with every caution of every block, and it renders as a table.
+type CautionList struct {
+	ast.BaseBlock
+	Items []CautionItem
+}
+
+// CautionItem is one caution with the block that raised it.
+type CautionItem struct {
+	calc.CautionNote
+	Block, BlockTitle string
+	Href              string // link to the block's table
+}
+
+// Kind implements ast.Node.
+func (n *CautionList) Kind() ast.NodeKind { return KindCautionList }
+
+// Dump implements ast.Node.
+func (n *CautionList) Dump(source []byte, level int) { ast.DumpHelper(n, source, level, nil, nil) }
+
+// CautionLists lists the document's caution lists.
+func (d *Document) CautionLists() []*CautionList {
+	var out []*CautionList
+	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if c, ok := n.(*CautionList); ok && entering {
+			out = append(out, c)
+		}
+		return ast.WalkContinue, nil
+	})
+	return out
+}
+
+func (r *calcRenderer) renderCautionList(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	n := node.(*CautionList)
+	if len(n.Items) == 0 {
+		_, _ = w.WriteString(`<p class="sg-caution-none">No calculation on this site raises a caution.</p>` + "\n")
+		return ast.WalkSkipChildren, nil
+	}
+	_, _ = w.WriteString(`<table class="sg-caution-list"><thead><tr><th scope="col">Level</th><th scope="col">Block</th><th scope="col">Rule</th><th scope="col">What</th></tr></thead><tbody>` + "\n")
+	for _, it := range n.Items {
+		word := it.Level.String()
+		title := it.BlockTitle
+		if title == "" {
+			title = it.Block
+		}
+		what := esc(it.Message)
+		if it.Acknowledged != "" {
+			what += ` <span class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(it.Acknowledged) + `</span>`
+		}
+		_, _ = w.WriteString(`<tr><td><span class="sg-level sg-level-` + strings.ToLower(word) + `">` + word + `</span></td>` +
+			`<td><a href="` + esc(it.Href) + `">` + esc(title) + `</a></td><td><code>` + esc(it.Rule) + `</code></td><td>` + what + "</td></tr>\n")
+	}
+	_, _ = w.WriteString("</tbody></table>\n")
+	return ast.WalkSkipChildren, nil
+}
