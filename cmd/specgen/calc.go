@@ -63,6 +63,14 @@ func runExplain(args []string, stdout, stderr io.Writer) int {
 		calc.ExplainKinds(stdout)
 		return exitOK
 	case 1:
+		switch fs.Arg(0) {
+		case "cautions":
+			calc.ExplainCautions(stdout)
+			return exitOK
+		case "materials":
+			calc.ExplainMaterials(stdout, calc.DefaultEnv())
+			return exitOK
+		}
 		k, ok := calc.LookupKind(fs.Arg(0))
 		if !ok {
 			msg := fmt.Sprintf("specgen explain: unknown kind %q", fs.Arg(0))

@@ -19,7 +19,42 @@ func ExplainKinds(w io.Writer) {
 	}
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nEvery block also takes: id (required), kind (required), title, ambient_pressure (absolute, default 1 atm),")
-	fmt.Fprintln(w, "[expect] claims such as displacement = \"22.5 cm3 ± 2%\", and [show] outputs = [\"name unit\", ...].")
+	fmt.Fprintln(w, "[expect] claims such as displacement = \"22.5 cm3 ± 2%\", [show] outputs = [\"name unit\", ...],")
+	fmt.Fprintln(w, "and [acknowledge] rule-id = \"reason\" to accept a caution (it stays on the page with the reason).")
+	fmt.Fprintln(w, "\nAlso: specgen explain materials, specgen explain cautions.")
+}
+
+// ExplainCautions writes the caution rules.
+func ExplainCautions(w io.Writer) {
+	fmt.Fprintln(w, "Caution rules (signal words after ANSI Z535: NOTICE, CAUTION, WARNING, DANGER).")
+	fmt.Fprintln(w, "An unacknowledged DANGER makes check and build -strict exit 1.")
+	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	for _, r := range rules {
+		fmt.Fprintf(tw, "  %s\tup to %s\t%s\n", r.ID, r.Level, r.Summary)
+	}
+	_ = tw.Flush()
+	fmt.Fprintf(w, "\nEvery page with a pressure calculation also carries the standard caution:\n  %s\n", StandardCaution)
+}
+
+// ExplainMaterials writes the materials of env with their main properties.
+func ExplainMaterials(w io.Writer, env *Env) {
+	fmt.Fprintln(w, "Materials (typical values: verify for your material; add or override under [materials] in specgen.toml):")
+	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	fmt.Fprintln(tw, "  name\tclass\ttensile\tyield\tservice limit\tminimum factor\tsource")
+	for _, name := range env.Materials.Names() {
+		m, _ := env.Materials.Lookup(name)
+		yield := "-"
+		if m.YieldStrength > 0 {
+			yield = units.Format(m.YieldStrength/1e6, 3) + " MPa"
+		}
+		class := string(m.Class)
+		if m.Printable {
+			class += ", printable"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s MPa\t%s\t%s °C\t%s\t%s\n", m.Name, class, units.Format(m.TensileStrength/1e6, 3), yield,
+			units.Format(m.TemperatureLimit()-273.15, 3), units.Format(env.Safety.MinimumFor(m), 2), m.Source)
+	}
+	_ = tw.Flush()
 }
 
 // Explain writes one kind's documentation: the model, its inputs with
