@@ -1,35 +1,16 @@
 package calc
 
+import "specgen/internal/units"
+
 // Suggest returns the candidate closest to s by edit distance, or "" when
 // none is close enough to be a likely typo.
 func Suggest(s string, candidates []string) string {
 	best, bestDist := "", len(s)/2+2
 	for _, c := range candidates {
-		if d := editDistance(s, c); d < bestDist {
+		if d := units.EditDistance(s, c); d < bestDist {
 			best, bestDist = c, d
 		}
 	}
 	return best
 }
 
-// editDistance is the Levenshtein distance between a and b.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
-}

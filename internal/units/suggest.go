@@ -39,7 +39,7 @@ func suggest(key string, accept func(Unit) bool) string {
 		if !ok(e) {
 			continue
 		}
-		if d := editDistance(lower, strings.ToLower(e.key)); d < bestDist {
+		if d := EditDistance(lower, strings.ToLower(e.key)); d < bestDist {
 			best, bestDist = e.key, d
 		}
 	}
@@ -50,8 +50,9 @@ func suggest(key string, accept func(Unit) bool) string {
 // "K" than to "degC".
 var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h"}
 
-// editDistance is the Levenshtein distance between a and b, counted in runes.
-func editDistance(a, b string) int {
+// EditDistance is the Levenshtein distance between a and b, counted in
+// runes. specgen uses it for "did you mean" everywhere.
+func EditDistance(a, b string) int {
 	ra, rb := []rune(a), []rune(b)
 	prev := make([]int, len(rb)+1)
 	cur := make([]int, len(rb)+1)
