@@ -5,6 +5,9 @@ import "sort"
 // kinds is every model specgen knows, by block `kind`.
 var kinds = map[string]*Kind{
 	compressorKind.Name: &compressorKind,
+	boltsKind.Name:      &boltsKind,
+	tankKind.Name:       &tankKind,
+	valveKind.Name:      &valveKind,
 }
 
 // LookupKind returns the kind named name.

@@ -1,0 +1,297 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"specgen/internal/units"
+)
+
+// tankKind models an air receiver: the time its supply takes to fill it,
+// the energy it stores, and, when its wall is given, the wall's stress and
+// allowable pressure.
+var tankKind = Kind{
+	Name:    "tank",
+	Summary: "air receiver: fill time from a compressor, stored energy, and optionally the wall's stress and allowable pressure",
+	Doc:     tankDoc,
+	Inputs: []InputSpec{
+		{Name: "volume", Dim: units.Volume, Range: positiveUpTo(1e3), Meaning: "internal volume of the receiver, up to 1000 m3"},
+		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "working (target) pressure the receiver is filled to, up to 1 GPa; must be above ambient"},
+		{Name: "start_pressure", Dim: units.Pressure, Default: "0 bar", Range: Between(0, 1e9), Meaning: "pressure in the receiver when filling starts; must be below the target"},
+		{Name: "supply", Type: Link, Optional: true, LinkKinds: []string{"compressor"}, Meaning: "id of the compressor block that fills the receiver; without it fill_time is not computed"},
+	},
+	Results: []ResultSpec{
+		{Name: "fill_time", Dim: units.Time, Unit: "s", Meaning: "time the supply takes from start_pressure to the target pressure (needs supply)"},
+		{Name: "stored_energy", Dim: units.Energy, Unit: "kJ", Meaning: "energy released by an isentropic expansion of the air at the target pressure to ambient"},
+	},
+	Charts:   []string{"fill"},
+	Evaluate: evaluateTank,
+}
+
+// airGamma is the ratio of specific heats of air used for stored energy
+// (ASME PCC-2 Article 501 uses 1.4; from memory).
+const airGamma = 1.4
+
+// Fill curve and table sizes.
+const (
+	fillCurveIntervals = 200 // equal pressure steps of the "fill" curve
+	fillTableMaxRows   = 50  // the table's step grows 1-2-5 beyond this
+)
+
+const tankDoc = `The tank kind models an air receiver of volume V filled to the target pressure
+p2 from p0 (start_pressure) by the compressor block named in supply, and the
+energy the air at p2 stores. Pressures are absolute in the formulas.
+
+Fill time
+- The receiver stays at the supply's inlet temperature (an isothermal tank:
+  small receivers shed the heat of compression quickly; a real fill starts a
+  little faster and the pressure sags as the air cools).
+- The supply is the compressor block's ideal cycle, re-evaluated at each tank
+  pressure p: its free air delivery is
+    FAD(p) = V̇d · (1 + c − c·(p/p1)^(1/n))
+  with its displacement rate V̇d, clearance ratio c, polytropic index n and
+  inlet pressure p1. Below p1 the cylinder delivers its full displacement
+  (FAD = V̇d). The compressor's own discharge_pressure plays no part.
+- Mass balance at constant temperature: dp/dt = p1·FAD(p)/V, so
+    t = ∫ from p0 to p2 of V dp / (p1·FAD(p)).
+  With x = p/p1, τ = V/V̇d and a = 1 + c:
+    n = 1:  t = τ/c · ln((a − c·x0)/(a − c·x2))   (closed form)
+    c → 0:  t = τ·(x2 − x0)                        (constant delivery)
+  otherwise the integral is split into a logarithmic part, integrated in
+  closed form, and a smooth remainder, integrated by 16-point
+  Gauss-Legendre quadrature on steps of at most 0.5 in ln(p).
+- The delivery falls to zero at the supply's dead-head pressure
+  p_max = p1·((1 + c)/c)^n; a target at or above it is an error.
+- Without supply there is no fill_time, fill curve or fill table.
+  Curves: fill (tank pressure over time) and fill_table, the time to reach
+  each whole bar (gauge) from start_pressure up to the target (X pressure,
+  Y time); above 50 rows the step grows to 2, 5, 10, 20, 50 ... bar.
+
+Stored energy
+  E = p2·V/(γ−1) · [1 − (p_a/p2)^((γ−1)/γ)],  γ = 1.4
+  the work of an isentropic expansion of the air to ambient p_a, the form
+  ASME PCC-2 Article 501 (pneumatic testing) uses in its mandatory appendix
+  on stored energy. The trace also shows the isothermal figure p2·V·ln(p2/p_a),
+  the upper bound if the air could take up heat as it expands.`
+
+// supplyModel is a compressor block's cycle as a receiver's supply sees it,
+// pressures absolute.
+type supplyModel struct {
+	id   string
+	rate float64 // displacement rate V̇d, m3/s
+	c, n float64 // clearance ratio, polytropic index
+	p1   float64 // inlet pressure
+	pMax float64 // dead-head pressure, as the compressor reports it
+}
+
+// readSupply takes the supply's cycle from its results and inputs.
+func readSupply(l *Linked) (supplyModel, error) {
+	s := supplyModel{id: l.ID, rate: l.Results["displacement_rate"], c: l.Results["clearance_ratio"],
+		n: l.Inputs["polytropic_index"], p1: l.Ambient, pMax: l.Results["max_pressure"]}
+	if p, ok := l.Inputs["inlet_pressure"]; ok {
+		s.p1 = p
+	}
+	if !(s.rate > 0 && s.c > 0 && s.n >= 1 && s.p1 > 0 && s.pMax > s.p1) {
+		return s, fmt.Errorf("supply %s (%s) gives no usable cycle: displacement rate %g m3/s, clearance ratio %g, polytropic index %g, inlet %g Pa",
+			l.ID, l.Kind, s.rate, s.c, s.n, s.p1)
+	}
+	return s, nil
+}
+
+// poleU is U = (1 + c)/c: with u = (p/p1)^(1/n), the delivery
+// 1 + c − c·u vanishes at u = U, the dead-head pressure.
+func (s supplyModel) poleU() float64 { return (1 + s.c) / s.c }
+
+// delivers reports whether the supply still delivers at pressure p.
+func (s supplyModel) delivers(p float64) bool {
+	return p <= s.p1 || s.poleU()-math.Pow(p/s.p1, 1/s.n) > 0
+}
+
+// delivery returns the free air delivery at tank pressure p (absolute).
+func (s supplyModel) delivery(p float64) float64 {
+	if p <= s.p1 {
+		return s.rate
+	}
+	return s.rate * (1 + s.c - s.c*math.Pow(p/s.p1, 1/s.n))
+}
+
+// gaussLegendre16 are the nodes and weights of 16-point Gauss-Legendre
+// quadrature on [-1, 1].
+var gaussLegendre16 = func() (nodes [2][16]float64) {
+	quad.Legendre{}.FixedLocations(nodes[0][:], nodes[1][:], -1, 1)
+	return nodes
+}()
+
+// fillTime returns the time to raise a tank of volume v from pa to pb
+// (absolute, pa ≤ pb, and the supply delivering at pb).
+func (s supplyModel) fillTime(v, pa, pb float64) float64 {
+	tau := v / s.rate
+	t := 0.0
+	if pa < s.p1 {
+		t = tau * (math.Min(pb, s.p1) - pa) / s.p1
+		pa = s.p1
+	}
+	if pb <= pa {
+		return t
+	}
+	return t + tau*s.riseIntegral(math.Pow(pa/s.p1, 1/s.n), math.Pow(pb/s.p1, 1/s.n))
+}
+
+// riseIntegral returns ∫ dx/(1 + c − c·x^(1/n)) for x = u^n, u from ua to
+// ub (1 ≤ ua ≤ ub < U). With x = u^n the integrand is n·u^(n−1)/(c·(U − u));
+// adding and subtracting U^(n−1) splits it into n·U^(n−1)/(c·(U − u)),
+// integrated in closed form, and a smooth remainder which, with
+// u = U·e^L, is (n·U^(n−1)/c)·e^L·expm1((n−1)L)/(−expm1(L)) dL.
+func (s supplyModel) riseIntegral(ua, ub float64) float64 {
+	bigU := s.poleU()
+	sum := math.Log1p((ub - ua) / (bigU - ub))
+	if s.n != 1 {
+		g := func(l float64) float64 {
+			return math.Exp(l) * math.Expm1((s.n-1)*l) / -math.Expm1(l)
+		}
+		la, lb := math.Log(ua/bigU), math.Log(ub/bigU)
+		steps := int(math.Ceil((lb - la) / 0.5))
+		h := (lb - la) / float64(steps)
+		for i := range steps {
+			lo := la + h*float64(i)
+			mid, half := lo+h/2, h/2
+			for j, x := range gaussLegendre16[0] {
+				sum += half * gaussLegendre16[1][j] * g(mid+half*x)
+			}
+		}
+	}
+	return s.n * math.Pow(bigU, s.n-1) / s.c * sum
+}
+
+// tankInput is a tank block's inputs in SI, pressures absolute.
+type tankInput struct {
+	volume, target, start, ambient float64
+	supply                         *supplyModel
+}
+
+// readTankInput applies the checks that single-input ranges cannot.
+func readTankInput(in *Inputs) (tankInput, error) {
+	t := tankInput{volume: in.Value("volume"), target: in.Value("pressure"), start: in.Value("start_pressure"), ambient: in.Ambient}
+	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	if t.target <= t.ambient {
+		return t, &InputError{Key: "pressure", Message: fmt.Sprintf(
+			"target pressure %s must be above ambient %s: a receiver stores compressed air", bara(t.target), bara(t.ambient))}
+	}
+	if t.start >= t.target {
+		return t, &InputError{Key: "start_pressure", Message: fmt.Sprintf(
+			"start pressure %s must be below the target pressure %s", bara(t.start), bara(t.target))}
+	}
+	if l := in.LinkOf("supply"); l != nil {
+		s, err := readSupply(l)
+		if err != nil {
+			return t, &InputError{Key: "supply", Message: err.Error()}
+		}
+		if t.target >= s.pMax || !s.delivers(t.target) {
+			return t, &InputError{Key: "pressure", Message: fmt.Sprintf(
+				"target pressure %s is at or above the dead-head pressure %s of supply %s: its delivery falls to zero before the receiver gets there; "+
+					"lower the target or the supply's clearance", bara(t.target), bara(s.pMax), s.id)}
+		}
+		t.supply = &s
+	}
+	return t, nil
+}
+
+func evaluateTank(in *Inputs) (*Outcome, error) {
+	t, err := readTankInput(in)
+	if err != nil {
+		return nil, err
+	}
+	out := &Outcome{}
+	if t.supply != nil {
+		out.Results = append(out.Results, fillResult(t))
+		out.Curves = append(out.Curves, fillCurve(t), fillTable(t))
+	}
+	out.Results = append(out.Results, storedEnergyResult(t))
+	return out, nil
+}
+
+// fillResult is the fill time with its working.
+func fillResult(t tankInput) Result {
+	s := t.supply
+	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	litres := show(t.volume*1e3, "L")
+	rate := show(s.rate*6e4, "L/min")
+	supply := fmt.Sprintf("supply %s: V̇d = %s, c = %s, n = %s, p1 = %s, p_max = %s",
+		s.id, rate, show(s.c, ""), show(s.n, ""), bara(s.p1), bara(s.pMax))
+	r := Result{Name: "fill_time", Value: s.fillTime(t.volume, t.start, t.target), Dim: units.Time}
+	below := ""
+	if t.start < s.p1 {
+		below = fmt.Sprintf("; below p1 at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", show(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
+	}
+	if s.n == 1 {
+		r.Trace = Trace{"t = V/(c·V̇d) · ln((1 + c − c·p0/p1)/(1 + c − c·p2/p1)) (n = 1, isothermal tank at inlet temperature)",
+			fmt.Sprintf("= %s/(%s · %s) · ln((1 + c − c·%s/%s)/(1 + c − c·%s/%s)); %s%s",
+				litres, show(s.c, ""), rate, bara(math.Max(t.start, s.p1)), bara(s.p1), bara(t.target), bara(s.p1), supply, below)}
+		return r
+	}
+	r.Trace = Trace{"t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)",
+		fmt.Sprintf("= ∫ %s dp / (%s · FAD(p)) from %s to %s; %s%s",
+			litres, bara(s.p1), bara(t.start), bara(t.target), supply, below)}
+	return r
+}
+
+// fillCurve samples the tank pressure over time at equal pressure steps.
+func fillCurve(t tankInput) Curve {
+	c := Curve{Name: "fill", XDim: units.Time, YDim: units.Pressure}
+	elapsed, prev := 0.0, t.start
+	for i := range fillCurveIntervals + 1 {
+		p := t.start + (t.target-t.start)*float64(i)/fillCurveIntervals
+		if i == fillCurveIntervals {
+			p = t.target
+		}
+		elapsed += t.supply.fillTime(t.volume, prev, p)
+		c.X, c.Y = append(c.X, elapsed), append(c.Y, p)
+		prev = p
+	}
+	return c
+}
+
+// fillTable gives the time to reach each whole bar (gauge) from the start
+// pressure up to the target, in a 1-2-5 step of bars when whole bars would
+// give more than fillTableMaxRows rows.
+func fillTable(t tankInput) Curve {
+	c := Curve{Name: "fill_table", XDim: units.Pressure, YDim: units.Time}
+	step := tableStep((t.target - t.ambient) / 1e5)
+	first := math.Ceil((t.start - t.ambient) / 1e5 / step)
+	elapsed, prev := 0.0, t.start
+	for k := first; t.ambient+k*step*1e5 <= t.target; k++ {
+		p := t.ambient + k*step*1e5
+		elapsed += t.supply.fillTime(t.volume, prev, p)
+		c.X, c.Y = append(c.X, p), append(c.Y, elapsed)
+		prev = p
+	}
+	return c
+}
+
+// tableStep returns the smallest step of 1, 2, 5, 10, 20, 50 ... bar that
+// covers span bar in at most fillTableMaxRows steps.
+func tableStep(span float64) float64 {
+	for decade := 1.0; ; decade *= 10 {
+		for _, m := range []float64{1, 2, 5} {
+			if span/(m*decade) <= fillTableMaxRows {
+				return m * decade
+			}
+		}
+	}
+}
+
+// storedEnergyResult is the isentropic expansion energy, with the
+// isothermal figure beside it in the trace.
+func storedEnergyResult(t tankInput) Result {
+	const k = (airGamma - 1) / airGamma
+	p, pa, v := t.target, t.ambient, t.volume
+	e := -p * v / (airGamma - 1) * math.Expm1(k*math.Log(pa/p))
+	iso := p * v * math.Log(p/pa)
+	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	return Result{Name: "stored_energy", Value: e, Dim: units.Energy, Trace: Trace{
+		"E = p·V/(γ−1) · [1 − (p_a/p)^((γ−1)/γ)], γ = 1.4 (isentropic expansion to ambient, as ASME PCC-2 Art. 501 for pneumatic tests)",
+		fmt.Sprintf("= %s · %s / 0.4 · [1 − (%s / %s)^(0.4/1.4)]; isothermal for comparison: p·V·ln(p/p_a) = %s",
+			bara(p), show(v*1e3, "L"), bara(pa), bara(p), show(iso/1e3, "kJ"))}}
+}

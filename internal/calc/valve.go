@@ -1,0 +1,94 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"specgen/internal/units"
+)
+
+// valveKind models a spring-loaded poppet or ball valve: a check valve, or,
+// when it names what it protects, a relief valve.
+var valveKind = Kind{
+	Name:    "valve",
+	Summary: "spring-loaded check or relief valve: cracking pressure from spring rate, preload and seat diameter",
+	Doc:     valveDoc,
+	Inputs: []InputSpec{
+		{Name: "seat_diameter", Dim: units.Length, Range: positiveUpTo(1), Meaning: "diameter of the seat the poppet or ball closes, where it seals, up to 1 m"},
+		{Name: "spring_rate", Dim: units.Stiffness, Range: positiveUpTo(1e9), Meaning: "spring stiffness, force per unit compression"},
+		{Name: "preload", Dim: units.Length, Range: Between(0, 1), Meaning: "how far the spring is compressed with the valve closed, 0 to 1 m"},
+		{Name: "protects", Type: LinkList, Optional: true, LinkKinds: []string{"compressor", "tank", "tube"}, Meaning: "ids of the compressors and pressure parts the valve relieves; makes it a relief valve"},
+		{Name: "material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "material of the seat or poppet, for the printed-part caution"},
+	},
+	Results: []ResultSpec{
+		{Name: "spring_force", Dim: units.Force, Unit: "N", Meaning: "spring force on the closed valve: rate times preload"},
+		{Name: "cracking_pressure", Dim: units.Stress, Unit: "bar", Meaning: "pressure difference across the seat at which the valve starts to open"},
+	},
+	Evaluate: evaluateValve,
+}
+
+const valveDoc = `The valve kind models a spring-loaded valve: a poppet or ball held on a round
+seat of diameter d by a spring of rate k compressed by x (the preload).
+
+  F = k·x                     spring force on the closed valve
+  Δp = F / (π/4·d²)           cracking pressure
+
+The valve starts to open when the pressure difference across the seat times
+the seat area equals the spring force. Δp is a difference: a relief valve
+that vents to atmosphere opens at ambient + Δp (absolute); a check valve
+opens when the upstream pressure exceeds the downstream one by Δp.
+
+Assumptions
+- The pressure acts on the seat diameter, where the poppet seals; a wide
+  sealing land or an O-ring face moves the effective diameter outward and
+  lowers the cracking pressure.
+- No friction, no flow forces, no weight of the poppet. Once open, the valve
+  needs more pressure to pass more flow (the spring compresses further):
+  relief valves are set some way below the pressure they must hold down.
+
+With protects (a list of compressor, tank or tube block ids), the valve is a
+relief valve for those blocks. The no-relief caution rule compares its
+opening pressure with each protected part's allowable pressure and each
+compressor's dead-head pressure; the trace lists them.`
+
+func evaluateValve(in *Inputs) (*Outcome, error) {
+	d, k, x := in.Value("seat_diameter"), in.Value("spring_rate"), in.Value("preload")
+	force := k * x
+	area := math.Pi / 4 * d * d
+	crack := force / area
+	mm := func(v float64) string { return show(v*1e3, "mm") }
+	res := []Result{
+		{Name: "spring_force", Value: force, Dim: units.Force, Trace: Trace{
+			"F = k · x", "= " + show(k/1e3, "N/mm") + " · " + mm(x)}},
+		{Name: "cracking_pressure", Value: crack, Dim: units.Stress, Trace: Trace{
+			"Δp = F / (π/4 · d²)", "= " + show(force, "N") + " / (π/4 · (" + mm(d) + ")²)" + protectedText(in, crack)}},
+	}
+	return &Outcome{Results: res}, nil
+}
+
+// protectedText lists what a relief valve protects, beside the absolute
+// pressure it opens at: the allowable pressure of each part and the
+// dead-head pressure of each compressor.
+func protectedText(in *Inputs, crack float64) string {
+	linked := in.LinksOf("protects")
+	if len(linked) == 0 {
+		return ""
+	}
+	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	var parts []string
+	for _, l := range linked {
+		switch {
+		case l.Kind == "compressor":
+			parts = append(parts, fmt.Sprintf("%s dead-heads at %s", l.ID, bara(l.Results["max_pressure"])))
+		default:
+			if allow, ok := l.Results["allowable_pressure"]; ok {
+				parts = append(parts, fmt.Sprintf("%s allows %s", l.ID, bara(allow)))
+			} else {
+				parts = append(parts, fmt.Sprintf("%s (no allowable pressure: give its wall)", l.ID))
+			}
+		}
+	}
+	return fmt.Sprintf("; relief: opens at %s (ambient %s + Δp); protects %s",
+		bara(in.Ambient+crack), bara(in.Ambient), strings.Join(parts, ", "))
+}
