@@ -1,0 +1,204 @@
+package calc
+
+import (
+	"math"
+	"slices"
+	"strings"
+	"testing"
+)
+
+func TestBuiltinMaterials(t *testing.T) {
+	mats, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []string{"abs", "aluminium-6061-t6", "asa", "brass", "cast-iron", "pa12", "pc", "petg", "pla", "pmma", "s235", "stainless-304"}
+	if got := mats.Names(); !slices.Equal(got, want) {
+		t.Fatalf("materials %v, want %v", got, want)
+	}
+	printable := []string{"abs", "asa", "pa12", "petg", "pla"} // the FDM and SLS plastics
+	brittle := []string{"cast-iron", "pla", "pmma"}
+	for _, name := range want {
+		m, err := mats.Lookup(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if m.Label == name || m.Label == "" {
+			t.Errorf("%s: no label", name)
+		}
+		if !strings.Contains(m.Source, "typical, verify for your material") || len(m.Source) < 40 {
+			t.Errorf("%s: source %q does not name its basis and say it is typical", name, m.Source)
+		}
+		if m.Class != Plastic && m.Class != Metal {
+			t.Errorf("%s: class %q", name, m.Class)
+		}
+		for prop, v := range map[string]float64{"tensile_strength": m.TensileStrength, "elastic_modulus": m.ElasticModulus,
+			"density": m.Density, "poisson_ratio": m.PoissonRatio, "service_temperature": m.ServiceTemperature} {
+			if !(v > 0) {
+				t.Errorf("%s: %s missing", name, prop)
+			}
+		}
+		// Continuous-use limits of the table's materials lie between 40 °C
+		// and 500 °C (common practice); 0 °C = 273.15 K (NIST SP 811 §4.2.1.1).
+		if c := m.ServiceTemperature - 273.15; c < 40 || c > 500 {
+			t.Errorf("%s: service temperature %g degC is implausible", name, c)
+		}
+		if m.YieldStrength > m.TensileStrength {
+			t.Errorf("%s: yield %g above tensile strength %g", name, m.YieldStrength, m.TensileStrength)
+		}
+		if (m.Class == Plastic) != (m.HeatDeflection > 0) {
+			t.Errorf("%s: heat deflection temperature %g K for a %s", name, m.HeatDeflection, m.Class)
+		}
+		if got := slices.Contains(printable, name); m.Printable != got {
+			t.Errorf("%s: printable = %v, want %v", name, m.Printable, got)
+		}
+		if got := slices.Contains(brittle, name); m.Brittle != got {
+			t.Errorf("%s: brittle = %v, want %v", name, m.Brittle, got)
+		}
+		if m.Brittle && m.Class == Metal && m.YieldStrength != 0 {
+			t.Errorf("%s: a brittle metal has no yield point, got %g", name, m.YieldStrength)
+		}
+		// Broad physical bounds (common practice): plastics are lighter than
+		// 2 g/cm3 and softer than 10 GPa; structural metals are neither.
+		if plastic := m.Class == Plastic; plastic != (m.Density < 2000) || plastic != (m.ElasticModulus < 10e9) {
+			t.Errorf("%s: density %g kg/m3, modulus %g Pa do not fit a %s", name, m.Density, m.ElasticModulus, m.Class)
+		}
+	}
+}
+
+// TestMaterialMinimums checks the rows that quote a standard's minimum.
+func TestMaterialMinimums(t *testing.T) {
+	mats, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	const psi = 6894.757 // NIST SP 811 App. B: 1 psi = 6.894757 kPa
+	for _, c := range []struct {
+		name           string
+		tensile, yield float64 // Pa
+		tolerance      float64 // relative: metric standards round the imperial figures
+		source         string
+	}{
+		{"s235", 360e6, 235e6, 0, "EN 10025-2 S235JR, t ≤ 16 mm (from memory)"},
+		{"aluminium-6061-t6", 260e6, 240e6, 0, "EN 755-2 6061 T6 extrusions (from memory)"},
+		{"aluminium-6061-t6", 38e3 * psi, 35e3 * psi, 0.01, "ASTM B221 6061-T6: 38 ksi, 35 ksi (from memory)"},
+		{"stainless-304", 75e3 * psi, 30e3 * psi, 0.01, "ASTM A240 type 304: 75 ksi, 30 ksi (from memory)"},
+		{"cast-iron", 250e6, 0, 0, "EN 1561 EN-GJL-250, no yield point (from memory)"},
+	} {
+		m, err := mats.Lookup(c.name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(m.TensileStrength-c.tensile) > c.tolerance*c.tensile || math.Abs(m.YieldStrength-c.yield) > c.tolerance*c.yield {
+			t.Errorf("%s: tensile %g Pa, yield %g Pa; want %g, %g (%s)", c.name, m.TensileStrength, m.YieldStrength, c.tensile, c.yield, c.source)
+		}
+	}
+}
+
+func TestParseMaterialsOverride(t *testing.T) {
+	base, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := `
+[petg]
+tensile_strength = "38 MPa"
+
+[pom]
+label = "Acetal"
+class = "plastic"
+tensile_strength = "65 MPa"
+elastic_modulus = "2.8 GPa"
+density = "1.41 g/cm3"
+service_temperature = "90 degC"
+source = "our supplier's sheet"
+`
+	mats, err := ParseMaterials(src, base)
+	if err != nil {
+		t.Fatal(err)
+	}
+	petg, err := mats.Lookup("petg")
+	if err != nil {
+		t.Fatal(err)
+	}
+	was, _ := base.Lookup("petg")
+	if petg.TensileStrength != 38e6 {
+		t.Errorf("petg tensile strength %g, want 38e6", petg.TensileStrength)
+	}
+	// Only the one property changes.
+	was.TensileStrength = 38e6
+	if petg != was {
+		t.Errorf("override changed more than one property:\n got %+v\nwant %+v", petg, was)
+	}
+	pom, err := mats.Lookup("pom")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// 90 degC = 363.15 K (NIST SP 811 §4.2.1.1: T/K = t/°C + 273.15).
+	if pom.Class != Plastic || pom.Label != "Acetal" || pom.Density != 1410 || math.Abs(pom.ServiceTemperature-363.15) > 1e-9 {
+		t.Errorf("pom = %+v", pom)
+	}
+	if s, _ := pom.DesignStrength(); s != 65e6 {
+		t.Errorf("pom design strength %g, want the tensile strength 65e6 (no yield given)", s)
+	}
+	// The base table is unchanged.
+	if again, _ := base.Lookup("petg"); again.TensileStrength == 38e6 {
+		t.Error("override changed the built-in table")
+	}
+	if _, err := base.Lookup("pom"); err == nil {
+		t.Error("new material leaked into the built-in table")
+	}
+}
+
+func TestParseMaterialsErrors(t *testing.T) {
+	base, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name, src string
+		want      []string
+	}{
+		{"unknown property", "[petg]\ntensile_strenght = \"40 MPa\"\n",
+			[]string{":2: materials.petg.tensile_strenght", `did you mean "tensile_strength"?`}},
+		{"bad class", "[petg]\nclass = \"ceramic\"\n",
+			[]string{"materials.petg.class", `"ceramic" is not a class; allowed: plastic, metal`}},
+		{"missing key", "[pom]\nclass = \"plastic\"\ntensile_strength = \"65 MPa\"\ndensity = \"1.41 g/cm3\"\nservice_temperature = \"90 degC\"\n",
+			[]string{":1: materials.pom", "a new material needs elastic_modulus"}},
+		{"wrong dimension", "[petg]\nyield_strength = \"40 mm\"\n",
+			[]string{"materials.petg.yield_strength", "mm"}},
+		{"negative strength", "[petg]\nyield_strength = \"-40 MPa\"\n",
+			[]string{"materials.petg.yield_strength", "must be above zero"}},
+		{"poisson", "[petg]\npoisson_ratio = 0.7\n",
+			[]string{"materials.petg.poisson_ratio", "between 0 and 0.5"}},
+		{"bool as text", "[petg]\nprintable = \"yes\"\n",
+			[]string{"materials.petg.printable", "not true or false"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := ParseMaterials(c.src, base)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q does not contain %q", err, w)
+				}
+			}
+		})
+	}
+}
+
+func TestMaterialLookupSuggests(t *testing.T) {
+	mats, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = mats.Lookup("stainles-304")
+	if err == nil || !strings.Contains(err.Error(), `did you mean "stainless-304"?`) {
+		t.Errorf("Lookup(stainles-304) = %v", err)
+	}
+	_, err = mats.Lookup("unobtainium")
+	if err == nil || !strings.Contains(err.Error(), "pla") || !strings.Contains(err.Error(), "[materials]") {
+		t.Errorf("Lookup(unobtainium) = %v", err)
+	}
+}
