@@ -8,6 +8,7 @@ var kinds = map[string]*Kind{
 	boltsKind.Name:      &boltsKind,
 	tankKind.Name:       &tankKind,
 	valveKind.Name:      &valveKind,
+	tubeKind.Name:       &tubeKind,
 }
 
 // LookupKind returns the kind named name.
