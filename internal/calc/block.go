@@ -321,6 +321,9 @@ func sortedKeys[V any](m map[string]V) []string {
 	return keys
 }
 
+// LineOf is the file line of a key ("show.charts" for a key in a table).
+func (b *Block) LineOf(key string) int { return b.lineOf(key) }
+
 // lineOf is the file line of a key ("expect.displacement" for tables).
 func (b *Block) lineOf(key string) int {
 	if l, ok := b.lines[key]; ok {

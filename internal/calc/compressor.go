@@ -56,6 +56,8 @@ var compressorKind = Kind{
 		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
 	},
+	Charts:   compressorCharts,
+	Chart:    compressorChart,
 	Evaluate: evaluateCompressor,
 }
 
@@ -469,7 +471,10 @@ func compressorCurves(cyc *indicatorCycle, c compressorInput, gas []float64, ste
 		iso.Y = append(iso.Y, c.p1*bottom/v)
 	}
 
-	theta := pick(angle)
+	theta := make([]float64, 0, curvePoints+1)
+	for i := 0; i <= steps; i += stride {
+		theta = append(theta, angle(i))
+	}
 	curves := []Curve{pv, iso, {Name: "gas_torque", XDim: units.Angle, YDim: units.Torque,
 		X: theta, Y: pick(func(i int) float64 { return gas[i] })}}
 	if c.mass > 0 {

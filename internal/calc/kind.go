@@ -16,7 +16,8 @@ type Kind struct {
 	Doc     string // the model written out: assumptions and formulas
 	Inputs  []InputSpec
 	Results []ResultSpec
-	Charts  []string // chart names a block may ask for in [show] charts
+	Charts  []string  // chart names a block may ask for in [show] charts
+	Chart   ChartFunc // draws them
 	// Evaluate computes the results from validated inputs. Input problems
 	// that single-input ranges cannot catch are returned as *InputError.
 	Evaluate func(in *Inputs) (*Outcome, error)

@@ -20,6 +20,7 @@ type CalcBlock struct {
 	Source    string
 	FenceLine int // 1-based line of the opening fence in the document body
 	Eval      *calc.Evaluated
+	Charts    []*DrawnChart // the charts its [show] asks for, drawn
 }
 
 // Kind implements ast.Node.

@@ -50,7 +50,7 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 		writeCode(w, "toml", n.Source)
 		return ast.WalkSkipChildren, nil
 	}
-	WriteCalcBlock(w, n.Eval, n.Source)
+	WriteCalcBlock(w, n.Eval, n.Source, n.Charts)
 	return ast.WalkSkipChildren, nil
 }
 
@@ -59,7 +59,7 @@ func BlockAnchor(id string) string { return "calc-" + id }
 
 // WriteCalcBlock writes one evaluated block: inputs, results with their
 // working, claims, cautions and the block's source.
-func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string) {
+func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart) {
 	b := e.Block
 	anchor := BlockAnchor(b.ID)
 	title := b.Title
@@ -100,6 +100,13 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string) {
 	writeInputs(w, e)
 	writeResults(w, e)
 	ws("</div>\n")
+	if len(charts) > 0 {
+		ws(`<div class="sg-calc-charts">`, "\n")
+		for _, c := range charts {
+			ws(c.HTML)
+		}
+		ws("</div>\n")
+	}
 	ws(`<details class="sg-calc-source"><summary>Block source</summary>`, "\n")
 	writeCode(w, "toml", source)
 	ws("</details>\n</section>\n")

@@ -46,7 +46,7 @@ func TestCalcBlockHTML(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	var buf bytes.Buffer
 	w := bufio.NewWriter(&buf)
-	WriteCalcBlock(w, e, stageBlock)
+	WriteCalcBlock(w, e, stageBlock, nil)
 	_ = w.Flush()
 	out := buf.String()
 	for _, want := range []string{
@@ -96,6 +96,6 @@ func BenchmarkRenderCalcBlock(b *testing.B) {
 	w := bufio.NewWriter(io.Discard)
 	b.ReportAllocs()
 	for b.Loop() {
-		WriteCalcBlock(w, e, stageBlock)
+		WriteCalcBlock(w, e, stageBlock, nil)
 	}
 }

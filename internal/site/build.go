@@ -157,7 +157,7 @@ func (s *Site) render() (map[string][]byte, error) {
 		return nil, err
 	}
 	files["results.json"] = results
-	pages := make([][]byte, len(s.Pages))
+	pages := make([]map[string][]byte, len(s.Pages))
 	errs := make([]error, len(s.Pages))
 	parallel(len(s.Pages), func(i int) {
 		pages[i], errs[i] = s.renderPage(s.Pages[i])
@@ -167,10 +167,12 @@ func (s *Site) render() (map[string][]byte, error) {
 	}
 	var clashes ErrorList
 	for i, p := range s.Pages {
-		if _, ok := files[p.Out]; ok {
-			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its page %s clashes with a file of the same name in static/ or the assets", p.Out)})
+		for _, name := range sortedKeys(pages[i]) {
+			if _, ok := files[name]; ok {
+				clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with a file of the same name in static/, the assets or another page", name)})
+			}
+			files[name] = pages[i][name]
 		}
-		files[p.Out] = pages[i]
 	}
 	if err := clashes.sorted(); err != nil {
 		return nil, err
@@ -210,7 +212,13 @@ type PageInfo struct {
 	Caution template.HTML
 }
 
-func (s *Site) renderPage(p *Page) ([]byte, error) {
+// renderPage lays out one page; it returns the page and the chart data
+// files beside it, keyed by output path.
+func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
+	out := map[string][]byte{}
+	if err := s.drawCharts(p, out); err != nil {
+		return nil, err
+	}
 	body, err := s.md.Render(p.Doc)
 	if err != nil {
 		return nil, &Error{File: p.File, Msg: "rendering: " + err.Error()}
@@ -252,7 +260,8 @@ func (s *Site) renderPage(p *Page) ([]byte, error) {
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, &Error{File: TemplatesDir + "/" + tpl.Name(), Msg: "while laying out " + p.File + ": " + err.Error()}
 	}
-	return buf.Bytes(), nil
+	out[p.Out] = buf.Bytes()
+	return out, nil
 }
 
 func (s *Site) standardCaution(p *Page) template.HTML {

@@ -178,6 +178,30 @@ func (s *Site) resolveRef(p *Page, ref *render.ValueRef) *Error {
 	return nil
 }
 
+// drawCharts draws the charts the page's blocks ask for and adds their
+// data files, "<page>.<block>.<chart>.csv" beside the page, to out.
+func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
+	base := strings.TrimSuffix(p.Out, ".html")
+	for _, pb := range p.blocks {
+		e := pb.node.Eval
+		pb.node.Charts = nil
+		for _, name := range pb.block.Show.Charts {
+			c, err := e.Chart(name)
+			if err != nil {
+				return &Error{File: p.File, Line: pb.block.LineOf("show.charts"), Msg: err.Error()}
+			}
+			csvName := base + "." + pb.block.ID + "." + name + ".csv"
+			d, err := render.DrawChart(c, "chart-"+pb.block.ID+"-"+name, path.Base(csvName))
+			if err != nil {
+				return &Error{File: p.File, Line: pb.block.LineOf("show.charts"), Msg: "block " + pb.block.ID + ": " + err.Error()}
+			}
+			pb.node.Charts = append(pb.node.Charts, d)
+			out[csvName] = d.CSV
+		}
+	}
+	return nil
+}
+
 // relativeURL is the link from output page from to output page to.
 func relativeURL(from, to string) string {
 	return strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to)

@@ -1,0 +1,389 @@
+package render
+
+import (
+	"bytes"
+	"encoding/csv"
+	"fmt"
+	"image/color"
+	"math"
+	"strconv"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
+)
+
+// The chart palette. The canvas writes these colours as CSS classes
+// (s0..s3, mk, ink), so the stylesheet decides the hues for light, dark and
+// print; the values only have to be distinct.
+var (
+	seriesColors = []color.RGBA{{R: 1, A: 255}, {R: 2, A: 255}, {R: 3, A: 255}, {R: 4, A: 255}}
+	inkColor     = color.RGBA{R: 5, A: 255}
+	markColor    = color.RGBA{R: 6, A: 255}
+	gridColor    = color.RGBA{R: 7, A: 255}
+	colorClasses = map[color.RGBA]string{
+		seriesColors[0]: "0", seriesColors[1]: "1", seriesColors[2]: "2", seriesColors[3]: "3",
+		inkColor: "ink", markColor: "mk", gridColor: "grid",
+	}
+)
+
+// Chart geometry, in points. Text sizes are what gonum/plot measures with
+// Liberation Sans; the page shows the text in a metric-compatible face.
+const (
+	chartWidth  = 480
+	panelHeight = 190
+	axisFont    = 10
+	labelFont   = 9.5
+)
+
+// dashes gives each line style its pattern; the widths differ too, so
+// series differ in greyscale and without colour.
+func dashes(s calc.LineStyle) []vg.Length {
+	switch s {
+	case calc.Dashed:
+		return []vg.Length{6, 3}
+	case calc.Dotted:
+		return []vg.Length{1.5, 2.5}
+	case calc.DashDot:
+		return []vg.Length{7, 2.5, 1.5, 2.5}
+	}
+	return nil
+}
+
+// DrawnChart is a chart as HTML (an inline SVG in a figure) with its data
+// as CSV.
+type DrawnChart struct {
+	Name string
+	HTML string
+	CSV  []byte
+}
+
+// DrawChart draws a chart. id makes the SVG's element ids unique in the
+// page; csvHref is the link to the chart's data.
+func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
+	xs := func(v []float64) ([]float64, error) { return toUnit(v, c.X, c.Ambient) }
+	height := float64(panelHeight*len(c.Panels)) + 40
+	canvas := newSVGCanvas(chartWidth, vg.Length(height), colorClasses)
+	plots := make([][]*plot.Plot, len(c.Panels))
+	xMin, xMax := math.Inf(1), math.Inf(-1)
+	for i, panel := range c.Panels {
+		p := plot.New()
+		p.BackgroundColor = nil
+		styleAxis(&p.X)
+		styleAxis(&p.Y)
+		p.Y.Label.Text = axisLabel(panel.Y)
+		var xTicks plot.Ticker = plot.DefaultTicks{}
+		if c.X.Unit == "deg" {
+			xTicks = degreeTicks{}
+		}
+		if i == len(c.Panels)-1 {
+			p.X.Label.Text = axisLabel(c.X)
+			p.X.Tick.Marker = xTicks
+		} else {
+			p.X.Tick.Marker = unlabelled{xTicks}
+		}
+		if panel.Y.Log {
+			p.Y.Scale = plot.LogScale{}
+			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		}
+		grid := plotter.NewGrid()
+		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
+		grid.Vertical.Width, grid.Horizontal.Width = 0.5, 0.5
+		p.Add(grid)
+		yMin, yMax := math.Inf(1), math.Inf(-1)
+		for j, s := range panel.Series {
+			x, err := xs(s.X)
+			if err != nil {
+				return nil, err
+			}
+			y, err := toUnit(s.Y, panel.Y, c.Ambient)
+			if err != nil {
+				return nil, err
+			}
+			if len(x) != len(y) || len(x) < 2 {
+				return nil, fmt.Errorf("chart %s: series %q has %d x and %d y values", c.Name, s.Name, len(x), len(y))
+			}
+			pts := make(plotter.XYs, len(x))
+			for k := range x {
+				if panel.Y.Log && y[k] <= 0 {
+					return nil, fmt.Errorf("chart %s: series %q has a value at or below zero on a log scale", c.Name, s.Name)
+				}
+				pts[k] = plotter.XY{X: x[k], Y: y[k]}
+				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
+				yMin, yMax = math.Min(yMin, y[k]), math.Max(yMax, y[k])
+			}
+			line, err := plotter.NewLine(pts)
+			if err != nil {
+				return nil, fmt.Errorf("chart %s: %w", c.Name, err)
+			}
+			line.Color = seriesColors[j%len(seriesColors)]
+			line.Width = 1.8
+			line.Dashes = dashes(s.Style)
+			p.Add(line)
+			if err := addLabels(p, s.Labels, c, panel); err != nil {
+				return nil, err
+			}
+		}
+		// Magnitudes start from zero, so that slopes are not exaggerated.
+		if !panel.Y.Log && yMin > 0 {
+			yMin = 0
+			p.Y.Min = 0
+		}
+		for _, m := range panel.Marks {
+			if err := addMark(p, m, c, panel, yMin, yMax); err != nil {
+				return nil, err
+			}
+		}
+		plots[i] = []*plot.Plot{p}
+	}
+	for _, row := range plots {
+		row[0].X.Min, row[0].X.Max = xMin, xMax
+	}
+	tiles := draw.Tiles{Rows: len(c.Panels), Cols: 1, PadY: 12, PadTop: 8, PadBottom: 4, PadLeft: 4, PadRight: 12}
+	dc := draw.New(canvas)
+	canvases := plot.Align(plots, tiles, dc)
+	for i, row := range plots {
+		row[0].Draw(canvases[i][0])
+	}
+
+	var out bytes.Buffer
+	tid, did := id+"-title", id+"-desc"
+	fmt.Fprintf(&out, `<figure class="sg-chart" id="%s">`+"\n", esc(id))
+	fmt.Fprintf(&out, `<svg class="sg-chart-svg" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %d %s" role="img" aria-labelledby="%s %s">`+"\n",
+		chartWidth, strconv.FormatFloat(height, 'f', -1, 64), esc(tid), esc(did))
+	fmt.Fprintf(&out, "<title id=\"%s\">%s</title>\n<desc id=\"%s\">%s</desc>\n", esc(tid), esc(c.Title), esc(did), esc(c.Desc))
+	out.Write(canvas.buf.Bytes())
+	out.WriteString("</svg>\n<figcaption>")
+	fmt.Fprintf(&out, `<span class="sg-chart-title">%s</span>`, esc(c.Title))
+	out.WriteString(`<span class="sg-chart-key">`)
+	for _, panel := range c.Panels {
+		for j, s := range panel.Series {
+			fmt.Fprintf(&out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s%d" stroke-width="2"%s d="M1 5H29"/></svg>%s</span>`,
+				j%len(seriesColors), dashAttr(s.Style), esc(s.Name))
+		}
+	}
+	out.WriteString(`</span>`)
+	if csvHref != "" {
+		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)</a>`, esc(csvHref))
+	}
+	out.WriteString("</figcaption>\n</figure>\n")
+	data, err := chartCSV(c)
+	if err != nil {
+		return nil, err
+	}
+	return &DrawnChart{Name: c.Name, HTML: out.String(), CSV: data}, nil
+}
+
+func dashAttr(s calc.LineStyle) string {
+	d := dashes(s)
+	if len(d) == 0 {
+		return ""
+	}
+	var b bytes.Buffer
+	b.WriteString(` stroke-dasharray="`)
+	for i, v := range d {
+		if i > 0 {
+			b.WriteByte(' ')
+		}
+		num(&b, float64(v))
+	}
+	b.WriteByte('"')
+	return b.String()
+}
+
+func styleAxis(a *plot.Axis) {
+	a.Color = inkColor
+	a.Label.TextStyle.Color = inkColor
+	a.Label.TextStyle.Font.Size = axisFont
+	a.Tick.Color = inkColor
+	a.Tick.Label.Color = inkColor
+	a.Tick.Label.Font.Size = labelFont
+	a.Width = 0.8
+	a.Padding = 2
+}
+
+// axisLabel is "Label (unit)"; a pressure unit's gauge or absolute mark
+// goes into the words: "Cylinder pressure, absolute (bar)".
+func axisLabel(a calc.Axis) string {
+	if a.Unit == "" {
+		return a.Label
+	}
+	unit := units.Pretty(a.Unit)
+	if u, err := units.LookupUnit(a.Unit); err == nil && u.Dim == units.Pressure {
+		base := strings.TrimSuffix(strings.TrimSuffix(unit, "(a)"), "(g)")
+		switch u.Ref {
+		case units.Absolute:
+			if base != unit {
+				return a.Label + ", absolute (" + base + ")"
+			}
+		default:
+			return a.Label + ", gauge (" + base + ")"
+		}
+	}
+	return a.Label + " (" + unit + ")"
+}
+
+// degreeTicks marks crank angles every 90° with minor ticks every 30°.
+type degreeTicks struct{}
+
+func (degreeTicks) Ticks(min, max float64) []plot.Tick {
+	var ticks []plot.Tick
+	for v := math.Ceil(min/30) * 30; v <= max+1e-9; v += 30 {
+		t := plot.Tick{Value: v}
+		if math.Mod(v, 90) == 0 {
+			t.Label = strconv.FormatFloat(v, 'f', -1, 64)
+		}
+		ticks = append(ticks, t)
+	}
+	return ticks
+}
+
+// toUnit converts SI values to an axis's display unit.
+func toUnit(si []float64, a calc.Axis, ambient float64) ([]float64, error) {
+	out := make([]float64, len(si))
+	for i, v := range si {
+		if a.Unit == "" {
+			out[i] = v
+			continue
+		}
+		u, err := units.FromSI(v, a.Dim, a.Unit, ambient)
+		if err != nil {
+			return nil, fmt.Errorf("axis %q: %w", a.Label, err)
+		}
+		out[i] = u
+	}
+	return out, nil
+}
+
+func addLabels(p *plot.Plot, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel) error {
+	if len(labels) == 0 {
+		return nil
+	}
+	xy := plotter.XYLabels{XYs: make(plotter.XYs, len(labels)), Labels: make([]string, len(labels))}
+	for i, l := range labels {
+		x, err := toUnit([]float64{l.X}, c.X, c.Ambient)
+		if err != nil {
+			return err
+		}
+		y, err := toUnit([]float64{l.Y}, panel.Y, c.Ambient)
+		if err != nil {
+			return err
+		}
+		xy.XYs[i] = plotter.XY{X: x[0], Y: y[0]}
+		xy.Labels[i] = l.Text
+	}
+	// One Labels plotter per placement: the offset is per plotter.
+	for _, below := range []bool{false, true} {
+		var part plotter.XYLabels
+		for i, l := range labels {
+			if l.Below == below {
+				part.XYs = append(part.XYs, xy.XYs[i])
+				part.Labels = append(part.Labels, xy.Labels[i])
+			}
+		}
+		if len(part.XYs) == 0 {
+			continue
+		}
+		lab, err := plotter.NewLabels(part)
+		if err != nil {
+			return err
+		}
+		for i := range lab.TextStyle {
+			lab.TextStyle[i].Color = inkColor
+			lab.TextStyle[i].Font.Size = labelFont
+		}
+		lab.Offset = vg.Point{X: 4, Y: 4}
+		if below {
+			lab.Offset = vg.Point{X: 4, Y: -labelFont - 4}
+		}
+		p.Add(lab)
+	}
+	return nil
+}
+
+// addMark draws a reference line with its label.
+func addMark(p *plot.Plot, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, yMax float64) error {
+	var pts plotter.XYs
+	var at plotter.XY
+	if m.Vertical {
+		x, err := toUnit([]float64{m.Value}, c.X, c.Ambient)
+		if err != nil {
+			return err
+		}
+		pts = plotter.XYs{{X: x[0], Y: yMin}, {X: x[0], Y: yMax}}
+		at = plotter.XY{X: x[0], Y: yMax}
+	} else {
+		y, err := toUnit([]float64{m.Value}, panel.Y, c.Ambient)
+		if err != nil {
+			return err
+		}
+		lo, hi := p.X.Min, p.X.Max
+		if math.IsInf(lo, 0) || lo == hi {
+			lo, hi = 0, 1
+		}
+		pts = plotter.XYs{{X: lo, Y: y[0]}, {X: hi, Y: y[0]}}
+		at = plotter.XY{X: lo, Y: y[0]}
+	}
+	line, err := plotter.NewLine(pts)
+	if err != nil {
+		return err
+	}
+	line.Color, line.Width, line.Dashes = markColor, 1, []vg.Length{2, 2}
+	p.Add(line)
+	if m.Label == "" {
+		return nil
+	}
+	lab, err := plotter.NewLabels(plotter.XYLabels{XYs: plotter.XYs{at}, Labels: []string{m.Label}})
+	if err != nil {
+		return err
+	}
+	lab.TextStyle[0].Color = markColor
+	lab.TextStyle[0].Font.Size = labelFont
+	lab.Offset = vg.Point{X: 3, Y: 3}
+	p.Add(lab)
+	return nil
+}
+
+// unlabelled keeps a ticker's ticks and blanks their labels, for the x
+// axes of upper panels. A blank, not an empty, label keeps a tick major,
+// so the grid still draws its line.
+type unlabelled struct{ plot.Ticker }
+
+func (u unlabelled) Ticks(min, max float64) []plot.Tick {
+	ticks := u.Ticker.Ticks(min, max)
+	for i := range ticks {
+		if ticks[i].Label != "" {
+			ticks[i].Label = " "
+		}
+	}
+	return ticks
+}
+
+// chartCSV writes every series as rows of series, x, x unit, y, y unit.
+func chartCSV(c *calc.Chart) ([]byte, error) {
+	var buf bytes.Buffer
+	w := csv.NewWriter(&buf)
+	_ = w.Write([]string{"series", c.X.Label, "x unit", "y", "y unit"})
+	for _, panel := range c.Panels {
+		for _, s := range panel.Series {
+			x, err := toUnit(s.X, c.X, c.Ambient)
+			if err != nil {
+				return nil, err
+			}
+			y, err := toUnit(s.Y, panel.Y, c.Ambient)
+			if err != nil {
+				return nil, err
+			}
+			for i := range x {
+				_ = w.Write([]string{s.Name, units.Format(x[i], 6), c.X.Unit, units.Format(y[i], 6), panel.Y.Unit})
+			}
+		}
+	}
+	w.Flush()
+	return buf.Bytes(), w.Error()
+}
