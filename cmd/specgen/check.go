@@ -44,13 +44,22 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		}
 	} else {
 		printProblems(stdout, problems)
-		fmt.Fprintf(stdout, "%d pages, %d blocks, %d claims (%d failed), %d cautions (%d DANGER)\n",
-			tally.Pages, tally.Blocks, tally.Claims, tally.FailedClaims, tally.Cautions, tally.Dangers)
+		fmt.Fprintf(stdout, "%s, %s, %s (%d failed), %s (%d DANGER not acknowledged)\n",
+			count(tally.Pages, "page"), count(tally.Blocks, "block"), count(tally.Claims, "claim"), tally.FailedClaims,
+			count(tally.Cautions, "caution"), tally.Dangers)
 	}
 	if len(problems) > 0 {
 		return exitFailed
 	}
 	return exitOK
+}
+
+// count writes "1 block", "2 blocks".
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }
 
 // printProblems writes one line per failed claim or DANGER caution.

@@ -173,7 +173,8 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		b.Values[key] = val
 	}
 	for _, in := range b.Kind.Inputs {
-		if _, given := b.Values[in.Name]; !given && in.Default == "" && !in.Optional {
+		// A key written with a bad value has its own error already.
+		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {
 			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
 				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, in.Dim.Examples())})
 		}
@@ -219,7 +220,7 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		return Value{Text: strconv.FormatInt(t, 10), Line: line}, nil
 	case float64:
 		if math.IsNaN(t) || math.IsInf(t, 0) {
-			return bad("%v is not a finite number", t)
+			return bad("nan and inf are not finite numbers; write a number such as 1.3")
 		}
 		if dim != units.Dimensionless {
 			return bad("%v has no unit; %s takes %s, written as a string such as \"%v %s\"", t, key, dimPhrase(dim), t, firstExample(dim))

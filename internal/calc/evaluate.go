@@ -275,6 +275,11 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			continue
 		}
 		spec, ok := target.Kind.result(v.RefResult)
+		if _, isInput := target.Kind.input(v.RefResult); !ok && isInput {
+			fail(fmt.Sprintf("%q: %s is an input of block %s, not a result; refer to a result (%s) or write the value",
+				v.Text, v.RefResult, target.ID, strings.Join(target.Kind.resultNames(), ", ")))
+			continue
+		}
 		if !ok {
 			msg := fmt.Sprintf("%q: block %s (%s) has no result %q", v.Text, target.ID, target.Kind.Name, v.RefResult)
 			if s := Suggest(v.RefResult, target.Kind.resultNames()); s != "" {

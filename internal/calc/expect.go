@@ -155,6 +155,7 @@ type ClaimResult struct {
 	Claim    Claim
 	OK       bool
 	Computed float64 // in the claim's unit
+	Shown    string  // the computed value as the message shows it, with its unit
 	Message  string
 }
 
@@ -166,28 +167,50 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		r.Message = fmt.Sprintf("%s: cannot compare: %v", c.Result, err)
 		return r
 	}
-	// Guard against binary rounding deciding a claim at its edge.
-	eps := 1e-9 * math.Max(math.Abs(v), math.Abs(c.Value))
-	switch c.Op {
-	case OpAbout:
-		tol := c.Tolerance + c.RelTol*math.Abs(c.Value)
-		r.OK = math.Abs(v-c.Value) <= tol+eps
-	case OpAtLeast:
-		r.OK = v >= c.Value-eps
-	case OpAtMost:
-		r.OK = v <= c.Value+eps
-	case OpAbove:
-		r.OK = v > c.Value
-	case OpBelow:
-		r.OK = v < c.Value
-	}
-	computed := strings.TrimSpace(units.Format(v, max(sig, 3)) + " " + units.Pretty(c.Unit))
+	r.OK = c.holds(v)
+	computed := strings.TrimSpace(units.Format(v, c.figuresToShow(v, sig, r.OK)) + " " + units.Pretty(c.Unit))
+	r.Shown = computed
 	if r.OK {
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
 	} else {
 		r.Message = fmt.Sprintf("%s: claim %q fails: computed %s", c.Result, c.Text, computed)
 	}
 	return r
+}
+
+// holds reports whether v, in the claim's unit, satisfies the claim.
+func (c Claim) holds(v float64) bool {
+	// Guard against binary rounding deciding a claim at its edge.
+	eps := 1e-9 * math.Max(math.Abs(v), math.Abs(c.Value))
+	switch c.Op {
+	case OpAbout:
+		tol := c.Tolerance + c.RelTol*math.Abs(c.Value)
+		return math.Abs(v-c.Value) <= tol+eps
+	case OpAtLeast:
+		return v >= c.Value-eps
+	case OpAtMost:
+		return v <= c.Value+eps
+	case OpAbove:
+		return v > c.Value
+	case OpBelow:
+		return v < c.Value
+	}
+	return false
+}
+
+// figuresToShow is how many significant figures make a computed value
+// show its verdict: a failed claim must not print a rounded value that
+// looks as if it held ("20.5" against "20 cm3" when it is 20.51).
+func (c Claim) figuresToShow(v float64, sig int, ok bool) int {
+	figs := max(sig, 3)
+	for !ok && figs < 8 {
+		shown, err := strconv.ParseFloat(units.Format(v, figs), 64)
+		if err != nil || !c.holds(shown) {
+			break
+		}
+		figs++
+	}
+	return figs
 }
 
 // decodeExpect reads the [expect] table.

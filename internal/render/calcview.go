@@ -89,7 +89,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 			if !c.OK {
 				cls, word = "sg-claim-failed", "FAILS"
 			}
-			computed := units.Format(c.Computed, max(e.SigFigs(), 3)) + " " + units.Pretty(c.Claim.Unit)
+			computed := c.Shown
 			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed <q>`,
 				esc(c.Claim.Text), `</q>, computed <strong>`, esc(strings.TrimSpace(computed)), "</strong></li>\n")
 		}
