@@ -16,19 +16,42 @@ var tankKind = Kind{
 	Name:    "tank",
 	Summary: "air receiver: fill time from a compressor, stored energy, and optionally the wall's stress and allowable pressure",
 	Doc:     tankDoc,
-	Inputs: []InputSpec{
+	Inputs: append([]InputSpec{
 		{Name: "volume", Dim: units.Volume, Range: positiveUpTo(1e3), Meaning: "internal volume of the receiver, up to 1000 m3"},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "working (target) pressure the receiver is filled to, up to 1 GPa; must be above ambient"},
 		{Name: "start_pressure", Dim: units.Pressure, Default: "0 bar", Range: Between(0, 1e9), Meaning: "pressure in the receiver when filling starts; must be below the target"},
 		{Name: "supply", Type: Link, Optional: true, LinkKinds: []string{"compressor"}, Meaning: "id of the compressor block that fills the receiver; without it fill_time is not computed"},
-	},
+	}, tankWallInputs()...),
 	Results: []ResultSpec{
 		{Name: "fill_time", Dim: units.Time, Unit: "s", Meaning: "time the supply takes from start_pressure to the target pressure (needs supply)"},
 		{Name: "stored_energy", Dim: units.Energy, Unit: "kJ", Meaning: "energy released by an isentropic expansion of the air at the target pressure to ambient"},
+		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore of the shell, Lamé, at the target pressure (with a wall)"},
+		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
+			Meaning: "design strength of the shell over its equivalent stress at the bore, as the tube kind (with a wall)"},
+		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure of the shell over the site's minimum safety factor, as the tube kind (with a wall)"},
 	},
 	Charts:   []string{"fill"},
 	Evaluate: evaluateTank,
 }
+
+// tankWall lists the wall inputs a tank shares with the tube kind:
+// optional, and given all together or not at all.
+var tankWall = []string{"material", "inner_diameter", "wall_thickness", "outer_diameter", "closed_ends"}
+
+// tankWallInputs returns the tube kind's wall inputs, optional on a tank.
+func tankWallInputs() []InputSpec {
+	var specs []InputSpec
+	for _, name := range tankWall {
+		spec, _ := tubeKind.input(name)
+		spec.Optional = true
+		spec.Meaning = "shell wall, as the tube kind: " + spec.Meaning
+		specs = append(specs, spec)
+	}
+	return specs
+}
+
+// wallResults are the tube results a tank with a wall reports.
+var wallResults = []string{"hoop_stress", "safety_factor", "allowable_pressure"}
 
 // airGamma is the ratio of specific heats of air used for stored energy
 // (ASME PCC-2 Article 501 uses 1.4; from memory).
@@ -69,6 +92,15 @@ Fill time
   each whole bar (gauge) from start_pressure up to the target (X pressure,
   Y time); above 50 rows the step grows to 2, 5, 10, 20, 50 ... bar.
 
+Wall (optional)
+  Give material, inner_diameter and wall_thickness or outer_diameter (and
+  closed_ends, default true) for the cylindrical shell; the tube kind's
+  model then runs at the target pressure and the tank reports its
+  hoop_stress (Lamé, at the bore), safety_factor and allowable_pressure
+  (Barlow burst pressure over the site's minimum factor; specgen explain tube).
+  Heads, nozzles and welds are not checked: a shell that passes is not a
+  vessel that passes.
+
 Stored energy
   E = p2·V/(γ−1) · [1 − (p_a/p2)^((γ−1)/γ)],  γ = 1.4
   the work of an isentropic expansion of the air to ambient p_a, the form
@@ -107,14 +139,6 @@ func (s supplyModel) poleU() float64 { return (1 + s.c) / s.c }
 // delivers reports whether the supply still delivers at pressure p.
 func (s supplyModel) delivers(p float64) bool {
 	return p <= s.p1 || s.poleU()-math.Pow(p/s.p1, 1/s.n) > 0
-}
-
-// delivery returns the free air delivery at tank pressure p (absolute).
-func (s supplyModel) delivery(p float64) float64 {
-	if p <= s.p1 {
-		return s.rate
-	}
-	return s.rate * (1 + s.c - s.c*math.Pow(p/s.p1, 1/s.n))
 }
 
 // gaussLegendre16 are the nodes and weights of 16-point Gauss-Legendre
@@ -183,6 +207,9 @@ func readTankInput(in *Inputs) (tankInput, error) {
 		return t, &InputError{Key: "start_pressure", Message: fmt.Sprintf(
 			"start pressure %s must be below the target pressure %s", bara(t.start), bara(t.target))}
 	}
+	if err := checkWallInputs(in); err != nil {
+		return t, err
+	}
 	if l := in.LinkOf("supply"); l != nil {
 		s, err := readSupply(l)
 		if err != nil {
@@ -209,7 +236,41 @@ func evaluateTank(in *Inputs) (*Outcome, error) {
 		out.Curves = append(out.Curves, fillCurve(t), fillTable(t))
 	}
 	out.Results = append(out.Results, storedEnergyResult(t))
+	if in.Has("inner_diameter") {
+		wall, err := evaluateTube(in)
+		if err != nil {
+			return nil, err
+		}
+		for _, r := range wall.Results {
+			if contains(wallResults, r.Name) {
+				out.Results = append(out.Results, r)
+			}
+		}
+	}
 	return out, nil
+}
+
+// checkWallInputs asks for the whole wall when part of it is given.
+func checkWallInputs(in *Inputs) error {
+	var given []string
+	for _, name := range tankWall {
+		if in.Given(name) {
+			given = append(given, name)
+		}
+	}
+	if len(given) == 0 {
+		return nil
+	}
+	whole := "give material, inner_diameter and wall_thickness or outer_diameter for the shell wall, or none of them"
+	for _, name := range []string{"material", "inner_diameter"} {
+		if !in.Has(name) {
+			return &InputError{Key: given[0], Message: fmt.Sprintf("%s is given but %s is missing: %s", given[0], name, whole)}
+		}
+	}
+	if !in.Has("wall_thickness") && !in.Has("outer_diameter") {
+		return &InputError{Key: given[0], Message: fmt.Sprintf("%s is given but wall_thickness or outer_diameter is missing: %s", given[0], whole)}
+	}
+	return nil
 }
 
 // fillResult is the fill time with its working.

@@ -1,0 +1,374 @@
+package calc
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/units"
+)
+
+// blockCase is one testdata/reference/<kind>/*.toml file: blocks as a user
+// writes them (each [[blocks]] table is one calc block), the block whose
+// results are checked, and the checks.
+type blockCase struct {
+	Source     string
+	FromMemory bool `toml:"from_memory"`
+	Note       string
+	Block      string
+	Blocks     []map[string]any
+	Check      []struct {
+		Result    string
+		Basis     string // "" for value; otherwise the test computes the reference
+		Value     string
+		Tolerance string
+	}
+}
+
+// referenceFunc computes a check's reference value for a basis other than
+// "": the block e, evaluated in set.
+type referenceFunc func(t *testing.T, basis string, set *Set, e *Evaluated) float64
+
+// evaluateBlocks parses calc blocks written as TOML tables and evaluates
+// them together, as a site build does.
+func evaluateBlocks(t *testing.T, tables []map[string]any) (*Set, error) {
+	t.Helper()
+	var blocks []*Block
+	for i, table := range tables {
+		var buf bytes.Buffer
+		if err := toml.NewEncoder(&buf).Encode(table); err != nil {
+			t.Fatal(err)
+		}
+		b, err := ParseBlock("reference.md", 100*i, buf.String())
+		if err != nil {
+			t.Fatalf("block %d: %v\n%s", i, err, buf.String())
+		}
+		blocks = append(blocks, b)
+	}
+	return Evaluate(blocks, Options{})
+}
+
+// runBlockCases runs every case file of dir.
+func runBlockCases(t *testing.T, dir string, minCases int, reference referenceFunc) {
+	files, err := filepath.Glob(filepath.Join("../../testdata/reference", dir, "*.toml"))
+	if err != nil || len(files) < minCases {
+		t.Fatalf("want at least %d reference cases in %s, found %d (%v)", minCases, dir, len(files), err)
+	}
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			var c blockCase
+			md, err := toml.DecodeFile(f, &c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if un := md.Undecoded(); len(un) > 0 {
+				t.Fatalf("unknown keys %v", un)
+			}
+			if c.Source == "" || c.Note == "" || c.Block == "" || len(c.Check) == 0 {
+				t.Fatal("a case needs a source, a note, a block and checks")
+			}
+			set, err := evaluateBlocks(t, c.Blocks)
+			if err != nil {
+				t.Fatal(err)
+			}
+			e, ok := set.Lookup(c.Block)
+			if !ok {
+				t.Fatalf("no block %q", c.Block)
+			}
+			for _, ch := range c.Check {
+				r, ok := e.Result(ch.Result)
+				if !ok {
+					t.Errorf("no result %q", ch.Result)
+					continue
+				}
+				if math.IsNaN(r.Value) || math.IsInf(r.Value, 0) || r.Trace.Formula == "" || !strings.HasPrefix(r.Trace.Substituted, "= ") {
+					t.Errorf("%s = %g with trace %q / %q", r.Name, r.Value, r.Trace.Formula, r.Trace.Substituted)
+				}
+				var want float64
+				if ch.Basis == "" {
+					q, err := units.Parse(ch.Value, r.Dim)
+					if err != nil {
+						t.Fatalf("%s: %v", ch.Result, err)
+					}
+					want = q.Absolute(e.Ambient)
+				} else {
+					want = reference(t, ch.Basis, set, e)
+				}
+				tol := tolerance(t, ch.Tolerance, r.Dim, want)
+				t.Logf("%s = %.9g SI, want %.9g ± %.3g (%s)", ch.Result, r.Value, want, tol, ch.Basis)
+				if math.Abs(r.Value-want) > tol {
+					t.Errorf("%s = %.9g SI, want %.9g SI ± %.3g (%s; %s)", ch.Result, r.Value, want, tol, ch.Basis, c.Source)
+				}
+			}
+		})
+	}
+}
+
+// inputValue returns the SI value of e's input name.
+func inputValue(t *testing.T, e *Evaluated, name string) (float64, bool) {
+	t.Helper()
+	for _, in := range e.Inputs {
+		if in.Name == name {
+			return in.Value, true
+		}
+	}
+	return 0, false
+}
+
+// supplyOf returns the cycle of the compressor a tank names as its supply,
+// read from the compressor's evaluated results and inputs.
+func supplyOf(t *testing.T, set *Set, tank *Evaluated) (rate, c, n, p1 float64) {
+	t.Helper()
+	var id string
+	for _, in := range tank.Inputs {
+		if in.Name == "supply" {
+			id = in.Links[0]
+		}
+	}
+	s, ok := set.Lookup(id)
+	if !ok {
+		t.Fatalf("tank %s has no supply", tank.Block.ID)
+	}
+	vd, _ := s.Result("displacement_rate")
+	cr, _ := s.Result("clearance_ratio")
+	n, _ = inputValue(t, s, "polytropic_index")
+	p1 = s.Ambient
+	if v, ok := inputValue(t, s, "inlet_pressure"); ok {
+		p1 = v
+	}
+	return vd.Value, cr.Value, n, p1
+}
+
+// midpointFill integrates dt = V·dp/(p1·FAD(p)) from p0 to p2 by the
+// midpoint rule with a million equal pressure steps, with
+// FAD = V̇d·(1 + c − c·(p/p1)^(1/n)) above p1 and V̇d below.
+func midpointFill(v, p0, p2, rate, c, n, p1 float64) float64 {
+	const steps = 1_000_000
+	h := (p2 - p0) / steps
+	t := 0.0
+	for i := range steps {
+		p := p0 + (float64(i)+0.5)*h
+		eta := 1.0
+		if p > p1 {
+			eta = 1 + c - c*math.Pow(p/p1, 1/n)
+		}
+		t += v * h / (p1 * rate * eta)
+	}
+	return t
+}
+
+// tankReference computes the "midpoint" basis: the fill time by the test's
+// own integration.
+func tankReference(t *testing.T, basis string, set *Set, e *Evaluated) float64 {
+	t.Helper()
+	if basis != "midpoint" {
+		t.Fatalf("unknown basis %q", basis)
+	}
+	rate, c, n, p1 := supplyOf(t, set, e)
+	v, _ := inputValue(t, e, "volume")
+	p0, _ := inputValue(t, e, "start_pressure")
+	p2, _ := inputValue(t, e, "pressure")
+	return midpointFill(v, p0, p2, rate, c, n, p1)
+}
+
+func TestTankReference(t *testing.T) {
+	runBlockCases(t, "tank", 5, tankReference)
+}
+
+// benchSite is a compressor feeding a receiver; changes replace tank keys,
+// or remove them (nil).
+func benchSite(changes map[string]any) []map[string]any {
+	tank := map[string]any{"id": "rx", "kind": "tank", "volume": "20 L", "pressure": "8 bar", "supply": "low"}
+	for k, v := range changes {
+		if v == nil {
+			delete(tank, k)
+		} else {
+			tank[k] = v
+		}
+	}
+	return []map[string]any{{
+		"id": "low", "kind": "compressor", "bore": "28 mm", "stroke": "32 mm", "rod_length": "70 mm",
+		"clearance_volume": "1.8 cm3", "speed": "900 rpm", "discharge_pressure": "6 bar",
+	}, tank}
+}
+
+// TestTankFillCurves: the fill curve rises from the start to the target and
+// ends at the fill time; the table has a row at each whole bar (gauge) from
+// the start, each at the time the test's own integration gives.
+func TestTankFillCurves(t *testing.T) {
+	set, err := evaluateBlocks(t, benchSite(map[string]any{"start_pressure": "0.5 bar"}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("rx")
+	curves := map[string]Curve{}
+	for _, c := range e.Curves {
+		curves[c.Name] = c
+	}
+	fill, table := curves["fill"], curves["fill_table"]
+	fillTime, _ := e.Result("fill_time")
+	if n := len(fill.X); n != fillCurveIntervals+1 || len(fill.Y) != n {
+		t.Fatalf("fill curve has %d/%d points", len(fill.X), len(fill.Y))
+	}
+	p0, p2 := e.Ambient+0.5e5, e.Ambient+8e5
+	if fill.X[0] != 0 || math.Abs(fill.Y[0]-p0) > 1e-9 || math.Abs(fill.Y[len(fill.Y)-1]-p2) > 1e-6 ||
+		math.Abs(fill.X[len(fill.X)-1]-fillTime.Value) > 1e-9*fillTime.Value {
+		t.Errorf("fill curve runs from (%g s, %g Pa) to (%g s, %g Pa); want (0, %g) to (%g, %g)",
+			fill.X[0], fill.Y[0], fill.X[len(fill.X)-1], fill.Y[len(fill.Y)-1], p0, fillTime.Value, p2)
+	}
+	for i := 1; i < len(fill.X); i++ {
+		if !(fill.X[i] > fill.X[i-1] && fill.Y[i] > fill.Y[i-1]) {
+			t.Fatalf("fill curve not rising at point %d", i)
+		}
+	}
+	rate, c, n, p1 := supplyOf(t, set, e)
+	if len(table.X) != 8 || table.XDim != units.Pressure || table.YDim != units.Time {
+		t.Fatalf("fill table has %d rows (%v over %v), want 1 to 8 bar", len(table.X), table.YDim, table.XDim)
+	}
+	for i, p := range table.X {
+		if want := e.Ambient + float64(i+1)*1e5; math.Abs(p-want) > 1e-6 {
+			t.Errorf("row %d at %g Pa, want %g Pa (%d bar gauge)", i, p, want, i+1)
+		}
+		want := midpointFill(0.02, p0, p, rate, c, n, p1)
+		if math.Abs(table.Y[i]-want) > 1e-6*want {
+			t.Errorf("row %d: %g s, want %g s by the midpoint rule", i, table.Y[i], want)
+		}
+	}
+}
+
+func TestTableStep(t *testing.T) {
+	for _, c := range []struct{ span, step float64 }{
+		{0.5, 1}, {8, 1}, {50, 1}, {50.5, 2}, {100, 2}, {101, 5}, {250, 5}, {251, 10}, {9000, 200},
+	} {
+		if got := tableStep(c.span); got != c.step {
+			t.Errorf("tableStep(%g bar) = %g, want %g", c.span, got, c.step)
+		}
+	}
+}
+
+func TestTankWithoutSupply(t *testing.T) {
+	site := benchSite(map[string]any{"supply": nil})
+	set, err := evaluateBlocks(t, site[1:])
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("rx")
+	if _, ok := e.Result("fill_time"); ok || len(e.Curves) != 0 {
+		t.Errorf("a tank without supply has fill_time or curves: %+v", e.Curves)
+	}
+	if _, ok := e.Result("stored_energy"); !ok {
+		t.Error("a tank without supply has no stored_energy")
+	}
+}
+
+// TestTankWall: the shell's results are the tube kind's for the same wall
+// at the same pressure, and the relief rule sees the tank as a part.
+func TestTankWall(t *testing.T) {
+	wall := map[string]any{"material": "s235", "inner_diameter": "150 mm", "wall_thickness": "1 mm"}
+	site := benchSite(wall)
+	tube := map[string]any{"id": "shell", "kind": "tube", "pressure": "8 bar"}
+	for k, v := range wall {
+		tube[k] = v
+	}
+	set, err := evaluateBlocks(t, append(site, tube))
+	if err != nil {
+		t.Fatal(err)
+	}
+	tank, _ := set.Lookup("rx")
+	shell, _ := set.Lookup("shell")
+	for _, name := range wallResults {
+		a, okA := tank.Result(name)
+		b, okB := shell.Result(name)
+		if !okA || !okB || a.Value != b.Value {
+			t.Errorf("%s: tank %g (%v), tube %g (%v)", name, a.Value, okA, b.Value, okB)
+		}
+	}
+	// A 150 mm × 1 mm shell of S235 bursts at 2·360 MPa·1 mm/152 mm =
+	// 47.37 bar and allows 47.37/2.5 = 18.95 bar, below the bench
+	// cylinder's 24.47 bar dead-head: the compressor gets the DANGER.
+	allow, _ := tank.Result("allowable_pressure")
+	if want := 2*360e6*0.001/0.152/2.5 + tank.Ambient; math.Abs(allow.Value-want) > 1e-9*want {
+		t.Errorf("allowable_pressure = %g Pa, want %g Pa", allow.Value, want)
+	}
+	low, _ := set.Lookup("low")
+	danger := false
+	for _, c := range low.Cautions {
+		danger = danger || (c.Rule == "no-relief" && strings.Contains(c.Message, "rx"))
+	}
+	if !danger {
+		t.Errorf("no no-relief DANGER on the compressor; cautions %+v", low.Cautions)
+	}
+}
+
+func TestTankInputErrors(t *testing.T) {
+	cases := []struct {
+		changes map[string]any
+		key     string
+		says    []string
+	}{
+		// The bench cylinder dead-heads at 25.48 bar(a).
+		{map[string]any{"pressure": "30 bar"}, "pressure", []string{"31.01 bar(a)", "25.48 bar(a)", "low"}},
+		{map[string]any{"start_pressure": "9 bar"}, "start_pressure", []string{"10.01 bar(a)", "9.013 bar(a)"}},
+		{map[string]any{"start_pressure": "8 bar"}, "start_pressure", []string{"9.013 bar(a)"}},
+		{map[string]any{"pressure": "0 bar", "start_pressure": "-0.5 bar"}, "pressure", []string{"ambient"}},
+		{map[string]any{"material": "s235"}, "material", []string{"inner_diameter is missing"}},
+		{map[string]any{"inner_diameter": "150 mm", "material": "s235"}, "material", []string{"wall_thickness or outer_diameter is missing"}},
+		{map[string]any{"closed_ends": "false"}, "closed_ends", []string{"material is missing"}},
+	}
+	for _, c := range cases {
+		_, err := evaluateBlocks(t, benchSite(c.changes))
+		var list Errors
+		if !errors.As(err, &list) || len(list) != 1 {
+			t.Errorf("%v: got %v, want one error", c.changes, err)
+			continue
+		}
+		if list[0].Key != c.key {
+			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
+		}
+		for _, s := range c.says {
+			if !strings.Contains(list[0].Msg, s) {
+				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
+			}
+		}
+	}
+}
+
+// TestFillTimeExtremes drives the supply model at the ends of its inputs'
+// ranges and up to a hair below the dead-head pressure: the time is always
+// finite and positive, rises with the target, and for n = 1 matches the
+// closed form.
+func TestFillTimeExtremes(t *testing.T) {
+	for _, c := range []float64{minClearanceRatio, 0.05, 1, 100} {
+		for _, n := range []float64{1, 1 + 1e-9, 1.3, 1.67} {
+			for _, p1 := range []float64{1, 101325, 1e9} {
+				s := supplyModel{id: "s", rate: 1e-3, c: c, n: n, p1: p1, pMax: p1 * math.Pow((1+c)/c, n)}
+				prev := 0.0
+				for _, frac := range []float64{0.5, 0.9, 1 - 1e-6, 1 - 1e-12} {
+					p2 := s.p1 + frac*(s.pMax-s.p1)
+					if p2 > 1e9 || !s.delivers(p2) {
+						continue
+					}
+					label := fmt.Sprintf("c=%g n=%g p1=%g to %g of dead-head", c, n, p1, frac)
+					got := s.fillTime(1e-2, p1/2, p2)
+					if math.IsNaN(got) || math.IsInf(got, 0) || got <= prev {
+						t.Errorf("%s: %g s after %g s", label, got, prev)
+					}
+					prev = got
+					if n == 1 && frac < 1-1e-9 {
+						tau := 1e-2 / s.rate
+						want := tau/2 + tau/c*math.Log(1/(1+c-c*p2/p1))
+						if math.Abs(got-want) > 1e-9*want {
+							t.Errorf("%s: %.12g s, closed form %.12g s", label, got, want)
+						}
+					}
+				}
+			}
+		}
+	}
+}
