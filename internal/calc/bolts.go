@@ -17,7 +17,7 @@ var boltsKind = Kind{
 	Summary: "the bolts that hold a head against pressure: head load, load per bolt, bolt stress against the property class, thread stripping",
 	Doc:     boltsDoc,
 	Inputs: []InputSpec{
-		{Name: "thread", Type: Name, Meaning: "ISO metric thread: coarse " + strings.Join(coarseNames(), ", ") + "; fine " + strings.Join(fineNames(), ", ")},
+		{Name: "thread", Type: Name, Meaning: "ISO metric thread, M2 to M24: coarse as \"M8\", fine as \"M8x1\" (the table is under Threads above)"},
 		{Name: "count", Dim: units.Dimensionless, Range: Between(1, maxBolts), Meaning: "number of bolts sharing the head load, a whole number from 1 to 1000"},
 		{Name: "property_class", Type: Name, Choices: propertyClassChoices, Meaning: "ISO 898-1 property class of the bolts: " + strings.Join(propertyClassChoices(nil), ", ") + " (8.8 or \"8.8\")"},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure under the head, gauge unless marked absolute; must be above ambient"},
@@ -96,20 +96,6 @@ func propertyClassChoices(*Env) []string {
 	names := make([]string, len(propertyClasses))
 	for i, c := range propertyClasses {
 		names[i] = c.name
-	}
-	return names
-}
-
-func coarseNames() []string { return threadNames(false) }
-
-func fineNames() []string { return threadNames(true) }
-
-func threadNames(fine bool) []string {
-	var names []string
-	for _, t := range threads {
-		if t.Fine == fine {
-			names = append(names, t.Name)
-		}
 	}
 	return names
 }

@@ -231,6 +231,12 @@ func TestThreadProfile(t *testing.T) {
 }
 
 func TestLookupThread(t *testing.T) {
+	for _, name := range ThreadNames() {
+		if !strings.Contains(boltsKind.Doc, " "+name+" ") && !strings.Contains(boltsKind.Doc, " "+name+",") &&
+			!strings.Contains(boltsKind.Doc, " "+name+".") {
+			t.Errorf("the bolts doc does not list %s", name)
+		}
+	}
 	for _, c := range []struct{ name, want string }{
 		{"M8", "M8"}, {"M8x1", "M8x1"}, {"M8x1.25", "M8"}, {"M8x1.0", "M8x1"}, {"M2.5", "M2.5"}, {"M24x2", "M24x2"},
 	} {
