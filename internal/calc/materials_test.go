@@ -5,6 +5,10 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/units"
 )
 
 func TestBuiltinMaterials(t *testing.T) {
@@ -66,31 +70,48 @@ func TestBuiltinMaterials(t *testing.T) {
 	}
 }
 
-// TestMaterialMinimums checks the rows that quote a standard's minimum.
+// TestMaterialMinimums checks the rows that quote a standard's minimum
+// strengths against testdata/reference/materials.
 func TestMaterialMinimums(t *testing.T) {
 	mats, err := DefaultMaterials()
 	if err != nil {
 		t.Fatal(err)
 	}
-	const psi = 6894.757 // NIST SP 811 App. B: 1 psi = 6.894757 kPa
-	for _, c := range []struct {
-		name           string
-		tensile, yield float64 // Pa
-		tolerance      float64 // relative: metric standards round the imperial figures
-		source         string
-	}{
-		{"s235", 360e6, 235e6, 0, "EN 10025-2 S235JR, t ≤ 16 mm (from memory)"},
-		{"aluminium-6061-t6", 260e6, 240e6, 0, "EN 755-2 6061 T6 extrusions (from memory)"},
-		{"aluminium-6061-t6", 38e3 * psi, 35e3 * psi, 0.01, "ASTM B221 6061-T6: 38 ksi, 35 ksi (from memory)"},
-		{"stainless-304", 75e3 * psi, 30e3 * psi, 0.01, "ASTM A240 type 304: 75 ksi, 30 ksi (from memory)"},
-		{"cast-iron", 250e6, 0, 0, "EN 1561 EN-GJL-250, no yield point (from memory)"},
-	} {
-		m, err := mats.Lookup(c.name)
+	var ref struct {
+		Row []struct {
+			Material, Source string
+			TensileStrength  string `toml:"tensile_strength"`
+			YieldStrength    string `toml:"yield_strength"` // "" for none
+			Tolerance        string
+		}
+	}
+	md, err := toml.DecodeFile("../../testdata/reference/materials/standard-minimums.toml", &ref)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if un := md.Undecoded(); len(un) > 0 || len(ref.Row) == 0 {
+		t.Fatalf("unknown keys %v or no rows", un)
+	}
+	for _, row := range ref.Row {
+		m, err := mats.Lookup(row.Material)
 		if err != nil {
 			t.Fatal(err)
 		}
-		if math.Abs(m.TensileStrength-c.tensile) > c.tolerance*c.tensile || math.Abs(m.YieldStrength-c.yield) > c.tolerance*c.yield {
-			t.Errorf("%s: tensile %g Pa, yield %g Pa; want %g, %g (%s)", c.name, m.TensileStrength, m.YieldStrength, c.tensile, c.yield, c.source)
+		for _, c := range []struct {
+			name, want string
+			got        float64
+		}{{"tensile strength", row.TensileStrength, m.TensileStrength}, {"yield strength", row.YieldStrength, m.YieldStrength}} {
+			want := 0.0
+			if c.want != "" {
+				q, err := units.Parse(c.want, units.Stress)
+				if err != nil {
+					t.Fatalf("%s: %v", row.Material, err)
+				}
+				want = q.Value
+			}
+			if tol := tolerance(t, row.Tolerance, units.Stress, want); math.Abs(c.got-want) > tol {
+				t.Errorf("%s: %s %g Pa, want %s ± %s (%s)", row.Material, c.name, c.got, c.want, row.Tolerance, row.Source)
+			}
 		}
 	}
 }
