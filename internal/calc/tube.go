@@ -17,7 +17,7 @@ var tubeKind = Kind{
 	Inputs: []InputSpec{
 		{Name: "inner_diameter", Dim: units.Length, Range: Between(1e-4, 10), Meaning: "bore of the tube or cylinder, 0.1 mm to 10 m"},
 		{Name: "outer_diameter", Dim: units.Length, Optional: true, Range: Between(1e-4, 20), Meaning: "outside diameter; give outer_diameter or wall_thickness"},
-		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: positiveUpTo(5), Meaning: "wall thickness, less than the inner radius; give wall_thickness or outer_diameter"},
+		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: Between(minTubeWall, 5), Meaning: "wall thickness, 1 µm or more and less than the inner radius; give wall_thickness or outer_diameter"},
 		{Name: "pressure", Dim: units.Pressure, Range: Range{Max: maxTubePressure, HasMax: true}, Meaning: "internal pressure, above ambient, up to 1 GPa; the outside is at ambient"},
 		{Name: "material", Type: Name, Choices: materialChoices, Meaning: "material of the wall (specgen explain lists the materials)"},
 		{Name: "closed_ends", Type: Name, Default: "true", Choices: func(*Env) []string { return []string{"false", "true"} },
@@ -40,6 +40,9 @@ const (
 	// maxTubePressure bounds the pressure input (absolute), as for the
 	// compressor's discharge pressure.
 	maxTubePressure = 1e9 // Pa
+	// minTubeWall is the thinnest wall taken (a foil); it keeps the
+	// thin-wall stress finite at the largest pressure.
+	minTubeWall = 1e-6 // m
 	// thinWallLimit is the wall thickness over bore beyond which the thin
 	// formula p·Di/2t falls more than about 5 % below the Lamé bore stress
 	// (Di/t ≥ 20, the ri/t ≥ 10 rule of strength-of-materials texts).
@@ -117,9 +120,9 @@ func readTubeInput(in *Inputs) (tubeInput, error) {
 		wallKey = "outer_diameter"
 		c.ro = in.Value("outer_diameter") / 2
 		c.t = c.ro - c.ri
-		if c.t <= 0 {
+		if c.t < minTubeWall {
 			return c, &InputError{Key: "outer_diameter", Message: fmt.Sprintf(
-				"outer diameter %s must exceed the inner diameter %s", mm(2*c.ro), mm(2*c.ri))}
+				"outer diameter %s must exceed the inner diameter %s by at least 2 µm (a wall of 1 µm)", mm(2*c.ro), mm(2*c.ri))}
 		}
 	case in.Has("wall_thickness"):
 		c.t = in.Value("wall_thickness")
