@@ -73,7 +73,7 @@ func (k *Kind) Explain(w io.Writer) {
 		case def == "":
 			def = "(required)"
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", in.Name, def, unitsHint(in.Dim), in.Meaning)
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", in.Name, def, inputHint(in), in.Meaning)
 	}
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nResults (results.json holds SI values; pressures absolute):")
@@ -99,9 +99,25 @@ func (k *Kind) Explain(w io.Writer) {
 	}
 }
 
-func unitsHint(d units.Dimension) string {
-	if d == units.Dimensionless {
+// inputHint says what an input takes: units, a block id or a name.
+func inputHint(in InputSpec) string {
+	switch in.Type {
+	case Link:
+		return "block id" + linkKinds(in)
+	case LinkList:
+		return "list of block ids" + linkKinds(in)
+	case Name:
+		return "name"
+	}
+	if in.Dim == units.Dimensionless {
 		return "number"
 	}
-	return d.String() + ": " + d.Examples()
+	return in.Dim.String() + ": " + in.Dim.Examples()
+}
+
+func linkKinds(in InputSpec) string {
+	if len(in.LinkKinds) == 0 {
+		return ""
+	}
+	return " (" + strings.Join(in.LinkKinds, ", ") + ")"
 }

@@ -13,4 +13,3 @@ func Suggest(s string, candidates []string) string {
 	}
 	return best
 }
-

@@ -73,6 +73,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	xMin, xMax := math.Inf(1), math.Inf(-1)
 	for i, panel := range c.Panels {
 		p := plot.New()
+		useMemoText(p)
 		p.BackgroundColor = nil
 		styleAxis(&p.X)
 		styleAxis(&p.Y)
@@ -117,7 +118,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
 				yMin, yMax = math.Min(yMin, y[k]), math.Max(yMax, y[k])
 			}
-			line, err := plotter.NewLine(pts)
+			line, err := plotter.NewLine(thin(pts))
 			if err != nil {
 				return nil, fmt.Errorf("chart %s: %w", c.Name, err)
 			}
@@ -243,21 +244,50 @@ func (degreeTicks) Ticks(min, max float64) []plot.Tick {
 	return ticks
 }
 
-// toUnit converts SI values to an axis's display unit.
+// toUnit converts SI values to an axis's display unit. Every unit specgen
+// knows is an affine function of SI (a factor, and an offset for degC,
+// degF and gauge pressures), so two conversions fix it for all values.
 func toUnit(si []float64, a calc.Axis, ambient float64) ([]float64, error) {
 	out := make([]float64, len(si))
+	if a.Unit == "" {
+		copy(out, si)
+		return out, nil
+	}
+	at0, err := units.FromSI(0, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
+	at1, err := units.FromSI(1, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
 	for i, v := range si {
-		if a.Unit == "" {
-			out[i] = v
-			continue
+		out[i] = at0 + (at1-at0)*v
+		if math.IsNaN(out[i]) || math.IsInf(out[i], 0) {
+			return nil, fmt.Errorf("axis %q: a value is not a finite number", a.Label)
 		}
-		u, err := units.FromSI(v, a.Dim, a.Unit, ambient)
-		if err != nil {
-			return nil, fmt.Errorf("axis %q: %w", a.Label, err)
-		}
-		out[i] = u
 	}
 	return out, nil
+}
+
+// maxPoints is the most points a drawn line keeps: more are invisible at
+// chart size and cost time and bytes. The CSV keeps them all.
+const maxPoints = 361
+
+// thin keeps every k-th point of a line, and its last point.
+func thin(pts plotter.XYs) plotter.XYs {
+	if len(pts) <= maxPoints {
+		return pts
+	}
+	step := (len(pts) + maxPoints - 2) / (maxPoints - 1)
+	out := make(plotter.XYs, 0, maxPoints+1)
+	for i := 0; i < len(pts); i += step {
+		out = append(out, pts[i])
+	}
+	if last := pts[len(pts)-1]; out[len(out)-1] != last {
+		out = append(out, last)
+	}
+	return out
 }
 
 func addLabels(p *plot.Plot, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel) error {
@@ -296,6 +326,7 @@ func addLabels(p *plot.Plot, labels []calc.PointLabel, c *calc.Chart, panel calc
 		for i := range lab.TextStyle {
 			lab.TextStyle[i].Color = inkColor
 			lab.TextStyle[i].Font.Size = labelFont
+			lab.TextStyle[i].Handler = chartText
 		}
 		lab.Offset = vg.Point{X: 4, Y: 4}
 		if below {
@@ -344,6 +375,7 @@ func addMark(p *plot.Plot, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, y
 	}
 	lab.TextStyle[0].Color = markColor
 	lab.TextStyle[0].Font.Size = labelFont
+	lab.TextStyle[0].Handler = chartText
 	lab.Offset = vg.Point{X: 3, Y: 3}
 	p.Add(lab)
 	return nil
