@@ -176,7 +176,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {
 			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
-				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, in.Dim.Examples())})
+				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, takes(in))})
 		}
 	}
 	if err := errs.orNil(); err != nil {
@@ -363,6 +363,22 @@ func tomlText(v any) string {
 		return strconv.FormatBool(t)
 	}
 	return fmt.Sprint(v)
+}
+
+// takes says what an input takes, for messages.
+func takes(in InputSpec) string {
+	switch in.Type {
+	case Name:
+		if in.Choices != nil {
+			return "one of " + strings.Join(in.Choices(DefaultEnv()), ", ")
+		}
+		return "a name"
+	case Link:
+		return "the id of another block"
+	case LinkList:
+		return "a list of block ids"
+	}
+	return in.Dim.Examples()
 }
 
 func dimPhrase(d units.Dimension) string {

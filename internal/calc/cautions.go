@@ -44,6 +44,7 @@ var rules = []Rule{
 	{ID: "no-delivery", Level: Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
 	{ID: "hot-discharge", Level: Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", check: hotDischarge},
 	{ID: "low-safety-factor", Level: Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", check: lowSafetyFactor},
+	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
@@ -164,6 +165,10 @@ func lowSafetyFactor(s *Set) []raised {
 			}
 			factor := units.Format(r.Value, e.sigFigs)
 			switch {
+			case r.Value < 1:
+				out = append(out, raised{e, CautionNote{Level: Danger, Message: fmt.Sprintf(
+					"%s is %s, below 1: the part is expected to fail at its working load. Redesign it before it is pressurised.",
+					spec.Name, factor)}})
 			case r.Value < dangerFactor:
 				out = append(out, raised{e, CautionNote{Level: Danger, Message: fmt.Sprintf(
 					"%s is %s, below %s: the part is close to failing at its working load. Redesign it before it is pressurised.",
@@ -174,6 +179,30 @@ func lowSafetyFactor(s *Set) []raised {
 					spec.Name, factor, units.Format(min, 2), basis)}})
 			}
 		}
+	}
+	return out
+}
+
+func aboveAllowable(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		allow, ok := e.Result("allowable_pressure")
+		burst, hasBurst := e.Result("burst_pressure")
+		if !ok || e.in == nil || !e.in.Has("pressure") {
+			continue
+		}
+		p := e.in.Value("pressure")
+		if p <= allow.Value {
+			continue
+		}
+		level, why := Warning, "above its allowable pressure"
+		// Both pressures are absolute; the margin is on gauge pressure.
+		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
+			level, why = Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
+		}
+		out = append(out, raised{e, CautionNote{Level: level, Message: fmt.Sprintf(
+			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
+			e.show(p, units.Pressure, "bar"), why, e.show(allow.Value, units.Pressure, "bar"))}})
 	}
 	return out
 }

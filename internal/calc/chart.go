@@ -104,3 +104,34 @@ func (o *Outcome) result(name string) float64 {
 	}
 	return 0
 }
+
+// Table is a small table of values a kind computes beside its results,
+// such as a tank's fill time at each whole bar: X and Y in SI, shown in
+// the axes' units.
+type Table struct {
+	Title  string
+	X, Y   Axis
+	XS, YS []float64
+}
+
+func tankChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
+	fill, ok := out.curve("fill")
+	if !ok {
+		return nil, fmt.Errorf("the fill chart needs a supply: name the compressor that fills the tank")
+	}
+	unit := "s"
+	if end := fill.X[len(fill.X)-1]; end > 180 {
+		unit = "min"
+	}
+	return &Chart{
+		Title: "Tank pressure while filling",
+		Desc: fmt.Sprintf("The receiver's gauge pressure over time as the supply fills it from %s to %s; the delivery falls as the pressure rises, so the curve flattens.",
+			units.Format((fill.Y[0]-in.Ambient)/1e5, 3)+" bar", units.Format((fill.Y[len(fill.Y)-1]-in.Ambient)/1e5, 3)+" bar"),
+		X: Axis{Label: "Time", Dim: units.Time, Unit: unit},
+		Panels: []Panel{{
+			Y:      Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: "bar"},
+			Series: []Series{{Name: "tank pressure", X: fill.X, Y: fill.Y}},
+			Marks:  []Mark{{Value: fill.Y[len(fill.Y)-1], Label: "target"}},
+		}},
+	}, nil
+}

@@ -48,6 +48,7 @@ type Evaluated struct {
 	Claims   []ClaimResult
 	Cautions []CautionNote
 	Curves   []Curve
+	Tables   []Table
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
 }
@@ -485,7 +486,7 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 			return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: result %s is not a finite number with these inputs; check that they describe a real machine", b.ID, r.Name)}}
 		}
 	}
-	e.Results, e.Cautions, e.Curves = out.Results, out.Cautions, out.Curves
+	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)

@@ -253,6 +253,7 @@ type Outcome struct {
 	Results  []Result
 	Cautions []CautionNote
 	Curves   []Curve
+	Tables   []Table
 }
 
 // InputError is a problem with one input that its range cannot express,

@@ -31,6 +31,7 @@ var tankKind = Kind{
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure of the shell over the site's minimum safety factor, as the tube kind (with a wall)"},
 	},
 	Charts:   []string{"fill"},
+	Chart:    tankChart,
 	Evaluate: evaluateTank,
 }
 
@@ -88,9 +89,9 @@ Fill time
 - The delivery falls to zero at the supply's dead-head pressure
   p_max = p1·((1 + c)/c)^n; a target at or above it is an error.
 - Without supply there is no fill_time, fill curve or fill table.
-  Curves: fill (tank pressure over time) and fill_table, the time to reach
-  each whole bar (gauge) from start_pressure up to the target (X pressure,
-  Y time); above 50 rows the step grows to 2, 5, 10, 20, 50 ... bar.
+  Chart "fill": tank pressure over time. Table: the fill time to each
+  whole bar (gauge) from start_pressure up to the target; above 50 rows the
+  step grows to 2, 5, 10, 20, 50 ... bar.
 
 Wall (optional)
   Give material, inner_diameter and wall_thickness or outer_diameter (and
@@ -233,7 +234,8 @@ func evaluateTank(in *Inputs) (*Outcome, error) {
 	out := &Outcome{}
 	if t.supply != nil {
 		out.Results = append(out.Results, fillResult(t))
-		out.Curves = append(out.Curves, fillCurve(t), fillTable(t))
+		out.Curves = append(out.Curves, fillCurve(t))
+		out.Tables = append(out.Tables, fillTable(t))
 	}
 	out.Results = append(out.Results, storedEnergyResult(t))
 	if in.Has("inner_diameter") {
@@ -317,16 +319,21 @@ func fillCurve(t tankInput) Curve {
 // fillTable gives the time to reach each whole bar (gauge) from the start
 // pressure up to the target, in a 1-2-5 step of bars when whole bars would
 // give more than fillTableMaxRows rows.
-func fillTable(t tankInput) Curve {
-	c := Curve{Name: "fill_table", XDim: units.Pressure, YDim: units.Time}
+func fillTable(t tankInput) Table {
+	c := Table{Title: "Fill time at each bar",
+		X: Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: "bar"},
+		Y: Axis{Label: "Time from start", Dim: units.Time, Unit: "s"}}
 	step := tableStep((t.target - t.ambient) / 1e5)
 	first := math.Ceil((t.start - t.ambient) / 1e5 / step)
 	elapsed, prev := 0.0, t.start
 	for k := first; t.ambient+k*step*1e5 <= t.target; k++ {
 		p := t.ambient + k*step*1e5
 		elapsed += t.supply.fillTime(t.volume, prev, p)
-		c.X, c.Y = append(c.X, p), append(c.Y, elapsed)
+		c.XS, c.YS = append(c.XS, p), append(c.YS, elapsed)
 		prev = p
+	}
+	if elapsed > 180 {
+		c.Y.Unit = "min"
 	}
 	return c
 }

@@ -211,7 +211,11 @@ func TestTankFillCurves(t *testing.T) {
 	for _, c := range e.Curves {
 		curves[c.Name] = c
 	}
-	fill, table := curves["fill"], curves["fill_table"]
+	fill := curves["fill"]
+	if len(e.Tables) != 1 {
+		t.Fatalf("tank gave %d tables, want the fill table", len(e.Tables))
+	}
+	table := e.Tables[0]
 	fillTime, _ := e.Result("fill_time")
 	if n := len(fill.X); n != fillCurveIntervals+1 || len(fill.Y) != n {
 		t.Fatalf("fill curve has %d/%d points", len(fill.X), len(fill.Y))
@@ -228,16 +232,16 @@ func TestTankFillCurves(t *testing.T) {
 		}
 	}
 	rate, c, n, p1 := supplyOf(t, set, e)
-	if len(table.X) != 8 || table.XDim != units.Pressure || table.YDim != units.Time {
-		t.Fatalf("fill table has %d rows (%v over %v), want 1 to 8 bar", len(table.X), table.YDim, table.XDim)
+	if len(table.XS) != 8 || table.X.Dim != units.Pressure || table.Y.Dim != units.Time {
+		t.Fatalf("fill table has %d rows (%v over %v), want 1 to 8 bar", len(table.XS), table.Y.Dim, table.X.Dim)
 	}
-	for i, p := range table.X {
+	for i, p := range table.XS {
 		if want := e.Ambient + float64(i+1)*1e5; math.Abs(p-want) > 1e-6 {
 			t.Errorf("row %d at %g Pa, want %g Pa (%d bar gauge)", i, p, want, i+1)
 		}
 		want := midpointFill(0.02, p0, p, rate, c, n, p1)
-		if math.Abs(table.Y[i]-want) > 1e-6*want {
-			t.Errorf("row %d: %g s, want %g s by the midpoint rule", i, table.Y[i], want)
+		if math.Abs(table.YS[i]-want) > 1e-6*want {
+			t.Errorf("row %d: %g s, want %g s by the midpoint rule", i, table.YS[i], want)
 		}
 	}
 }

@@ -99,6 +99,9 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 	ws(`<div class="sg-calc-tables">`, "\n")
 	writeInputs(w, e)
 	writeResults(w, e)
+	for _, t := range e.Tables {
+		writeTable(w, e, t)
+	}
 	ws("</div>\n")
 	if len(charts) > 0 {
 		ws(`<div class="sg-calc-charts">`, "\n")
@@ -178,6 +181,28 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 			_, _ = w.WriteString(`<p><code>= ` + esc(value) + `</code></p></details>`)
 		}
 		_, _ = w.WriteString("</td></tr>\n")
+	}
+	_, _ = w.WriteString("</tbody></table>\n")
+}
+
+// writeTable writes one of a block's extra tables, two columns.
+func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
+	head := func(a calc.Axis) string {
+		unit := units.Pretty(a.Unit)
+		if a.Dim == units.Pressure {
+			unit = strings.TrimSuffix(unit, "(g)") + ", gauge"
+		}
+		return esc(a.Label) + " (" + esc(unit) + ")"
+	}
+	_, _ = w.WriteString(`<table class="sg-calc-extra"><caption>` + esc(t.Title) + `</caption><thead><tr><th scope="col">` +
+		head(t.X) + `</th><th scope="col">` + head(t.Y) + "</th></tr></thead><tbody>\n")
+	for i := range t.XS {
+		x, errX := units.FromSI(t.XS[i], t.X.Dim, t.X.Unit, e.Ambient)
+		y, errY := units.FromSI(t.YS[i], t.Y.Dim, t.Y.Unit, e.Ambient)
+		if errX != nil || errY != nil {
+			continue
+		}
+		_, _ = w.WriteString(`<tr><td class="sg-num">` + units.Format(x, e.SigFigs()) + `</td><td class="sg-num">` + units.Format(y, e.SigFigs()) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>\n")
 }
