@@ -9,6 +9,7 @@ var kinds = map[string]*Kind{
 	tankKind.Name:       &tankKind,
 	valveKind.Name:      &valveKind,
 	tubeKind.Name:       &tubeKind,
+	vacuumKind.Name:     &vacuumKind,
 }
 
 // LookupKind returns the kind named name.
