@@ -10,6 +10,7 @@ var kinds = map[string]*Kind{
 	valveKind.Name:      &valveKind,
 	tubeKind.Name:       &tubeKind,
 	vacuumKind.Name:     &vacuumKind,
+	multistageKind.Name: &multistageKind,
 }
 
 // LookupKind returns the kind named name.
