@@ -1,0 +1,72 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"specgen/internal/site"
+)
+
+func runDiff(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("diff", "diff [-C dir] [-format markdown|json] BASE [HEAD]", stderr)
+	dir := fs.String("C", ".", "site root: the folder holding content/")
+	format := fs.String("format", "markdown", "output format: markdown or json")
+	fs.Usage = func() {
+		fmt.Fprintln(fs.Output(), "Usage: specgen diff [-C dir] [-format markdown|json] BASE [HEAD]")
+		fmt.Fprintln(fs.Output(), "\nBASE and HEAD are git revisions (HEAD defaults to the working tree) or two results.json files.")
+		fmt.Fprintln(fs.Output(), "Exit status 1 when a claim newly fails or a DANGER caution newly appears.\n\nOptions:")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		return exitBadInput
+	}
+	if *format != "markdown" && *format != "json" {
+		fmt.Fprintf(stderr, "specgen diff: -format %q is not allowed; allowed: markdown, json\n", *format)
+		return exitBadInput
+	}
+	if fs.NArg() < 1 || fs.NArg() > 2 {
+		fs.Usage()
+		return exitBadInput
+	}
+	base, err := resultsFor(*dir, fs.Arg(0))
+	if err != nil {
+		return report(stderr, err)
+	}
+	headName := "working tree"
+	var head *site.ResultsFile
+	if fs.NArg() == 2 {
+		headName = fs.Arg(1)
+		head, err = resultsFor(*dir, fs.Arg(1))
+	} else {
+		head, err = site.ResultsOf(*dir)
+	}
+	if err != nil {
+		return report(stderr, err)
+	}
+	d := site.Compare(base, head)
+	d.Base, d.Head = fs.Arg(0), headName
+	if *format == "json" {
+		if err := d.WriteJSON(stdout); err != nil {
+			return report(stderr, err)
+		}
+	} else {
+		d.WriteMarkdown(stdout)
+	}
+	if d.Failed() {
+		return exitFailed
+	}
+	return exitOK
+}
+
+// resultsFor reads a results.json file, or evaluates the site at a git
+// revision.
+func resultsFor(dir, arg string) (*site.ResultsFile, error) {
+	if strings.HasSuffix(arg, ".json") {
+		if _, err := os.Stat(arg); err == nil {
+			return site.ReadResults(arg)
+		}
+	}
+	return site.ResultsAt(dir, arg)
+}

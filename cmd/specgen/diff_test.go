@@ -1,0 +1,164 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+const diffPage = `# Stage
+
+It sweeps about 20 cc.
+
+` + "```calc" + `
+id = "%ID%"
+kind = "compressor"
+bore = "%BORE%"
+stroke = "32 mm"
+rod_length = "70 mm"
+clearance_ratio = 0.05
+speed = "900 rpm"
+discharge_pressure = "6 bar"
+
+[expect]
+swept_volume = "19.7 cm3 ± 2%"
+` + "```\n"
+
+func stagePage(id, bore string) string {
+	return strings.NewReplacer("%ID%", id, "%BORE%", bore).Replace(diffPage)
+}
+
+// gitSite makes a git repository holding a site and returns its root and
+// a function that writes a page and commits.
+func gitSite(t *testing.T) (string, func(files map[string]string, msg string)) {
+	t.Helper()
+	if _, err := exec.LookPath("git"); err != nil {
+		t.Skip("git not installed")
+	}
+	root := t.TempDir()
+	run := func(args ...string) {
+		cmd := exec.Command("git", append([]string{"-C", root}, args...)...)
+		cmd.Env = append(os.Environ(), "GIT_AUTHOR_NAME=t", "GIT_AUTHOR_EMAIL=t@example.invalid",
+			"GIT_COMMITTER_NAME=t", "GIT_COMMITTER_EMAIL=t@example.invalid")
+		if out, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("git %v: %v\n%s", args, err, out)
+		}
+	}
+	run("init", "-q")
+	commit := func(files map[string]string, msg string) {
+		for name, text := range files {
+			p := filepath.Join(root, filepath.FromSlash(name))
+			if text == "" {
+				_ = os.Remove(p)
+				continue
+			}
+			if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+		run("add", "-A")
+		run("commit", "-q", "-m", msg)
+	}
+	return root, commit
+}
+
+func TestDiffRevisions(t *testing.T) {
+	root, commit := gitSite(t)
+	commit(map[string]string{"content/index.md": stagePage("low", "28 mm"), "content/b.md": stagePage("other", "28 mm")}, "first")
+	commit(map[string]string{"content/index.md": stagePage("low", "30 mm")}, "bigger bore")
+	commit(map[string]string{"content/b.md": "", "content/c.md": stagePage("third", "28.1 mm")}, "swap a block")
+	commit(map[string]string{"content/c.md": stagePage("renamed", "28.1 mm")}, "rename")
+
+	cases := []struct {
+		name  string
+		args  []string
+		code  int
+		wants []string
+	}{
+		// π/4·28²·32 = 19.70 cm³ and π/4·30²·32 = 22.62 cm³: +14.8 % (by hand); the ± 2 % claim fails.
+		{"input change and new failing claim", []string{"HEAD~3", "HEAD~2"}, exitFailed,
+			[]string{"| bore | 28 mm | 30 mm |", "| swept_volume | 19.7 cm³ | 22.6 cm³ | +14.8 % |", "**NEWLY FAILS**", "newly failing"}},
+		{"added and removed", []string{"HEAD~2", "HEAD~1"}, exitOK,
+			[]string{"- Added `third`", "- Removed `other`"}},
+		{"rename", []string{"HEAD~1", "HEAD"}, exitOK, []string{"- Renamed `third` → `renamed`"}},
+		{"working tree is head", []string{"HEAD"}, exitOK, []string{"No calculation changed."}},
+		{"unknown revision", []string{"no-such-branch"}, exitBadInput, []string{`"no-such-branch" is not a revision`}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			var stdout, stderr bytes.Buffer
+			code := run(append([]string{"diff", "-C", root}, c.args...), &stdout, &stderr)
+			out := stdout.String() + stderr.String()
+			if code != c.code {
+				t.Errorf("exit %d, want %d:\n%s", code, c.code, out)
+			}
+			for _, w := range c.wants {
+				if !strings.Contains(out, w) {
+					t.Errorf("output lacks %q:\n%s", w, out)
+				}
+			}
+		})
+	}
+	// The user's tree is untouched: no stray files, nothing staged.
+	status, _ := exec.Command("git", "-C", root, "status", "--porcelain").Output()
+	if len(status) != 0 {
+		t.Errorf("diff changed the working tree: %s", status)
+	}
+}
+
+func TestDiffResultsFilesAndJSON(t *testing.T) {
+	dir := t.TempDir()
+	write := func(name, bore string) string {
+		site := filepath.Join(dir, name)
+		if err := os.MkdirAll(filepath.Join(site, "content"), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(filepath.Join(site, "content", "index.md"), []byte(stagePage("low", bore)), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var out, errb bytes.Buffer
+		if code := run([]string{"build", "-C", site}, &out, &errb); code != exitOK {
+			t.Fatalf("build: %s", errb.String())
+		}
+		return filepath.Join(site, "dist", "results.json")
+	}
+	a, b := write("a", "28 mm"), write("b", "28.2 mm")
+	var stdout, stderr bytes.Buffer
+	code := run([]string{"diff", "-format", "json", a, b}, &stdout, &stderr)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, stderr.String())
+	}
+	var got struct {
+		Changed []struct {
+			ID      string `json:"id"`
+			Results []struct {
+				Name   string   `json:"name"`
+				Change *float64 `json:"relative_change"`
+			} `json:"results"`
+		} `json:"changed"`
+		Failed bool `json:"failed"`
+	}
+	if err := json.Unmarshal(stdout.Bytes(), &got); err != nil {
+		t.Fatal(err)
+	}
+	if len(got.Changed) != 1 || got.Changed[0].ID != "low" || got.Failed {
+		t.Fatalf("diff = %s", stdout.String())
+	}
+	for _, r := range got.Changed[0].Results {
+		// Swept volume scales with bore²: (28.2/28)² − 1 = 1.4337 % (by hand).
+		if r.Name == "swept_volume" && (r.Change == nil || *r.Change < 0.014336 || *r.Change > 0.014338) {
+			t.Errorf("swept_volume change %v, want 0.014337", r.Change)
+		}
+	}
+	code = run([]string{"diff", "-C", dir, "nonexistent.json"}, &stdout, &stderr)
+	if code != exitBadInput {
+		t.Errorf("diff against a missing file outside git: exit %d", code)
+	}
+}

@@ -1,0 +1,140 @@
+package site
+
+import (
+	"archive/tar"
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+)
+
+// ResultsAt evaluates the site at root as it was at a git revision, in a
+// temporary copy taken with git archive: the user's tree and index are
+// never touched.
+func ResultsAt(root, rev string) (*ResultsFile, error) {
+	abs, err := filepath.Abs(root)
+	if err != nil {
+		return nil, err
+	}
+	top, err := git(abs, "rev-parse", "--show-toplevel")
+	if err != nil {
+		return nil, &Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
+	}
+	top = strings.TrimSpace(top)
+	if _, err := git(abs, "rev-parse", "--verify", "--quiet", rev+"^{commit}"); err != nil {
+		return nil, &Error{Msg: fmt.Sprintf("%q is not a revision of this repository (a commit, branch or tag, e.g. HEAD~1 or main)", rev)}
+	}
+	rel, err := filepath.Rel(realPath(top), realPath(abs))
+	if err != nil {
+		return nil, err
+	}
+	tmp, err := os.MkdirTemp("", "specgen-rev-")
+	if err != nil {
+		return nil, err
+	}
+	defer os.RemoveAll(tmp)
+	cmd := exec.Command("git", "-C", top, "archive", "--format=tar", rev)
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.StdoutPipe()
+	if err != nil {
+		return nil, err
+	}
+	if err := cmd.Start(); err != nil {
+		return nil, err
+	}
+	untarErr := untar(out, tmp)
+	if err := cmd.Wait(); err != nil {
+		return nil, fmt.Errorf("git archive %s: %v: %s", rev, err, strings.TrimSpace(stderr.String()))
+	}
+	if untarErr != nil {
+		return nil, untarErr
+	}
+	s, err := Load(filepath.Join(tmp, rel))
+	if err != nil {
+		var list ErrorList
+		if errors.As(err, &list) || IsInputError(err) {
+			return nil, &Error{Msg: fmt.Sprintf("the site at %s does not build:\n%v", rev, err)}
+		}
+		return nil, err
+	}
+	f := s.Results()
+	return &f, nil
+}
+
+// ResultsOf evaluates the site at root as it is on disk.
+func ResultsOf(root string) (*ResultsFile, error) {
+	s, err := Load(root)
+	if err != nil {
+		return nil, err
+	}
+	f := s.Results()
+	return &f, nil
+}
+
+func git(dir string, args ...string) (string, error) {
+	cmd := exec.Command("git", append([]string{"-C", dir}, args...)...)
+	out, err := cmd.Output()
+	return string(out), err
+}
+
+// untar writes a tar stream's regular files and folders under dir,
+// refusing names that would leave it.
+func untar(r io.Reader, dir string) error {
+	tr := tar.NewReader(r)
+	for {
+		h, err := tr.Next()
+		if err == io.EOF {
+			return nil
+		}
+		if err != nil {
+			return err
+		}
+		name := filepath.Clean(filepath.FromSlash(h.Name))
+		if filepath.IsAbs(name) || name == ".." || strings.HasPrefix(name, ".."+string(filepath.Separator)) {
+			return fmt.Errorf("git archive: unsafe path %q", h.Name)
+		}
+		target := filepath.Join(dir, name)
+		switch h.Typeflag {
+		case tar.TypeDir:
+			if err := os.MkdirAll(target, 0o755); err != nil {
+				return err
+			}
+		case tar.TypeReg:
+			if err := os.MkdirAll(filepath.Dir(target), 0o755); err != nil {
+				return err
+			}
+			f, err := os.OpenFile(target, os.O_CREATE|os.O_WRONLY|os.O_TRUNC, 0o644)
+			if err != nil {
+				return err
+			}
+			_, err = io.Copy(f, tr)
+			if cerr := f.Close(); err == nil {
+				err = cerr
+			}
+			if err != nil {
+				return err
+			}
+		}
+	}
+}
+
+// ReadResults reads a results.json file.
+func ReadResults(path string) (*ResultsFile, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, &Error{Msg: fmt.Sprintf("%s: %v", path, err)}
+	}
+	var f ResultsFile
+	if err := jsonUnmarshalStrict(b, &f); err != nil {
+		return nil, &Error{File: path, Msg: "not a specgen results.json: " + err.Error()}
+	}
+	if f.Version != ResultsVersion {
+		return nil, &Error{File: path, Msg: fmt.Sprintf("results.json version %d; this specgen reads version %d", f.Version, ResultsVersion)}
+	}
+	return &f, nil
+}
