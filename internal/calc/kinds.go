@@ -11,6 +11,9 @@ var kinds = map[string]*Kind{
 	tubeKind.Name:       &tubeKind,
 	vacuumKind.Name:     &vacuumKind,
 	multistageKind.Name: &multistageKind,
+	flywheelKind.Name:   &flywheelKind,
+	balanceKind.Name:    &balanceKind,
+	motorKind.Name:      &motorKind,
 }
 
 // LookupKind returns the kind named name.

@@ -1,0 +1,310 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+
+	"specgen/internal/units"
+)
+
+// flywheelKind sizes a flywheel, a solid disc or a rim, to hold the speed
+// fluctuation of a compressor or an air motor within a given coefficient.
+var flywheelKind = Kind{
+	Name:    "flywheel",
+	Summary: "inertia to hold a speed fluctuation: a solid disc or rim sized from a compressor's or motor's torque, with its rim speed, stress and safety factor",
+	Doc:     flywheelDoc,
+	Inputs: []InputSpec{
+		{Name: "source", Type: Link, LinkKinds: []string{"compressor", "motor"}, Meaning: "id of the compressor or motor block whose crankshaft the flywheel is on"},
+		{Name: "speed_fluctuation", Dim: units.Dimensionless, Range: Between(1e-4, 0.5),
+			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for compressors)"},
+		{Name: "density", Dim: units.Density, Optional: true, Range: positiveUpTo(1e5), Meaning: "density of the flywheel material; give density or material"},
+		{Name: "material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
+		{Name: "thickness", Dim: units.Length, Range: positiveUpTo(10), Meaning: "axial thickness of the disc, or axial width of the rim"},
+		{Name: "shape", Type: Name, Default: "disc", Choices: func(*Env) []string { return []string{"disc", "rim"} },
+			Meaning: "disc: a solid disc of uniform thickness; rim: a ring of radial depth rim_depth with no web or hub"},
+		{Name: "rim_depth", Dim: units.Length, Optional: true, Range: positiveUpTo(10), Meaning: "radial depth of the ring (outer minus inner radius), for shape = \"rim\" only"},
+		{Name: "poisson_ratio", Dim: units.Dimensionless, Optional: true, Range: Range{Min: 0, Max: 0.5, HasMin: true, HasMax: true, MinOpen: true, MaxOpen: true},
+			Meaning: "Poisson's ratio for the rotating stress, above 0 and below 0.5; default: the material's, or 0.3"},
+	},
+	Results: []ResultSpec{
+		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy the flywheel stores and gives back over a revolution, from the source's torque"},
+		{Name: "inertia", Dim: units.Inertia, Unit: "kg m2", Meaning: "moment of inertia that holds the speed within the coefficient"},
+		{Name: "diameter", Dim: units.Length, Unit: "mm", Meaning: "outside diameter of the disc or rim with that inertia"},
+		{Name: "mass", Dim: units.Mass, Unit: "kg", Meaning: "mass of the disc or rim"},
+		{Name: "rim_speed", Dim: units.Velocity, Unit: "m/s", Meaning: "peripheral speed at the outside diameter, at the mean crank speed"},
+		{Name: "rim_stress", Dim: units.Stress, Unit: "MPa", Meaning: "largest stress from rotation: at the centre of a disc, at the bore of a rim"},
+		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
+			Meaning: "design strength of the material over the rim stress (with material only)"},
+	},
+	Charts:   []string{"speed"},
+	Chart:    flywheelChart,
+	Evaluate: evaluateFlywheel,
+}
+
+// defaultPoisson is the Poisson's ratio taken when neither the block nor
+// the material gives one: typical of steel and cast iron (common practice).
+const defaultPoisson = 0.3
+
+const flywheelDoc = `The flywheel kind sizes a flywheel on the crankshaft of the compressor or
+motor block named in source, turning at its speed ω, so that the speed
+swings by no more than Cs = (ω_max − ω_min)/ω_mean over a revolution.
+
+Energy and inertia
+- The drive (or, for a motor, the load) is a constant torque equal to the
+  mean of the source's torque T(θ). The source's torque curve is its
+  gas_torque, or total_torque (gas plus the inertia of the reciprocating
+  mass) when it has one. ΔE, the swing of ∫(T_m − T(θ))dθ over a
+  revolution, is the source's energy_fluctuation result when it is taken
+  from the gas torque alone, else recomputed from the curve (0.5° steps).
+- From I·ω·dω = (T_m − T)·dθ, ω_max² − ω_min² = 2·ΔE/I; with
+  ω_mean = (ω_max + ω_min)/2 this is exactly
+    I = ΔE / (Cs·ω²)
+  (J. E. Shigley and C. R. Mischke, Mechanical Engineering Design, the
+  flywheel section; R. L. Norton, Design of Machinery, ch. 11).
+- The inertia of the rest of the crank train is ignored: the flywheel is
+  sized to do the whole job.
+
+Shapes (ρ density, t axial thickness or width)
+  disc: a solid disc of diameter D
+    I = ρ·π·t·D⁴/32      D = (32·I/(ρ·π·t))^(1/4)
+  rim: a ring of radial depth h, mean diameter Dm (no web, spokes or hub;
+    they add inertia, so the ring alone errs on the heavy side)
+    I = ρ·π·t·h·Dm·(Dm² + h²)/4
+    solved for Dm (a cubic with one real root), D = Dm + h; the bore
+    Dm − h must be positive, or a solid disc would do.
+  rim_speed v = ω·D/2 at the outside diameter.
+
+Stress (a freely rotating disc of uniform thickness, plane stress,
+S. Timoshenko and J. N. Goodier, Theory of Elasticity, rotating disks;
+Roark's Formulas for Stress and Strain, rotating disks)
+  disc: σ = (3 + ν)/8 · ρ·ω²·R², at the centre, where the radial and hoop
+        stresses are equal and largest (R = D/2).
+  rim:  σ = (3 + ν)/4 · ρ·ω²·(b² + (1 − ν)/(3 + ν)·a²), the hoop stress at
+        the bore (a, b inner and outer radius); a thin ring gives ρ·v².
+  ν is poisson_ratio, else the material's, else 0.3.
+  safety_factor = design strength (yield, or tensile strength without a
+  yield point) / σ, given with material only. Keys, bolts, welds and
+  spokes are not checked, nor bursting at overspeed: stress rises with the
+  square of the speed.
+
+Chart: speed, the crank speed over a revolution,
+  ω(θ)² = ω0² + 2·∫(T_m − T)dθ / I, with ω0 such that (ω_max + ω_min)/2 = ω.`
+
+// flywheelInput is a flywheel block's inputs in SI.
+type flywheelInput struct {
+	source   *Linked
+	cs       float64
+	omega    float64 // mean crank speed, rad/s
+	torque   Curve   // the source's load torque over one revolution
+	density  float64
+	poisson  float64
+	material *Material
+	rim      bool
+	width    float64 // axial thickness
+	depth    float64 // radial depth of a rim
+}
+
+// readFlywheelInput applies the checks that single-input ranges cannot.
+func readFlywheelInput(in *Inputs) (flywheelInput, error) {
+	f := flywheelInput{source: in.LinkOf("source"), cs: in.Value("speed_fluctuation"),
+		width: in.Value("thickness"), rim: in.NameOf("shape") == "rim", poisson: defaultPoisson}
+	if f.source == nil {
+		return f, &InputError{Key: "source", Message: "missing: name the compressor or motor block the flywheel is on, e.g. source = \"low\""}
+	}
+	switch {
+	case in.Has("density") && in.Has("material"):
+		return f, &InputError{Key: "density", Message: "give either density or material, not both (a material brings its own density)"}
+	case in.Has("material"):
+		m, err := in.Env().Materials.Lookup(in.NameOf("material"))
+		if err != nil {
+			return f, &InputError{Key: "material", Message: err.Error()}
+		}
+		f.material, f.density = &m, m.Density
+		if m.PoissonRatio > 0 {
+			f.poisson = m.PoissonRatio
+		}
+	case in.Has("density"):
+		f.density = in.Value("density")
+	default:
+		return f, &InputError{Key: "density", Message: "missing: give material (e.g. \"s235\"; specgen explain lists them) or density (e.g. \"7850 kg/m3\")"}
+	}
+	if in.Has("poisson_ratio") {
+		f.poisson = in.Value("poisson_ratio")
+	}
+	switch {
+	case f.rim && !in.Has("rim_depth"):
+		return f, &InputError{Key: "shape", Message: "a rim needs rim_depth, its radial depth (e.g. \"15 mm\")"}
+	case !f.rim && in.Has("rim_depth"):
+		return f, &InputError{Key: "rim_depth", Message: "rim_depth is for shape = \"rim\"; a disc is solid"}
+	}
+	f.depth = in.Value("rim_depth")
+	f.omega = f.source.Inputs["speed"]
+	curve := "gas_torque"
+	for _, c := range f.source.Curves {
+		if c.Name == "total_torque" {
+			curve = c.Name
+		}
+	}
+	for _, c := range f.source.Curves {
+		if c.Name == curve {
+			f.torque = c
+		}
+	}
+	if !(f.omega > 0) || len(f.torque.Y) < 3 {
+		return f, &InputError{Key: "source", Message: fmt.Sprintf("block %s (%s) gives no crank speed or torque curve to size a flywheel from", f.source.ID, f.source.Kind)}
+	}
+	return f, nil
+}
+
+// excessEnergy integrates T_m − T(θ) along the source's sampled torque
+// (trapezoidal rule; the last sample is the first one revolution on) and
+// returns the running energy at each sample, starting from zero.
+func (f flywheelInput) excessEnergy() []float64 {
+	x, y := f.torque.X, f.torque.Y
+	mean := 0.0
+	for i := 1; i < len(y); i++ {
+		mean += (y[i] + y[i-1]) / 2 * (x[i] - x[i-1])
+	}
+	mean /= x[len(x)-1] - x[0]
+	e := make([]float64, len(y))
+	for i := 1; i < len(y); i++ {
+		e[i] = e[i-1] + (2*mean-y[i]-y[i-1])/2*(x[i]-x[i-1])
+	}
+	return e
+}
+
+// energyFluctuation returns ΔE and how it was found.
+func (f flywheelInput) energyFluctuation() (float64, Trace) {
+	if v, ok := f.source.Results["energy_fluctuation"]; ok && f.torque.Name == "gas_torque" {
+		return v, Trace{"ΔE = energy_fluctuation of the source (gas torque)", "= " + show(v, "J") + " (" + f.source.ID + ")"}
+	}
+	e := f.excessEnergy()
+	low, high := extent(e)
+	return high - low, Trace{"ΔE = max − min of ∫(T_m − T(θ)) dθ, T the source's " + f.torque.Name,
+		"= " + show(high, "J") + " − (" + show(low, "J") + ") (" + f.source.ID + ", 0.5° steps)"}
+}
+
+// extent returns the least and greatest of xs.
+func extent(xs []float64) (low, high float64) {
+	low, high = xs[0], xs[0]
+	for _, x := range xs {
+		low, high = math.Min(low, x), math.Max(high, x)
+	}
+	return low, high
+}
+
+// rimDiameter solves I = ρ·π·t·h·Dm·(Dm² + h²)/4 for the mean diameter
+// Dm: the depressed cubic Dm³ + h²·Dm − q = 0, q = 4·I/(ρ·π·t·h), has one
+// real root, 2·sqrt(p/3)·sinh(asinh(3·q/(2·p)·sqrt(3/p))/3) with p = h².
+func rimDiameter(inertia, density, width, depth float64) float64 {
+	p := depth * depth
+	q := 4 * inertia / (density * math.Pi * width * depth)
+	return 2 * math.Sqrt(p/3) * math.Sinh(math.Asinh(1.5*q/p*math.Sqrt(3/p))/3)
+}
+
+func evaluateFlywheel(in *Inputs) (*Outcome, error) {
+	f, err := readFlywheelInput(in)
+	if err != nil {
+		return nil, err
+	}
+	de, deTrace := f.energyFluctuation()
+	if !(de > 0) {
+		return nil, &InputError{Key: "source", Message: fmt.Sprintf("block %s has a steady torque (no energy fluctuation): it needs no flywheel", f.source.ID)}
+	}
+	w := f.omega
+	inertia := de / (f.cs * w * w)
+
+	mm := func(v float64) string { return show(v*1e3, "mm") }
+	kgm2 := func(v float64) string { return show(v, "kg m²") }
+	rho := show(f.density, "kg/m³")
+	rads := show(w, "rad/s")
+	nu := show(f.poisson, "")
+	var (
+		diameter, mass, stress float64
+		dTrace, mTrace, sTrace Trace
+	)
+	if f.rim {
+		dm := rimDiameter(inertia, f.density, f.width, f.depth)
+		if dm <= f.depth {
+			return nil, &InputError{Key: "rim_depth", Message: fmt.Sprintf(
+				"a rim %s deep and %s wide would need a mean diameter of %s, no more than its depth: it has no bore; use shape = \"disc\" or a shallower rim",
+				mm(f.depth), mm(f.width), mm(dm))}
+		}
+		diameter = dm + f.depth
+		a, b := (dm-f.depth)/2, diameter/2
+		mass = f.density * math.Pi * f.width * f.depth * dm
+		stress = (3 + f.poisson) / 4 * f.density * w * w * (b*b + (1-f.poisson)/(3+f.poisson)*a*a)
+		dTrace = Trace{"D = Dm + h, Dm from I = ρ·π·t·h·Dm·(Dm² + h²)/4 (ring, no web or hub)",
+			"= " + mm(dm) + " + " + mm(f.depth) + "; I = " + kgm2(inertia) + ", ρ = " + rho + ", t = " + mm(f.width)}
+		mTrace = Trace{"m = ρ·π·t·h·Dm", "= " + rho + " · π · " + mm(f.width) + " · " + mm(f.depth) + " · " + mm(dm)}
+		sTrace = Trace{"σ = (3 + ν)/4 · ρ·ω²·(b² + (1 − ν)/(3 + ν)·a²), hoop stress at the bore (rotating ring, Timoshenko)",
+			"= (3 + " + nu + ")/4 · " + rho + " · (" + rads + ")² · ((" + mm(b) + ")² + (1 − " + nu + ")/(3 + " + nu + ") · (" + mm(a) + ")²)"}
+	} else {
+		diameter = math.Pow(32*inertia/(f.density*math.Pi*f.width), 0.25)
+		r := diameter / 2
+		mass = f.density * math.Pi * r * r * f.width
+		stress = (3 + f.poisson) / 8 * f.density * w * w * r * r
+		dTrace = Trace{"D = (32·I / (ρ·π·t))^(1/4) (solid disc)", "= (32 · " + kgm2(inertia) + " / (" + rho + " · π · " + mm(f.width) + "))^(1/4)"}
+		mTrace = Trace{"m = ρ·π·D²·t/4", "= " + rho + " · π · (" + mm(diameter) + ")² · " + mm(f.width) + " / 4"}
+		sTrace = Trace{"σ = (3 + ν)/8 · ρ·ω²·R², at the centre (rotating solid disc, Timoshenko)",
+			"= (3 + " + nu + ")/8 · " + rho + " · (" + rads + ")² · (" + mm(r) + ")²"}
+	}
+	res := []Result{
+		{Name: "energy_fluctuation", Value: de, Dim: units.Energy, Trace: deTrace},
+		{Name: "inertia", Value: inertia, Dim: units.Inertia, Trace: Trace{
+			"I = ΔE / (Cs·ω²)", "= " + show(de, "J") + " / (" + show(f.cs, "") + " · (" + rads + ")²)"}},
+		{Name: "diameter", Value: diameter, Dim: units.Length, Trace: dTrace},
+		{Name: "mass", Value: mass, Dim: units.Mass, Trace: mTrace},
+		{Name: "rim_speed", Value: w * diameter / 2, Dim: units.Velocity, Trace: Trace{
+			"v = ω·D/2", "= " + rads + " · " + mm(diameter) + " / 2"}},
+		{Name: "rim_stress", Value: stress, Dim: units.Stress, Trace: sTrace},
+	}
+	if f.material != nil {
+		strength, name := f.material.DesignStrength()
+		res = append(res, Result{Name: "safety_factor", Value: strength / stress, Dim: units.Dimensionless, Trace: Trace{
+			"n = S / σ", "= " + show(strength/1e6, "MPa") + " / " + show(stress/1e6, "MPa") + " (" + name + ", " + f.material.Label + ")"}})
+	}
+	return &Outcome{Results: res}, nil
+}
+
+// crankSpeed returns the crank speed at each sample of the source's torque
+// curve with the flywheel's inertia: ω² = ω0² + 2·E(θ)/I, ω0 chosen so that
+// the mean of the fastest and slowest speed is the source's speed.
+func (f flywheelInput) crankSpeed(inertia float64) []float64 {
+	e := f.excessEnergy()
+	low, high := extent(e)
+	a, b := 2*high/inertia, 2*low/inertia
+	// sqrt(u + a) + sqrt(u + b) = 2ω and (u + a) − (u + b) = a − b.
+	fast := f.omega + (a-b)/(4*f.omega)
+	u := fast*fast - a
+	out := make([]float64, len(e))
+	for i, ei := range e {
+		out[i] = math.Sqrt(u + 2*ei/inertia)
+	}
+	return out
+}
+
+func flywheelChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
+	if name != "speed" {
+		return nil, fmt.Errorf("no chart %q", name)
+	}
+	f, err := readFlywheelInput(in)
+	if err != nil {
+		return nil, err
+	}
+	inertia := out.result("inertia")
+	speed := f.crankSpeed(inertia)
+	low, high := extent(speed)
+	rpm := func(v float64) string { return units.Format(v*30/math.Pi, 4) + " rpm" }
+	return &Chart{
+		Title: "Crank speed over one revolution",
+		Desc: fmt.Sprintf("The crank speed of %s with the flywheel's %s kg m² over one revolution from top dead centre, driven against a constant torque: it swings from %s to %s about the mean %s (marked), a fluctuation of %s against the %s asked for.",
+			f.source.ID, units.Format(inertia, 3), rpm(low), rpm(high), rpm(f.omega), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
+		X: Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"},
+		Panels: []Panel{{
+			Y:      Axis{Label: "Crank speed", Dim: units.RotationalSpeed, Unit: "rpm"},
+			Series: []Series{{Name: "crank speed", X: f.torque.X, Y: speed}},
+			Marks:  []Mark{{Value: f.omega, Label: "mean"}},
+		}},
+	}, nil
+}
