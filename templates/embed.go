@@ -6,7 +6,8 @@ package templates
 import "embed"
 
 // FS holds the page templates (*.html; names starting with "_" are
-// partials) and assets/ (copied to the output's assets/ folder).
+// partials), assets/ (copied to the output's assets/ folder) and starter/
+// (the new site that specgen init writes).
 //
-//go:embed *.html assets
+//go:embed *.html assets starter
 var FS embed.FS

@@ -70,3 +70,23 @@ func resultsFor(dir, arg string) (*site.ResultsFile, error) {
 	}
 	return site.ResultsAt(dir, arg)
 }
+
+func runInit(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("init", "init DIR", stderr)
+	if err := fs.Parse(args); err != nil {
+		return exitBadInput
+	}
+	if fs.NArg() != 1 {
+		fmt.Fprintln(stderr, "specgen init: give the folder for the new site, e.g. specgen init docs")
+		return exitBadInput
+	}
+	files, err := site.Init(fs.Arg(0))
+	if err != nil {
+		return report(stderr, err)
+	}
+	for _, f := range files {
+		fmt.Fprintf(stdout, "wrote %s\n", f)
+	}
+	fmt.Fprintf(stdout, "next: specgen build -C %s, then open %s\n", fs.Arg(0), fs.Arg(0)+"/dist/index.html")
+	return exitOK
+}

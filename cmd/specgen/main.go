@@ -34,6 +34,7 @@ func commands() []command {
 		{"diff", "compare the calculations of two revisions, as Markdown for a pull request", runDiff},
 		{"calc", "evaluate one calculation block from a TOML file", runCalc},
 		{"explain", "list the kinds of calculation, or explain one", runExplain},
+		{"init", "write a new site with an example page into an empty folder", runInit},
 		{"version", "print the version", runVersion},
 		{"help", "show help for a command", runHelp},
 	}

@@ -29,7 +29,7 @@ type layouts struct {
 func loadLayouts(root string) (*layouts, error) {
 	files := map[string][]byte{}
 	err := fs.WalkDir(templates.FS, ".", func(p string, d fs.DirEntry, err error) error {
-		if err != nil || d.IsDir() || path.Ext(p) == ".go" {
+		if err != nil || d.IsDir() || path.Ext(p) == ".go" || strings.HasPrefix(p, "starter/") {
 			return err
 		}
 		b, err := fs.ReadFile(templates.FS, p)
