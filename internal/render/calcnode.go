@@ -41,15 +41,19 @@ func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc 
 	var fences []*ast.FencedCodeBlock
 	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if f, ok := n.(*ast.FencedCodeBlock); ok && entering && f.Info != nil {
-			if lang := string(f.Language(source)); lang == "calc" || lang == "cautions" {
+			if lang := string(f.Language(source)); lang == "calc" || lang == "cautions" || lang == "chart" {
 				fences = append(fences, f)
 			}
 		}
 		return ast.WalkContinue, nil
 	})
 	for _, f := range fences {
-		if string(f.Language(source)) == "cautions" {
+		switch string(f.Language(source)) {
+		case "cautions":
 			f.Parent().ReplaceChild(f.Parent(), f, &CautionList{})
+			continue
+		case "chart":
+			f.Parent().ReplaceChild(f.Parent(), f, newChartRef(f, source))
 			continue
 		}
 		var src bytes.Buffer

@@ -20,6 +20,7 @@ func (r *calcRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(KindCalcBlock, r.renderBlock)
 	reg.Register(KindValueRef, r.renderValue)
 	reg.Register(KindCautionList, r.renderCautionList)
+	reg.Register(KindChartRef, r.renderChartRef)
 }
 
 func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {

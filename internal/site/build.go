@@ -43,6 +43,7 @@ type Site struct {
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
 	blockPage map[string]*Page // block id → the page that holds it
+	revision  *Revision
 }
 
 // Load reads a site root: configuration, templates and every page.
@@ -88,6 +89,7 @@ func Load(root string) (*Site, error) {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)
+	s.revision = revisionOf(root)
 	return s, nil
 }
 
@@ -194,7 +196,8 @@ type PageData struct {
 type SiteData struct {
 	Title       string
 	Description string
-	Home        string // URL of the home page, relative to the current page
+	Home        string    // URL of the home page, relative to the current page
+	Revision    *Revision // the git commit built from, nil outside git
 }
 
 // PageInfo describes the current page for templates.
@@ -210,6 +213,9 @@ type PageInfo struct {
 	// Caution is the standard compressed-air caution on pages with a
 	// pressure calculation, else empty.
 	Caution template.HTML
+	// Cautions are the caution boxes of every block the page shows or
+	// quotes, for layouts that gather them (the spec layout).
+	Cautions template.HTML
 }
 
 // renderPage lays out one page; it returns the page and the chart data
@@ -225,7 +231,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + "index.html"},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + "index.html", Revision: s.revision},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),
@@ -235,6 +241,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 			Content:     template.HTML(body),
 			TOCCount:    len(p.Doc.Headings(3)),
 			Caution:     s.standardCaution(p),
+			Cautions:    s.pageCautions(p),
 			TOC:         render.Nest(p.Doc.Headings(3)),
 		},
 		Root:        rootPrefix,

@@ -1,7 +1,9 @@
 package site
 
 import (
+	"bufio"
 	"errors"
+	"html/template"
 	"fmt"
 	"path"
 	"slices"
@@ -90,6 +92,9 @@ func (s *Site) evaluate() error {
 	}
 	var errs ErrorList
 	for _, p := range s.Pages {
+		for _, cr := range p.Doc.ChartRefs() {
+			errs = append(errs, s.checkChartRef(p, cr)...)
+		}
 		for _, ref := range p.Doc.ValueRefs() {
 			if err := s.resolveRef(p, ref); err != nil {
 				errs = append(errs, err)
@@ -117,16 +122,51 @@ func (s *Site) cautionItems() []render.CautionItem {
 	return items
 }
 
-// showsPressureCalc reports whether a page holds, or quotes values of, a
-// calculation of a kind that involves pressure.
-func (s *Site) showsPressureCalc(p *Page) bool {
-	for _, pb := range p.blocks {
-		if slices.Contains(calc.PressureKinds, pb.block.Kind.Name) {
-			return true
+// blocksShown lists the ids of the blocks a page holds, quotes or charts,
+// in first-use order.
+func (s *Site) blocksShown(p *Page) []string {
+	var ids []string
+	add := func(id string) {
+		if !slices.Contains(ids, id) {
+			ids = append(ids, id)
 		}
 	}
+	for _, pb := range p.blocks {
+		add(pb.block.ID)
+	}
 	for _, ref := range p.Doc.ValueRefs() {
-		if e, ok := s.Calc.Lookup(ref.Block); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
+		add(ref.Block)
+	}
+	for _, cr := range p.Doc.ChartRefs() {
+		for _, n := range cr.Names {
+			add(n.Block)
+		}
+	}
+	return ids
+}
+
+// pageCautions renders the caution boxes of every block the page shows.
+func (s *Site) pageCautions(p *Page) template.HTML {
+	var b strings.Builder
+	w := bufio.NewWriter(&b)
+	for _, id := range s.blocksShown(p) {
+		e, ok := s.Calc.Lookup(id)
+		if !ok {
+			continue
+		}
+		for _, c := range e.Cautions {
+			render.WriteCaution(w, c, "Rule "+c.Rule+", block "+id)
+		}
+	}
+	_ = w.Flush()
+	return template.HTML(b.String())
+}
+
+// showsPressureCalc reports whether a page holds, quotes or charts a
+// calculation of a kind that involves pressure.
+func (s *Site) showsPressureCalc(p *Page) bool {
+	for _, id := range s.blocksShown(p) {
+		if e, ok := s.Calc.Lookup(id); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
 			return true
 		}
 	}
@@ -178,6 +218,35 @@ func (s *Site) resolveRef(p *Page, ref *render.ValueRef) *Error {
 	return nil
 }
 
+// checkChartRef checks that every line of a chart fence names a block and
+// one of its kind's charts.
+func (s *Site) checkChartRef(p *Page, cr *render.ChartRef) ErrorList {
+	var errs ErrorList
+	for _, n := range cr.Names {
+		fail := func(format string, args ...any) {
+			errs = append(errs, &Error{File: p.File, Line: n.Line + p.Doc.LineOffset, Msg: "chart " + n.Text + ": " + fmt.Sprintf(format, args...)})
+		}
+		e, ok := s.Calc.Lookup(n.Block)
+		switch {
+		case n.Chart == "":
+			fail("write block.chart, such as bellows-lp.pv")
+		case !ok:
+			msg := fmt.Sprintf("there is no block %q in the site", n.Block)
+			if sug := calc.Suggest(n.Block, s.Calc.IDs()); sug != "" {
+				msg += fmt.Sprintf("; did you mean %q?", sug)
+			}
+			fail("%s", msg)
+		case !slices.Contains(e.Block.Kind.Charts, n.Chart):
+			allowed := strings.Join(e.Block.Kind.Charts, ", ")
+			if allowed == "" {
+				allowed = "none for this kind"
+			}
+			fail("block %s (%s) draws no chart %q; allowed: %s", n.Block, e.Block.Kind.Name, n.Chart, allowed)
+		}
+	}
+	return errs
+}
+
 // drawCharts draws the charts the page's blocks ask for and adds their
 // data files, "<page>.<block>.<chart>.csv" beside the page, to out.
 func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
@@ -196,6 +265,24 @@ func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
 				return &Error{File: p.File, Line: pb.block.LineOf("show.charts"), Msg: "block " + pb.block.ID + ": " + err.Error()}
 			}
 			pb.node.Charts = append(pb.node.Charts, d)
+			out[csvName] = d.CSV
+		}
+	}
+	for _, cr := range p.Doc.ChartRefs() {
+		cr.Charts = nil
+		for _, n := range cr.Names {
+			e, _ := s.Calc.Lookup(n.Block)
+			line := n.Line + p.Doc.LineOffset
+			c, err := e.Chart(n.Chart)
+			if err != nil {
+				return &Error{File: p.File, Line: line, Msg: err.Error()}
+			}
+			csvName := base + "." + n.Block + "." + n.Chart + ".csv"
+			d, err := render.DrawChart(c, "chartref-"+n.Block+"-"+n.Chart, path.Base(csvName))
+			if err != nil {
+				return &Error{File: p.File, Line: line, Msg: "chart " + n.Text + ": " + err.Error()}
+			}
+			cr.Charts = append(cr.Charts, d)
 			out[csvName] = d.CSV
 		}
 	}
