@@ -98,7 +98,7 @@ func readMultistageInput(in *Inputs) (multistageInput, error) {
 	m := multistageInput{p1: in.Ambient, p2: in.Value("discharge_pressure"), t1: in.Value("inlet_temperature"), n: in.Value("polytropic_index")}
 	z := in.Value("stages")
 	if z != math.Trunc(z) {
-		return m, &InputError{Key: "stages", Message: fmt.Sprintf("%s is not a whole number of stages; allowed: 2, 3, 4, 5 or 6", units.Format(z, 6))}
+		return m, &InputError{Key: "stages", Message: fmt.Sprintf("%s is not a whole number of stages; allowed: 2, 3, 4, 5 or 6", show(z, ""))}
 	}
 	m.stages = int(z)
 	if in.Has("inlet_pressure") {
