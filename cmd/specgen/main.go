@@ -31,6 +31,7 @@ func commands() []command {
 	return []command{
 		{"build", "build the site into the output folder", runBuild},
 		{"check", "evaluate every calculation and claim without writing a site", runCheck},
+		{"preview", "serve the site on this machine and rebuild it as you edit", runPreview},
 		{"diff", "compare the calculations of two revisions, as Markdown for a pull request", runDiff},
 		{"calc", "evaluate one calculation block from a TOML file", runCalc},
 		{"explain", "list the kinds of calculation, or explain one", runExplain},
