@@ -238,7 +238,7 @@ func multistageChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 			staged.X, staged.Y = append(staged.X, pIn*x), append(staged.Y, dischargeTemperature(tIn, x, m.n))
 		}
 		mid := math.Sqrt(r)
-		staged.Labels = append(staged.Labels, PointLabel{X: pIn * mid, Y: dischargeTemperature(tIn, mid, m.n), Text: fmt.Sprintf("stage %d", k+1)})
+		staged.Labels = append(staged.Labels, PointLabel{X: pIn * mid, Y: dischargeTemperature(tIn, mid, m.n), Text: fmt.Sprintf("stage %d", k+1), Below: true})
 		if k < m.stages-1 {
 			// The intercooler: constant pressure, down to T_ic.
 			pOut := pIn * r
