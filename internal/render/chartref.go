@@ -65,8 +65,10 @@ func (r *calcRenderer) renderChartRef(w util.BufWriter, source []byte, node ast.
 	if !entering {
 		return ast.WalkContinue, nil
 	}
+	_, _ = w.WriteString(`<div class="sg-chartref">` + "\n")
 	for _, c := range node.(*ChartRef).Charts {
 		_, _ = w.WriteString(c.HTML)
 	}
+	_, _ = w.WriteString("</div>\n")
 	return ast.WalkSkipChildren, nil
 }
