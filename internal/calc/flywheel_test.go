@@ -1,0 +1,225 @@
+package calc
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+)
+
+// flywheelReference computes the bases of the flywheel cases: the source
+// block's own energy_fluctuation ("source result"), and the inertia of the
+// disc or ring with the model's mass and diameter by the elementary
+// formulas ½·m·R² ("½·m·R²") and ½·m·(a² + b²) ("½·m·(a² + b²)").
+func flywheelReference(t *testing.T, basis string, set *Set, e *Evaluated) float64 {
+	t.Helper()
+	result := func(name string) float64 {
+		r, ok := e.Result(name)
+		if !ok {
+			t.Fatalf("block %s has no %s", e.Block.ID, name)
+		}
+		return r.Value
+	}
+	switch basis {
+	case "source result":
+		for _, in := range e.Inputs {
+			if in.Name == "source" {
+				src, _ := set.Lookup(in.Links[0])
+				r, ok := src.Result("energy_fluctuation")
+				if !ok {
+					t.Fatalf("source %s has no energy_fluctuation", in.Links[0])
+				}
+				return r.Value
+			}
+		}
+		t.Fatalf("block %s has no source", e.Block.ID)
+	case "½·m·R²":
+		r := result("diameter") / 2
+		return result("mass") * r * r / 2
+	case "½·m·(a² + b²)":
+		depth, _ := inputValue(t, e, "rim_depth")
+		b := result("diameter") / 2
+		a := b - depth
+		return result("mass") * (a*a + b*b) / 2
+	}
+	t.Fatalf("unknown basis %q", basis)
+	return 0
+}
+
+func TestFlywheelReference(t *testing.T) {
+	runBlockCases(t, "flywheel", 3, flywheelReference)
+}
+
+// flywheelSite is a source block (the bench compressor, changed by
+// "source." keys; or the demo motor when "motor" is set) and a steel disc
+// flywheel changed by the other keys (nil removes one).
+func flywheelSite(changes map[string]any) []map[string]any {
+	src := map[string]any{"id": "low", "kind": "compressor", "bore": "28 mm", "stroke": "32 mm", "rod_length": "70 mm",
+		"clearance_volume": "1.8 cm3", "speed": "900 rpm", "discharge_pressure": "6 bar"}
+	if _, ok := changes["motor"]; ok {
+		src = motorSite(map[string]any{"id": "low"})[0]
+	}
+	fw := map[string]any{"id": "fw", "kind": "flywheel", "source": "low", "speed_fluctuation": 0.05,
+		"material": "s235", "thickness": "20 mm"}
+	for k, v := range changes {
+		target := fw
+		if name, ok := strings.CutPrefix(k, "source."); ok {
+			target, k = src, name
+		}
+		switch {
+		case k == "motor":
+		case v == nil:
+			delete(target, k)
+		default:
+			target[k] = v
+		}
+	}
+	return []map[string]any{src, fw}
+}
+
+// TestFlywheelHoldsSpeed integrates the crankshaft's equation of motion,
+// I·ω·dω/dθ = T_m − T(θ), by the classical Runge-Kutta method along the
+// source's torque curve (linear between its samples), from the speed chart's
+// first point: the result must follow the chart, swing by the speed
+// fluctuation asked for, and centre on the source's speed. Sources: the
+// bench compressor (gas torque), the same at 3000 rpm with a reciprocating
+// mass (total torque), and the air motor.
+func TestFlywheelHoldsSpeed(t *testing.T) {
+	for _, c := range []struct {
+		name    string
+		changes map[string]any
+		curve   string
+	}{
+		{"compressor", map[string]any{}, "gas_torque"},
+		{"compressor Cs 0.01", map[string]any{"speed_fluctuation": 0.01}, "gas_torque"},
+		{"compressor with inertia", map[string]any{"source.reciprocating_mass": "300 g", "source.speed": "3000 rpm"}, "total_torque"},
+		{"motor", map[string]any{"motor": true, "shape": "rim", "rim_depth": "10 mm"}, "gas_torque"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			set, err := evaluateBlocks(t, flywheelSite(c.changes))
+			if err != nil {
+				t.Fatal(err)
+			}
+			fw, _ := set.Lookup("fw")
+			src, _ := set.Lookup("low")
+			var torque Curve
+			for _, cv := range src.Curves {
+				if cv.Name == c.curve {
+					torque = cv
+				}
+			}
+			chart, err := fw.Chart("speed")
+			if err != nil {
+				t.Fatal(err)
+			}
+			speed := chart.Panels[0].Series[0].Y
+			inertia, _ := fw.Result("inertia")
+			cs, _ := inputValue(t, fw, "speed_fluctuation")
+			omega, _ := inputValue(t, src, "speed")
+			if len(speed) != len(torque.X) {
+				t.Fatalf("chart has %d points, torque curve %d", len(speed), len(torque.X))
+			}
+			x, y := torque.X, torque.Y
+			mean := 0.0
+			for i := 1; i < len(x); i++ {
+				mean += (y[i] + y[i-1]) / 2 * (x[i] - x[i-1])
+			}
+			mean /= x[len(x)-1] - x[0]
+			// dω/dθ with T linear on [x[i], x[i+1]], at fraction s of it.
+			slope := func(i int, s, w float64) float64 {
+				return (mean - (y[i] + s*(y[i+1]-y[i]))) / (inertia.Value * w)
+			}
+			w := speed[0]
+			low, high := w, w
+			for i := 0; i+1 < len(x); i++ {
+				h := x[i+1] - x[i]
+				k1 := slope(i, 0, w)
+				k2 := slope(i, 0.5, w+h/2*k1)
+				k3 := slope(i, 0.5, w+h/2*k2)
+				k4 := slope(i, 1, w+h*k3)
+				w += h / 6 * (k1 + 2*k2 + 2*k3 + k4)
+				if math.Abs(w-speed[i+1]) > 1e-7*omega {
+					t.Fatalf("at %g rad: Runge-Kutta %.10g rad/s, chart %.10g rad/s", x[i+1], w, speed[i+1])
+				}
+				low, high = math.Min(low, w), math.Max(high, w)
+			}
+			// The chart's 0.5° samples see a little less swing than the
+			// model's 0.05° energy: agreement to 0.5 %.
+			if got := (high - low) / omega; math.Abs(got-cs) > 5e-3*cs {
+				t.Errorf("speed swings by %.6g of the mean, want %g", got, cs)
+			}
+			if mid := (high + low) / 2; math.Abs(mid-omega) > 1e-3*cs*omega {
+				t.Errorf("speed centres on %.9g rad/s, want %.9g", mid, omega)
+			}
+			if len(chart.Panels[0].Marks) != 1 || chart.Panels[0].Marks[0].Value != omega {
+				t.Errorf("marks %+v, want the mean %g rad/s", chart.Panels[0].Marks, omega)
+			}
+		})
+	}
+}
+
+// TestFlywheelWithDensity: with a density and no material there is no
+// strength, so no safety factor; everything else is there.
+func TestFlywheelWithDensity(t *testing.T) {
+	set, err := evaluateBlocks(t, flywheelSite(map[string]any{"material": nil, "density": "7850 kg/m3"}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("fw")
+	if _, ok := e.Result("safety_factor"); ok {
+		t.Error("a flywheel given by density has a safety_factor")
+	}
+	for _, name := range []string{"energy_fluctuation", "inertia", "diameter", "mass", "rim_speed", "rim_stress"} {
+		if _, ok := e.Result(name); !ok {
+			t.Errorf("no %s", name)
+		}
+	}
+}
+
+func TestFlywheelInputErrors(t *testing.T) {
+	cases := []struct {
+		changes map[string]any
+		key     string
+		says    []string
+	}{
+		{map[string]any{"density": "7850 kg/m3"}, "density", []string{"not both"}},
+		{map[string]any{"material": nil}, "density", []string{"missing", "material"}},
+		{map[string]any{"material": "unobtainium"}, "material", []string{"not known"}},
+		{map[string]any{"shape": "rim"}, "shape", []string{"rim_depth"}},
+		{map[string]any{"rim_depth": "10 mm"}, "rim_depth", []string{"shape = \"rim\""}},
+		// A 20 mm × 60 mm steel ring already holds 3.2e-3 kg m² as a
+		// solid disc 120 mm across; with Cs = 0.5 the wheel needs only
+		// 7.0e-4 kg m².
+		{map[string]any{"shape": "rim", "rim_depth": "60 mm", "speed_fluctuation": 0.5}, "rim_depth", []string{"no bore", "disc"}},
+		{map[string]any{"shape": "hoop"}, "shape", []string{"not known", "disc, rim"}},
+		{map[string]any{"speed_fluctuation": 0}, "speed_fluctuation", []string{"out of range"}},
+	}
+	for _, c := range cases {
+		_, err := evaluateBlocks(t, flywheelSite(c.changes))
+		var list Errors
+		if !errors.As(err, &list) || len(list) != 1 {
+			t.Errorf("%v: got %v, want one error", c.changes, err)
+			continue
+		}
+		if list[0].Key != c.key {
+			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
+		}
+		for _, s := range c.says {
+			if !strings.Contains(list[0].Msg, s) {
+				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
+			}
+		}
+	}
+}
+
+// TestRimDiameter checks the cubic's root against the ring inertia it
+// solves, over thin and thick rings.
+func TestRimDiameter(t *testing.T) {
+	for _, c := range []struct{ dm, h float64 }{{0.2, 0.001}, {0.2, 0.012}, {0.2, 0.19}, {2, 0.01}, {0.05, 0.04}} {
+		const rho, width = 7850.0, 0.03
+		inertia := rho * math.Pi * width * c.h * c.dm * (c.dm*c.dm + c.h*c.h) / 4
+		if got := rimDiameter(inertia, rho, width, c.h); math.Abs(got-c.dm) > 1e-12*c.dm {
+			t.Errorf("Dm %g, h %g: solved %.15g", c.dm, c.h, got)
+		}
+	}
+}
