@@ -88,7 +88,8 @@ Roark's Formulas for Stress and Strain, rotating disks)
   square of the speed.
 
 Chart: speed, the crank speed over a revolution,
-  ω(θ)² = ω0² + 2·∫(T_m − T)dθ / I, with ω0 such that (ω_max + ω_min)/2 = ω.`
+  ω(θ)² = ω0² + 2·∫(T_m − T)dθ / I, with ω0 such that (ω_max + ω_min)/2 = ω,
+  drawn as ω(θ) − ω with the mean and the limits ±Cs·ω/2 marked.`
 
 // flywheelInput is a flywheel block's inputs in SI.
 type flywheelInput struct {
@@ -295,16 +296,23 @@ func flywheelChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	inertia := out.result("inertia")
 	speed := f.crankSpeed(inertia)
 	low, high := extent(speed)
-	rpm := func(v float64) string { return units.Format(v*30/math.Pi, 4) + " rpm" }
+	// The swing is a few per cent of the speed: drawn about the mean, it
+	// fills the panel.
+	excess := make([]float64, len(speed))
+	for i, w := range speed {
+		excess[i] = w - f.omega
+	}
+	rpm := func(v float64) string { return show(v*30/math.Pi, "rpm") }
+	half := f.cs * f.omega / 2
 	return &Chart{
 		Title: "Crank speed over one revolution",
-		Desc: fmt.Sprintf("The crank speed of %s with the flywheel's %s kg m² over one revolution from top dead centre, driven against a constant torque: it swings from %s to %s about the mean %s (marked), a fluctuation of %s against the %s asked for.",
-			f.source.ID, units.Format(inertia, 3), rpm(low), rpm(high), rpm(f.omega), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
+		Desc: fmt.Sprintf("The crank speed of %s with the flywheel's %s kg m² over one revolution from top dead centre, against a constant torque, drawn as its difference from the mean %s: it swings from %s to %s, a fluctuation of %s against the %s asked for, whose limits are marked.",
+			f.source.ID, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
 		X: Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"},
 		Panels: []Panel{{
-			Y:      Axis{Label: "Crank speed", Dim: units.RotationalSpeed, Unit: "rpm"},
-			Series: []Series{{Name: "crank speed", X: f.torque.X, Y: speed}},
-			Marks:  []Mark{{Value: f.omega, Label: "mean"}},
+			Y:      Axis{Label: "Crank speed above the " + rpm(f.omega) + " mean", Dim: units.RotationalSpeed, Unit: "rpm"},
+			Series: []Series{{Name: "crank speed", X: f.torque.X, Y: excess}},
+			Marks:  []Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "+Cs/2"}, {Value: -half, Label: "−Cs/2"}},
 		}},
 	}, nil
 }

@@ -80,7 +80,8 @@ func flywheelSite(changes map[string]any) []map[string]any {
 // TestFlywheelHoldsSpeed integrates the crankshaft's equation of motion,
 // I·ω·dω/dθ = T_m − T(θ), by the classical Runge-Kutta method along the
 // source's torque curve (linear between its samples), from the speed chart's
-// first point: the result must follow the chart, swing by the speed
+// first point (the chart draws the speed less the mean): the result must
+// follow the chart, swing by the speed
 // fluctuation asked for, and centre on the source's speed. Sources: the
 // bench compressor (gas torque), the same at 3000 rpm with a reciprocating
 // mass (total torque), and the air motor.
@@ -112,12 +113,16 @@ func TestFlywheelHoldsSpeed(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			speed := chart.Panels[0].Series[0].Y
+			excess := chart.Panels[0].Series[0].Y
 			inertia, _ := fw.Result("inertia")
 			cs, _ := inputValue(t, fw, "speed_fluctuation")
 			omega, _ := inputValue(t, src, "speed")
-			if len(speed) != len(torque.X) {
-				t.Fatalf("chart has %d points, torque curve %d", len(speed), len(torque.X))
+			if len(excess) != len(torque.X) {
+				t.Fatalf("chart has %d points, torque curve %d", len(excess), len(torque.X))
+			}
+			speed := make([]float64, len(excess))
+			for i, d := range excess {
+				speed[i] = omega + d
 			}
 			x, y := torque.X, torque.Y
 			mean := 0.0
@@ -151,8 +156,8 @@ func TestFlywheelHoldsSpeed(t *testing.T) {
 			if mid := (high + low) / 2; math.Abs(mid-omega) > 1e-3*cs*omega {
 				t.Errorf("speed centres on %.9g rad/s, want %.9g", mid, omega)
 			}
-			if len(chart.Panels[0].Marks) != 1 || chart.Panels[0].Marks[0].Value != omega {
-				t.Errorf("marks %+v, want the mean %g rad/s", chart.Panels[0].Marks, omega)
+			if m := chart.Panels[0].Marks; len(m) != 3 || m[0].Value != 0 || m[1].Value != cs*omega/2 || m[2].Value != -cs*omega/2 {
+				t.Errorf("marks %+v, want the mean and ±%g rad/s", m, cs*omega/2)
 			}
 		})
 	}
