@@ -3,8 +3,8 @@ package site
 import (
 	"bufio"
 	"errors"
-	"html/template"
 	"fmt"
+	"html/template"
 	"path"
 	"slices"
 	"sort"
