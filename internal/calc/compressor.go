@@ -154,13 +154,15 @@ type compressorInput struct {
 	mass                   float64 // 0 when not given
 }
 
-// readCompressorInput applies the checks that single-input ranges cannot.
-func readCompressorInput(in *Inputs) (compressorInput, error) {
+// readCylinder reads the cylinder of a block of any kind built on it:
+// geometry, clearance, cylinders, speed, polytropic index, mechanical
+// efficiency and reciprocating mass, with the checks that single-input
+// ranges cannot make. The pressures are the caller's.
+func readCylinder(in *Inputs) (compressorInput, error) {
 	c := compressorInput{
 		bore:    in.Value("bore"),
 		rod:     in.Value("rod_length"),
 		omega:   in.Value("speed"),
-		p2:      in.Value("discharge_pressure"),
 		ambient: in.Ambient,
 		p1:      in.Ambient,
 		t1:      in.Value("inlet_temperature"),
@@ -207,6 +209,17 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 		return c, &InputError{Key: "cylinders", Message: fmt.Sprintf("%s is not a whole number of cylinders", units.Format(z, 6))}
 	}
 	c.cylinders = int(z)
+	return c, nil
+}
+
+// readCompressorInput reads a compressor block: its cylinder, then its
+// inlet and discharge pressures.
+func readCompressorInput(in *Inputs) (compressorInput, error) {
+	c, err := readCylinder(in)
+	if err != nil {
+		return c, err
+	}
+	c.p2 = in.Value("discharge_pressure")
 	if in.Has("inlet_pressure") {
 		c.p1 = in.Value("inlet_pressure")
 	}

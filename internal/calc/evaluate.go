@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"specgen/internal/units"
@@ -455,6 +456,10 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 				fail(spec.Name, line, err.Error())
 				continue
 			}
+			if spec.Absolute && q.Unit.Ref != units.Absolute {
+				fail(spec.Name, line, fmt.Sprintf("%q is a gauge pressure; %s takes an absolute pressure: write mbar(a), kPa(a), bar(a), psia or torr, e.g. \"20 mbar(a)\"", text, spec.Name))
+				continue
+			}
 			value = q.Absolute(e.Ambient)
 			shownUnit = q.Unit.Symbol
 		}
@@ -502,6 +507,9 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 func describeRange(spec InputSpec, unit string, ambient float64, sig int) string {
 	show := func(v float64) string {
 		if unit == "" || spec.Dim == units.Dimensionless {
+			if v == math.Trunc(v) && math.Abs(v) < 1e9 {
+				return strconv.FormatFloat(v, 'f', -1, 64)
+			}
 			return units.Format(v, sig)
 		}
 		s, err := FormatValue(v, spec.Dim, unit, ambient, sig)

@@ -45,6 +45,9 @@ type InputSpec struct {
 	Optional bool
 	Range    Range
 	Meaning  string // one line
+	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr"):
+	// for vacuum targets, where a gauge reading is a mistake.
+	Absolute bool
 	// LinkKinds are the kinds a Link or LinkList input may name; empty
 	// allows any kind.
 	LinkKinds []string

@@ -2,7 +2,6 @@ package calc
 
 import (
 	"fmt"
-	"maps"
 	"math"
 
 	"specgen/internal/units"
@@ -120,12 +119,8 @@ func readMotorInput(in *Inputs) (motorInput, error) {
 			"supply pressure %s must be above ambient %s: the air must push the piston out",
 			show(m.supply/1e5, "bar(a)"), show(in.Ambient/1e5, "bar(a)"))}
 	}
-	// The compressor reads the same cylinder; its discharge pressure plays
-	// no part here and stands in as the supply pressure.
-	view := *in
-	view.values, view.given = maps.Clone(in.values), maps.Clone(in.given)
-	view.Set("discharge_pressure", m.supply, true)
-	g, err := readCompressorInput(&view)
+	g, err := readCylinder(in)
+	g.p2 = m.supply
 	if err != nil {
 		return m, err
 	}

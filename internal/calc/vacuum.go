@@ -2,7 +2,6 @@ package calc
 
 import (
 	"fmt"
-	"maps"
 	"math"
 
 	"specgen/internal/units"
@@ -17,7 +16,7 @@ var vacuumKind = Kind{
 	Inputs: append(compressorInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed", "polytropic_index"),
 		InputSpec{Name: "vessel_volume", Dim: units.Volume, Range: positiveUpTo(1e3), Meaning: "internal volume of the vessel pumped down, with its piping, up to 1000 m3"},
-		InputSpec{Name: "target_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "absolute pressure the vessel is pumped down to, e.g. \"20 mbar(a)\" or \"15 torr\"; above the ultimate pressure"},
+		InputSpec{Name: "target_pressure", Dim: units.Pressure, Absolute: true, Range: positiveUpTo(1e9), Meaning: "absolute pressure the vessel is pumped down to, e.g. \"20 mbar(a)\" or \"15 torr\"; above the ultimate pressure"},
 		InputSpec{Name: "start_pressure", Dim: units.Pressure, Optional: true, Range: positiveUpTo(1e9), Meaning: "vessel pressure when pumping starts, at most ambient; default: ambient"},
 	),
 	Results: []ResultSpec{
@@ -69,11 +68,9 @@ Limits
 func compressorInputs(names ...string) []InputSpec {
 	specs := make([]InputSpec, 0, len(names))
 	for _, name := range names {
-		spec, ok := compressorKind.input(name)
-		if !ok {
-			panic("calc: the compressor kind has no input " + name)
+		if spec, ok := compressorKind.input(name); ok {
+			specs = append(specs, spec)
 		}
-		specs = append(specs, spec)
 	}
 	return specs
 }
@@ -124,12 +121,10 @@ func readVacuumInput(in *Inputs) (vacuumInput, vacuumPump, error) {
 	}
 	if v.target >= v.start {
 		msg := fmt.Sprintf("target pressure %s must be below the start pressure %s", mbar(v.target), mbar(v.start))
-		if v.target >= v.ambient {
-			msg += "; a vacuum target is an absolute pressure, but plain mbar, bar, kPa and psi are gauge (read from ambient): use mbar(a), kPa(a) or torr, e.g. \"20 mbar(a)\""
-		}
 		return v, vacuumPump{}, &InputError{Key: "target_pressure", Message: msg}
 	}
-	cyl, err := readCylinder(in, v.target, v.ambient)
+	cyl, err := readCylinder(in)
+	cyl.p1, cyl.p2 = v.target, v.ambient
 	if err != nil {
 		return v, vacuumPump{}, err
 	}
@@ -143,16 +138,6 @@ func readVacuumInput(in *Inputs) (vacuumInput, vacuumPump, error) {
 			mbar(v.target), mbar(pu), show(pump.c, ""), show(pump.n, ""))}
 	}
 	return v, pump, nil
-}
-
-// readCylinder reads the compressor inputs of a block of another kind with
-// the compressor kind's checks, suction at p1 and delivery at p2 (p1 < p2).
-func readCylinder(in *Inputs, p1, p2 float64) (compressorInput, error) {
-	cyl := &Inputs{Ambient: in.Ambient, values: maps.Clone(in.values), given: maps.Clone(in.given),
-		names: in.names, links: in.links, env: in.env}
-	cyl.Set("inlet_pressure", p1, false)
-	cyl.Set("discharge_pressure", p2, false)
-	return readCompressorInput(cyl)
 }
 
 func evaluateVacuum(in *Inputs) (*Outcome, error) {

@@ -124,7 +124,7 @@ func TestVacuumInputErrors(t *testing.T) {
 	}{
 		// 0.05 clearance, n = 1.3: ultimate 19.36 mbar(a).
 		{map[string]any{"target_pressure": "15 mbar(a)"}, "target_pressure", []string{"15 mbar(a)", "19.36 mbar(a)", "ultimate"}},
-		{map[string]any{"target_pressure": "10 mbar"}, "target_pressure", []string{"1023 mbar(a)", "gauge", "mbar(a)", "torr"}},
+		{map[string]any{"target_pressure": "10 mbar"}, "target_pressure", []string{"\"10 mbar\" is a gauge pressure", "absolute", "mbar(a)", "torr"}},
 		{map[string]any{"target_pressure": "900 mbar(a)", "start_pressure": "800 mbar(a)"}, "target_pressure", []string{"900 mbar(a)", "800 mbar(a)"}},
 		{map[string]any{"start_pressure": "1.2 bar(a)"}, "start_pressure", []string{"1200 mbar(a)", "ambient"}},
 		{map[string]any{"clearance_ratio": nil}, "clearance_volume", []string{"missing"}},
