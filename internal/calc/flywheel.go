@@ -310,7 +310,7 @@ func flywheelChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 			f.source.ID, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
 		X: Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"},
 		Panels: []Panel{{
-			Y:      Axis{Label: "Crank speed above the " + rpm(f.omega) + " mean", Dim: units.RotationalSpeed, Unit: "rpm"},
+			Y:      Axis{Label: "Speed above mean", Dim: units.RotationalSpeed, Unit: "rpm"},
 			Series: []Series{{Name: "crank speed", X: f.torque.X, Y: excess}},
 			Marks:  []Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "+Cs/2"}, {Value: -half, Label: "−Cs/2"}},
 		}},

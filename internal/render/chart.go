@@ -78,7 +78,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		styleAxis(&p.X)
 		styleAxis(&p.Y)
 		p.Y.Label.Text = axisLabel(panel.Y)
-		var xTicks plot.Ticker = plot.DefaultTicks{}
+		var xTicks plot.Ticker = niceTicks{}
 		if c.X.Unit == "deg" {
 			xTicks = degreeTicks{}
 		}
@@ -88,6 +88,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		} else {
 			p.X.Tick.Marker = unlabelled{xTicks}
 		}
+		p.Y.Tick.Marker = niceTicks{}
 		if panel.Y.Log {
 			p.Y.Scale = plot.LogScale{}
 			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
@@ -227,6 +228,48 @@ func axisLabel(a calc.Axis) string {
 		}
 	}
 	return a.Label + " (" + unit + ")"
+}
+
+// niceTicks marks a linear axis every 1, 2 or 5 × 10^k, whichever gives
+// four to eight labelled ticks, with minor ticks between and labels with
+// no more decimals than the step needs.
+type niceTicks struct{}
+
+func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
+	span := hi - lo
+	if !(span > 0) || math.IsInf(span, 0) {
+		return []plot.Tick{{Value: lo, Label: strconv.FormatFloat(lo, 'g', 4, 64)}}
+	}
+	mag := math.Pow(10, math.Floor(math.Log10(span/5)))
+	step := mag
+	for _, m := range []float64{1, 2, 5, 10} {
+		if span/(m*mag) <= 7 {
+			step = m * mag
+			break
+		}
+	}
+	minor := step / 5
+	if step/mag == 2 {
+		minor = step / 4
+	}
+	decimals := max(0, -int(math.Floor(math.Log10(step)+1e-9)))
+	var ticks []plot.Tick
+	first := math.Ceil(lo/minor-1e-9) * minor
+	for i := 0; ; i++ {
+		v := first + float64(i)*minor
+		if v > hi+minor*1e-6 {
+			break
+		}
+		t := plot.Tick{Value: v}
+		if k := v / step; math.Abs(k-math.Round(k)) < 1e-6 {
+			if math.Abs(v) < step*1e-9 {
+				v = 0
+			}
+			t.Label = strconv.FormatFloat(v, 'f', decimals, 64)
+		}
+		ticks = append(ticks, t)
+	}
+	return ticks
 }
 
 // degreeTicks marks crank angles every 90° with minor ticks every 30°.

@@ -37,23 +37,3 @@ func TestDrawCompressorCharts(t *testing.T) {
 		}
 	}
 }
-
-// BenchmarkDrawChart draws each compressor chart; the target is under
-// 2 ms a chart.
-func BenchmarkDrawChart(b *testing.B) {
-	e := evaluated(b, stageBlock)
-	for _, name := range e.Block.Kind.Charts {
-		c, err := e.Chart(name)
-		if err != nil {
-			b.Fatal(err)
-		}
-		b.Run(name, func(b *testing.B) {
-			b.ReportAllocs()
-			for b.Loop() {
-				if _, err := DrawChart(c, "chart", "x.csv"); err != nil {
-					b.Fatal(err)
-				}
-			}
-		})
-	}
-}

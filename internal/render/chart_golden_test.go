@@ -1,0 +1,135 @@
+package render
+
+import (
+	"bytes"
+	"flag"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/BurntSushi/toml"
+
+	"specgen/internal/calc"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden SVGs in testdata/charts")
+
+// chartCase is one file of testdata/charts: blocks, and the chart of one
+// of them to draw.
+type chartCase struct {
+	Name   string
+	Block  string   `toml:"block"`
+	Chart  string   `toml:"chart"`
+	Blocks []string `toml:"blocks"`
+}
+
+func chartCases(t testing.TB) []chartCase {
+	files, _ := filepath.Glob(filepath.Join("..", "..", "testdata", "charts", "*.toml"))
+	if len(files) == 0 {
+		t.Fatal("no chart cases")
+	}
+	var cases []chartCase
+	for _, f := range files {
+		var c chartCase
+		if _, err := toml.DecodeFile(f, &c); err != nil {
+			t.Fatal(err)
+		}
+		c.Name = strings.TrimSuffix(filepath.Base(f), ".toml")
+		cases = append(cases, c)
+	}
+	return cases
+}
+
+func (c chartCase) draw(t testing.TB) *DrawnChart {
+	var blocks []*calc.Block
+	for i, src := range c.Blocks {
+		b, err := calc.ParseBlock("testdata/charts/"+c.Name+".toml", 100*i, src)
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+	}
+	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup(c.Block)
+	ch, err := e.Chart(c.Chart)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := DrawChart(ch, "chart-"+c.Name, c.Name+".csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
+}
+
+// TestGoldenCharts draws one chart of each type and compares the SVG
+// with testdata/charts/*.svg byte for byte; -update accepts new output
+// (look at it in a browser before you commit it).
+func TestGoldenCharts(t *testing.T) {
+	kinds := map[string]bool{}
+	for _, c := range chartCases(t) {
+		t.Run(c.Name, func(t *testing.T) {
+			d := c.draw(t)
+			golden := filepath.Join("..", "..", "testdata", "charts", c.Name+".svg.html")
+			if *update {
+				if err := os.WriteFile(golden, []byte(d.HTML), 0o644); err != nil {
+					t.Fatal(err)
+				}
+				return
+			}
+			want, err := os.ReadFile(golden)
+			if err != nil {
+				t.Fatalf("%v (run with -update to write it)", err)
+			}
+			if !bytes.Equal([]byte(d.HTML), want) {
+				t.Errorf("chart differs from %s (run go test ./internal/render -run GoldenCharts -update to accept)", golden)
+			}
+			if again := c.draw(t); again.HTML != d.HTML {
+				t.Error("two drawings of one chart differ")
+			}
+		})
+		kinds[c.Name[:strings.IndexByte(c.Name, '-')]] = true
+	}
+	for _, name := range calc.KindNames() {
+		k, _ := calc.LookupKind(name)
+		if len(k.Charts) > 0 && !kinds[name] {
+			t.Errorf("kind %s draws charts but has no golden chart", name)
+		}
+	}
+}
+
+// BenchmarkChartTypes draws one chart of each type; each should cost
+// under 2 ms.
+func BenchmarkChartTypes(b *testing.B) {
+	for _, c := range chartCases(b) {
+		var blocks []*calc.Block
+		for i, src := range c.Blocks {
+			blk, err := calc.ParseBlock(c.Name, 100*i, src)
+			if err != nil {
+				b.Fatal(err)
+			}
+			blocks = append(blocks, blk)
+		}
+		set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
+		if err != nil {
+			b.Fatal(err)
+		}
+		e, _ := set.Lookup(c.Block)
+		ch, err := e.Chart(c.Chart)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(c.Name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := DrawChart(ch, "chart", "x.csv"); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
