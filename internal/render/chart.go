@@ -126,7 +126,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			line.Color = seriesColors[j%len(seriesColors)]
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
-			p.Add(line)
+			p.Add(plainLine{line})
 			if err := addLabels(p, s.Labels, c, panel); err != nil {
 				return nil, err
 			}
@@ -424,6 +424,15 @@ func addMark(p *plot.Plot, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, y
 	return nil
 }
 
+// plainLine is a line without glyph boxes: gonum/plot asks a line for a
+// box around every point, many times while it lays out the axes, and that
+// was most of a chart's cost. A line needs no room beyond its data range.
+type plainLine struct{ line *plotter.Line }
+
+func (l plainLine) Plot(c draw.Canvas, p *plot.Plot) { l.line.Plot(c, p) }
+
+func (l plainLine) DataRange() (xmin, xmax, ymin, ymax float64) { return l.line.DataRange() }
+
 // unlabelled keeps a ticker's ticks and blanks their labels, for the x
 // axes of upper panels. A blank, not an empty, label keeps a tick major,
 // so the grid still draws its line.
@@ -438,6 +447,10 @@ func (u unlabelled) Ticks(min, max float64) []plot.Tick {
 	}
 	return ticks
 }
+
+// csvNumber writes a value to 8 significant figures, as data for other
+// programs rather than for reading.
+func csvNumber(v float64) string { return strconv.FormatFloat(v, 'g', 8, 64) }
 
 // chartCSV writes every series as rows of series, x, x unit, y, y unit.
 func chartCSV(c *calc.Chart) ([]byte, error) {
@@ -455,7 +468,7 @@ func chartCSV(c *calc.Chart) ([]byte, error) {
 				return nil, err
 			}
 			for i := range x {
-				_ = w.Write([]string{s.Name, units.Format(x[i], 6), c.X.Unit, units.Format(y[i], 6), panel.Y.Unit})
+				_ = w.Write([]string{s.Name, csvNumber(x[i]), c.X.Unit, csvNumber(y[i]), panel.Y.Unit})
 			}
 		}
 	}
