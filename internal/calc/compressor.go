@@ -78,8 +78,9 @@ func positiveUpTo(max float64) Range {
 }
 
 // cycleSteps is the least number of crank-angle steps per revolution
-// (0.05° each) at which the torque curves are sampled.
-const cycleSteps = 7200
+// (0.1° each) at which the torque curves are sampled: fine enough that the
+// cycle integral matches the closed-form indicated work to 1e-6 (tested).
+const cycleSteps = 3600
 
 // curvePoints is the number of intervals per revolution in the published
 // crank-angle and p-V curves (0.5°); it divides cycleSteps.
@@ -446,14 +447,46 @@ func phaseSum(one []float64, z int) []float64 {
 // samples (trapezoidal rule) and returns the lowest and highest running
 // value, counting the start as zero.
 func excessEnergyRange(torque []float64, mean float64) (low, high float64) {
-	h := 2 * math.Pi / float64(len(torque))
-	e := 0.0
+	m := len(torque)
+	h := 2 * math.Pi / float64(m)
+	e := make([]float64, m) // e[i] at θ_(i+1); the running sum is periodic
+	// Each step by the cubic through four samples (fourth order), not a
+	// trapezoid: smooth stretches of torque integrate far more closely, and
+	// at the kinks of valve events it is no worse.
+	at := func(i int) float64 { return torque[((i%m)+m)%m] }
+	acc := 0.0
 	for i := range torque {
-		next := torque[(i+1)%len(torque)]
-		e += h * (2*mean - torque[i] - next) / 2
-		low, high = math.Min(low, e), math.Max(high, e)
+		step := h/2*(at(i)+at(i+1)) - h/24*(at(i+2)-at(i+1)-at(i)+at(i-1))
+		acc += h*mean - step
+		e[i] = acc
 	}
-	return low, high
+	lo, hi := 0, 0
+	for i, v := range e {
+		if v < e[lo] {
+			lo = i
+		}
+		if v > e[hi] {
+			hi = i
+		}
+	}
+	return vertex(e, lo), vertex(e, hi)
+}
+
+// vertex refines the extreme sample e[i] of a smooth periodic series by
+// the parabola through it and its neighbours, so that the extreme is not
+// limited to the sampled angles.
+func vertex(e []float64, i int) float64 {
+	m := len(e)
+	a, b, c := e[(i-1+m)%m], e[i], e[(i+1)%m]
+	curv := a - 2*b + c
+	if curv == 0 {
+		return b
+	}
+	shift := (a - c) / (2 * curv)
+	if math.Abs(shift) > 1 {
+		return b
+	}
+	return b - (c-a)*shift/4
 }
 
 // compressorCurves returns the p-V diagram of one cylinder with its

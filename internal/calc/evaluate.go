@@ -4,9 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"specgen/internal/units"
 )
@@ -194,24 +196,41 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if err != nil {
 		return nil, err
 	}
+	// Blocks of one level depend only on blocks of lower levels, so each
+	// level is evaluated in parallel.
 	failed := map[string]bool{}
-	for _, b := range order {
-		if dependsOnFailed(b, failed) {
-			failed[b.ID] = true
-			continue
+	for _, level := range levels(order) {
+		type outcome struct {
+			e   *Evaluated
+			err error
 		}
-		e, err := evaluateBlock(b, set, opts)
-		if err != nil {
-			var list Errors
-			if errors.As(err, &list) {
-				errs = append(errs, list...)
-			} else {
-				errs = append(errs, &Error{File: b.File, Line: b.Line, Msg: err.Error()})
+		outs := make([]outcome, len(level))
+		var run []int
+		for i, b := range level {
+			if dependsOnFailed(b, failed) {
+				failed[b.ID] = true
+				continue
 			}
-			failed[b.ID] = true
-			continue
+			run = append(run, i)
 		}
-		set.byID[b.ID] = e
+		Parallel(len(run), func(j int) {
+			i := run[j]
+			outs[i].e, outs[i].err = evaluateBlock(level[i], set, opts)
+		})
+		for _, i := range run {
+			b, o := level[i], outs[i]
+			if o.err != nil {
+				var list Errors
+				if errors.As(o.err, &list) {
+					errs = append(errs, list...)
+				} else {
+					errs = append(errs, &Error{File: b.File, Line: b.Line, Msg: o.err.Error()})
+				}
+				failed[b.ID] = true
+				continue
+			}
+			set.byID[b.ID] = o.e
+		}
 	}
 	if err := errs.orNil(); err != nil {
 		return nil, err
@@ -305,6 +324,48 @@ func sortedValueKeys(b *Block) []string {
 	}
 	sort.Strings(keys)
 	return keys
+}
+
+// levels groups blocks in dependency order by depth: a block with no
+// references is on level 0, any other one level above its deepest reference.
+func levels(order []*Block) [][]*Block {
+	depth := map[string]int{}
+	var out [][]*Block
+	for _, b := range order {
+		d := 0
+		for _, v := range b.Values {
+			for _, dep := range v.deps() {
+				d = max(d, depth[dep]+1)
+			}
+		}
+		depth[b.ID] = d
+		for len(out) <= d {
+			out = append(out, nil)
+		}
+		out[d] = append(out[d], b)
+	}
+	return out
+}
+
+// Parallel runs f(0..n-1) on all cores and returns when all are done.
+func Parallel(n int, f func(i int)) {
+	workers := min(runtime.GOMAXPROCS(0), n)
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				f(i)
+			}
+		}()
+	}
+	for i := 0; i < n; i++ {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
 }
 
 // dependencyOrder sorts blocks so that each comes after the blocks it
@@ -486,10 +547,8 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 		}
 		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
 	}
-	for _, r := range out.Results {
-		if math.IsNaN(r.Value) || math.IsInf(r.Value, 0) {
-			return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: result %s is not a finite number with these inputs; check that they describe a real machine", b.ID, r.Name)}}
-		}
+	if bad := nonFinite(out); bad != "" {
+		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
 	}
 	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
@@ -538,4 +597,48 @@ func describeRange(spec InputSpec, unit string, ambient float64, sig int) string
 		return "a finite value"
 	}
 	return strings.Join(parts, " and ")
+}
+
+// nonFinite names the first result, curve or table of out that holds a NaN
+// or an infinity, or returns "".
+func nonFinite(out *Outcome) string {
+	finite := func(vs ...float64) bool {
+		for _, v := range vs {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return false
+			}
+		}
+		return true
+	}
+	for _, r := range out.Results {
+		if !finite(r.Value) {
+			return "result " + r.Name
+		}
+	}
+	for _, c := range out.Curves {
+		if !finite(c.X...) || !finite(c.Y...) {
+			return "a point of its " + c.Name + " curve"
+		}
+	}
+	for _, t := range out.Tables {
+		if !finite(t.XS...) || !finite(t.YS...) {
+			return "a point of its table " + strconv.Quote(t.Title)
+		}
+	}
+	return ""
+}
+
+// givenInputs lists the inputs a block wrote (not the defaults) as
+// name = "text", for messages that blame their combination.
+func givenInputs(in []InputValue) string {
+	var parts []string
+	for _, v := range in {
+		if !v.Default {
+			parts = append(parts, fmt.Sprintf("%s = %q", v.Name, v.Text))
+		}
+	}
+	if len(parts) == 0 {
+		return "(all defaults)"
+	}
+	return strings.Join(parts, ", ")
 }

@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"strings"
+	"sync"
 
 	"github.com/alecthomas/chroma/v2"
 	chromahtml "github.com/alecthomas/chroma/v2/formatters/html"
@@ -63,6 +64,9 @@ func writeCode(w util.BufWriter, lang, code string) {
 	_, _ = w.WriteString("</code></pre></div>\n")
 }
 
+// lexerFor returns the lexer for a fence's language, or nil. Lookups are
+// remembered: chroma falls back to matching a name that is not a lexer's
+// against every lexer's file patterns, which is slow ("sh" is such a name).
 func lexerFor(lang string) chroma.Lexer {
 	if lang == "" {
 		return nil
@@ -70,12 +74,19 @@ func lexerFor(lang string) chroma.Lexer {
 	if lang == "calc" {
 		lang = "toml"
 	}
-	l := lexers.Get(lang)
-	if l == nil {
-		return nil
+	if l, ok := lexerCache.Load(lang); ok {
+		lexer, _ := l.(chroma.Lexer)
+		return lexer
 	}
-	return chroma.Coalesce(l)
+	var lexer chroma.Lexer
+	if l := lexers.Get(lang); l != nil {
+		lexer = chroma.Coalesce(l)
+	}
+	lexerCache.Store(lang, lexer)
+	return lexer
 }
+
+var lexerCache sync.Map // language → chroma.Lexer, or nil for none
 
 // highlightStyle only decides which token classes exist; colours come from
 // the site stylesheet (see SyntaxCSS).

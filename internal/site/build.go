@@ -6,9 +6,7 @@ import (
 	"fmt"
 	"html/template"
 	"path/filepath"
-	"runtime"
 	"strings"
-	"sync"
 
 	"specgen/internal/calc"
 	"specgen/internal/render"
@@ -67,7 +65,7 @@ func Load(root string) (*Site, error) {
 	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML))}
 	s.Pages = make([]*Page, len(rels))
 	errs := make([]error, len(rels))
-	parallel(len(rels), func(i int) {
+	calc.Parallel(len(rels), func(i int) {
 		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md)
 	})
 	if err := collect(errs); err != nil {
@@ -126,7 +124,7 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	}
 	names := sortedKeys(files)
 	errs := make([]error, len(names))
-	parallel(len(names), func(i int) {
+	calc.Parallel(len(names), func(i int) {
 		errs[i] = st.write(names[i], files[names[i]])
 	})
 	if err := collect(errs); err != nil {
@@ -161,7 +159,7 @@ func (s *Site) render() (map[string][]byte, error) {
 	files["results.json"] = results
 	pages := make([]map[string][]byte, len(s.Pages))
 	errs := make([]error, len(s.Pages))
-	parallel(len(s.Pages), func(i int) {
+	calc.Parallel(len(s.Pages), func(i int) {
 		pages[i], errs[i] = s.renderPage(s.Pages[i])
 	})
 	if err := collect(errs); err != nil {
@@ -276,27 +274,6 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 		return ""
 	}
 	return template.HTML(render.StandardCautionHTML())
-}
-
-// parallel runs f(0..n-1) on all cores.
-func parallel(n int, f func(i int)) {
-	workers := min(runtime.GOMAXPROCS(0), n)
-	var wg sync.WaitGroup
-	next := make(chan int)
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range next {
-				f(i)
-			}
-		}()
-	}
-	for i := 0; i < n; i++ {
-		next <- i
-	}
-	close(next)
-	wg.Wait()
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a
