@@ -21,10 +21,16 @@ type FrontMatter struct {
 
 var frontMatterKeys = []string{"description", "order", "template", "title"}
 
+// byteOrderMark is the UTF-8 encoding of U+FEFF, which some editors write
+// at the start of a file.
+const byteOrderMark = "\ufeff"
+
 // splitFrontMatter separates a leading "+++" block from the body. It returns
-// the TOML, the body and the number of file lines before the body.
+// the TOML, the body and the number of file lines before the body. A byte
+// order mark at the start of the file is dropped.
 func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset int, err error) {
 	const fence = "+++"
+	src = bytes.TrimPrefix(src, []byte(byteOrderMark))
 	first, rest, _ := bytes.Cut(src, []byte("\n"))
 	if strings.TrimRight(string(first), "\r \t") != fence {
 		return nil, src, 0, nil

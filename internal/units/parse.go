@@ -2,9 +2,12 @@ package units
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 )
 
 // Parse reads s, a number and a unit ("32 mm", "6 bar(g)", "20 degC"; the
@@ -28,7 +31,7 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	}
 	numText, rest := splitNumber(text)
 	if numText == "" {
-		return Quantity{}, newError(text, notNumber(text))
+		return Quantity{}, newError(text, notNumber(text, want))
 	}
 	if len(rest) > 1 && rest[0] == ',' && isDigit(rest[1]) {
 		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
@@ -109,11 +112,24 @@ func splitNumber(s string) (number, rest string) {
 
 func isDigit(c byte) bool { return '0' <= c && c <= '9' }
 
-// notNumber returns the message for text that does not start with a number.
-func notNumber(text string) string {
+// notNumber returns the message for text that does not start with a number,
+// saying what a number looks like when the text starts with something that
+// only resembles one (full-width or other non-ASCII digits, an invisible
+// character).
+func notNumber(text string, want Dimension) string {
 	t := strings.ToLower(strings.TrimLeft(text, "+-"))
 	if strings.HasPrefix(t, "nan") || strings.HasPrefix(t, "inf") {
 		return ": not a finite number"
 	}
-	return ": not a number"
+	r, _ := utf8.DecodeRuneInString(t)
+	switch {
+	case unicode.IsDigit(r) || unicode.Is(unicode.No, r):
+		return fmt.Sprintf(": not a number; %q is not one of the digits 0-9 (write numbers with ASCII digits)", r)
+	case r >= utf8.RuneSelf && !unicode.IsLetter(r):
+		return fmt.Sprintf(": not a number; it starts with %q, which is not a digit (an invisible or special character?)", r)
+	case want == Dimensionless || want.Examples() == "":
+		return ": not a number"
+	}
+	unit, _, _ := strings.Cut(want.Examples(), ",")
+	return ": not a number; expected " + want.article() + " such as " + strconv.Quote("2 "+unit)
 }
