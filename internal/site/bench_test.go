@@ -199,4 +199,3 @@ func (floorCode) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 		return ast.WalkSkipChildren, nil
 	})
 }
-
