@@ -315,7 +315,7 @@ func printedPart(s *Set) []raised {
 				continue
 			}
 			out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
-				"%s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
+				"The %s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
 				strings.ReplaceAll(key, "_", " "), m.Label)}})
 		}
 	}

@@ -253,14 +253,14 @@ func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
 	word := c.Level.String()
 	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
 		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
-		`<p class="sg-caution-text">` + esc(c.Message) + `</p>`)
+		`<div class="sg-caution-body"><p class="sg-caution-text">` + esc(c.Message) + `</p>`)
 	if c.Acknowledged != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(c.Acknowledged) + `</p>`)
 	}
 	if source != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-source">` + esc(source) + `</p>`)
 	}
-	_, _ = w.WriteString("</aside>\n")
+	_, _ = w.WriteString("</div></aside>\n")
 }
 
 // StandardCautionHTML is the box every page with a pressure calculation

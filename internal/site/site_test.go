@@ -307,3 +307,27 @@ func TestDemoLinksResolve(t *testing.T) {
 		}
 	}
 }
+
+// TestEveryCautionLevel builds testdata/site/cautions, whose blocks raise
+// one caution of each signal word, and checks each box and the
+// acknowledgement reach the page with their words.
+func TestEveryCautionLevel(t *testing.T) {
+	root := buildCopy(t, "cautions")
+	s, err := Load(root)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := len(s.Problems()); n != 0 {
+		t.Errorf("an acknowledged DANGER still counts as a problem (%d)", n)
+	}
+	if _, err := s.Write(Options{}); err != nil {
+		t.Fatal(err)
+	}
+	page, _ := os.ReadFile(filepath.Join(root, DefaultOut, "index.html"))
+	for _, want := range []string{`sg-caution-danger" role="note" aria-label="DANGER"`, `aria-label="WARNING"`, `aria-label="CAUTION"`, `aria-label="NOTICE"`,
+		"<strong>Acknowledged:</strong> a bench demonstration", "licensed practice govern"} {
+		if !strings.Contains(string(page), want) {
+			t.Errorf("page lacks %s", want)
+		}
+	}
+}
