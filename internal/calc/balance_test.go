@@ -1,7 +1,6 @@
 package calc
 
 import (
-	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -122,20 +121,7 @@ func TestBalanceInputErrors(t *testing.T) {
 		{map[string]any{"counterweight_radius": "0 mm"}, "counterweight_radius", []string{"out of range"}},
 	}
 	for _, c := range cases {
-		_, err := evaluateBlocks(t, balanceSite(c.changes))
-		var list Errors
-		if !errors.As(err, &list) || len(list) != 1 {
-			t.Errorf("%v: got %v, want one error", c.changes, err)
-			continue
-		}
-		if list[0].Key != c.key {
-			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
-		}
-		for _, s := range c.says {
-			if !strings.Contains(list[0].Msg, s) {
-				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
-			}
-		}
+		wantInputError(t, c.changes, c.key, c.says, balanceSite)
 	}
 }
 

@@ -1,9 +1,7 @@
 package calc
 
 import (
-	"errors"
 	"math"
-	"strings"
 	"testing"
 )
 
@@ -172,19 +170,6 @@ func TestMotorInputErrors(t *testing.T) {
 		{map[string]any{"crank_radius": "15 mm"}, "stroke", []string{"not both"}},
 	}
 	for _, c := range cases {
-		_, err := evaluateBlocks(t, motorSite(c.changes))
-		var list Errors
-		if !errors.As(err, &list) || len(list) != 1 {
-			t.Errorf("%v: got %v, want one error", c.changes, err)
-			continue
-		}
-		if list[0].Key != c.key {
-			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
-		}
-		for _, s := range c.says {
-			if !strings.Contains(list[0].Msg, s) {
-				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
-			}
-		}
+		wantInputError(t, c.changes, c.key, c.says, motorSite)
 	}
 }

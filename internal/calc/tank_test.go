@@ -2,7 +2,6 @@ package calc
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
 	"math"
 	"path/filepath"
@@ -326,20 +325,7 @@ func TestTankInputErrors(t *testing.T) {
 		{map[string]any{"closed_ends": "false"}, "closed_ends", []string{"material is missing"}},
 	}
 	for _, c := range cases {
-		_, err := evaluateBlocks(t, benchSite(c.changes))
-		var list Errors
-		if !errors.As(err, &list) || len(list) != 1 {
-			t.Errorf("%v: got %v, want one error", c.changes, err)
-			continue
-		}
-		if list[0].Key != c.key {
-			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
-		}
-		for _, s := range c.says {
-			if !strings.Contains(list[0].Msg, s) {
-				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
-			}
-		}
+		wantInputError(t, c.changes, c.key, c.says, benchSite)
 	}
 }
 

@@ -1,10 +1,8 @@
 package calc
 
 import (
-	"errors"
 	"fmt"
 	"math"
-	"strings"
 	"testing"
 )
 
@@ -131,20 +129,7 @@ func TestVacuumInputErrors(t *testing.T) {
 		{map[string]any{"rod_length": "15 mm"}, "rod_length", []string{"crank radius"}},
 	}
 	for _, c := range cases {
-		_, err := evaluateBlocks(t, benchPot(c.changes))
-		var list Errors
-		if !errors.As(err, &list) || len(list) != 1 {
-			t.Errorf("%v: got %v, want one error", c.changes, err)
-			continue
-		}
-		if list[0].Key != c.key {
-			t.Errorf("%v: error blames %q, want %q (%v)", c.changes, list[0].Key, c.key, list[0])
-		}
-		for _, s := range c.says {
-			if !strings.Contains(list[0].Msg, s) {
-				t.Errorf("%v: message %q does not say %q", c.changes, list[0].Msg, s)
-			}
-		}
+		wantInputError(t, c.changes, c.key, c.says, benchPot)
 	}
 }
 

@@ -1,0 +1,28 @@
+package calc
+
+import (
+	"errors"
+	"strings"
+	"testing"
+)
+
+// wantInputError evaluates the blocks site(changes) builds and checks that
+// they fail with exactly one error, on key, whose message says every one
+// of says.
+func wantInputError(t *testing.T, changes map[string]any, key string, says []string, site func(map[string]any) []map[string]any) {
+	t.Helper()
+	_, err := evaluateBlocks(t, site(changes))
+	var list Errors
+	if !errors.As(err, &list) || len(list) != 1 {
+		t.Errorf("%v: got %v, want one error", changes, err)
+		return
+	}
+	if list[0].Key != key {
+		t.Errorf("%v: error blames %q, want %q (%v)", changes, list[0].Key, key, list[0])
+	}
+	for _, s := range says {
+		if !strings.Contains(list[0].Msg, s) {
+			t.Errorf("%v: message %q does not say %q", changes, list[0].Msg, s)
+		}
+	}
+}
