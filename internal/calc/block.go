@@ -69,6 +69,14 @@ type Output struct {
 // Common keys every block takes besides its kind's inputs.
 var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
 
+// Limits on one block, far above any real block, so that a runaway or
+// generated block fails quickly with one clear message.
+const (
+	MaxBlockLines  = 10000
+	MaxBlockBytes  = 1 << 20
+	MaxBlockErrors = 20 // errors reported per block; the rest are counted
+)
+
 // DefaultAmbient is the ambient pressure when a block names none (1 atm).
 const DefaultAmbient = 101325.0
 
@@ -81,6 +89,9 @@ var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]
 // messages: TOML line k is file line fenceLine+k.
 func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}}
+	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
+		return nil, Errors{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
+	}
 	var raw map[string]any
 	if _, err := toml.Decode(src, &raw); err != nil {
 		return nil, b.tomlError(err)
@@ -179,10 +190,20 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, takes(in))})
 		}
 	}
-	if err := errs.orNil(); err != nil {
+	if err := errs.capped(MaxBlockErrors).orNil(); err != nil {
 		return nil, err
 	}
 	return b, nil
+}
+
+// lineCount is the number of lines of src, a last line without a newline
+// included.
+func lineCount(src string) int {
+	n := strings.Count(src, "\n")
+	if src != "" && !strings.HasSuffix(src, "\n") {
+		n++
+	}
+	return n
 }
 
 // decodeValue reads one input: a quantity string, a plain number (only for

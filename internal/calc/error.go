@@ -49,3 +49,15 @@ func (l Errors) orNil() error {
 	})
 	return l
 }
+
+// capped keeps the first n problems, by place, and replaces the rest with
+// one that counts them.
+func (l Errors) capped(n int) Errors {
+	if len(l) <= n {
+		return l
+	}
+	_ = l.orNil()
+	rest := len(l) - n
+	last := l[n-1]
+	return append(l[:n:n], &Error{File: last.File, Line: last.Line, Msg: fmt.Sprintf("... and %d more problems in this block, not shown", rest)})
+}

@@ -85,6 +85,9 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	switch {
 	case tol == "" && c.Op == OpAbout:
 		c.Tolerance = halfLastDigit(num)
+		if math.IsInf(c.Tolerance, 0) {
+			return bad("has an exponent too large to tell its precision; write the number with a smaller exponent and a tolerance")
+		}
 	case strings.HasSuffix(tol, "%"):
 		f, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(tol, "%")), 64)
 		if err != nil || f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
