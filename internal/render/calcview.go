@@ -112,7 +112,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 		ws("</div>\n")
 	}
 	ws(`<details class="sg-calc-source"><summary>Block source</summary>`, "\n")
-	writeCode(w, "toml", source)
+	writeBlockSource(w, source)
 	ws("</details>\n</section>\n")
 }
 

@@ -99,3 +99,18 @@ func BenchmarkRenderCalcBlock(b *testing.B) {
 		WriteCalcBlock(w, e, stageBlock, nil)
 	}
 }
+
+func TestBlockSourceHighlighting(t *testing.T) {
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	writeBlockSource(w, "id = \"a<b\" # note\r\n[expect]\nn = 1.3\nok = true\nlist = [\"x\", 'y']\n")
+	_ = w.Flush()
+	want := `<span class="hl-nx">id </span><span class="hl-p">=</span> <span class="hl-s2">&#34;a&lt;b&#34;</span> <span class="hl-c1"># note</span>` + "\r\n" +
+		`<span class="hl-kt">[expect]</span>` + "\n" +
+		`<span class="hl-nx">n </span><span class="hl-p">=</span> <span class="hl-m">1.3</span>` + "\n" +
+		`<span class="hl-nx">ok </span><span class="hl-p">=</span> <span class="hl-kc">true</span>` + "\n" +
+		`<span class="hl-nx">list </span><span class="hl-p">=</span> <span class="hl-p">[</span><span class="hl-s2">&#34;x&#34;</span><span class="hl-p">,</span> <span class="hl-s2">&#39;y&#39;</span><span class="hl-p">]</span>` + "\n"
+	if got := buf.String(); !strings.Contains(got, want) {
+		t.Errorf("got\n%s\nwant it to hold\n%s", got, want)
+	}
+}
