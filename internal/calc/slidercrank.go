@@ -60,6 +60,9 @@ type indicatorCycle struct {
 	ambient   float64 // crankcase pressure behind the piston, Pa absolute
 	bottom    float64 // volume at bottom dead centre, m3
 	top       float64 // pressure at TDC: p2, or the dead-head pressure when lower
+	// Volumes where re-expansion reaches p1 and compression reaches p2:
+	// beyond them the pressure is flat and needs no power law.
+	suctionFrom, deliveryFrom float64
 }
 
 // newIndicatorCycle completes c with its volume at bottom dead centre and
@@ -67,6 +70,8 @@ type indicatorCycle struct {
 func newIndicatorCycle(c indicatorCycle) *indicatorCycle {
 	c.bottom = c.clearance + 2*c.crank.r*c.area
 	c.top = math.Min(c.p2, c.p1*math.Pow(c.bottom/c.clearance, c.n))
+	c.suctionFrom = c.clearance * math.Pow(c.top/c.p1, 1/c.n)
+	c.deliveryFrom = c.bottom * math.Pow(c.p1/c.p2, 1/c.n)
 	return &c
 }
 
@@ -80,7 +85,13 @@ func (c *indicatorCycle) volume(theta float64) float64 {
 func (c *indicatorCycle) pressure(theta float64) float64 {
 	v := c.volume(theta)
 	if math.Mod(theta, 2*math.Pi) <= math.Pi {
+		if v >= c.suctionFrom {
+			return c.p1
+		}
 		return math.Max(c.top*math.Pow(c.clearance/v, c.n), c.p1)
+	}
+	if v <= c.deliveryFrom {
+		return c.p2
 	}
 	return math.Min(c.p1*math.Pow(c.bottom/v, c.n), c.p2)
 }
