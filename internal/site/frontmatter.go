@@ -56,6 +56,9 @@ func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset i
 // wrong types are errors that name the line.
 func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []byte, int, error) {
 	var fm FrontMatter
+	if err := checkPageLimits(file, src); err != nil {
+		return fm, nil, nil, 0, err
+	}
 	head, body, offset, err := splitFrontMatter(file, src)
 	if err != nil || head == nil {
 		return fm, nil, body, offset, err
@@ -98,4 +101,65 @@ func tomlError(file string, base int, text string, err error, what string) error
 		return &Error{File: file, Line: base + line, Msg: what + ": " + msg}
 	}
 	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
+}
+
+// Limits on one page, far above any hand-written page. Markdown parsing
+// time grows with the square of the nesting depth, so a page of thousands
+// of nested quotes or list markers would stall a build (and a preview).
+const (
+	MaxPageBytes   = 2 << 20
+	MaxPageNesting = 32 // quote and list levels opening one line
+)
+
+// checkPageLimits refuses a page that is too large or nests too deeply.
+func checkPageLimits(file string, src []byte) error {
+	if len(src) > MaxPageBytes {
+		return &Error{File: file, Line: 1, Msg: fmt.Sprintf("the page is %d bytes; allowed: up to %d bytes (%d MiB); split it into several pages", len(src), MaxPageBytes, MaxPageBytes>>20)}
+	}
+	line := 1
+	for rest := src; len(rest) > 0; line++ {
+		var l []byte
+		l, rest, _ = bytes.Cut(rest, []byte("\n"))
+		if depth := nesting(l); depth > MaxPageNesting {
+			return &Error{File: file, Line: line, Msg: fmt.Sprintf("this line opens %d levels of quotes or lists; allowed: up to %d levels of nesting", depth, MaxPageNesting)}
+		}
+	}
+	return nil
+}
+
+// nesting estimates the levels of quotes and lists that open a line: each
+// block-quote marker (">") and list marker ("-", "*", "+", "1." or "1)"
+// followed by a space) counts one, and the indentation before a marker one
+// per two columns, the least a nested list item is indented by.
+func nesting(line []byte) int {
+	depth, indent := 0, 0
+	for i := 0; i < len(line); {
+		switch c := line[i]; {
+		case c == ' ':
+			indent++
+			i++
+		case c == '\t':
+			indent += 4
+			i++
+		case c == '>':
+			depth, indent = depth+1, 0
+			i++
+		case (c == '-' || c == '*' || c == '+') && i+1 < len(line) && (line[i+1] == ' ' || line[i+1] == '\t'):
+			depth, indent = depth+1+indent/2, 0
+			i += 2
+		case c >= '0' && c <= '9':
+			j := i
+			for j < len(line) && j-i < 9 && line[j] >= '0' && line[j] <= '9' {
+				j++
+			}
+			if j+1 >= len(line) || (line[j] != '.' && line[j] != ')') || (line[j+1] != ' ' && line[j+1] != '\t') {
+				return depth
+			}
+			depth, indent = depth+1+indent/2, 0
+			i = j + 2
+		default:
+			return depth
+		}
+	}
+	return depth
 }

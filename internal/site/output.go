@@ -28,9 +28,9 @@ func checkOutputDir(root, out string) error {
 		return bad("it is the site root")
 	case within(rootReal, outReal):
 		return bad("it lies above the site root")
-	case within(outReal, filepath.Join(rootReal, ContentDir)),
-		within(outReal, filepath.Join(rootReal, TemplatesDir)),
-		within(outReal, filepath.Join(rootReal, StaticDir)):
+	case inOrIs(outReal, filepath.Join(rootReal, ContentDir)),
+		inOrIs(outReal, filepath.Join(rootReal, TemplatesDir)),
+		inOrIs(outReal, filepath.Join(rootReal, StaticDir)):
 		return bad("it lies inside the site's sources")
 	}
 	if _, err := os.Stat(filepath.Join(out, ContentDir)); err == nil {
@@ -63,6 +63,9 @@ func within(path, dir string) bool {
 	rel, err := filepath.Rel(dir, path)
 	return err == nil && rel != "." && rel != ".." && !strings.HasPrefix(rel, ".."+string(filepath.Separator))
 }
+
+// inOrIs reports whether path is dir or lies inside it.
+func inOrIs(path, dir string) bool { return path == realPath(dir) || within(path, realPath(dir)) }
 
 // realPath resolves symbolic links as far as the path exists.
 func realPath(p string) string {

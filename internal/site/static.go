@@ -26,13 +26,17 @@ func readStatic(root string) (map[string][]byte, error) {
 			return err
 		}
 		rel = filepath.ToSlash(rel)
+		name := StaticDir + "/" + rel
+		if rel == "." {
+			name = StaticDir + "/"
+		}
 		switch {
 		case d.Type()&fs.ModeSymlink != 0:
-			return &Error{File: StaticDir + "/" + rel, Msg: "is a symbolic link; static/ holds plain files only, so nothing outside the site root is published by accident"}
+			return &Error{File: name, Msg: "is a symbolic link; static/ holds plain files only, so nothing outside the site root is published by accident"}
 		case d.IsDir():
 			return nil
 		case rel == OutputMarker || strings.HasPrefix(rel, ".specgen"):
-			return &Error{File: StaticDir + "/" + rel, Msg: "this name is reserved for specgen's own files"}
+			return &Error{File: name, Msg: "this name is reserved for specgen's own files"}
 		}
 		b, err := os.ReadFile(p)
 		files[rel] = b
