@@ -115,29 +115,39 @@ func report(stderr io.Writer, err error) int {
 }
 
 func runBuild(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("build", "build [-C dir] [-out dir] [-strict]", stderr)
+	fs := newFlags("build", "build [-C dir] [-out dir] [-strict] [-quiet]", stderr)
 	dir := fs.String("C", ".", "site root: the folder holding content/")
 	out := fs.String("out", site.DefaultOut, "output folder, relative to the site root")
 	strict := fs.Bool("strict", false, "fail like check, writing nothing, when a claim fails or a DANGER caution is raised")
+	quiet := fs.Bool("quiet", false, "print nothing but errors and problems")
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
-	s, err := site.Load(*dir)
+	opts := site.Options{Out: *out, Strict: *strict}
+	var prog *progress
+	if !*quiet {
+		prog = newProgress(stderr)
+		opts.Progress = prog.update
+	}
+	sum, err := site.Build(*dir, opts)
+	if prog != nil {
+		prog.done()
+	}
 	if err != nil {
 		return report(stderr, err)
 	}
-	problems := s.Problems()
-	if *strict && len(problems) > 0 {
-		printProblems(stderr, problems)
-		fmt.Fprintf(stderr, "build -strict: %d problems; nothing written\n", len(problems))
+	printProblems(stderr, sum.Problems)
+	if !sum.Written {
+		fmt.Fprintf(stderr, "build -strict: %s; nothing written\n", count(len(sum.Problems), "problem"))
 		return exitFailed
 	}
-	sum, err := s.Write(site.Options{Out: *out})
-	if err != nil {
-		return report(stderr, err)
+	if !*quiet {
+		verb := "built"
+		if sum.UpToDate {
+			verb = "up to date:"
+		}
+		fmt.Fprintf(stdout, "%s %d pages in %s\n", verb, sum.Pages, sum.Out)
 	}
-	printProblems(stderr, problems)
-	fmt.Fprintf(stdout, "built %d pages into %s\n", sum.Pages, sum.Out)
 	return exitOK
 }
 

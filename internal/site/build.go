@@ -7,6 +7,7 @@ import (
 	"html/template"
 	"path/filepath"
 	"strings"
+	"sync/atomic"
 
 	"specgen/internal/calc"
 	"specgen/internal/render"
@@ -21,12 +22,23 @@ const DefaultOut = "dist"
 // Options are the settings of one build.
 type Options struct {
 	Out string // output folder; relative paths are taken from the site root
+	// Strict writes nothing when a claim fails or a DANGER caution is not
+	// acknowledged.
+	Strict bool
+	// Progress, when set, hears how far the build is: a stage ("pages
+	// read", "blocks evaluated", "pages rendered", "charts drawn", "files
+	// written") and a count of total. It may be called from several
+	// goroutines at once.
+	Progress func(stage string, done, total int)
 }
 
-// Summary tells what a build wrote.
+// Summary tells what a build did.
 type Summary struct {
-	Out   string // absolute output folder
-	Pages int
+	Out      string // absolute output folder
+	Pages    int
+	Problems []Problem // failed claims and unacknowledged DANGER cautions
+	Written  bool      // false when Strict refused to write
+	UpToDate bool      // nothing had changed since the last build: nothing was redone
 }
 
 // Site is a loaded site: configuration, layouts and parsed pages.
@@ -42,6 +54,10 @@ type Site struct {
 	Calc      *calc.Set
 	blockPage map[string]*Page // block id → the page that holds it
 	revision  *Revision
+	// progress hears of charts drawn during render; charts counts them.
+	progress    func(stage string, done, total int)
+	charts      atomic.Int64
+	chartsTotal int
 }
 
 // Load reads a site root: configuration, templates and every page.
@@ -92,29 +108,66 @@ func Load(root string) (*Site, error) {
 }
 
 // Build loads the site at root and writes it to the output folder. The
-// previous output stays untouched unless the whole build succeeds.
+// previous output stays untouched unless the whole build succeeds. When
+// nothing the build reads has changed since the last build into the same
+// folder, and that output is as it was left, nothing is redone.
 func Build(root string, opts Options) (*Summary, error) {
+	root, err := filepath.Abs(root)
+	if err != nil {
+		return nil, err
+	}
+	out := outputPath(root, opts.Out)
+	if err := checkOutputDir(root, out); err != nil {
+		return nil, err
+	}
+	fp, fpErr := fingerprint(root, out)
+	if fpErr == nil {
+		if m, ok := upToDate(root, out, fp); ok {
+			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, UpToDate: true,
+				Written: !opts.Strict || len(m.Problems) == 0}, nil
+		}
+	}
 	s, err := Load(root)
 	if err != nil {
 		return nil, err
 	}
-	return s.Write(opts)
+	if opts.Progress != nil {
+		opts.Progress("pages read", len(s.Pages), len(s.Pages))
+		opts.Progress("blocks evaluated", len(s.Calc.Blocks), len(s.Calc.Blocks))
+	}
+	problems := s.Problems()
+	if opts.Strict && len(problems) > 0 {
+		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems}, nil
+	}
+	sum, err := s.Write(opts)
+	if err != nil {
+		return nil, err
+	}
+	sum.Problems = problems
+	if fpErr == nil {
+		remember(root, out, fp, sum.Pages, problems)
+	}
+	return sum, nil
 }
 
-// Write renders every page and swaps the finished output into place.
-func (s *Site) Write(opts Options) (*Summary, error) {
-	out := opts.Out
+// outputPath resolves the output folder against the site root.
+func outputPath(root, out string) string {
 	if out == "" {
 		out = DefaultOut
 	}
 	if !filepath.IsAbs(out) {
-		out = filepath.Join(s.Root, out)
+		out = filepath.Join(root, out)
 	}
-	out = filepath.Clean(out)
+	return filepath.Clean(out)
+}
+
+// Write renders every page and swaps the finished output into place.
+func (s *Site) Write(opts Options) (*Summary, error) {
+	out := outputPath(s.Root, opts.Out)
 	if err := checkOutputDir(s.Root, out); err != nil {
 		return nil, err
 	}
-	files, err := s.render()
+	files, err := s.render(opts.Progress)
 	if err != nil {
 		return nil, err
 	}
@@ -124,8 +177,12 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	}
 	names := sortedKeys(files)
 	errs := make([]error, len(names))
+	var written atomic.Int64
 	calc.Parallel(len(names), func(i int) {
 		errs[i] = st.write(names[i], files[names[i]])
+		if n := written.Add(1); opts.Progress != nil {
+			opts.Progress("files written", int(n), len(names))
+		}
 	})
 	if err := collect(errs); err != nil {
 		st.abandon()
@@ -135,11 +192,12 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 		st.abandon()
 		return nil, err
 	}
-	return &Summary{Out: out, Pages: len(s.Pages)}, nil
+	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil
 }
 
 // render produces every output file in memory, keyed by output path.
-func (s *Site) render() (map[string][]byte, error) {
+// progress, if not nil, hears of each page rendered.
+func (s *Site) render(progress func(stage string, done, total int)) (map[string][]byte, error) {
 	files := map[string][]byte{}
 	static, err := readStatic(s.Root)
 	if err != nil {
@@ -159,8 +217,13 @@ func (s *Site) render() (map[string][]byte, error) {
 	files["results.json"] = results
 	pages := make([]map[string][]byte, len(s.Pages))
 	errs := make([]error, len(s.Pages))
+	s.progress = progress
+	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		pages[i], errs[i] = s.renderPage(s.Pages[i])
+		if n := rendered.Add(1); progress != nil {
+			progress("pages rendered", int(n), len(s.Pages))
+		}
 	})
 	if err := collect(errs); err != nil {
 		return nil, err

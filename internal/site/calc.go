@@ -78,6 +78,14 @@ func (s *Site) evaluate() error {
 			pb.node.Eval, _ = set.Lookup(pb.block.ID)
 		}
 	}
+	for _, p := range s.Pages {
+		for _, pb := range p.blocks {
+			s.chartsTotal += len(pb.block.Show.Charts)
+		}
+		for _, cr := range p.Doc.ChartRefs() {
+			s.chartsTotal += len(cr.Names)
+		}
+	}
 	items := s.cautionItems()
 	for _, p := range s.Pages {
 		for _, list := range p.Doc.CautionLists() {
@@ -266,6 +274,7 @@ func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
 			}
 			pb.node.Charts = append(pb.node.Charts, d)
 			out[csvName] = d.CSV
+			s.chartDrawn()
 		}
 	}
 	for _, cr := range p.Doc.ChartRefs() {
@@ -284,9 +293,17 @@ func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
 			}
 			cr.Charts = append(cr.Charts, d)
 			out[csvName] = d.CSV
+			s.chartDrawn()
 		}
 	}
 	return nil
+}
+
+// chartDrawn counts a chart for the progress display.
+func (s *Site) chartDrawn() {
+	if n := s.charts.Add(1); s.progress != nil {
+		s.progress("charts drawn", int(n), s.chartsTotal)
+	}
 }
 
 // relativeURL is the link from output page from to output page to.

@@ -46,7 +46,7 @@ func (p *Preview) rebuild() {
 	var files map[string][]byte
 	s, err := Load(p.root)
 	if err == nil {
-		files, err = s.render()
+		files, err = s.render(nil)
 	}
 	p.mu.Lock()
 	if err == nil {
