@@ -6,6 +6,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"regexp"
 	"sort"
 	"strings"
 
@@ -47,6 +48,9 @@ type MarkdownConfig struct {
 var configKeys = []string{"description", "markdown", "markdown.raw_html", "materials", "safety", "safety.minimum_factor",
 	"safety.minimum_factor_metal", "safety.minimum_factor_plastic", "sig_figs", "title"}
 
+// materialName is what a material added in specgen.toml may be called.
+var materialName = regexp.MustCompile(`^[a-z0-9][a-z0-9._-]*$`)
+
 // DefaultConfig is the configuration of a site without specgen.toml.
 func DefaultConfig() Config {
 	return Config{Title: "Build documentation", SigFigs: 3, env: calc.DefaultEnv()}
@@ -81,7 +85,15 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 		}
 	}
 	env.Safety = safety
-	if len(cfg.Materials) > 0 {
+	badName := false
+	for _, name := range sortedKeys(cfg.Materials) {
+		if !materialName.MatchString(name) {
+			badName = true
+			errs = append(errs, &Error{File: ConfigFile, Line: lines["materials."+name],
+				Msg: fmt.Sprintf("materials: %q is not allowed as a material name; a name is lower-case letters, digits, '-', '_' and '.', starting with a letter or digit (put free text in label)", name)})
+		}
+	}
+	if len(cfg.Materials) > 0 && !badName {
 		base, err := calc.DefaultMaterials()
 		if err != nil {
 			return env, append(errs, &Error{Msg: err.Error()})
