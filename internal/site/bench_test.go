@@ -25,9 +25,10 @@ import (
 )
 
 // WriteBenchSite writes a site of n pages shaped like real documentation:
-// folders of twenty pages with headings, lists, a table, links, code in
-// several languages and, on four pages in five, a calculation block with
-// claims and inline values; one page in twenty draws a chart.
+// parts of ten sections of twenty pages, each page with headings, lists, a
+// table, links, code in several languages and, on four pages in five, a
+// calculation block with claims and inline values; one page in twenty
+// draws a chart.
 func WriteBenchSite(tb testing.TB, root string, n int) {
 	tb.Helper()
 	langs := []struct{ lang, code string }{
@@ -37,7 +38,7 @@ func WriteBenchSite(tb testing.TB, root string, n int) {
 		{"toml", "[switch]\ncut_in = \"6 bar\"\ncut_out = \"8 bar\"\n"},
 	}
 	for i := 0; i < n; i++ {
-		dir := filepath.Join(root, "content", fmt.Sprintf("section-%02d", i/20))
+		dir := filepath.Join(root, "content", fmt.Sprintf("part-%02d", i/200), fmt.Sprintf("section-%02d", i/20%10))
 		if err := os.MkdirAll(dir, 0o755); err != nil {
 			tb.Fatal(err)
 		}
@@ -75,6 +76,12 @@ func WriteBenchSite(tb testing.TB, root string, n int) {
 			tb.Fatal(err)
 		}
 	}
+	for part := 0; part*200 < n; part++ {
+		index := filepath.Join(root, "content", fmt.Sprintf("part-%02d", part), "index.md")
+		if err := os.WriteFile(index, []byte(fmt.Sprintf("# Part %d\n\nTen sections of the build.\n", part)), 0o644); err != nil {
+			tb.Fatal(err)
+		}
+	}
 	if err := os.WriteFile(filepath.Join(root, "content", "index.md"), []byte("# Bench site\n"), 0o644); err != nil {
 		tb.Fatal(err)
 	}
@@ -102,7 +109,12 @@ func benchBuild(b *testing.B, pages int) {
 	WriteBenchSite(b, root, pages)
 	b.ReportAllocs()
 	for b.Loop() {
-		if _, err := Build(root, Options{}); err != nil {
+		// Load and Write: a cold build, never the cache's shortcut.
+		s, err := Load(root)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := s.Write(Options{}); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -7,6 +7,7 @@ import (
 	"html/template"
 	"path/filepath"
 	"strings"
+	"sync"
 	"sync/atomic"
 
 	"specgen/internal/calc"
@@ -26,8 +27,8 @@ type Options struct {
 	// acknowledged.
 	Strict bool
 	// Progress, when set, hears how far the build is: a stage ("pages
-	// read", "blocks evaluated", "pages rendered", "charts drawn", "files
-	// written") and a count of total. It may be called from several
+	// read", "blocks evaluated", "pages rendered", "charts drawn") and a
+	// count of total. It may be called from several
 	// goroutines at once.
 	Progress func(stage string, done, total int)
 }
@@ -167,24 +168,12 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	if err := checkOutputDir(s.Root, out); err != nil {
 		return nil, err
 	}
-	files, err := s.render(opts.Progress)
-	if err != nil {
-		return nil, err
-	}
 	st, err := newStaging(out)
 	if err != nil {
 		return nil, err
 	}
-	names := sortedKeys(files)
-	errs := make([]error, len(names))
-	var written atomic.Int64
-	calc.Parallel(len(names), func(i int) {
-		errs[i] = st.write(names[i], files[names[i]])
-		if n := written.Add(1); opts.Progress != nil {
-			opts.Progress("files written", int(n), len(names))
-		}
-	})
-	if err := collect(errs); err != nil {
+	err = s.emit(st.write, opts.Progress)
+	if err != nil {
 		st.abandon()
 		return nil, err
 	}
@@ -195,52 +184,83 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil
 }
 
-// render produces every output file in memory, keyed by output path.
-// progress, if not nil, hears of each page rendered.
+// render produces every output file in memory, keyed by output path, for
+// the preview.
 func (s *Site) render(progress func(stage string, done, total int)) (map[string][]byte, error) {
 	files := map[string][]byte{}
+	var mu sync.Mutex
+	err := s.emit(func(name string, data []byte) error {
+		mu.Lock()
+		files[name] = data
+		mu.Unlock()
+		return nil
+	}, progress)
+	return files, err
+}
+
+// emit hands every output file to put, pages as soon as each is rendered,
+// so that a big site is never held in memory whole. put may be called from
+// several goroutines. Two files with one name are an error.
+func (s *Site) emit(put func(name string, data []byte) error, progress func(stage string, done, total int)) error {
 	static, err := readStatic(s.Root)
 	if err != nil {
-		return nil, err
+		return err
 	}
-	for name, data := range static {
-		files[name] = data
-	}
-	for name, data := range s.layouts.assets {
-		files["assets/"+name] = data
-	}
-	files["assets/syntax.css"] = render.SyntaxCSS()
 	results, err := s.resultsJSON()
 	if err != nil {
-		return nil, err
+		return err
 	}
-	files["results.json"] = results
-	pages := make([]map[string][]byte, len(s.Pages))
+	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS(), "results.json": results}
+	for name, data := range s.layouts.assets {
+		fixed["assets/"+name] = data
+	}
+	for name, data := range static {
+		fixed[name] = data
+	}
+	taken := map[string]bool{}
+	for _, name := range sortedKeys(fixed) {
+		taken[name] = true
+		if err := put(name, fixed[name]); err != nil {
+			return err
+		}
+	}
+	var mu sync.Mutex
+	claim := func(p *Page, name string) error {
+		mu.Lock()
+		defer mu.Unlock()
+		if taken[name] {
+			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with a file of the same name in static/, the assets or another page", name)}
+		}
+		taken[name] = true
+		return nil
+	}
 	errs := make([]error, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
-		pages[i], errs[i] = s.renderPage(s.Pages[i])
+		p := s.Pages[i]
+		files, err := s.renderPage(p)
+		// The page's syntax tree is done with; a big site should not keep it.
+		p.Doc = nil
+		if err != nil {
+			errs[i] = err
+			return
+		}
+		for _, name := range sortedKeys(files) {
+			if err := claim(p, name); err != nil {
+				errs[i] = err
+				return
+			}
+			if err := put(name, files[name]); err != nil {
+				errs[i] = err
+				return
+			}
+		}
 		if n := rendered.Add(1); progress != nil {
 			progress("pages rendered", int(n), len(s.Pages))
 		}
 	})
-	if err := collect(errs); err != nil {
-		return nil, err
-	}
-	var clashes ErrorList
-	for i, p := range s.Pages {
-		for _, name := range sortedKeys(pages[i]) {
-			if _, ok := files[name]; ok {
-				clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with a file of the same name in static/, the assets or another page", name)})
-			}
-			files[name] = pages[i][name]
-		}
-	}
-	if err := clashes.sorted(); err != nil {
-		return nil, err
-	}
-	return files, nil
+	return collect(errs)
 }
 
 // PageData is what a page template receives.

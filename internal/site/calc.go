@@ -78,12 +78,23 @@ func (s *Site) evaluate() error {
 			pb.node.Eval, _ = set.Lookup(pb.block.ID)
 		}
 	}
+	charted := map[string]bool{}
 	for _, p := range s.Pages {
 		for _, pb := range p.blocks {
 			s.chartsTotal += len(pb.block.Show.Charts)
+			charted[pb.block.ID] = charted[pb.block.ID] || len(pb.block.Show.Charts) > 0
 		}
 		for _, cr := range p.Doc.ChartRefs() {
 			s.chartsTotal += len(cr.Names)
+			for _, n := range cr.Names {
+				charted[n.Block] = true
+			}
+		}
+	}
+	// Curves are only drawn from now on: a big site keeps those it charts.
+	for _, e := range set.Blocks {
+		if !charted[e.Block.ID] {
+			e.Curves = nil
 		}
 	}
 	items := s.cautionItems()

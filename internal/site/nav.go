@@ -100,11 +100,12 @@ type Link struct {
 	URL   string
 }
 
-// navFor returns the navigation as seen from page p: the top level always,
-// and the contents of the folders that lead to p.
+// navFor returns the navigation as seen from page p: the top level, and
+// the contents of the folders that lead to p. Other folders stay closed, so
+// that a page's navigation grows with the depth of the site, not its size.
 func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
-	var items func(n *navNode, depth int) []NavItem
-	items = func(n *navNode, depth int) []NavItem {
+	var items func(n *navNode) []NavItem
+	items = func(n *navNode) []NavItem {
 		out := make([]NavItem, 0, len(n.Children))
 		for _, c := range n.Children {
 			it := NavItem{Title: c.title(), Folder: c.isFolder()}
@@ -114,15 +115,15 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 			}
 			if it.Folder {
 				it.Open = p.Dir() == c.Dir || strings.HasPrefix(p.Dir(), c.Dir+"/")
-				if it.Open || depth == 0 && len(c.Children) <= 12 {
-					it.Children = items(c, depth+1)
+				if it.Open {
+					it.Children = items(c)
 				}
 			}
 			out = append(out, it)
 		}
 		return out
 	}
-	top := items(root, 0)
+	top := items(root)
 	if root.Page != nil {
 		home := NavItem{Title: root.Page.Title, URL: rootPrefix + root.Page.Out, Current: root.Page == p}
 		top = append([]NavItem{home}, top...)
