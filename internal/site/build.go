@@ -53,7 +53,8 @@ type Site struct {
 	layouts *layouts
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
-	blockPage map[string]*Page // block id → the page that holds it
+	blockPage map[string]*Page     // block id → the page that holds it
+	cautions  []render.CautionItem // every caution of the site, for caution lists
 	revision  *Revision
 	// progress hears of charts drawn during render; charts counts them.
 	progress    func(stage string, done, total int)
@@ -240,8 +241,6 @@ func (s *Site) emit(put func(name string, data []byte) error, progress func(stag
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
 		files, err := s.renderPage(p)
-		// The page's syntax tree is done with; a big site should not keep it.
-		p.Doc = nil
 		if err != nil {
 			errs[i] = err
 			return
@@ -303,10 +302,13 @@ type PageInfo struct {
 // files beside it, keyed by output path.
 func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	out := map[string][]byte{}
-	if err := s.drawCharts(p, out); err != nil {
+	doc := s.md.Parse(p.body, p.lineOffset)
+	doc.TakeTitle()
+	s.attach(p, doc)
+	if err := s.drawCharts(p, doc, out); err != nil {
 		return nil, err
 	}
-	body, err := s.md.Render(p.Doc)
+	body, err := s.md.Render(doc)
 	if err != nil {
 		return nil, &Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
@@ -320,10 +322,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 			Source:      p.File,
 			URL:         p.Out,
 			Content:     template.HTML(body),
-			TOCCount:    len(p.Doc.Headings(3)),
+			TOCCount:    len(doc.Headings(3)),
 			Caution:     s.standardCaution(p),
 			Cautions:    s.pageCautions(p),
-			TOC:         render.Nest(p.Doc.Headings(3)),
+			TOC:         render.Nest(doc.Headings(3)),
 		},
 		Root:        rootPrefix,
 		Nav:         navFor(s.nav, p, rootPrefix),

@@ -14,22 +14,39 @@ import (
 	"specgen/internal/render"
 )
 
-// pageBlock ties a decoded block to its node in a page.
-type pageBlock struct {
-	block *calc.Block
-	node  *render.CalcBlock
+// valueRef is an inline value of a page, as written, with its file line.
+type valueRef struct {
+	Block, Result, Unit string
+	Line                int
 }
 
-// parseBlocks decodes the calculation blocks of a page.
-func parseBlocks(p *Page) error {
+// chartName is a line of a chart fence, with its file line.
+type chartName struct {
+	render.ChartName
+	Line int
+}
+
+// readDoc takes what the build needs from a page's syntax tree: its
+// calculation blocks (decoded), its inline values and its chart fences.
+// The tree itself is not kept; it is parsed again when the page is
+// rendered, so that a big site is never held in memory whole.
+func readDoc(p *Page, doc *render.Document) error {
 	var errs ErrorList
-	for _, n := range p.Doc.CalcBlocks() {
-		b, err := calc.ParseBlock(p.File, n.FenceLine+p.Doc.LineOffset, n.Source)
+	for _, n := range doc.CalcBlocks() {
+		b, err := calc.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, fromCalc(err)...)
 			continue
 		}
-		p.blocks = append(p.blocks, pageBlock{block: b, node: n})
+		p.blocks = append(p.blocks, b)
+	}
+	for _, r := range doc.ValueRefs() {
+		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit, Line: doc.Line(r.Offset)})
+	}
+	for _, cr := range doc.ChartRefs() {
+		for _, n := range cr.Names {
+			p.charts = append(p.charts, chartName{ChartName: n, Line: n.Line + doc.LineOffset})
+		}
 	}
 	return errs.sorted()
 }
@@ -55,16 +72,16 @@ func fromCalc(err error) ErrorList {
 	return ErrorList{{Msg: err.Error()}}
 }
 
-// evaluate runs every block of the site, then resolves the value
-// references of every page.
+// evaluate runs every block of the site, then checks the value
+// references and chart fences of every page.
 func (s *Site) evaluate() error {
 	var blocks []*calc.Block
 	s.blockPage = map[string]*Page{}
 	for _, p := range s.Pages {
-		for _, pb := range p.blocks {
-			blocks = append(blocks, pb.block)
-			if _, dup := s.blockPage[pb.block.ID]; !dup {
-				s.blockPage[pb.block.ID] = p
+		for _, b := range p.blocks {
+			blocks = append(blocks, b)
+			if _, dup := s.blockPage[b.ID]; !dup {
+				s.blockPage[b.ID] = p
 			}
 		}
 	}
@@ -73,21 +90,23 @@ func (s *Site) evaluate() error {
 		return fromCalc(err).sorted()
 	}
 	s.Calc = set
-	for _, p := range s.Pages {
-		for _, pb := range p.blocks {
-			pb.node.Eval, _ = set.Lookup(pb.block.ID)
-		}
-	}
 	charted := map[string]bool{}
+	var errs ErrorList
 	for _, p := range s.Pages {
-		for _, pb := range p.blocks {
-			s.chartsTotal += len(pb.block.Show.Charts)
-			charted[pb.block.ID] = charted[pb.block.ID] || len(pb.block.Show.Charts) > 0
+		for _, b := range p.blocks {
+			s.chartsTotal += len(b.Show.Charts)
+			charted[b.ID] = charted[b.ID] || len(b.Show.Charts) > 0
 		}
-		for _, cr := range p.Doc.ChartRefs() {
-			s.chartsTotal += len(cr.Names)
-			for _, n := range cr.Names {
-				charted[n.Block] = true
+		for _, n := range p.charts {
+			s.chartsTotal++
+			charted[n.Block] = true
+			if err := s.checkChartName(p, n); err != nil {
+				errs = append(errs, err)
+			}
+		}
+		for _, ref := range p.refs {
+			if _, err := s.formatRef(p, ref); err != nil {
+				errs = append(errs, err)
 			}
 		}
 	}
@@ -97,30 +116,41 @@ func (s *Site) evaluate() error {
 			e.Curves = nil
 		}
 	}
-	items := s.cautionItems()
-	for _, p := range s.Pages {
-		for _, list := range p.Doc.CautionLists() {
-			for _, it := range items {
-				it.Href = relativeURL(p.Out, s.blockPage[it.Block].Out) + "#" + render.BlockAnchor(it.Block)
-				if s.blockPage[it.Block] == p {
-					it.Href = "#" + render.BlockAnchor(it.Block)
-				}
-				list.Items = append(list.Items, it)
-			}
-		}
-	}
-	var errs ErrorList
-	for _, p := range s.Pages {
-		for _, cr := range p.Doc.ChartRefs() {
-			errs = append(errs, s.checkChartRef(p, cr)...)
-		}
-		for _, ref := range p.Doc.ValueRefs() {
-			if err := s.resolveRef(p, ref); err != nil {
-				errs = append(errs, err)
-			}
-		}
-	}
+	s.cautions = s.cautionItems()
 	return errs.sorted()
+}
+
+// attach gives the nodes of a freshly parsed page what the evaluation
+// found: each block its results, each inline value its text and link,
+// each caution list the site's cautions. The page was checked when it
+// was read, so nothing here fails.
+func (s *Site) attach(p *Page, doc *render.Document) {
+	for i, n := range doc.CalcBlocks() {
+		if i < len(p.blocks) {
+			n.Eval, _ = s.Calc.Lookup(p.blocks[i].ID)
+		}
+	}
+	for i, ref := range doc.ValueRefs() {
+		if i < len(p.refs) {
+			v, _ := s.formatRef(p, p.refs[i])
+			ref.Shown, ref.Href = v.Shown, v.Href
+		}
+	}
+	for _, list := range doc.CautionLists() {
+		for _, it := range s.cautions {
+			it.Href = s.blockLink(p, it.Block)
+			list.Items = append(list.Items, it)
+		}
+	}
+}
+
+// blockLink is the link from page p to a block's table.
+func (s *Site) blockLink(p *Page, id string) string {
+	target := s.blockPage[id]
+	if target == p {
+		return "#" + render.BlockAnchor(id)
+	}
+	return relativeURL(p.Out, target.Out) + "#" + render.BlockAnchor(id)
 }
 
 // cautionItems lists every caution of the site, the most severe first,
@@ -150,16 +180,14 @@ func (s *Site) blocksShown(p *Page) []string {
 			ids = append(ids, id)
 		}
 	}
-	for _, pb := range p.blocks {
-		add(pb.block.ID)
+	for _, b := range p.blocks {
+		add(b.ID)
 	}
-	for _, ref := range p.Doc.ValueRefs() {
+	for _, ref := range p.refs {
 		add(ref.Block)
 	}
-	for _, cr := range p.Doc.ChartRefs() {
-		for _, n := range cr.Names {
-			add(n.Block)
-		}
+	for _, n := range p.charts {
+		add(n.Block)
 	}
 	return ids
 }
@@ -192,16 +220,19 @@ func (s *Site) showsPressureCalc(p *Page) bool {
 	return false
 }
 
-// resolveRef formats one inline value and links it to its block.
-func (s *Site) resolveRef(p *Page, ref *render.ValueRef) *Error {
-	line := p.Doc.Line(ref.Offset)
+// refView is an inline value as shown: its text and its link.
+type refView struct{ Shown, Href string }
+
+// formatRef formats one inline value and links it to its block, or says
+// what is wrong with it.
+func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 	written := "=[" + ref.Block + "." + ref.Result
 	if ref.Unit != "" {
 		written += " " + ref.Unit
 	}
 	written += "]"
-	fail := func(format string, args ...any) *Error {
-		return &Error{File: p.File, Line: line, Msg: written + ": " + fmt.Sprintf(format, args...)}
+	fail := func(format string, args ...any) (refView, *Error) {
+		return refView{}, &Error{File: p.File, Line: ref.Line, Msg: written + ": " + fmt.Sprintf(format, args...)}
 	}
 	e, ok := s.Calc.Lookup(ref.Block)
 	if !ok {
@@ -228,83 +259,78 @@ func (s *Site) resolveRef(p *Page, ref *render.ValueRef) *Error {
 	if err != nil {
 		return fail("%v", err)
 	}
-	ref.Shown = shown
-	target := s.blockPage[ref.Block]
-	ref.Href = "#" + render.BlockAnchor(ref.Block)
-	if target != p {
-		ref.Href = relativeURL(p.Out, target.Out) + ref.Href
+	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
+}
+
+// checkChartName checks that a line of a chart fence names a block and
+// one of its kind's charts.
+func (s *Site) checkChartName(p *Page, n chartName) *Error {
+	fail := func(format string, args ...any) *Error {
+		return &Error{File: p.File, Line: n.Line, Msg: "chart " + n.Text + ": " + fmt.Sprintf(format, args...)}
+	}
+	e, ok := s.Calc.Lookup(n.Block)
+	switch {
+	case n.Chart == "":
+		return fail("write block.chart, such as bellows-lp.pv")
+	case !ok:
+		msg := fmt.Sprintf("there is no block %q in the site", n.Block)
+		if sug := calc.Suggest(n.Block, s.Calc.IDs()); sug != "" {
+			msg += fmt.Sprintf("; did you mean %q?", sug)
+		}
+		return fail("%s", msg)
+	case !slices.Contains(e.Block.Kind.Charts, n.Chart):
+		allowed := strings.Join(e.Block.Kind.Charts, ", ")
+		if allowed == "" {
+			allowed = "none for this kind"
+		}
+		return fail("block %s (%s) draws no chart %q; allowed: %s", n.Block, e.Block.Kind.Name, n.Chart, allowed)
 	}
 	return nil
 }
 
-// checkChartRef checks that every line of a chart fence names a block and
-// one of its kind's charts.
-func (s *Site) checkChartRef(p *Page, cr *render.ChartRef) ErrorList {
-	var errs ErrorList
-	for _, n := range cr.Names {
-		fail := func(format string, args ...any) {
-			errs = append(errs, &Error{File: p.File, Line: n.Line + p.Doc.LineOffset, Msg: "chart " + n.Text + ": " + fmt.Sprintf(format, args...)})
-		}
-		e, ok := s.Calc.Lookup(n.Block)
-		switch {
-		case n.Chart == "":
-			fail("write block.chart, such as bellows-lp.pv")
-		case !ok:
-			msg := fmt.Sprintf("there is no block %q in the site", n.Block)
-			if sug := calc.Suggest(n.Block, s.Calc.IDs()); sug != "" {
-				msg += fmt.Sprintf("; did you mean %q?", sug)
-			}
-			fail("%s", msg)
-		case !slices.Contains(e.Block.Kind.Charts, n.Chart):
-			allowed := strings.Join(e.Block.Kind.Charts, ", ")
-			if allowed == "" {
-				allowed = "none for this kind"
-			}
-			fail("block %s (%s) draws no chart %q; allowed: %s", n.Block, e.Block.Kind.Name, n.Chart, allowed)
-		}
-	}
-	return errs
-}
-
-// drawCharts draws the charts the page's blocks ask for and adds their
-// data files, "<page>.<block>.<chart>.csv" beside the page, to out.
-func (s *Site) drawCharts(p *Page, out map[string][]byte) error {
+// drawCharts draws the charts the page's blocks and chart fences ask for
+// into the nodes of doc, and adds their data files,
+// "<page>.<block>.<chart>.csv" beside the page, to out.
+func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) error {
 	base := strings.TrimSuffix(p.Out, ".html")
-	for _, pb := range p.blocks {
-		e := pb.node.Eval
-		pb.node.Charts = nil
-		for _, name := range pb.block.Show.Charts {
-			c, err := e.Chart(name)
+	draw := func(id, chart, prefix string, line int) (*render.DrawnChart, error) {
+		e, _ := s.Calc.Lookup(id)
+		c, err := e.Chart(chart)
+		if err != nil {
+			return nil, &Error{File: p.File, Line: line, Msg: err.Error()}
+		}
+		csvName := base + "." + id + "." + chart + ".csv"
+		d, err := render.DrawChart(c, prefix+id+"-"+chart, path.Base(csvName))
+		if err != nil {
+			return nil, &Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
+		}
+		out[csvName] = d.CSV
+		s.chartDrawn()
+		return d, nil
+	}
+	for i, n := range doc.CalcBlocks() {
+		if i >= len(p.blocks) {
+			break
+		}
+		b := p.blocks[i]
+		for _, chart := range b.Show.Charts {
+			d, err := draw(b.ID, chart, "chart-", b.LineOf("show.charts"))
 			if err != nil {
-				return &Error{File: p.File, Line: pb.block.LineOf("show.charts"), Msg: err.Error()}
+				return err
 			}
-			csvName := base + "." + pb.block.ID + "." + name + ".csv"
-			d, err := render.DrawChart(c, "chart-"+pb.block.ID+"-"+name, path.Base(csvName))
-			if err != nil {
-				return &Error{File: p.File, Line: pb.block.LineOf("show.charts"), Msg: "block " + pb.block.ID + ": " + err.Error()}
-			}
-			pb.node.Charts = append(pb.node.Charts, d)
-			out[csvName] = d.CSV
-			s.chartDrawn()
+			n.Charts = append(n.Charts, d)
 		}
 	}
-	for _, cr := range p.Doc.ChartRefs() {
-		cr.Charts = nil
-		for _, n := range cr.Names {
-			e, _ := s.Calc.Lookup(n.Block)
-			line := n.Line + p.Doc.LineOffset
-			c, err := e.Chart(n.Chart)
+	k := 0
+	for _, cr := range doc.ChartRefs() {
+		for range cr.Names {
+			n := p.charts[k]
+			k++
+			d, err := draw(n.Block, n.Chart, "chartref-", n.Line)
 			if err != nil {
-				return &Error{File: p.File, Line: line, Msg: err.Error()}
-			}
-			csvName := base + "." + n.Block + "." + n.Chart + ".csv"
-			d, err := render.DrawChart(c, "chartref-"+n.Block+"-"+n.Chart, path.Base(csvName))
-			if err != nil {
-				return &Error{File: p.File, Line: line, Msg: "chart " + n.Text + ": " + err.Error()}
+				return err
 			}
 			cr.Charts = append(cr.Charts, d)
-			out[csvName] = d.CSV
-			s.chartDrawn()
 		}
 	}
 	return nil

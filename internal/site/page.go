@@ -10,6 +10,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"specgen/internal/calc"
 	"specgen/internal/render"
 )
 
@@ -26,9 +27,15 @@ type Page struct {
 	frontLines map[string]int
 	Title      string // for navigation and <title>
 	Heading    string // the page's own level-1 heading, if it opens with one
-	Doc        *render.Document
-	// blocks are the page's calculation blocks, decoded, in order.
-	blocks []pageBlock
+	// body is the Markdown after the front matter, which starts on file
+	// line lineOffset+1; the page is parsed from it again to render it.
+	body       []byte
+	lineOffset int
+	// blocks are the page's calculation blocks, decoded, in order; refs its
+	// inline values and charts the lines of its chart fences.
+	blocks []*calc.Block
+	refs   []valueRef
+	charts []chartName
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
@@ -99,8 +106,9 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 		return nil, err
 	}
 	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
-	p.Doc = md.Parse(body, offset)
-	p.Heading = p.Doc.TakeTitle()
+	doc := md.Parse(body, offset)
+	p.body, p.lineOffset = body, offset
+	p.Heading = doc.TakeTitle()
 	p.Title = fm.Title
 	if p.Title == "" {
 		p.Title = p.Heading
@@ -108,7 +116,7 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 	if p.Title == "" {
 		p.Title = titleFromName(rel)
 	}
-	if err := parseBlocks(p); err != nil {
+	if err := readDoc(p, doc); err != nil {
 		return nil, err
 	}
 	return p, nil
