@@ -42,6 +42,12 @@ func commands() []command {
 }
 
 func main() {
+	// A build holds every evaluated block to its end; a tighter collection
+	// target keeps a 10,000-page site under 300 MB at no measured cost in
+	// time (.ci/bench.sh). GOGC, when set, still wins.
+	if os.Getenv("GOGC") == "" {
+		debug.SetGCPercent(70)
+	}
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }
 

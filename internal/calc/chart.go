@@ -77,6 +77,9 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 	if k.Chart == nil || !contains(k.Charts, name) {
 		return nil, fmt.Errorf("kind %s draws no chart %q", k.Name, name)
 	}
+	if e.in == nil {
+		return nil, fmt.Errorf("block %s: its chart data was released", e.Block.ID)
+	}
 	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: e.Curves, Cautions: e.Cautions})
 	if err != nil {
 		return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)

@@ -17,6 +17,10 @@ import (
 type Options struct {
 	SigFigs int  // significant figures of displayed values (default 3)
 	Env     *Env // materials and safety settings (default DefaultEnv)
+	// Charted, when set, tells which blocks will have charts drawn; the
+	// curves of the others are dropped as soon as no block needs them, so
+	// that a big site does not hold them all. Nil keeps every curve.
+	Charted func(id string) bool
 }
 
 // Set is every evaluated block of a site.
@@ -94,6 +98,13 @@ func (e *Evaluated) Result(name string) (Result, bool) {
 		}
 	}
 	return Result{}, false
+}
+
+// Release drops what only charts need (the curves, and the inputs charts
+// are drawn from), for a block that draws none: a big site keeps less.
+func (e *Evaluated) Release() {
+	e.Curves = nil
+	e.in = nil
 }
 
 // SigFigs is the number of significant figures the block's values show.
@@ -198,6 +209,14 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	// Blocks of one level depend only on blocks of lower levels, so each
 	// level is evaluated in parallel.
+	linked := map[string]bool{}
+	for _, b := range order {
+		for _, v := range b.Values {
+			for _, dep := range v.deps() {
+				linked[dep] = true
+			}
+		}
+	}
 	failed := map[string]bool{}
 	for _, level := range levels(order) {
 		type outcome struct {
@@ -215,7 +234,12 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		}
 		Parallel(len(run), func(j int) {
 			i := run[j]
-			outs[i].e, outs[i].err = evaluateBlock(level[i], set, opts)
+			b := level[i]
+			outs[i].e, outs[i].err = evaluateBlock(b, set, opts)
+			// Drop curves at once: a level can hold thousands of blocks.
+			if outs[i].err == nil && opts.Charted != nil && !opts.Charted(b.ID) && !linked[b.ID] {
+				outs[i].e.Curves = nil
+			}
 		})
 		for _, i := range run {
 			b, o := level[i], outs[i]

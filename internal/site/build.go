@@ -5,6 +5,7 @@ import (
 	"cmp"
 	"fmt"
 	"html/template"
+	"io"
 	"path/filepath"
 	"strings"
 	"sync"
@@ -173,7 +174,7 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	if err != nil {
 		return nil, err
 	}
-	err = s.emit(st.write, opts.Progress)
+	err = s.emit(st.create, opts.Progress)
 	if err != nil {
 		st.abandon()
 		return nil, err
@@ -190,38 +191,53 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 func (s *Site) render(progress func(stage string, done, total int)) (map[string][]byte, error) {
 	files := map[string][]byte{}
 	var mu sync.Mutex
-	err := s.emit(func(name string, data []byte) error {
+	err := s.emit(func(name string, write func(io.Writer) error) error {
+		var buf bytes.Buffer
+		if err := write(&buf); err != nil {
+			return err
+		}
 		mu.Lock()
-		files[name] = data
+		files[name] = buf.Bytes()
 		mu.Unlock()
 		return nil
 	}, progress)
 	return files, err
 }
 
-// emit hands every output file to put, pages as soon as each is rendered,
-// so that a big site is never held in memory whole. put may be called from
-// several goroutines. Two files with one name are an error.
-func (s *Site) emit(put func(name string, data []byte) error, progress func(stage string, done, total int)) error {
+// bytesOf is a writer func for data already in memory.
+func bytesOf(data []byte) func(io.Writer) error {
+	return func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	}
+}
+
+// emit hands every output file to put, with a func that writes its
+// contents: pages as soon as each is rendered, results.json block by
+// block, so that a big site is never held in memory whole. put may be
+// called from several goroutines. Two files with one name are an error.
+func (s *Site) emit(put func(name string, write func(io.Writer) error) error, progress func(stage string, done, total int)) error {
 	static, err := readStatic(s.Root)
 	if err != nil {
 		return err
 	}
-	results, err := s.resultsJSON()
-	if err != nil {
+	if err := put("results.json", s.writeResults); err != nil {
 		return err
 	}
-	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS(), "results.json": results}
+	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
 	for name, data := range s.layouts.assets {
 		fixed["assets/"+name] = data
 	}
 	for name, data := range static {
 		fixed[name] = data
 	}
-	taken := map[string]bool{}
+	taken := map[string]bool{"results.json": true}
 	for _, name := range sortedKeys(fixed) {
+		if taken[name] {
+			return &Error{File: StaticDir + "/" + name, Msg: "this name is specgen's own output; rename the file"}
+		}
 		taken[name] = true
-		if err := put(name, fixed[name]); err != nil {
+		if err := put(name, bytesOf(fixed[name])); err != nil {
 			return err
 		}
 	}
@@ -250,7 +266,7 @@ func (s *Site) emit(put func(name string, data []byte) error, progress func(stag
 				errs[i] = err
 				return
 			}
-			if err := put(name, files[name]); err != nil {
+			if err := put(name, bytesOf(files[name])); err != nil {
 				errs[i] = err
 				return
 			}

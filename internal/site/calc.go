@@ -85,13 +85,7 @@ func (s *Site) evaluate() error {
 			}
 		}
 	}
-	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env})
-	if err != nil {
-		return fromCalc(err).sorted()
-	}
-	s.Calc = set
 	charted := map[string]bool{}
-	var errs ErrorList
 	for _, p := range s.Pages {
 		for _, b := range p.blocks {
 			s.chartsTotal += len(b.Show.Charts)
@@ -100,6 +94,17 @@ func (s *Site) evaluate() error {
 		for _, n := range p.charts {
 			s.chartsTotal++
 			charted[n.Block] = true
+		}
+	}
+	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env,
+		Charted: func(id string) bool { return charted[id] }})
+	if err != nil {
+		return fromCalc(err).sorted()
+	}
+	s.Calc = set
+	var errs ErrorList
+	for _, p := range s.Pages {
+		for _, n := range p.charts {
 			if err := s.checkChartName(p, n); err != nil {
 				errs = append(errs, err)
 			}
@@ -113,7 +118,7 @@ func (s *Site) evaluate() error {
 	// Curves are only drawn from now on: a big site keeps those it charts.
 	for _, e := range set.Blocks {
 		if !charted[e.Block.ID] {
-			e.Curves = nil
+			e.Release()
 		}
 	}
 	s.cautions = s.cautionItems()

@@ -3,6 +3,7 @@ package site
 import (
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -105,13 +106,21 @@ func newStaging(target string) (*staging, error) {
 	return &staging{dir: dir, target: target}, nil
 }
 
-// write stores one output file, relative to the output folder.
-func (s *staging) write(rel string, data []byte) error {
+// create writes one output file, relative to the output folder.
+func (s *staging) create(rel string, write func(io.Writer) error) error {
 	p := filepath.Join(s.dir, filepath.FromSlash(rel))
 	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
 		return err
 	}
-	return os.WriteFile(p, data, 0o644)
+	f, err := os.OpenFile(p, os.O_CREATE|os.O_WRONLY|os.O_TRUNC, 0o644)
+	if err != nil {
+		return err
+	}
+	err = write(f)
+	if cerr := f.Close(); err == nil {
+		err = cerr
+	}
+	return err
 }
 
 // commit moves the finished build into place and removes the old output.

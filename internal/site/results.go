@@ -1,8 +1,12 @@
 package site
 
 import (
-	"bytes"
+	"bufio"
 	"encoding/json"
+	"fmt"
+	"io"
+
+	"specgen/internal/calc"
 
 	"specgen/internal/units"
 )
@@ -58,16 +62,34 @@ type CautionJSON struct {
 	Acknowledged string `json:"acknowledged,omitempty"` // the block's reason for accepting it
 }
 
-// resultsJSON renders results.json: blocks sorted by id, map keys sorted
-// (encoding/json sorts them), indented, so builds are byte-identical.
-func (s *Site) resultsJSON() ([]byte, error) {
-	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetIndent("", "  ")
-	if err := enc.Encode(s.Results()); err != nil {
-		return nil, err
+// writeResults writes results.json one block at a time, as json's indented
+// encoding of the whole file would (blocks sorted by id, keys sorted), so
+// that a big site's results are never held in memory whole.
+func (s *Site) writeResults(w io.Writer) error {
+	bw := bufio.NewWriter(w)
+	blocks := 0
+	if s.Calc != nil {
+		blocks = len(s.Calc.Blocks)
 	}
-	return buf.Bytes(), nil
+	if blocks == 0 {
+		fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": []\n}\n", ResultsVersion)
+		return bw.Flush()
+	}
+	fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": [\n", ResultsVersion)
+	for i, e := range s.Calc.Blocks {
+		b, err := json.MarshalIndent(resultBlock(e), "    ", "  ")
+		if err != nil {
+			return err
+		}
+		bw.WriteString("    ")
+		bw.Write(b)
+		if i < blocks-1 {
+			bw.WriteString(",")
+		}
+		bw.WriteString("\n")
+	}
+	bw.WriteString("  ]\n}\n")
+	return bw.Flush()
 }
 
 // Results returns the contents of results.json.
@@ -77,35 +99,40 @@ func (s *Site) Results() ResultsFile {
 		return f
 	}
 	for _, e := range s.Calc.Blocks {
-		b := ResultBlock{
-			ID:       e.Block.ID,
-			Kind:     e.Block.Kind.Name,
-			Page:     e.Block.File,
-			Line:     e.Block.Line,
-			Inputs:   map[string]InputJSON{},
-			Results:  map[string]ResultJSON{},
-			Expect:   []ExpectJSON{},
-			Cautions: []CautionJSON{},
-		}
-		for _, in := range e.Inputs {
-			b.Inputs[in.Name] = InputJSON{Value: in.Value, Unit: siUnit(in.Dim), Text: in.Text}
-		}
-		for _, r := range e.Results {
-			display, err := e.Format(r.Name, "")
-			if err != nil {
-				display = units.Format(r.Value, e.SigFigs())
-			}
-			b.Results[r.Name] = ResultJSON{Value: r.Value, Unit: siUnit(r.Dim), Display: display}
-		}
-		for _, c := range e.Claims {
-			b.Expect = append(b.Expect, ExpectJSON{Name: c.Claim.Result, Claim: c.Claim.Text, OK: c.OK, Message: c.Message})
-		}
-		for _, c := range e.Cautions {
-			b.Cautions = append(b.Cautions, CautionJSON{Level: c.Level.String(), Rule: c.Rule, Message: c.Message, Acknowledged: c.Acknowledged})
-		}
-		f.Blocks = append(f.Blocks, b)
+		f.Blocks = append(f.Blocks, resultBlock(e))
 	}
 	return f
+}
+
+// resultBlock is one block's entry of results.json.
+func resultBlock(e *calc.Evaluated) ResultBlock {
+	b := ResultBlock{
+		ID:       e.Block.ID,
+		Kind:     e.Block.Kind.Name,
+		Page:     e.Block.File,
+		Line:     e.Block.Line,
+		Inputs:   map[string]InputJSON{},
+		Results:  map[string]ResultJSON{},
+		Expect:   []ExpectJSON{},
+		Cautions: []CautionJSON{},
+	}
+	for _, in := range e.Inputs {
+		b.Inputs[in.Name] = InputJSON{Value: in.Value, Unit: siUnit(in.Dim), Text: in.Text}
+	}
+	for _, r := range e.Results {
+		display, err := e.Format(r.Name, "")
+		if err != nil {
+			display = units.Format(r.Value, e.SigFigs())
+		}
+		b.Results[r.Name] = ResultJSON{Value: r.Value, Unit: siUnit(r.Dim), Display: display}
+	}
+	for _, c := range e.Claims {
+		b.Expect = append(b.Expect, ExpectJSON{Name: c.Claim.Result, Claim: c.Claim.Text, OK: c.OK, Message: c.Message})
+	}
+	for _, c := range e.Cautions {
+		b.Cautions = append(b.Cautions, CautionJSON{Level: c.Level.String(), Rule: c.Rule, Message: c.Message, Acknowledged: c.Acknowledged})
+	}
+	return b
 }
 
 // siUnit is the SI unit results.json states for a dimension; pressures are
