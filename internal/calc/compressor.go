@@ -354,7 +354,10 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			"ΔE = max − min of ∫(T_m − T(θ)) dθ", "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
 	}
 
-	out := &Outcome{Results: res, Curves: compressorCurves(cyc, c, gas, steps)}
+	out := &Outcome{Results: res}
+	if in.WantCurves() {
+		out.Curves = compressorCurves(cyc, c, gas, steps)
+	}
 	if !delivers {
 		out.Cautions = append(out.Cautions, CautionNote{Level: Danger, Rule: "no-delivery", Message: fmt.Sprintf(
 			"The discharge valve never opens: the discharge pressure %s is at or above the dead-head pressure %s "+

@@ -235,9 +235,10 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		Parallel(len(run), func(j int) {
 			i := run[j]
 			b := level[i]
-			outs[i].e, outs[i].err = evaluateBlock(b, set, opts)
+			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
+			outs[i].e, outs[i].err = evaluateBlock(b, set, opts, want)
 			// Drop curves at once: a level can hold thousands of blocks.
-			if outs[i].err == nil && opts.Charted != nil && !opts.Charted(b.ID) && !linked[b.ID] {
+			if outs[i].err == nil && !want {
 				outs[i].e.Curves = nil
 			}
 		})
@@ -456,7 +457,7 @@ func refKeyTo(b *Block, id string) (string, int) {
 
 // evaluateBlock reads a block's inputs (references from set), runs its
 // model and checks its claims.
-func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
+func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
 	var errs Errors
 	fail := func(key string, line int, msg string) {
@@ -476,7 +477,7 @@ func evaluateBlock(b *Block, set *Set, opts Options) (*Evaluated, error) {
 		}
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env}
+		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env, noCurves: !wantCurves}
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {

@@ -110,7 +110,13 @@ type Inputs struct {
 	names   map[string]string
 	links   map[string][]*Linked
 	env     *Env
+	// noCurves tells the model that nothing will draw or read its curves.
+	noCurves bool
 }
+
+// WantCurves reports whether the block's curves are used (by its charts or
+// by a block that links to it); a model may skip sampling them otherwise.
+func (in *Inputs) WantCurves() bool { return !in.noCurves }
 
 // NewInputs returns inputs with the given SI values, all marked as given,
 // in the default environment.

@@ -233,7 +233,10 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: Trace{
 			"ΔE = max − min of ∫(T_m − T(θ)) dθ", "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
 	}
-	out := &Outcome{Results: res, Curves: motorCurves(c, gas, steps)}
+	out := &Outcome{Results: res}
+	if in.WantCurves() {
+		out.Curves = motorCurves(c, gas, steps)
+	}
 	if pe < c.pa {
 		out.Cautions = append(out.Cautions, CautionNote{Level: Notice, Rule: "over-expansion", Message: fmt.Sprintf(
 			"The air expands to %s, below ambient %s, before the exhaust opens: the end of each stroke takes work back. "+
