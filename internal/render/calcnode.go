@@ -19,8 +19,11 @@ type CalcBlock struct {
 	ast.BaseBlock
 	Source    string
 	FenceLine int // 1-based line of the opening fence in the document body
-	Eval      *calc.Evaluated
-	Charts    []*DrawnChart // the charts its [show] asks for, drawn
+	// Closed is false when no closing fence ends the block, so that it ran
+	// to the end of the page (or of its list item or quote).
+	Closed bool
+	Eval   *calc.Evaluated
+	Charts []*DrawnChart // the charts its [show] asks for, drawn
 }
 
 // Kind implements ast.Node.
@@ -62,9 +65,26 @@ func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc 
 			seg := lines.At(i)
 			src.Write(seg.Value(source))
 		}
-		n := &CalcBlock{Source: src.String(), FenceLine: bytes.Count(source[:f.Info.Segment.Start], []byte("\n")) + 1}
+		n := &CalcBlock{Source: src.String(), FenceLine: bytes.Count(source[:f.Info.Segment.Start], []byte("\n")) + 1,
+			Closed: fenceClosed(f, source)}
 		f.Parent().ReplaceChild(f.Parent(), f, n)
 	}
+}
+
+// fenceClosed reports whether a closing fence follows a fenced block's
+// last line (after any quote markers and indentation).
+func fenceClosed(f *ast.FencedCodeBlock, source []byte) bool {
+	end := f.Info.Segment.Stop
+	if lines := f.Lines(); lines.Len() > 0 {
+		end = lines.At(lines.Len() - 1).Stop
+	}
+	rest := source[end:]
+	if i := bytes.IndexByte(rest, '\n'); i >= 0 && end == f.Info.Segment.Stop {
+		rest = rest[i+1:] // an empty block: skip the rest of the info line
+	}
+	line, _, _ := bytes.Cut(rest, []byte("\n"))
+	line = bytes.TrimLeft(line, " \t>")
+	return bytes.HasPrefix(line, []byte("```")) || bytes.HasPrefix(line, []byte("~~~"))
 }
 
 // CalcBlocks lists the document's calculation blocks in order.

@@ -33,6 +33,11 @@ type chartName struct {
 func readDoc(p *Page, doc *render.Document) error {
 	var errs ErrorList
 	for _, n := range doc.CalcBlocks() {
+		if !n.Closed {
+			errs = append(errs, &Error{File: p.File, Line: n.FenceLine + doc.LineOffset,
+				Msg: "the calc block opened here is never closed; end it with a line holding only the fence (```)"})
+			continue
+		}
 		b, err := calc.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, fromCalc(err)...)

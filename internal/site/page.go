@@ -77,6 +77,9 @@ func findPages(root string) ([]string, error) {
 			if err != nil {
 				return err
 			}
+			if d.Type()&fs.ModeSymlink != 0 {
+				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link; content/ holds plain files only, so nothing outside the site root is published by accident"}
+			}
 			rels = append(rels, filepath.ToSlash(rel))
 		}
 		return nil

@@ -331,3 +331,21 @@ func TestEveryCautionLevel(t *testing.T) {
 		}
 	}
 }
+
+// TestContentSymlinkRefused: a page that is a link to a file outside the
+// site is refused, not published.
+func TestContentSymlinkRefused(t *testing.T) {
+	root := buildCopy(t, "basic")
+	secret := filepath.Join(t.TempDir(), "secret.md")
+	writeFile(t, secret, "# private notes\n")
+	if err := os.Symlink(secret, filepath.Join(root, "content", "leak.md")); err != nil {
+		t.Skip("no symbolic links here:", err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !strings.Contains(err.Error(), "content/leak.md: is a symbolic link") {
+		t.Fatalf("want the link refused, got %v", err)
+	}
+	if _, err := os.Stat(filepath.Join(root, DefaultOut, "leak.html")); err == nil {
+		t.Error("the linked page was published")
+	}
+}
