@@ -7,6 +7,7 @@ import (
 	"net/http"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"sync"
 	"testing"
@@ -112,4 +113,51 @@ func TestPreviewRefusesPublicAddress(t *testing.T) {
 	if code != exitBadInput || !strings.Contains(errb.String(), "-public") {
 		t.Errorf("exit %d: %s", code, errb.String())
 	}
+}
+
+// TestPreviewNeverServesHalfPages rewrites a page over and over while the
+// preview rebuilds and pages are fetched: every page served is whole.
+func TestPreviewNeverServesHalfPages(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "site")
+	var out, errb syncBuffer
+	if code := run([]string{"init", dir}, &out, &errb); code != exitOK {
+		t.Fatal("init failed")
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	ready := make(chan string, 1)
+	done := make(chan int)
+	go func() { done <- servePreview(ctx, dir, "127.0.0.1:0", &out, &errb, ready) }()
+	defer func() { cancel(); <-done }()
+	base := "http://" + <-ready + "/"
+	page := filepath.Join(dir, "content", "first-stage.md")
+	src, _ := os.ReadFile(page)
+	stop := make(chan struct{})
+	writer := make(chan struct{})
+	go func() {
+		defer close(writer)
+		for i := 0; ; i++ {
+			select {
+			case <-stop:
+				return
+			default:
+			}
+			text := strings.Replace(string(src), "# First stage", "# First stage, edit "+strconv.Itoa(i), 1)
+			_ = os.WriteFile(page, []byte(text), 0o644)
+			time.Sleep(15 * time.Millisecond)
+		}
+	}()
+	deadline := time.Now().Add(2 * time.Second)
+	fetched := 0
+	for time.Now().Before(deadline) {
+		body := get(t, base+"first-stage.html")
+		fetched++
+		if !strings.HasSuffix(strings.TrimSpace(body), "</html>") || !strings.Contains(body, `<section class="sg-calc`) {
+			close(stop)
+			<-writer
+			t.Fatalf("fetch %d: a partial page:\n%.300s", fetched, body)
+		}
+	}
+	close(stop)
+	<-writer
+	t.Logf("%d whole pages fetched while the page changed", fetched)
 }
