@@ -137,14 +137,45 @@ func (e *Evaluated) DisplayUnit(name string) string {
 // Format shows a result in a unit ("" for its display unit) with the
 // site's significant figures: "19.7 cm3".
 func (e *Evaluated) Format(name, unit string) (string, error) {
-	r, ok := e.Result(name)
+	si, dim, shown, ok := e.Quantity(name)
 	if !ok {
-		return "", fmt.Errorf("block %s has no result %q", e.Block.ID, name)
+		return "", fmt.Errorf("block %s has no result or input %q", e.Block.ID, name)
 	}
 	if unit == "" {
-		unit = e.DisplayUnit(name)
+		unit = shown
 	}
-	return FormatValue(r.Value, r.Dim, unit, e.Ambient, e.sigFigs)
+	return FormatValue(si, dim, unit, e.Ambient, e.sigFigs)
+}
+
+// Quantity returns a result, or else a quantity input, of the block: its
+// SI value, dimension and the unit it is shown in (the display unit of a
+// result, the unit an input was written in). Prose and other blocks may
+// quote both.
+func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit string, ok bool) {
+	if r, found := e.Result(name); found {
+		return r.Value, r.Dim, e.DisplayUnit(name), true
+	}
+	for _, in := range e.Inputs {
+		if in.Name == name && in.Type == Quantity {
+			unit := ""
+			if q, err := units.Parse(in.Text, in.Dim); err == nil {
+				unit = q.Unit.Symbol
+			} else if in.From != "" {
+				unit = unitFromShown(in.Text)
+			}
+			return in.Value, in.Dim, unit, true
+		}
+	}
+	return 0, 0, "", false
+}
+
+// unitFromShown is the unit of a formatted value such as "19.7 cm³".
+func unitFromShown(text string) string {
+	_, unit, _ := strings.Cut(text, " ")
+	if u, err := units.LookupUnit(unit); err == nil {
+		return u.Symbol
+	}
+	return ""
 }
 
 // FormatValue shows an SI value in unit with sig significant figures.
@@ -321,10 +352,12 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			continue
 		}
 		spec, ok := target.Kind.result(v.RefResult)
-		if _, isInput := target.Kind.input(v.RefResult); !ok && isInput {
-			fail(fmt.Sprintf("%q: %s is an input of block %s, not a result; refer to a result (%s) or write the value",
-				v.Text, v.RefResult, target.ID, strings.Join(target.Kind.resultNames(), ", ")))
-			continue
+		if inSpec, isInput := target.Kind.input(v.RefResult); !ok && isInput {
+			if inSpec.Type != Quantity {
+				fail(fmt.Sprintf("%q: %s is a %s input of block %s, not a quantity", v.Text, v.RefResult, "name or link", target.ID))
+				continue
+			}
+			spec, ok = ResultSpec{Name: inSpec.Name, Dim: inSpec.Dim}, true
 		}
 		if !ok {
 			msg := fmt.Sprintf("%q: block %s (%s) has no result %q", v.Text, target.ID, target.Kind.Name, v.RefResult)
@@ -528,14 +561,18 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		var shownUnit string
 		if given && v.RefBlock != "" {
 			src, _ := set.Lookup(v.RefBlock)
-			r, _ := src.Result(v.RefResult)
-			value = r.Value
+			si, _, unit, found := src.Quantity(v.RefResult)
+			if !found {
+				fail(spec.Name, line, fmt.Sprintf("%q: block %s has no value for %s (an optional input it leaves out)", v.Text, v.RefBlock, v.RefResult))
+				continue
+			}
+			value = si
 			iv.From = v.Text
 			shown, err := src.Format(v.RefResult, "")
 			if err == nil {
 				iv.Text = shown
 			}
-			shownUnit = src.DisplayUnit(v.RefResult)
+			shownUnit = unit
 		} else {
 			q, err := units.Parse(text, spec.Dim)
 			if err != nil {

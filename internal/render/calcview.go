@@ -35,9 +35,9 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		text = "=[" + name + "]"
 	}
 	if n.Href != "" {
-		_, _ = w.WriteString(`<a class="sg-value" href="` + esc(n.Href) + `" title="computed: ` + name + `">` + text + `</a>`)
+		_, _ = w.WriteString(`<a class="sg-value" href="` + esc(n.Href) + `" title="from calculation ` + name + `">` + text + `</a>`)
 	} else {
-		_, _ = w.WriteString(`<span class="sg-value" title="computed: ` + name + `">` + text + `</span>`)
+		_, _ = w.WriteString(`<span class="sg-value" title="from calculation ` + name + `">` + text + `</span>`)
 	}
 	return ast.WalkSkipChildren, nil
 }

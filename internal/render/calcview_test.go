@@ -85,7 +85,7 @@ func TestValueRefRendering(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	want := `<p>It sweeps <a class="sg-value" href="#calc-low" title="computed: low.swept_volume">19.7 cm³</a> per stroke.</p>`
+	want := `<p>It sweeps <a class="sg-value" href="#calc-low" title="from calculation low.swept_volume">19.7 cm³</a> per stroke.</p>`
 	if !strings.Contains(string(html), want) {
 		t.Errorf("got %s", html)
 	}

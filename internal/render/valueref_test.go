@@ -22,7 +22,7 @@ func TestValueRefParsing(t *testing.T) {
 		{"no dot is text", "a=[b]\n", nil, "<p>a=[b]</p>"},
 		{"an assignment is text", "x = [1, 2]\n", nil, "<p>x = [1, 2]</p>"},
 		{"reference with unit", "Delivery =[low.fad L/min] at speed.\n",
-			[]ref{{"low", "fad", "L/min", 1}}, `Delivery <span class="sg-value" title="computed: low.fad">`},
+			[]ref{{"low", "fad", "L/min", 1}}, `Delivery <span class="sg-value" title="from calculation low.fad">`},
 		{"unit with a space and a mark", "=[low.peak_torque N m] and =[low.max_pressure bar(a)]\n",
 			[]ref{{"low", "peak_torque", "N m", 1}, {"low", "max_pressure", "bar(a)", 1}}, ""},
 		{"at line start", "=[low.x]\n", []ref{{"low", "x", "", 1}}, `<p><span class="sg-value"`},

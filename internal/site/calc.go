@@ -252,7 +252,7 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 		}
 		return fail("%s", msg)
 	}
-	if _, ok := e.Result(ref.Result); !ok {
+	if _, _, _, ok := e.Quantity(ref.Result); !ok {
 		names := make([]string, len(e.Results))
 		for i, r := range e.Results {
 			names[i] = r.Name
