@@ -314,6 +314,15 @@ type PageInfo struct {
 	Cautions template.HTML
 }
 
+// home is the output path of the home page: content/index.md, or the
+// first page in reading order when the site has none.
+func (s *Site) home() string {
+	if s.nav.Page != nil || len(s.reading) == 0 {
+		return "index.html"
+	}
+	return s.reading[0].Out
+}
+
 // renderPage lays out one page; it returns the page and the chart data
 // files beside it, keyed by output path.
 func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
@@ -330,7 +339,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + "index.html", Revision: s.revision},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + s.home(), Revision: s.revision},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),
