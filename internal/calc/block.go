@@ -138,7 +138,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		}
 	}
 	if len(errs) > 0 || b.Kind == nil {
-		return nil, errs.orNil()
+		return nil, errs.Sorted()
 	}
 
 	keys := make([]string, 0, len(raw))
@@ -190,7 +190,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, takes(in))})
 		}
 	}
-	if err := errs.capped(MaxBlockErrors).orNil(); err != nil {
+	if err := errs.capped(MaxBlockErrors).Sorted(); err != nil {
 		return nil, err
 	}
 	return b, nil

@@ -6,26 +6,32 @@ import (
 	"strings"
 )
 
-// Error is a problem with a calculation block, at a line of its page.
+// Error is a problem with the user's input at a place in a file: a
+// calculation block's key, a page, the site configuration.
 type Error struct {
-	File string
-	Line int
-	Key  string // the key to blame, "" for the block as a whole
+	File string // relative to the site root, slash-separated
+	Line int    // 1-based; 0 when the whole file is meant
+	Key  string // the key to blame, "" for none
 	Msg  string
 }
 
 func (e *Error) Error() string {
-	place := e.File
-	if e.Line > 0 {
-		place = fmt.Sprintf("%s:%d", e.File, e.Line)
-	}
+	msg := e.Msg
 	if e.Key != "" {
-		return place + ": " + e.Key + ": " + e.Msg
+		msg = e.Key + ": " + msg
 	}
-	return place + ": " + e.Msg
+	switch {
+	case e.File == "" && e.Line > 0:
+		return fmt.Sprintf("line %d: %s", e.Line, msg)
+	case e.File == "":
+		return msg
+	case e.Line > 0:
+		return fmt.Sprintf("%s:%d: %s", e.File, e.Line, msg)
+	}
+	return e.File + ": " + msg
 }
 
-// Errors is every block problem found in one pass, sorted by place.
+// Errors is every input problem found in one pass, sorted by place.
 type Errors []*Error
 
 func (l Errors) Error() string {
@@ -36,8 +42,9 @@ func (l Errors) Error() string {
 	return strings.Join(msgs, "\n")
 }
 
-// orNil sorts the list and returns it, or nil when it is empty.
-func (l Errors) orNil() error {
+// Sorted sorts the list by file and line and returns it, or nil when it
+// is empty.
+func (l Errors) Sorted() error {
 	if len(l) == 0 {
 		return nil
 	}
@@ -56,7 +63,7 @@ func (l Errors) capped(n int) Errors {
 	if len(l) <= n {
 		return l
 	}
-	_ = l.orNil()
+	_ = l.Sorted()
 	rest := len(l) - n
 	last := l[n-1]
 	return append(l[:n:n], &Error{File: last.File, Line: last.Line, Msg: fmt.Sprintf("... and %d more problems in this block, not shown", rest)})

@@ -231,7 +231,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	for _, id := range ids {
 		errs = append(errs, checkRefs(byID[id], byID, ids)...)
 	}
-	if err := errs.orNil(); err != nil {
+	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
 	order, err := dependencyOrder(byID, ids)
@@ -288,7 +288,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			set.byID[b.ID] = o.e
 		}
 	}
-	if err := errs.orNil(); err != nil {
+	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
 	for _, id := range ids {
@@ -594,7 +594,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		e.Inputs = append(e.Inputs, iv)
 		in.Set(spec.Name, value, given)
 	}
-	if err := errs.orNil(); err != nil {
+	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
 	out, err := b.Kind.Evaluate(in)

@@ -141,7 +141,7 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 		}
 		out.byName[name] = mat
 	}
-	if err := errs.orNil(); err != nil {
+	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
 	return out, nil

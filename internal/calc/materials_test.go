@@ -181,11 +181,11 @@ func TestParseMaterialsErrors(t *testing.T) {
 		want      []string
 	}{
 		{"unknown property", "[petg]\ntensile_strenght = \"40 MPa\"\n",
-			[]string{":2: materials.petg.tensile_strenght", `did you mean "tensile_strength"?`}},
+			[]string{"line 2: materials.petg.tensile_strenght", `did you mean "tensile_strength"?`}},
 		{"bad class", "[petg]\nclass = \"ceramic\"\n",
 			[]string{"materials.petg.class", `"ceramic" is not a class; allowed: plastic, metal`}},
 		{"missing key", "[pom]\nclass = \"plastic\"\ntensile_strength = \"65 MPa\"\ndensity = \"1.41 g/cm3\"\nservice_temperature = \"90 degC\"\n",
-			[]string{":1: materials.pom", "a new material needs elastic_modulus"}},
+			[]string{"line 1: materials.pom", "a new material needs elastic_modulus"}},
 		{"wrong dimension", "[petg]\nyield_strength = \"40 mm\"\n",
 			[]string{"materials.petg.yield_strength", "mm"}},
 		{"negative strength", "[petg]\nyield_strength = \"-40 MPa\"\n",

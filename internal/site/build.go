@@ -99,7 +99,7 @@ func Load(root string) (*Site, error) {
 			tplErrs = append(tplErrs, &Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
 		}
 	}
-	if err := tplErrs.sorted(); err != nil {
+	if err := tplErrs.Sorted(); err != nil {
 		return nil, err
 	}
 	if err := s.evaluate(); err != nil {
@@ -401,5 +401,5 @@ func collect(errs []error) error {
 			return err
 		}
 	}
-	return list.sorted()
+	return list.Sorted()
 }

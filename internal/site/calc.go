@@ -53,26 +53,18 @@ func readDoc(p *Page, doc *render.Document) error {
 			p.charts = append(p.charts, chartName{ChartName: n, Line: n.Line + doc.LineOffset})
 		}
 	}
-	return errs.sorted()
+	return errs.Sorted()
 }
 
-// fromCalc turns calc errors into site errors.
+// fromCalc lists the input problems an error holds.
 func fromCalc(err error) ErrorList {
-	var list calc.Errors
+	var list ErrorList
 	if errors.As(err, &list) {
-		out := make(ErrorList, len(list))
-		for i, e := range list {
-			msg := e.Msg
-			if e.Key != "" {
-				msg = e.Key + ": " + msg
-			}
-			out[i] = &Error{File: e.File, Line: e.Line, Msg: msg}
-		}
-		return out
+		return list
 	}
-	var one *calc.Error
+	var one *Error
 	if errors.As(err, &one) {
-		return fromCalc(calc.Errors{one})
+		return ErrorList{one}
 	}
 	return ErrorList{{Msg: err.Error()}}
 }
@@ -104,7 +96,7 @@ func (s *Site) evaluate() error {
 	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env,
 		Charted: func(id string) bool { return charted[id] }})
 	if err != nil {
-		return fromCalc(err).sorted()
+		return fromCalc(err).Sorted()
 	}
 	s.Calc = set
 	var errs ErrorList
@@ -127,7 +119,7 @@ func (s *Site) evaluate() error {
 		}
 	}
 	s.cautions = s.cautionItems()
-	return errs.sorted()
+	return errs.Sorted()
 }
 
 // attach gives the nodes of a freshly parsed page what the evaluation

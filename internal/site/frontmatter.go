@@ -79,7 +79,7 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 		errs = append(errs, &Error{File: file, Line: 1 + lines[key], Msg: msg})
 	}
 	if len(errs) > 0 {
-		return fm, nil, nil, 0, errs.sorted()
+		return fm, nil, nil, 0, errs.Sorted()
 	}
 	return fm, lines, body, offset, nil
 }

@@ -170,5 +170,5 @@ func checkOutputClashes(pages []*Page) error {
 		}
 		seen[key] = p
 	}
-	return errs.sorted()
+	return errs.Sorted()
 }
