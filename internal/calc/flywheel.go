@@ -3,6 +3,7 @@ package calc
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"specgen/internal/units"
 )
@@ -14,7 +15,7 @@ var flywheelKind = Kind{
 	Summary: "inertia to hold a speed fluctuation: a solid disc or rim sized from a compressor's or motor's torque, with its rim speed, stress and safety factor",
 	Doc:     flywheelDoc,
 	Inputs: []InputSpec{
-		{Name: "source", Type: Link, LinkKinds: []string{"compressor", "motor"}, Meaning: "id of the compressor or motor block whose crankshaft the flywheel is on"},
+		{Name: "source", Type: LinkList, LinkKinds: []string{"compressor", "motor"}, Meaning: "the compressor or motor block whose crankshaft the flywheel is on, or a list of the blocks on one crankshaft, taken evenly phased in the order listed"},
 		{Name: "speed_fluctuation", Dim: units.Dimensionless, Range: Between(1e-4, 0.5),
 			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for compressors)"},
 		{Name: "density", Dim: units.Density, Optional: true, Range: positiveUpTo(1e5), Meaning: "density of the flywheel material; give density or material"},
@@ -48,6 +49,10 @@ const defaultPoisson = 0.3
 const flywheelDoc = `The flywheel kind sizes a flywheel on the crankshaft of the compressor or
 motor block named in source, turning at its speed ω, so that the speed
 swings by no more than Cs = (ω_max − ω_min)/ω_mean over a revolution.
+Source may list several blocks on one crankshaft (the stages of a
+two-stage machine, say): they must turn at one speed, and block k of n is
+taken to reach top dead centre 360°·k/n after the first, as opposed throws
+of two stages do; their torques add.
 
 Energy and inertia
 - The drive (or, for a motor, the load) is a constant torque equal to the
@@ -93,7 +98,8 @@ Chart: speed, the crank speed over a revolution,
 
 // flywheelInput is a flywheel block's inputs in SI.
 type flywheelInput struct {
-	source   *Linked
+	sources  []*Linked
+	names    string // the sources' ids, for traces
 	cs       float64
 	omega    float64 // mean crank speed, rad/s
 	torque   Curve   // the source's load torque over one revolution
@@ -107,9 +113,9 @@ type flywheelInput struct {
 
 // readFlywheelInput applies the checks that single-input ranges cannot.
 func readFlywheelInput(in *Inputs) (flywheelInput, error) {
-	f := flywheelInput{source: in.LinkOf("source"), cs: in.Value("speed_fluctuation"),
+	f := flywheelInput{sources: in.LinksOf("source"), cs: in.Value("speed_fluctuation"),
 		width: in.Value("thickness"), rim: in.NameOf("shape") == "rim", poisson: defaultPoisson}
-	if f.source == nil {
+	if len(f.sources) == 0 {
 		return f, &InputError{Key: "source", Message: "missing: name the compressor or motor block the flywheel is on, e.g. source = \"low\""}
 	}
 	switch {
@@ -139,22 +145,52 @@ func readFlywheelInput(in *Inputs) (flywheelInput, error) {
 		return f, &InputError{Key: "rim_depth", Message: "rim_depth is for shape = \"rim\"; a disc is solid"}
 	}
 	f.depth = in.Value("rim_depth")
-	f.omega = f.source.Inputs["speed"]
-	curve := "gas_torque"
-	for _, c := range f.source.Curves {
-		if c.Name == "total_torque" {
-			curve = c.Name
+	var ids []string
+	for k, src := range f.sources {
+		ids = append(ids, src.ID)
+		torque, ok := sourceTorque(src)
+		speed := src.Inputs["speed"]
+		switch {
+		case !(speed > 0) || !ok:
+			return f, &InputError{Key: "source", Message: fmt.Sprintf("block %s (%s) gives no crank speed or torque curve to size a flywheel from", src.ID, src.Kind)}
+		case k == 0:
+			f.omega, f.torque = speed, torque
+			f.torque.Y = append([]float64(nil), torque.Y...)
+		case math.Abs(speed-f.omega) > 1e-9*f.omega:
+			return f, &InputError{Key: "source", Message: fmt.Sprintf("blocks %s and %s turn at different speeds; blocks on one crankshaft turn together", f.sources[0].ID, src.ID)}
+		case len(torque.Y) != len(f.torque.Y) || (len(torque.Y)-1)%len(f.sources) != 0:
+			return f, &InputError{Key: "source", Message: fmt.Sprintf("the torque curves of %s and %s cannot be phased on one crank", f.sources[0].ID, src.ID)}
+		default:
+			// Block k reaches top dead centre 360°·k/n later: its torque at
+			// crank angle θ is its own at θ − 360°·k/n.
+			m := len(torque.Y) - 1
+			shift := m * k / len(f.sources)
+			for i := range f.torque.Y {
+				f.torque.Y[i] += torque.Y[((i-shift)%m+m)%m]
+			}
+			f.torque.Name = "summed torque"
 		}
 	}
-	for _, c := range f.source.Curves {
-		if c.Name == curve {
-			f.torque = c
-		}
-	}
-	if !(f.omega > 0) || len(f.torque.Y) < 3 {
-		return f, &InputError{Key: "source", Message: fmt.Sprintf("block %s (%s) gives no crank speed or torque curve to size a flywheel from", f.source.ID, f.source.Kind)}
-	}
+	f.names = strings.Join(ids, " + ")
 	return f, nil
+}
+
+// sourceTorque is a source's load torque over one revolution: total_torque
+// (gas and reciprocating inertia) when it has one, else gas_torque.
+func sourceTorque(src *Linked) (Curve, bool) {
+	var gas, total Curve
+	for _, c := range src.Curves {
+		switch c.Name {
+		case "gas_torque":
+			gas = c
+		case "total_torque":
+			total = c
+		}
+	}
+	if len(total.Y) >= 3 {
+		return total, true
+	}
+	return gas, len(gas.Y) >= 3
 }
 
 // excessEnergy integrates T_m − T(θ) along the source's sampled torque
@@ -176,13 +212,13 @@ func (f flywheelInput) excessEnergy() []float64 {
 
 // energyFluctuation returns ΔE and how it was found.
 func (f flywheelInput) energyFluctuation() (float64, Trace) {
-	if v, ok := f.source.Results["energy_fluctuation"]; ok && f.torque.Name == "gas_torque" {
-		return v, Trace{"ΔE = energy_fluctuation of the source (gas torque)", "= " + show(v, "J") + " (" + f.source.ID + ")"}
+	if v, ok := f.sources[0].Results["energy_fluctuation"]; ok && len(f.sources) == 1 && f.torque.Name == "gas_torque" {
+		return v, Trace{"ΔE = energy_fluctuation of the source (gas torque)", "= " + show(v, "J") + " (" + f.names + ")"}
 	}
 	e := f.excessEnergy()
 	low, high := extent(e)
 	return high - low, Trace{"ΔE = max − min of ∫(T_m − T(θ)) dθ, T the source's " + f.torque.Name,
-		"= " + show(high, "J") + " − (" + show(low, "J") + ") (" + f.source.ID + ", 0.5° steps)"}
+		"= " + show(high, "J") + " − (" + show(low, "J") + ") (" + f.names + ", 0.5° steps)"}
 }
 
 // extent returns the least and greatest of xs.
@@ -210,7 +246,7 @@ func evaluateFlywheel(in *Inputs) (*Outcome, error) {
 	}
 	de, deTrace := f.energyFluctuation()
 	if !(de > 0) {
-		return nil, &InputError{Key: "source", Message: fmt.Sprintf("block %s has a steady torque (no energy fluctuation): it needs no flywheel", f.source.ID)}
+		return nil, &InputError{Key: "source", Message: fmt.Sprintf("%s: a steady torque (no energy fluctuation) needs no flywheel", f.names)}
 	}
 	w := f.omega
 	inertia := de / (f.cs * w * w)
@@ -307,7 +343,7 @@ func flywheelChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	return &Chart{
 		Title: "Crank speed over one revolution",
 		Desc: fmt.Sprintf("The crank speed of %s with the flywheel's %s kg m² over one revolution from top dead centre, against a constant torque, drawn as its difference from the mean %s: it swings from %s to %s, a fluctuation of %s against the %s asked for, whose limits are marked.",
-			f.source.ID, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
+			f.names, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
 		X: Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"},
 		Panels: []Panel{{
 			Y:      Axis{Label: "Speed above mean", Dim: units.RotationalSpeed, Unit: "rpm"},
