@@ -46,8 +46,9 @@ type Value struct {
 	Line  int // file line
 }
 
-// deps lists the blocks a value needs evaluated first.
-func (v Value) deps() []string {
+// Deps lists the blocks a value needs evaluated first: the one it quotes,
+// or those it links to.
+func (v Value) Deps() []string {
 	if v.RefBlock != "" {
 		return []string{v.RefBlock}
 	}

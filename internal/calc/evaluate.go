@@ -243,7 +243,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	linked := map[string]bool{}
 	for _, b := range order {
 		for _, v := range b.Values {
-			for _, dep := range v.deps() {
+			for _, dep := range v.Deps() {
 				linked[dep] = true
 			}
 		}
@@ -300,7 +300,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 
 func dependsOnFailed(b *Block, failed map[string]bool) bool {
 	for _, v := range b.Values {
-		for _, id := range v.deps() {
+		for _, id := range v.Deps() {
 			if failed[id] {
 				return true
 			}
@@ -392,7 +392,7 @@ func levels(order []*Block) [][]*Block {
 	for _, b := range order {
 		d := 0
 		for _, v := range b.Values {
-			for _, dep := range v.deps() {
+			for _, dep := range v.Deps() {
 				d = max(d, depth[dep]+1)
 			}
 		}
@@ -459,7 +459,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 		stack = append(stack, id)
 		b := byID[id]
 		for _, key := range sortedValueKeys(b) {
-			for _, ref := range b.Values[key].deps() {
+			for _, ref := range b.Values[key].Deps() {
 				if err := visit(ref); err != nil {
 					return err
 				}
@@ -481,7 +481,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 // refKeyTo finds the key of b that refers to block id.
 func refKeyTo(b *Block, id string) (string, int) {
 	for _, key := range sortedValueKeys(b) {
-		if v := b.Values[key]; contains(v.deps(), id) {
+		if v := b.Values[key]; contains(v.Deps(), id) {
 			return key, v.Line
 		}
 	}

@@ -23,7 +23,8 @@ type CalcBlock struct {
 	// to the end of the page (or of its list item or quote).
 	Closed bool
 	Eval   *calc.Evaluated
-	Charts []*DrawnChart // the charts its [show] asks for, drawn
+	Links  map[string]string // links to the blocks its inputs name or quote
+	Charts []*DrawnChart     // the charts its [show] asks for, drawn
 }
 
 // Kind implements ast.Node.

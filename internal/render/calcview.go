@@ -51,7 +51,7 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 		writeCode(w, "toml", n.Source)
 		return ast.WalkSkipChildren, nil
 	}
-	WriteCalcBlock(w, n.Eval, n.Source, n.Charts)
+	WriteCalcBlock(w, n.Eval, n.Source, n.Charts, n.Links)
 	return ast.WalkSkipChildren, nil
 }
 
@@ -59,8 +59,9 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 func BlockAnchor(id string) string { return "calc-" + id }
 
 // WriteCalcBlock writes one evaluated block: inputs, results with their
-// working, claims, cautions and the block's source.
-func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart) {
+// working, claims, cautions and the block's source. links maps the ids of
+// blocks its inputs name or quote to their tables (nil for no links).
+func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart, links map[string]string) {
 	b := e.Block
 	anchor := BlockAnchor(b.ID)
 	title := b.Title
@@ -98,7 +99,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 	}
 
 	ws(`<div class="sg-calc-tables">`, "\n")
-	writeInputs(w, e)
+	writeInputs(w, e, links)
 	writeResults(w, e)
 	for _, t := range e.Tables {
 		writeTable(w, e, t)
@@ -116,19 +117,34 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 	ws("</details>\n</section>\n")
 }
 
-func writeInputs(w util.BufWriter, e *calc.Evaluated) {
+func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 	_, _ = w.WriteString(`<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th></tr></thead><tbody>` + "\n")
+	link := func(id, text string) string {
+		if href, ok := links[id]; ok {
+			return `<a href="` + esc(href) + `">` + text + `</a>`
+		}
+		return text
+	}
 	for _, in := range e.Inputs {
 		value := esc(in.Text)
-		if in.Dim == units.Pressure {
+		switch {
+		case in.Dim == units.Pressure && in.Type == calc.Quantity:
 			value = esc(pressurePair(in.Value, unitOf(in.Text), e))
+		case len(in.Links) > 0:
+			parts := make([]string, len(in.Links))
+			for i, id := range in.Links {
+				parts[i] = link(id, esc(id))
+			}
+			value = strings.Join(parts, ", ")
 		}
 		note := ""
 		switch {
 		case in.Default:
 			note = ` <span class="sg-note">default</span>`
 		case in.From != "":
-			note = ` <span class="sg-note">from <code>` + esc(strings.TrimPrefix(in.From, "=")) + `</code></span>`
+			ref := strings.TrimPrefix(in.From, "=")
+			id, _, _ := strings.Cut(ref, ".")
+			note = ` <span class="sg-note">from ` + link(id, `<code>`+esc(ref)+`</code>`) + `</span>`
 		}
 		_, _ = w.WriteString(`<tr><th scope="row"><code>` + esc(in.Name) + `</code></th><td class="sg-num">` + value + note + "</td></tr>\n")
 	}

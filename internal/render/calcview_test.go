@@ -46,7 +46,7 @@ func TestCalcBlockHTML(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	var buf bytes.Buffer
 	w := bufio.NewWriter(&buf)
-	WriteCalcBlock(w, e, stageBlock, nil)
+	WriteCalcBlock(w, e, stageBlock, nil, nil)
 	_ = w.Flush()
 	out := buf.String()
 	for _, want := range []string{
@@ -96,7 +96,7 @@ func BenchmarkRenderCalcBlock(b *testing.B) {
 	w := bufio.NewWriter(io.Discard)
 	b.ReportAllocs()
 	for b.Loop() {
-		WriteCalcBlock(w, e, stageBlock, nil)
+		WriteCalcBlock(w, e, stageBlock, nil, nil)
 	}
 }
 

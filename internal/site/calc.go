@@ -128,8 +128,15 @@ func (s *Site) evaluate() error {
 // was read, so nothing here fails.
 func (s *Site) attach(p *Page, doc *render.Document) {
 	for i, n := range doc.CalcBlocks() {
-		if i < len(p.blocks) {
-			n.Eval, _ = s.Calc.Lookup(p.blocks[i].ID)
+		if i >= len(p.blocks) {
+			break
+		}
+		n.Eval, _ = s.Calc.Lookup(p.blocks[i].ID)
+		n.Links = map[string]string{}
+		for _, v := range p.blocks[i].Values {
+			for _, id := range v.Deps() {
+				n.Links[id] = s.blockLink(p, id)
+			}
 		}
 	}
 	for i, ref := range doc.ValueRefs() {
