@@ -13,7 +13,8 @@ type checkReport struct {
 	Version  int            `json:"version"`
 	OK       bool           `json:"ok"`
 	Tally    site.Tally     `json:"tally"`
-	Problems []site.Problem `json:"problems"`
+	Problems []site.Problem `json:"problems"` // failed claims and unacknowledged DANGER cautions
+	Notices  []site.Problem `json:"notices"`  // the other cautions, which do not fail a check
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
@@ -31,7 +32,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, err)
 	}
-	problems := s.Problems()
+	problems, notices := s.Problems(), s.Notices()
 	tally := s.Tally()
 	if *format == "json" {
 		enc := json.NewEncoder(stdout)
@@ -39,11 +40,15 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		if problems == nil {
 			problems = []site.Problem{}
 		}
-		if err := enc.Encode(checkReport{Version: 1, OK: len(problems) == 0, Tally: tally, Problems: problems}); err != nil {
+		if notices == nil {
+			notices = []site.Problem{}
+		}
+		if err := enc.Encode(checkReport{Version: 1, OK: len(problems) == 0, Tally: tally, Problems: problems, Notices: notices}); err != nil {
 			return report(stderr, err)
 		}
 	} else {
 		printProblems(stdout, problems)
+		printProblems(stdout, notices)
 		fmt.Fprintf(stdout, "%s, %s, %s (%d failed), %s (%d DANGER not acknowledged)\n",
 			count(tally.Pages, "page"), count(tally.Blocks, "block"), count(tally.Claims, "claim"), tally.FailedClaims,
 			count(tally.Cautions, "caution"), tally.Dangers)

@@ -45,6 +45,33 @@ func (s *Site) Problems() []Problem {
 	return out
 }
 
+// Notices lists the cautions that do not fail a check (below DANGER, or
+// acknowledged), by place, for the reader of check's report.
+func (s *Site) Notices() []Problem {
+	var out []Problem
+	if s.Calc == nil {
+		return out
+	}
+	for _, e := range s.Calc.Blocks {
+		for _, c := range e.Cautions {
+			if c.Level < calc.Danger || c.Acknowledged != "" {
+				msg := c.Message
+				if c.Acknowledged != "" {
+					msg += " (acknowledged: " + c.Acknowledged + ")"
+				}
+				out = append(out, Problem{File: e.Block.File, Line: e.Block.Line, Block: e.Block.ID, Type: "caution", Name: c.Rule, Level: c.Level.String(), Message: msg})
+			}
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool {
+		if out[i].File != out[j].File {
+			return out[i].File < out[j].File
+		}
+		return out[i].Line < out[j].Line
+	})
+	return out
+}
+
 // Tally counts what a check looked at.
 type Tally struct {
 	Pages        int `json:"pages"`
