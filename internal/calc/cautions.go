@@ -51,9 +51,6 @@ var rules = []Rule{
 	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
 }
 
-// Rules lists the caution rules.
-func Rules() []Rule { return rules }
-
 // RuleIDs lists the rule ids, sorted.
 func RuleIDs() []string {
 	ids := make([]string, len(rules))

@@ -26,3 +26,14 @@ func wantInputError(t *testing.T, changes map[string]any, key string, says []str
 		}
 	}
 }
+
+// NewInputs returns inputs with the given SI values, all marked as given,
+// in the default environment.
+func NewInputs(ambient float64, values map[string]float64) *Inputs {
+	in := &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+		names: map[string]string{}, links: map[string][]*Linked{}, env: DefaultEnv()}
+	for k, v := range values {
+		in.Set(k, v, true)
+	}
+	return in
+}

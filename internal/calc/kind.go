@@ -118,17 +118,6 @@ type Inputs struct {
 // by a block that links to it); a model may skip sampling them otherwise.
 func (in *Inputs) WantCurves() bool { return !in.noCurves }
 
-// NewInputs returns inputs with the given SI values, all marked as given,
-// in the default environment.
-func NewInputs(ambient float64, values map[string]float64) *Inputs {
-	in := &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: DefaultEnv()}
-	for k, v := range values {
-		in.Set(k, v, true)
-	}
-	return in
-}
-
 // SetName stores a Name input.
 func (in *Inputs) SetName(key, value string, given bool) {
 	in.names[key] = value
