@@ -29,6 +29,7 @@ type Preview struct {
 	logger   *log.Logger
 	mu       sync.RWMutex
 	files    map[string][]byte // last good build
+	home     string            // its home page: what "/" shows
 	buildErr error             // last build's error, nil when it succeeded
 	changed  chan struct{}     // closed and replaced on every build
 }
@@ -44,13 +45,15 @@ func NewPreview(root string, logger *log.Logger) *Preview {
 func (p *Preview) rebuild() {
 	start := time.Now()
 	var files map[string][]byte
+	home := "index.html"
 	s, err := Load(p.root)
 	if err == nil {
+		home = s.home()
 		files, err = s.render(nil)
 	}
 	p.mu.Lock()
 	if err == nil {
-		p.files = files
+		p.files, p.home = files, home
 	}
 	p.buildErr = err
 	close(p.changed)
@@ -174,8 +177,11 @@ func (p *Preview) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	}
 	name := strings.TrimPrefix(path.Clean("/"+r.URL.Path), "/")
 	p.mu.RLock()
-	files, buildErr := p.files, p.buildErr
+	files, buildErr, home := p.files, p.buildErr, p.home
 	p.mu.RUnlock()
+	if name == "" {
+		name = home
+	}
 	data, ok := files[name]
 	if !ok {
 		data, ok = files[path.Join(name, "index.html")]
