@@ -234,7 +234,25 @@ func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
 		s, _ := calc.FormatValue(abs, units.Pressure, "Pa(a)", e.Ambient, e.SigFigs())
 		return s
 	}
+	if abs < e.Ambient {
+		// A vacuum reads best absolute first, and its gauge value must not
+		// round past a perfect vacuum (-14.696 psi(g) shown as -14.7).
+		for sig := e.SigFigs() + 1; sig <= 8 && roundsPastVacuum(g, e.Ambient); sig++ {
+			g, _ = calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, sig)
+		}
+		return a + " · " + g
+	}
 	return g + " · " + a
+}
+
+// roundsPastVacuum reports whether a shown gauge pressure is below minus
+// the ambient pressure, which no pressure can be.
+func roundsPastVacuum(shown string, ambient float64) bool {
+	q, err := units.Parse(shown, units.Pressure)
+	if err != nil {
+		return false
+	}
+	return q.Value < -ambient
 }
 
 // pressureBase is the unit of a pressure without its gauge or absolute mark.

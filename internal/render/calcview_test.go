@@ -114,3 +114,15 @@ func TestBlockSourceHighlighting(t *testing.T) {
 		t.Errorf("got\n%s\nwant it to hold\n%s", got, want)
 	}
 }
+
+// TestVacuumPressurePair: a pressure below ambient shows absolute first,
+// and its gauge value never rounds below minus the ambient pressure.
+func TestVacuumPressurePair(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	// 1 Pa absolute on 1 atm: -14.6958 psi(g) (NIST SP 811: 1 psi = 6894.757 Pa);
+	// three figures would give -14.7, below a perfect vacuum.
+	got := pressurePair(1, "psi", e)
+	if !strings.HasPrefix(got, "0.000145 psi(a) · -14.69") {
+		t.Errorf("pressurePair = %q", got)
+	}
+}
