@@ -14,6 +14,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"sync"
 	"time"
@@ -32,6 +33,10 @@ type Preview struct {
 	home     string            // its home page: what "/" shows
 	buildErr error             // last build's error, nil when it succeeded
 	changed  chan struct{}     // closed and replaced on every build
+	builds   int               // counts builds
+	// goodBuild is the number of the build that made files; pages carry
+	// it, so that a page served before the latest build reloads.
+	goodBuild int
 }
 
 // NewPreview builds the site at root once.
@@ -53,9 +58,10 @@ func (p *Preview) rebuild() {
 	}
 	p.mu.Lock()
 	if err == nil {
-		p.files, p.home = files, home
+		p.files, p.home, p.goodBuild = files, home, p.builds+1
 	}
 	p.buildErr = err
+	p.builds++
 	close(p.changed)
 	p.changed = make(chan struct{})
 	p.mu.Unlock()
@@ -158,7 +164,11 @@ const previewScript = `(function () {
     box.textContent = "specgen preview: the build failed; showing the last good site.\n\n" + msg;
   }
   var es = new EventSource("` + previewEventsPath + `");
+  var built = (document.currentScript && document.currentScript.dataset.build) || "";
   es.addEventListener("reload", function () { location.reload(); });
+  // On connecting, the server names its latest good build: a page served
+  // before it (an edit while this page was loading) reloads at once.
+  es.addEventListener("hello", function (e) { if (built && e.data !== built) { location.reload(); } });
   es.addEventListener("failed", function (e) { show(e.data); });
 })();
 `
@@ -177,7 +187,7 @@ func (p *Preview) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	}
 	name := strings.TrimPrefix(path.Clean("/"+r.URL.Path), "/")
 	p.mu.RLock()
-	files, buildErr, home := p.files, p.buildErr, p.home
+	files, buildErr, home, goodBuild := p.files, p.buildErr, p.home, p.goodBuild
 	p.mu.RUnlock()
 	if name == "" {
 		name = home
@@ -204,15 +214,15 @@ func (p *Preview) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	w.Header().Set("Content-Type", ctype)
 	w.Header().Set("Cache-Control", "no-store")
 	if strings.HasPrefix(ctype, "text/html") {
-		data = injectPreview(data, buildErr)
+		data = injectPreview(data, buildErr, goodBuild)
 	}
 	_, _ = w.Write(data)
 }
 
 // injectPreview adds the reload script, and the error overlay when the
 // last build failed, before </body>.
-func injectPreview(page []byte, buildErr error) []byte {
-	extra := `<script src="` + previewScriptPath + `"></script>`
+func injectPreview(page []byte, buildErr error, build int) []byte {
+	extra := `<script src="` + previewScriptPath + `" data-build="` + strconv.Itoa(build) + `"></script>`
 	if buildErr != nil {
 		extra = `<div id="sg-preview-error" role="alert" style="position:fixed;inset:auto 1rem 1rem 1rem;max-height:60vh;overflow:auto;z-index:9999;background:#fff;color:#111;border:3px solid #b3261e;padding:1rem;font:14px/1.45 ui-monospace,monospace;white-space:pre-wrap">specgen preview: the build failed; showing the last good site.` +
 			"\n\n" + html.EscapeString(buildErr.Error()) + `</div>` + extra
@@ -245,8 +255,9 @@ func (p *Preview) serveEvents(w http.ResponseWriter, r *http.Request) {
 	w.Header().Set("Content-Type", "text/event-stream")
 	w.Header().Set("Cache-Control", "no-store")
 	p.mu.RLock()
-	changed, buildErr := p.changed, p.buildErr
+	changed, buildErr, good := p.changed, p.buildErr, p.goodBuild
 	p.mu.RUnlock()
+	writeEvent(w, "hello", strconv.Itoa(good))
 	if buildErr != nil {
 		writeEvent(w, "failed", buildErr.Error())
 	}
