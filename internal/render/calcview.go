@@ -113,7 +113,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 		ws("</div>\n")
 	}
 	ws(`<details class="sg-calc-source"><summary>Block source</summary>`, "\n")
-	writeBlockSource(w, source)
+	writeBlockSource(w, source, b.Line+1)
 	ws("</details>\n</section>\n")
 }
 

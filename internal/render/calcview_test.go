@@ -103,7 +103,7 @@ func BenchmarkRenderCalcBlock(b *testing.B) {
 func TestBlockSourceHighlighting(t *testing.T) {
 	var buf bytes.Buffer
 	w := bufio.NewWriter(&buf)
-	writeBlockSource(w, "id = \"a<b\" # note\r\n[expect]\nn = 1.3\nok = true\nlist = [\"x\", 'y']\n")
+	writeBlockSource(w, "id = \"a<b\" # note\r\n[expect]\nn = 1.3\nok = true\nlist = [\"x\", 'y']\n", 0)
 	_ = w.Flush()
 	want := `<span class="hl-nx">id </span><span class="hl-p">=</span> <span class="hl-s2">&#34;a&lt;b&#34;</span> <span class="hl-c1"># note</span>` + "\r\n" +
 		`<span class="hl-kt">[expect]</span>` + "\n" +

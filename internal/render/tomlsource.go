@@ -1,6 +1,7 @@
 package render
 
 import (
+	"strconv"
 	"strings"
 
 	"github.com/yuin/goldmark/util"
@@ -10,11 +11,16 @@ import (
 // classes chroma uses, by a small scanner of its own: blocks are short and
 // regular (keys, strings, numbers, tables, comments), and a site has
 // hundreds of them, where chroma's general lexer was a tenth of the build.
-func writeBlockSource(w util.BufWriter, src string) {
+// Each line carries its line number in the page (the block's first line is
+// first), as messages cite them.
+func writeBlockSource(w util.BufWriter, src string, first int) {
 	_, _ = w.WriteString(`<div class="sg-code" data-lang="toml"><pre class="hl-chroma"><code>`)
-	for _, line := range strings.SplitAfter(src, "\n") {
+	for i, line := range strings.SplitAfter(src, "\n") {
 		if line == "" {
 			continue
+		}
+		if first > 0 {
+			_, _ = w.WriteString(`<span class="sg-ln" aria-hidden="true">` + strconv.Itoa(first+i) + `</span>`)
 		}
 		writeTOMLLine(w, line)
 	}
