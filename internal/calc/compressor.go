@@ -29,7 +29,7 @@ var compressorKind = Kind{
 		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: positiveUpTo(1e4), Meaning: "air temperature at the inlet"},
 		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
 		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
-		{Name: "head_material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain lists materials in the docs)"},
+		{Name: "head_material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
 		{Name: "valve_material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3), Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
 	},
@@ -117,7 +117,9 @@ Cycle
   W = z·n/(n−1)·p1·Vi·(r^((n−1)/n) − 1) with Vi = η_v·Vs (per revolution)
   W = z·p1·Vi·ln r when n = 1
   P_i = W·N   P_iso = z·p1·Vi·ln r·N   P_s = P_i/η_m
-  F_peak = (p_top − p_amb)·A, p_top = p2 (or p_max when lower)
+  F_peak = max(p_top − p_amb, p_amb − p1)·A, p_top = p2 (or p_max when
+  lower): the larger of the load on delivery and, with an inlet below
+  ambient, on suction
 
 Torque
   The cylinder pressure p(θ) follows re-expansion, suction, compression and
@@ -333,7 +335,8 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
 			"T2 = T1 · r^((n−1)/n)", "= " + show(c.t1, "K") + " · " + num(r) + "^((" + nWord + " − 1)/" + nWord + ")"}},
-		{Name: "peak_piston_force", Value: (cyc.top - c.ambient) * area, Dim: units.Force, Trace: peakForceTrace(delivers, bara(cyc.top), bara(c.ambient), mm2(area))},
+		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
+			Trace: peakForceTrace(delivers, cyc.top-c.ambient >= c.ambient-c.p1, bara(cyc.top), bara(c.p1), bara(c.ambient), mm2(area))},
 		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: Trace{
 			"c_m = 2 · s · N", "= 2 · " + mm(stroke) + " · " + rps}},
 		{Name: "max_rod_angle", Value: math.Asin(c.crankRadius / c.rod), Dim: units.Angle, Trace: Trace{
@@ -385,9 +388,13 @@ func noDelivery(delivers bool) string {
 	return " ≤ 0: no delivery, reported as 0"
 }
 
-// peakForceTrace shows the piston force at the top pressure of the cycle.
-func peakForceTrace(delivers bool, top, ambient, area string) Trace {
-	if delivers {
+// peakForceTrace shows the largest piston force: at the top pressure of
+// the cycle, or, with an inlet below ambient, on suction when that is more.
+func peakForceTrace(delivers, atTop bool, top, p1, ambient, area string) Trace {
+	switch {
+	case !atTop:
+		return Trace{"F = (p_amb − p1) · A (suction below ambient is the larger load)", "= (" + ambient + " − " + p1 + ") · " + area}
+	case delivers:
 		return Trace{"F = (p2 − p_amb) · A", "= (" + top + " − " + ambient + ") · " + area}
 	}
 	return Trace{"F = (p_max − p_amb) · A (no delivery: p_max < p2)", "= (" + top + " − " + ambient + ") · " + area}

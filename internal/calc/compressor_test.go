@@ -482,3 +482,24 @@ func TestCompressorExtremes(t *testing.T) {
 		t.Errorf("only %d of 300 trials evaluated; the test exercises too little", finiteOutcomes)
 	}
 }
+
+// TestPeakForceOnSuction: with an inlet well below ambient (a vacuum
+// booster), the larger piston load is on suction: (p_amb − p1)·A =
+// (101325 − 50000) Pa · π/4 · (50 mm)² = 100.78 N (by hand), not the
+// delivery load near zero.
+func TestPeakForceOnSuction(t *testing.T) {
+	in := NewInputs(101325, map[string]float64{
+		"bore": 0.05, "stroke": 0.04, "rod_length": 0.1, "clearance_ratio": 0.05, "cylinders": 1,
+		"speed": 900 * 2 * math.Pi / 60, "inlet_pressure": 50000, "discharge_pressure": 101325 + 1000,
+		"inlet_temperature": 293.15, "polytropic_index": 1.3, "mechanical_efficiency": 0.85,
+	})
+	out, err := evaluateCompressor(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range out.Results {
+		if r.Name == "peak_piston_force" && math.Abs(r.Value-100.78) > 0.01 {
+			t.Errorf("peak_piston_force = %.3f N, want 100.78 N", r.Value)
+		}
+	}
+}

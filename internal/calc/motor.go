@@ -24,7 +24,6 @@ var motorKind = Kind{
 		motorGeometryInput("cylinders"),
 		motorGeometryInput("speed"),
 		{Name: "supply_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure of the supply air at the inlet valve, up to 1 GPa; must be above ambient"},
-		{Name: "supply_temperature", Dim: units.Temperature, Default: "20 degC", Range: positiveUpTo(1e4), Meaning: "temperature of the supply air; free air is counted at this temperature and ambient pressure"},
 		{Name: "cutoff", Dim: units.Dimensionless, Range: Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
 			Meaning: "fraction of the stroke at which the inlet valve closes, above 0 up to 1 (1: admission over the whole stroke)"},
 		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for the expansion after cut-off, 1 (isothermal) to 1.67"},
@@ -35,7 +34,7 @@ var motorKind = Kind{
 		{Name: "indicated_work", Dim: units.Energy, Unit: "J", Meaning: "gas work of all cylinders on the pistons in one revolution"},
 		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time, before friction"},
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the mean torque the motor delivers, before friction"},
-		{Name: "air_consumption", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "air admitted, as free air at ambient pressure and supply temperature"},
+		{Name: "air_consumption", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "air admitted, as free air: its volume at ambient pressure and the supply air's own temperature"},
 		{Name: "efficiency", Dim: units.Dimensionless, Unit: "", Meaning: "indicated work over the work of the same air expanding isothermally from supply to ambient pressure"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant load torque"},
 	},
@@ -106,13 +105,13 @@ Limits
 // motorInput is a motor block's inputs in SI, pressures absolute.
 type motorInput struct {
 	geom         compressorInput // cylinder, crank and speed, as a compressor's
-	supply, temp float64
+	supply float64
 	cutoff, n    float64
 }
 
 // readMotorInput applies the checks that single-input ranges cannot.
 func readMotorInput(in *Inputs) (motorInput, error) {
-	m := motorInput{supply: in.Value("supply_pressure"), temp: in.Value("supply_temperature"),
+	m := motorInput{supply: in.Value("supply_pressure"),
 		cutoff: in.Value("cutoff"), n: in.Value("polytropic_index")}
 	if m.supply <= in.Ambient {
 		return m, &InputError{Key: "supply_pressure", Message: fmt.Sprintf(
