@@ -12,16 +12,25 @@ import (
 // them, so one link works both in a repository's file view and in the site.
 type mdLinkTransformer struct{}
 
+// writtenDests keeps, in the parser context, what each rewritten link
+// said before, so that messages quote the page as written.
+var writtenDests = parser.NewContextKey()
+
 func (mdLinkTransformer) Transform(doc *ast.Document, reader text.Reader, pc parser.Context) {
+	written := map[ast.Node]string{}
 	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
 			return ast.WalkContinue, nil
 		}
 		if link, ok := n.(*ast.Link); ok {
-			link.Destination = []byte(RewriteLink(string(link.Destination)))
+			if to := RewriteLink(string(link.Destination)); to != string(link.Destination) {
+				written[n] = string(link.Destination)
+				link.Destination = []byte(to)
+			}
 		}
 		return ast.WalkContinue, nil
 	})
+	pc.Set(writtenDests, written)
 }
 
 // RewriteLink turns a relative link to "x.md" (with an optional #fragment

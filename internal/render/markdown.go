@@ -74,13 +74,18 @@ type Document struct {
 	// LineOffset is the number of file lines before Source (front matter),
 	// added to every line number reported for this document.
 	LineOffset int
+	// written holds the destinations of links rewritten from .md as the
+	// page wrote them.
+	written map[ast.Node]string
 }
 
 // Parse parses a page body. lineOffset is the file line on which the body
 // starts, minus one.
 func (m *Markdown) Parse(src []byte, lineOffset int) *Document {
-	root := m.md.Parser().Parse(text.NewReader(src))
-	return &Document{Source: src, Root: root, LineOffset: lineOffset}
+	pc := parser.NewContext()
+	root := m.md.Parser().Parse(text.NewReader(src), parser.WithContext(pc))
+	written, _ := pc.Get(writtenDests).(map[ast.Node]string)
+	return &Document{Source: src, Root: root, LineOffset: lineOffset, written: written}
 }
 
 // Render writes the document's HTML.

@@ -105,6 +105,17 @@ func Load(root string) (*Site, error) {
 	if err := s.evaluate(); err != nil {
 		return nil, err
 	}
+	static, err := readStatic(root)
+	if err != nil {
+		return nil, err
+	}
+	names := map[string]bool{}
+	for name := range static {
+		names[name] = true
+	}
+	if err := s.checkLinks(names).Sorted(); err != nil {
+		return nil, err
+	}
 	s.nav, s.reading = buildNav(s.Pages)
 	s.revision = revisionOf(root)
 	return s, nil

@@ -53,6 +53,14 @@ func readDoc(p *Page, doc *render.Document) error {
 			p.charts = append(p.charts, chartName{ChartName: n, Line: n.Line + doc.LineOffset})
 		}
 	}
+	p.links = doc.LinkRefs()
+	p.anchors = map[string]bool{}
+	for _, id := range doc.AnchorIDs() {
+		p.anchors[id] = true
+	}
+	for _, b := range p.blocks {
+		p.anchors[render.BlockAnchor(b.ID)] = true
+	}
 	return errs.Sorted()
 }
 

@@ -36,6 +36,10 @@ type Page struct {
 	blocks []*calc.Block
 	refs   []valueRef
 	charts []chartName
+	// links are the page's links and images; anchors the ids of its
+	// headings, for checking links into it.
+	links   []render.LinkRef
+	anchors map[string]bool
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
