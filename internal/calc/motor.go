@@ -104,9 +104,9 @@ Limits
 
 // motorInput is a motor block's inputs in SI, pressures absolute.
 type motorInput struct {
-	geom         compressorInput // cylinder, crank and speed, as a compressor's
-	supply float64
-	cutoff, n    float64
+	geom      compressorInput // cylinder, crank and speed, as a compressor's
+	supply    float64
+	cutoff, n float64
 }
 
 // readMotorInput applies the checks that single-input ranges cannot.
