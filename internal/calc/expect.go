@@ -88,6 +88,8 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 		if math.IsInf(c.Tolerance, 0) {
 			return bad("has an exponent too large to tell its precision; write the number with a smaller exponent and a tolerance")
 		}
+	case strings.HasSuffix(tol, "%") && q.Unit.Offset != 0:
+		return bad("takes a percentage of a temperature on a scale with an offset, which has no meaning (1 % of 20 °C is not 1 % of the temperature); give the tolerance in degrees, e.g. \"± 5 degC\", or claim in K")
 	case strings.HasSuffix(tol, "%"):
 		f, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(tol, "%")), 64)
 		if err != nil || f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
@@ -176,9 +178,30 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	if r.OK {
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
 	} else {
-		r.Message = fmt.Sprintf("%s: claim %q fails: computed %s", c.Result, c.Text, computed)
+		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
 	}
 	return r
+}
+
+// band words what an "about" claim allows, " (holds from 1179.5 to
+// 1180.5 N)", so that a failure shows why a near value fails; other claims
+// say it themselves.
+func (c Claim) band(sig int) string {
+	if c.Op != OpAbout {
+		return ""
+	}
+	tol := c.Tolerance + c.RelTol*math.Abs(c.Value)
+	bound := func(v float64) string {
+		mant, exp, _ := strings.Cut(units.Format(v, max(sig, 3)+3), "e")
+		if strings.Contains(mant, ".") {
+			mant = strings.TrimSuffix(strings.TrimRight(mant, "0"), ".")
+		}
+		if exp != "" {
+			return mant + "e" + exp
+		}
+		return mant
+	}
+	return fmt.Sprintf(" (it holds from %s to %s %s)", bound(c.Value-tol), bound(c.Value+tol), units.Pretty(c.Unit))
 }
 
 // holds reports whether v, in the claim's unit, satisfies the claim.
