@@ -405,6 +405,18 @@ func levels(order []*Block) [][]*Block {
 	return out
 }
 
+// absoluteUnit is the absolute form of a pressure unit: "bar" → "bar(a)".
+func absoluteUnit(unit string) string {
+	u, err := units.LookupUnit(unit)
+	if err != nil || u.Ref == units.Absolute {
+		return unit
+	}
+	if a, err := units.LookupUnit(strings.TrimSuffix(u.Symbol, "(g)") + "(a)"); err == nil {
+		return a.Symbol
+	}
+	return "bar(a)"
+}
+
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
 func Parallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
@@ -624,8 +636,12 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 	return e, nil
 }
 
-// describeRange words an input's allowed range in the unit the user wrote.
+// describeRange words an input's allowed range in the unit the user wrote;
+// a pressure's range is on its absolute value, so it is worded absolute.
 func describeRange(spec InputSpec, unit string, ambient float64, sig int) string {
+	if spec.Dim == units.Pressure {
+		unit = absoluteUnit(unit)
+	}
 	show := func(v float64) string {
 		if unit == "" || spec.Dim == units.Dimensionless {
 			if v == math.Trunc(v) && math.Abs(v) < 1e9 {
