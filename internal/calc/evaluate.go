@@ -629,7 +629,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {
-			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the model gave no value for this result"}}
+			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs (" + b.Kind.resultMeaning(c.Result) + ")"}}
 		}
 		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
 	}

@@ -45,6 +45,13 @@ func (k *Kind) input(name string) (InputSpec, bool) {
 // ResultSpec returns the kind's result spec named name.
 func (k *Kind) ResultSpec(name string) (ResultSpec, bool) { return k.result(name) }
 
+// resultMeaning is a result's one-line meaning, which says when an
+// optional result is computed.
+func (k *Kind) resultMeaning(name string) string {
+	r, _ := k.result(name)
+	return r.Meaning
+}
+
 // result returns the kind's result spec named name.
 func (k *Kind) result(name string) (ResultSpec, bool) {
 	for _, r := range k.Results {

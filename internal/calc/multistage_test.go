@@ -216,7 +216,7 @@ func TestMultistageInputErrors(t *testing.T) {
 		{map[string]any{"supply": "low"}, "mass_flow", []string{"mass_flow or supply"}},
 		{map[string]any{"supply": "rx", "mass_flow": nil}, "supply", []string{"tank", "compressor"}},
 		{map[string]any{"discharge_pressure": "0.5 bar", "inlet_pressure": "2 bar(a)"}, "discharge_pressure", []string{"1.513 bar(a)", "2 bar(a)"}},
-		{map[string]any{"expect": map[string]any{"interstage_pressure_2": "3 bar"}}, "expect.interstage_pressure_2", []string{"no value"}},
+		{map[string]any{"expect": map[string]any{"interstage_pressure_2": "3 bar"}}, "expect.interstage_pressure_2", []string{"computes no interstage_pressure_2", "with at least 3 stages"}},
 	}
 	for _, c := range cases {
 		wantInputError(t, c.changes, c.key, c.says, staging)

@@ -259,6 +259,11 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 		}
 		return fail("%s", msg)
 	}
+	if spec, declared := e.Block.Kind.ResultSpec(ref.Result); declared {
+		if _, _, _, ok := e.Quantity(ref.Result); !ok {
+			return fail("block %s computes no %s with its inputs (%s)", ref.Block, ref.Result, spec.Meaning)
+		}
+	}
 	if _, _, _, ok := e.Quantity(ref.Result); !ok {
 		names := make([]string, len(e.Results))
 		for i, r := range e.Results {
