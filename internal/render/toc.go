@@ -80,6 +80,12 @@ func plainText(n ast.Node, source []byte) string {
 			}
 		case *ast.String:
 			buf.Write(t.Value)
+		case *ast.RawHTML:
+			// Kept as text, as the page shows it: the layout escapes it.
+			for i := 0; i < t.Segments.Len(); i++ {
+				seg := t.Segments.At(i)
+				buf.Write(seg.Value(source))
+			}
 		case *ast.CodeSpan:
 			for cc := t.FirstChild(); cc != nil; cc = cc.NextSibling() {
 				if tt, ok := cc.(*ast.Text); ok {
