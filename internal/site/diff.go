@@ -10,6 +10,8 @@ import (
 	"slices"
 	"sort"
 	"strings"
+
+	"specgen/internal/units"
 )
 
 // Diff is what changed in a site's calculations between two evaluations.
@@ -188,9 +190,8 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 			continue
 		}
 		vc := ValueChange{Name: name, Before: textOr(x.Display, inA), After: textOr(y.Display, inB)}
-		if inA && inB && x.Value != 0 {
-			rel := (y.Value - x.Value) / math.Abs(x.Value)
-			vc.Change = &rel
+		if inA && inB {
+			vc.Change = relativeChange(x, y)
 		}
 		bd.Results = append(bd.Results, vc)
 	}
@@ -243,6 +244,25 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 	}
 	changed := len(bd.Inputs)+len(bd.Results)+len(bd.Claims)+len(bd.Cautions) > 0 || a.ID != b.ID
 	return bd, changed
+}
+
+// relativeChange is (after − before)/|before| of the values as shown: a
+// pressure shown gauge changes by its gauge value, not by the absolute one
+// results.json keeps. It is nil when before is zero.
+func relativeChange(x, y ResultJSON) *float64 {
+	a, b := x.Value, y.Value
+	if x.Unit == "Pa(a)" {
+		qa, errA := units.Parse(x.Display, units.Pressure)
+		qb, errB := units.Parse(y.Display, units.Pressure)
+		if errA == nil && errB == nil && qa.Unit.Symbol == qb.Unit.Symbol {
+			a, b = qa.Value, qb.Value
+		}
+	}
+	if a == 0 {
+		return nil
+	}
+	rel := (b - a) / math.Abs(a)
+	return &rel
 }
 
 // sameNumber treats values equal to 12 significant figures as unchanged,
