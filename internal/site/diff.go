@@ -10,8 +10,6 @@ import (
 	"slices"
 	"sort"
 	"strings"
-
-	"specgen/internal/units"
 )
 
 // Diff is what changed in a site's calculations between two evaluations.
@@ -55,7 +53,9 @@ type ValueChange struct {
 	Name   string   `json:"name"`
 	Before string   `json:"before"` // as shown: text or display
 	After  string   `json:"after"`
-	Change *float64 `json:"relative_change,omitempty"` // (after − before)/|before| of the SI values
+	Change *float64 `json:"relative_change,omitempty"` // (after − before)/|before| of the SI values (pressures absolute)
+	// Absolute marks a pressure, whose change is on absolute values.
+	Absolute bool `json:"absolute,omitempty"`
 }
 
 // ClaimChange is a claim whose verdict changed, or that came or went.
@@ -192,6 +192,7 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 		vc := ValueChange{Name: name, Before: textOr(x.Display, inA), After: textOr(y.Display, inB)}
 		if inA && inB {
 			vc.Change = relativeChange(x, y)
+			vc.Absolute = x.Unit == "Pa(a)"
 		}
 		bd.Results = append(bd.Results, vc)
 	}
@@ -246,22 +247,14 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 	return bd, changed
 }
 
-// relativeChange is (after − before)/|before| of the values as shown: a
-// pressure shown gauge changes by its gauge value, not by the absolute one
-// results.json keeps. It is nil when before is zero.
+// relativeChange is (after − before)/|before| of the SI values (for a
+// pressure, the absolute ones; the Markdown says so). It is nil when
+// before is zero.
 func relativeChange(x, y ResultJSON) *float64 {
-	a, b := x.Value, y.Value
-	if x.Unit == "Pa(a)" {
-		qa, errA := units.Parse(x.Display, units.Pressure)
-		qb, errB := units.Parse(y.Display, units.Pressure)
-		if errA == nil && errB == nil && qa.Unit.Symbol == qb.Unit.Symbol {
-			a, b = qa.Value, qb.Value
-		}
-	}
-	if a == 0 {
+	if x.Value == 0 {
 		return nil
 	}
-	rel := (b - a) / math.Abs(a)
+	rel := (y.Value - x.Value) / math.Abs(x.Value)
 	return &rel
 }
 
@@ -346,6 +339,9 @@ func (d *Diff) WriteMarkdown(w io.Writer) {
 				change := ""
 				if c.Change != nil {
 					change = fmt.Sprintf("%+.3g %%", *c.Change*100)
+					if c.Absolute {
+						change += " (absolute)"
+					}
 				}
 				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", mdCell(c.Name), mdCell(c.Before), mdCell(c.After), change)
 			}
