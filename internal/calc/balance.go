@@ -13,7 +13,7 @@ var balanceKind = Kind{
 	Summary: "counterweight and shaking forces of a single-cylinder crank: primary and secondary forces, residual primary force along and across the cylinder",
 	Doc:     balanceDoc,
 	Inputs: []InputSpec{
-		{Name: "source", Type: Link, LinkKinds: []string{"compressor"}, Meaning: "id of the single-cylinder compressor block whose crank, rod and speed are balanced"},
+		{Name: "source", Type: Link, LinkKinds: []string{"compressor", "motor"}, Meaning: "id of the single-cylinder compressor or air motor block whose crank, rod and speed are balanced"},
 		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3),
 			Meaning: "piston, pin, rings and the small-end share of the rod; default: the source's reciprocating_mass"},
 		{Name: "rotating_mass", Dim: units.Mass, Default: "0 kg", Range: Between(0, 1e3),
