@@ -34,7 +34,7 @@ var balanceKind = Kind{
 
 const balanceDoc = `The balance kind sizes the counterweight of a single-cylinder crank and gives
 the shaking forces left on the frame. The crank radius R (half the stroke),
-rod length L and speed ω come from the compressor block named in source.
+rod length L and speed ω come from the compressor or motor block named in source.
 
 Assumptions
 - The moving parts are two point masses: m_rec reciprocating with the piston
@@ -43,7 +43,7 @@ Assumptions
 - Constant crank speed. Gravity and gas forces are left out: gas forces act
   on the piston and the cylinder head alike and do not shake the frame.
 - One cylinder. Several cylinders on one crank cancel or add their forces
-  by their arrangement, which the compressor block does not give.
+  by their arrangement, which the source block does not give.
 
 Forces (the slider-crank acceleration to second order in R/L; e.g.
 J. E. Shigley and J. J. Uicker, Theory of Machines and Mechanisms, balancing;
@@ -65,7 +65,7 @@ stays whatever f is.`
 func evaluateBalance(in *Inputs) (*Outcome, error) {
 	src := in.LinkOf("source")
 	if src == nil {
-		return nil, &InputError{Key: "source", Message: "missing: name the compressor block to balance, e.g. source = \"low\""}
+		return nil, &InputError{Key: "source", Message: "missing: name the compressor or motor block to balance, e.g. source = \"low\""}
 	}
 	if z := src.Inputs["cylinders"]; z > 1 {
 		return nil, &InputError{Key: "source", Message: fmt.Sprintf(
