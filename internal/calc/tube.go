@@ -86,7 +86,10 @@ Burst and allowable pressure
   p_allow = p_burst/n_min, n_min the site's minimum factor for the material
   (2.5 for ductile metals and 4 for plastics and brittle materials unless
   specgen.toml says otherwise). Both are reported as gauge in tables and as
-  absolute pascals in results.json.
+  absolute pascals in results.json. This allowable rests on tensile
+  strength; pressure-vessel and piping codes set design stresses from
+  both yield and tensile strength with their own factors and usually allow
+  less. Where a code applies, its allowable governs.
 
 Safety factor
   With a yield strength S_y (ductile): n = S_y/σ_vM, von Mises at the bore,
