@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"encoding/csv"
+	"errors"
 	"fmt"
 	"image/color"
 	"math"
@@ -63,7 +64,8 @@ type DrawnChart struct {
 	CSV  []byte
 }
 
-// DrawChart draws a chart. id makes the SVG's element ids unique in the
+// DrawChart draws a chart; its errors do not name the chart, which the
+// caller does. id makes the SVG's element ids unique in the
 // page; csvHref is the link to the chart's data.
 func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	xs := func(v []float64) ([]float64, error) { return toUnit(v, c.X, c.Ambient) }
@@ -108,12 +110,12 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 				return nil, err
 			}
 			if len(x) != len(y) || len(x) < 2 {
-				return nil, fmt.Errorf("chart %s: series %q has %d x and %d y values", c.Name, s.Name, len(x), len(y))
+				return nil, fmt.Errorf("series %q has %d x and %d y values", s.Name, len(x), len(y))
 			}
 			pts := make(plotter.XYs, len(x))
 			for k := range x {
 				if panel.Y.Log && y[k] <= 0 {
-					return nil, fmt.Errorf("chart %s: series %q has a value at or below zero on a log scale", c.Name, s.Name)
+					return nil, fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
 				}
 				pts[k] = plotter.XY{X: x[k], Y: y[k]}
 				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
@@ -121,7 +123,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			}
 			line, err := plotter.NewLine(thin(pts))
 			if err != nil {
-				return nil, fmt.Errorf("chart %s: %w", c.Name, err)
+				return nil, err
 			}
 			line.Color = seriesColors[j%len(seriesColors)]
 			line.Width = 1.8
@@ -151,6 +153,9 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	canvases := plot.Align(plots, tiles, dc)
 	for i, row := range plots {
 		row[0].Draw(canvases[i][0])
+	}
+	if canvas.nonFinite {
+		return nil, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
 	}
 
 	var out bytes.Buffer
@@ -192,7 +197,7 @@ func dashAttr(s calc.LineStyle) string {
 		if i > 0 {
 			b.WriteByte(' ')
 		}
-		num(&b, float64(v))
+		writeNum(&b, float64(v))
 	}
 	b.WriteByte('"')
 	return b.String()

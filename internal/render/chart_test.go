@@ -5,6 +5,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
 )
 
 // TestDrawCompressorCharts draws every chart of a compressor block and
@@ -34,6 +37,28 @@ func TestDrawCompressorCharts(t *testing.T) {
 		if dir := os.Getenv("SPECGEN_CHART_DIR"); dir != "" {
 			page := "<!DOCTYPE html><html><head><meta charset=utf-8><link rel=stylesheet href=specgen.css></head><body><main class=sg-body style='max-width:50rem;margin:2rem'>" + d.HTML + "</main></body></html>"
 			_ = os.WriteFile(filepath.Join(dir, name+".html"), []byte(page), 0o644)
+		}
+	}
+}
+
+// TestDrawChartRefusesDegenerateRanges checks that data whose span float64
+// arithmetic cannot scale to a canvas gives an error, not NaN in the SVG.
+func TestDrawChartRefusesDegenerateRanges(t *testing.T) {
+	for _, ys := range [][]float64{
+		{0, 1e-320, 2e-320}, // subnormal span: the scale overflows
+		{-1e308, 1e308, 0},  // the span itself overflows
+	} {
+		c := &calc.Chart{Name: "speeds", Title: "Speeds",
+			X: calc.Axis{Label: "Crank angle", Dim: units.Dimensionless, Unit: ""},
+			Panels: []calc.Panel{{Y: calc.Axis{Label: "Speed", Dim: units.Dimensionless, Unit: ""},
+				Series: []calc.Series{{Name: "piston", X: []float64{0, 1, 2}, Y: ys}}}}}
+		d, err := DrawChart(c, "chart-x", "")
+		if err == nil {
+			t.Errorf("y %v: drew %d bytes, want an error", ys, len(d.HTML))
+			continue
+		}
+		if !strings.Contains(err.Error(), "range to draw") {
+			t.Errorf("y %v: error %q does not say why", ys, err)
 		}
 	}
 }

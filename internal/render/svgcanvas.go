@@ -16,10 +16,12 @@ import (
 // page's stylesheet sets them (light, dark, print); text uses the page's
 // font stack, chosen to match the metrics gonum/plot lays text out with.
 type svgCanvas struct {
-	w, h    vg.Length
-	buf     bytes.Buffer
-	stack   []canvasState
-	classes map[color.RGBA]string
+	w, h vg.Length
+	buf  bytes.Buffer
+	// nonFinite is set when a coordinate was NaN or infinite.
+	nonFinite bool
+	stack     []canvasState
+	classes   map[color.RGBA]string
 }
 
 type canvasState struct {
@@ -93,9 +95,19 @@ func (c *svgCanvas) point(p vg.Point) (float64, float64) {
 	return m[0]*x + m[2]*y + m[4], m[1]*x + m[3]*y + m[5]
 }
 
-// num writes a coordinate to a tenth of a point: plenty for a chart, and
-// the same bytes on every machine.
-func num(b *bytes.Buffer, v float64) {
+// num writes a coordinate and notes one that is not a finite number, which
+// data spanning too narrow or too wide a range for float64 arithmetic
+// produces, so that the chart is refused rather than written.
+func (c *svgCanvas) num(b *bytes.Buffer, v float64) {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		c.nonFinite = true
+	}
+	writeNum(b, v)
+}
+
+// writeNum writes a coordinate to a tenth of a point: plenty for a chart,
+// and the same bytes on every machine.
+func writeNum(b *bytes.Buffer, v float64) {
 	v = math.Round(v*10) / 10
 	if v == 0 {
 		v = 0 // no "-0"
@@ -114,9 +126,9 @@ func (c *svgCanvas) pathData(p vg.Path) string {
 				b.WriteByte('L')
 			}
 			x, y := c.point(comp.Pos)
-			num(&b, x)
+			c.num(&b, x)
 			b.WriteByte(' ')
-			num(&b, y)
+			c.num(&b, y)
 		case vg.ArcComp:
 			c.arc(&b, comp)
 		case vg.CurveComp:
@@ -130,9 +142,9 @@ func (c *svgCanvas) pathData(p vg.Path) string {
 					b.WriteByte(' ')
 				}
 				x, y := c.point(pt)
-				num(&b, x)
+				c.num(&b, x)
 				b.WriteByte(' ')
-				num(&b, y)
+				c.num(&b, y)
 			}
 		case vg.CloseComp:
 			b.WriteByte('Z')
@@ -152,9 +164,9 @@ func (c *svgCanvas) arc(b *bytes.Buffer, comp vg.PathComp) {
 	}
 	x, y := at(comp.Start)
 	b.WriteByte('L')
-	num(b, x)
+	c.num(b, x)
 	b.WriteByte(' ')
-	num(b, y)
+	c.num(b, y)
 	parts := 1
 	if math.Abs(comp.Angle) > math.Pi {
 		parts = 2
@@ -167,13 +179,13 @@ func (c *svgCanvas) arc(b *bytes.Buffer, comp vg.PathComp) {
 	for i := 1; i <= parts; i++ {
 		x, y := at(comp.Start + comp.Angle*float64(i)/float64(parts))
 		b.WriteString("A")
-		num(b, r)
+		c.num(b, r)
 		b.WriteByte(' ')
-		num(b, r)
+		c.num(b, r)
 		b.WriteString(" 0 0 " + sweep + " ")
-		num(b, x)
+		c.num(b, x)
 		b.WriteByte(' ')
-		num(b, y)
+		c.num(b, y)
 	}
 }
 
@@ -200,7 +212,7 @@ func (c *svgCanvas) Stroke(p vg.Path) {
 		return
 	}
 	c.buf.WriteString(`<path` + c.paint("s") + ` stroke-width="`)
-	num(&c.buf, float64(st.width))
+	c.num(&c.buf, float64(st.width))
 	c.buf.WriteByte('"')
 	if len(st.dashes) > 0 {
 		c.buf.WriteString(` stroke-dasharray="`)
@@ -208,7 +220,7 @@ func (c *svgCanvas) Stroke(p vg.Path) {
 			if i > 0 {
 				c.buf.WriteByte(' ')
 			}
-			num(&c.buf, float64(d))
+			c.num(&c.buf, float64(d))
 		}
 		c.buf.WriteByte('"')
 	}
@@ -230,19 +242,19 @@ func (c *svgCanvas) FillString(f font.Face, pt vg.Point, text string) {
 	m := c.top().m
 	angle := math.Atan2(-m[1], m[0]) * 180 / math.Pi // y is flipped
 	c.buf.WriteString(`<text x="`)
-	num(&c.buf, x)
+	c.num(&c.buf, x)
 	c.buf.WriteString(`" y="`)
-	num(&c.buf, y)
+	c.num(&c.buf, y)
 	c.buf.WriteString(`" font-size="`)
-	num(&c.buf, float64(f.Font.Size))
+	c.num(&c.buf, float64(f.Font.Size))
 	c.buf.WriteByte('"')
 	if math.Abs(angle) > 0.01 {
 		c.buf.WriteString(` transform="rotate(`)
-		num(&c.buf, -angle)
+		c.num(&c.buf, -angle)
 		c.buf.WriteByte(' ')
-		num(&c.buf, x)
+		c.num(&c.buf, x)
 		c.buf.WriteByte(' ')
-		num(&c.buf, y)
+		c.num(&c.buf, y)
 		c.buf.WriteString(`)"`)
 	}
 	c.buf.WriteString(`>` + esc(text) + "</text>\n")
