@@ -20,7 +20,7 @@ var balanceKind = Kind{
 			Meaning: "crank pin, web and the big-end share of the rod, referred to the crank radius"},
 		{Name: "balance_fraction", Dim: units.Dimensionless, Range: Between(0, 1),
 			Meaning: "share of the reciprocating mass the counterweight balances, 0 to 1 (one half is common practice for single cylinders)"},
-		{Name: "counterweight_radius", Dim: units.Length, Range: positiveUpTo(10), Meaning: "radius of the counterweight's centre of mass from the crank axis"},
+		{Name: "counterweight_radius", Dim: units.Length, Range: Between(minPartSize, 10), Meaning: "radius of the counterweight's centre of mass from the crank axis"},
 	},
 	Results: []ResultSpec{
 		{Name: "counterweight_mass", Dim: units.Mass, Unit: "g", Meaning: "counterweight, opposite the crank pin at counterweight_radius"},

@@ -23,10 +23,10 @@ var compressorKind = Kind{
 		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: positiveUpTo(100), Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
 		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: Between(minClearanceRatio, 100), Meaning: "clearance volume over swept volume, 1e-6 to 100; give clearance_volume or clearance_ratio"},
 		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased, 1 to 32"},
-		{Name: "speed", Dim: units.RotationalSpeed, Range: positiveUpTo(1e5), Meaning: "crankshaft speed, up to 1e5 rad/s"},
+		{Name: "speed", Dim: units.RotationalSpeed, Range: Between(minCrankSpeed, 1e5), Meaning: "crankshaft speed, 1 rpm to 1e5 rad/s"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
 		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: Between(1, 1e9), Meaning: "pressure in the cylinder during suction, 1 Pa(a) to 1 GPa; default: ambient"},
-		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: positiveUpTo(1e4), Meaning: "air temperature at the inlet"},
+		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature at the inlet"},
 		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
 		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
 		{Name: "head_material", Type: Name, Optional: true, Choices: materialChoices, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
@@ -70,6 +70,18 @@ const (
 	// fraction of the crank radius, for the slider-crank formulas to stay
 	// finite at 90° of crank angle.
 	minRodExcess = 1e-9
+)
+
+// Physical floors for inputs that only need to be positive in the
+// formulas: a value below them describes no machine these models are for
+// and gives absurd but finite results (common practice, our choice).
+const (
+	minPartSize       = 1e-4             // m: 0.1 mm, the smallest dimension of a part
+	minCrankSpeed     = 2 * math.Pi / 60 // rad/s: 1 rpm, a slow hand crank
+	minGasTemperature = 150              // K: well above where air liquefies, so an ideal gas
+	maxGasTemperature = 1000             // K: beyond any inlet or intercooler of an air machine
+	minSolidDensity   = 100              // kg/m³: below the lightest woods
+	minVesselVolume   = 1e-8             // m³: 10 mm³
 )
 
 // positiveUpTo allows values above zero up to max.

@@ -18,7 +18,7 @@ var multistageKind = Kind{
 		{Name: "stages", Dim: units.Dimensionless, Range: Between(2, maxStages), Meaning: "number of compression stages, a whole number 2 to 6"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the last stage delivers against, up to 1 GPa"},
 	}, append(compressorInputs("inlet_pressure", "inlet_temperature", "polytropic_index"),
-		InputSpec{Name: "intercooled_temperature", Dim: units.Temperature, Optional: true, Range: positiveUpTo(1e4), Meaning: "air temperature leaving each intercooler; default: the inlet temperature (perfect intercooling)"},
+		InputSpec{Name: "intercooled_temperature", Dim: units.Temperature, Optional: true, Range: Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature leaving each intercooler; default: the inlet temperature (perfect intercooling)"},
 		InputSpec{Name: "mass_flow", Dim: units.MassFlow, Optional: true, Range: positiveUpTo(1e3), Meaning: "mass of air compressed per unit time, for total_power; or give supply"},
 		InputSpec{Name: "supply", Type: Link, Optional: true, LinkKinds: []string{"compressor"}, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow; or give mass_flow"},
 	)...),

@@ -3,6 +3,8 @@ package calc
 import (
 	"strings"
 	"testing"
+
+	"specgen/internal/units"
 )
 
 // TestNonFiniteResultNamesInputs checks that a block whose inputs pass
@@ -15,19 +17,24 @@ func TestNonFiniteResultNamesInputs(t *testing.T) {
 		wants []string
 	}{
 		{
-			// Δp = F/A with A = π/4·(1e-300 m)² = 7.9e-601 m², below the
-			// smallest float64: the cracking pressure overflows.
-			name: "valve seat 1e-300 m",
-			src: `id = "relief"
-kind = "valve"
-seat_diameter = "1e-300 m"
-spring_rate = "20 lbf/in"
-preload = "0.1 in"
+			// The inputs pass their ranges but the (test-only) model
+			// overflows: x² for x = 1e200.
+			name: "overflowing model",
+			src: `id = "sq"
+kind = "test-square"
+x = 1e200
 `,
-			wants: []string{"block relief: result cracking_pressure is not a finite number",
-				`seat_diameter = "1e-300 m"`, `spring_rate = "20 lbf/in"`, `preload = "0.1 in"`},
+			wants: []string{"block sq: result square is not a finite number", `x = "1e+200"`},
 		},
 	}
+	kinds["test-square"] = &Kind{Name: "test-square",
+		Inputs:  []InputSpec{{Name: "x", Dim: units.Dimensionless, Range: Positive}},
+		Results: []ResultSpec{{Name: "square", Dim: units.Dimensionless}},
+		Evaluate: func(in *Inputs) (*Outcome, error) {
+			x := in.Value("x")
+			return &Outcome{Results: []Result{{Name: "square", Value: x * x, Dim: units.Dimensionless}}}, nil
+		}}
+	defer delete(kinds, "test-square")
 	for _, c := range cases {
 		b, err := ParseBlock("content/index.md", 10, c.src)
 		if err != nil {

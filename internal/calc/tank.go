@@ -17,7 +17,7 @@ var tankKind = Kind{
 	Summary: "air receiver: fill time from a compressor, stored energy, and optionally the wall's stress and allowable pressure",
 	Doc:     tankDoc,
 	Inputs: append([]InputSpec{
-		{Name: "volume", Dim: units.Volume, Range: positiveUpTo(1e3), Meaning: "internal volume of the receiver, up to 1000 m3"},
+		{Name: "volume", Dim: units.Volume, Range: Between(minVesselVolume, 1e3), Meaning: "internal volume of the receiver, up to 1000 m3"},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "working (target) pressure the receiver is filled to, up to 1 GPa; must be above ambient"},
 		{Name: "start_pressure", Dim: units.Pressure, Default: "0 bar", Range: Between(0, 1e9), Meaning: "pressure in the receiver when filling starts; must be below the target"},
 		{Name: "supply", Type: Link, Optional: true, LinkKinds: []string{"compressor"}, Meaning: "id of the compressor block that fills the receiver; without it fill_time is not computed"},

@@ -15,7 +15,7 @@ var vacuumKind = Kind{
 	Doc:     vacuumDoc,
 	Inputs: append(compressorInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed", "polytropic_index"),
-		InputSpec{Name: "vessel_volume", Dim: units.Volume, Range: positiveUpTo(1e3), Meaning: "internal volume of the vessel pumped down, with its piping, up to 1000 m3"},
+		InputSpec{Name: "vessel_volume", Dim: units.Volume, Range: Between(minVesselVolume, 1e3), Meaning: "internal volume of the vessel pumped down, with its piping, up to 1000 m3"},
 		InputSpec{Name: "target_pressure", Dim: units.Pressure, Absolute: true, Range: positiveUpTo(1e9), Meaning: "absolute pressure the vessel is pumped down to, e.g. \"20 mbar(a)\" or \"15 torr\"; above the ultimate pressure"},
 		InputSpec{Name: "start_pressure", Dim: units.Pressure, Optional: true, Range: positiveUpTo(1e9), Meaning: "vessel pressure when pumping starts, at most ambient; default: ambient"},
 	),

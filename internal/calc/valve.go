@@ -15,7 +15,7 @@ var valveKind = Kind{
 	Summary: "spring-loaded check or relief valve: cracking pressure from spring rate, preload and seat diameter",
 	Doc:     valveDoc,
 	Inputs: []InputSpec{
-		{Name: "seat_diameter", Dim: units.Length, Range: positiveUpTo(1), Meaning: "diameter of the seat the poppet or ball closes, where it seals, up to 1 m"},
+		{Name: "seat_diameter", Dim: units.Length, Range: Between(minPartSize, 1), Meaning: "diameter of the seat the poppet or ball closes, where it seals, up to 1 m"},
 		{Name: "spring_rate", Dim: units.Stiffness, Range: positiveUpTo(1e9), Meaning: "spring stiffness, force per unit compression"},
 		{Name: "preload", Dim: units.Length, Range: Between(0, 1), Meaning: "how far the spring is compressed with the valve closed, 0 to 1 m"},
 		{Name: "protects", Type: LinkList, Optional: true, LinkKinds: []string{"compressor", "tank", "tube"}, Meaning: "ids of the compressors and pressure parts the valve relieves; makes it a relief valve"},
