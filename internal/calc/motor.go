@@ -75,6 +75,7 @@ Work, power and torque
   W = z·W1 per revolution   P_i = W·N   T_m = W/2π
   When p_e < p_a the expansion runs below ambient and the end of the stroke
   takes work back (a NOTICE says so): a later cut-off gives more work.
+  A cycle that gives back all it gains (W1 <= 0) is refused.
 
 Air consumption
   The air admitted per cycle is what the cylinder holds at cut-off less what
@@ -197,6 +198,11 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 		wIso     = c.pa * free * math.Log(c.ps/c.pa)
 		meanLoad = -work / (2 * math.Pi)
 	)
+	if !(w1 > 0) {
+		return nil, &InputError{Key: "cutoff", Message: fmt.Sprintf(
+			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
+			show((c.ps-c.pa)/1e5, "bar(g)"), show(in.Value("cutoff"), ""), show(w1, "J"))}
+	}
 	steps := crankSteps(g.cylinders)
 	gas := phaseSum(sampleRevolution(steps, c.gasTorque), g.cylinders)
 	eLow, eHigh := excessEnergyRange(gas, meanLoad)

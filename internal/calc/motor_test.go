@@ -168,6 +168,10 @@ func TestMotorInputErrors(t *testing.T) {
 		{map[string]any{"rod_length": "10 mm"}, "rod_length", []string{"must exceed the crank radius 15 mm"}},
 		{map[string]any{"clearance_ratio": nil}, "clearance_volume", []string{"missing"}},
 		{map[string]any{"crank_radius": "15 mm"}, "stroke", []string{"not both"}},
+		// By hand (n = 1.3, c = 0.05): W1/Vs = 2.013·0.2 + 2.013·0.25/0.3·(1 − (0.25/1.05)^0.3)
+		// − 1.013 = 0.403 + 0.587 − 1.013 < 0: the cycle takes work in.
+		{map[string]any{"supply_pressure": "1 bar", "cutoff": 0.2}, "cutoff", []string{"does no net work", "raise cutoff or supply_pressure"}},
+		{map[string]any{"supply_pressure": "1e-9 bar"}, "cutoff", []string{"does no net work"}},
 	}
 	for _, c := range cases {
 		wantInputError(t, c.changes, c.key, c.says, motorSite)
