@@ -154,7 +154,8 @@ Limits
   and need more than P_s; treat the results as upper bounds on delivery and
   lower bounds on power.
 - The discharge temperature assumes the same n; real discharge temperatures
-  depend on cooling.`
+  depend on cooling. With no delivery it is the peak of the trapped air,
+  T1·CR^(n−1).`
 
 // compressorInput is a compressor block's inputs in SI, absolute pressures.
 type compressorInput struct {
@@ -345,8 +346,7 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			"FAD = η_v · V̇_d", "= " + num(ve) + " · " + show(rate*6e4, "L/min")}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: Trace{
 			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
-		{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
-			"T2 = T1 · r^((n−1)/n)", "= " + show(c.t1, "K") + " · " + num(r) + "^((" + nWord + " − 1)/" + nWord + ")"}},
+		compressorDischargeTemperature(c, delivers, r, cr, nWord),
 		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
 			Trace: peakForceTrace(delivers, cyc.top-c.ambient >= c.ambient-c.p1, bara(cyc.top), bara(c.p1), bara(c.ambient), mm2(area))},
 		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: Trace{
@@ -381,6 +381,20 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			bara(c.p2), bara(pMax))})
 	}
 	return out, nil
+}
+
+// compressorDischargeTemperature is the temperature at the end of compression: at the
+// discharge pressure, or, when the discharge valve never opens, at the top
+// of the trapped air's compression, the dead-head pressure.
+func compressorDischargeTemperature(c compressorInput, delivers bool, r, cr float64, nWord string) Result {
+	k := "K"
+	if !delivers {
+		return Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(cr, c.n-1), Dim: units.Temperature, Trace: Trace{
+			"T_max = T1 · CR^(n−1) (no delivery: the trapped air peaks at the dead-head pressure)",
+			"= " + show(c.t1, k) + " · " + show(cr, "") + "^(" + nWord + " − 1)"}}
+	}
+	return Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
+		"T2 = T1 · r^((n−1)/n)", "= " + show(c.t1, k) + " · " + show(r, "") + "^((" + nWord + " − 1)/" + nWord + ")"}}
 }
 
 // clearanceResult reports the clearance ratio, derived or as given.

@@ -503,3 +503,21 @@ func TestPeakForceOnSuction(t *testing.T) {
 		}
 	}
 }
+
+// TestNoDeliveryDischargeTemperature checks that a cylinder whose discharge
+// valve never opens reports the peak of its trapped air, T1·CR^(n−1), not
+// the temperature at a discharge pressure it never reaches.
+func TestNoDeliveryDischargeTemperature(t *testing.T) {
+	set, err := evaluateBlocks(t, []map[string]any{{"id": "c", "kind": "compressor", "bore": "28 mm", "stroke": "32 mm",
+		"rod_length": "70 mm", "clearance_ratio": 100, "speed": "900 rpm", "discharge_pressure": "6 bar"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("c")
+	got, _ := e.Result("discharge_temperature")
+	// By hand: CR = (1 + c)/c = 1.01; 293.15 K · 1.01^0.3 = 294.026 K.
+	want := 293.15 * math.Pow(1.01, 0.3)
+	if math.Abs(got.Value-want) > 1e-9*want {
+		t.Errorf("discharge_temperature = %.6g K, want %.6g K", got.Value, want)
+	}
+}
