@@ -321,6 +321,10 @@ func (b *Block) decodeShow(v any) Errors {
 					fail(fmt.Sprintf("unknown chart %q; allowed: %s", s, allowed))
 					continue
 				}
+				if contains(b.Show.Charts, s) {
+					fail(fmt.Sprintf("chart %q is listed twice; a block draws each chart once", s))
+					continue
+				}
 				b.Show.Charts = append(b.Show.Charts, s)
 				continue
 			}
