@@ -84,8 +84,13 @@ func evaluateBalance(in *Inputs) (*Outcome, error) {
 	if !in.Has("reciprocating_mass") {
 		m, ok := src.Inputs["reciprocating_mass"]
 		if !ok {
+			// Of the source kinds, only a compressor block carries the mass.
+			where := " here"
+			if src.Kind == compressorKind.Name {
+				where += " or on block " + src.ID
+			}
 			return nil, &InputError{Key: "reciprocating_mass", Message: fmt.Sprintf(
-				"missing: give reciprocating_mass (a mass, e.g. \"120 g\") here or on block %s", src.ID)}
+				"missing: give reciprocating_mass (a mass, e.g. \"120 g\")%s", where)}
 		}
 		mRec = m
 	}

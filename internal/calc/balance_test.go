@@ -123,6 +123,17 @@ func TestBalanceInputErrors(t *testing.T) {
 	for _, c := range cases {
 		wantInputError(t, c.changes, c.key, c.says, balanceSite)
 	}
+	// A motor block takes no reciprocating_mass: the message asks for it here only.
+	motorSource := func(changes map[string]any) []map[string]any {
+		blocks := balanceSite(changes)
+		blocks[0] = motorSite(map[string]any{"id": "low"})[0]
+		return blocks
+	}
+	wantInputError(t, map[string]any{"reciprocating_mass": nil}, "reciprocating_mass", []string{"missing", "here"}, motorSource)
+	_, err := evaluateBlocks(t, motorSource(map[string]any{"reciprocating_mass": nil}))
+	if err == nil || strings.Contains(err.Error(), "on block low") {
+		t.Errorf("motor source: %v, want a message that does not send the user to the motor block", err)
+	}
 }
 
 // TestBalanceFractionEnds: with no balancing all the primary force stays
