@@ -151,7 +151,7 @@ func TestHostileSizes(t *testing.T) {
 		{"calc block of 100,000 unknown keys", "# H\n\n```calc\n" + stage + keys.String() + "```\n", exitBadInput,
 			"content/index.md:3: the block is 100008 lines"},
 		{"calc block of 5,000 lines", "# H\n\n```calc\n" + stage + strings.Repeat("# a comment\n", 5000) + "```\n", exitOK,
-			"built 1 pages"},
+			"built 1 page"},
 		{"100,000 nested quotes", "# H\n\n" + strings.Repeat(">", 100000) + " deep\n", exitBadInput,
 			"content/index.md:3: this line opens 100000 levels of quotes or lists; allowed: up to 32"},
 		{"100,000 nested list markers", "# H\n\n" + strings.Repeat("- ", 100000) + "deep\n", exitBadInput,
@@ -159,9 +159,9 @@ func TestHostileSizes(t *testing.T) {
 		{"a list nested 2,000 deep by indentation", "# H\n\n" + deepList.String() + strings.Repeat(" ", 4000) + "- deeper\n", exitBadInput,
 			"content/index.md:35: this line opens 2001 levels"},
 		{"a list nested 32 deep", "# H\n\n" + deepList.String(), exitOK,
-			"built 1 pages"},
+			"built 1 page"},
 		{"50,000 open brackets and emphasis", "# H\n\n" + strings.Repeat("[", 50000) + strings.Repeat("*", 50000) + "x\n", exitOK,
-			"built 1 pages"},
+			"built 1 page"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

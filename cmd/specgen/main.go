@@ -152,7 +152,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		if sum.UpToDate {
 			verb = "up to date:"
 		}
-		fmt.Fprintf(stdout, "%s %d pages in %s\n", verb, sum.Pages, sum.Out)
+		fmt.Fprintf(stdout, "%s %s in %s\n", verb, count(sum.Pages, "page"), sum.Out)
 	}
 	return exitOK
 }
