@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"regexp"
+	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -100,7 +102,37 @@ func tomlError(file string, base int, text string, err error, what string) error
 		}
 		return &Error{File: file, Line: base + line, Msg: what + ": " + msg}
 	}
+	if m := typeMismatch.FindStringSubmatch(err.Error()); m != nil {
+		line, _ := strconv.Atoi(m[1])
+		return &Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write %s",
+			what, m[2], tomlTypeWord(m[3]), tomlTypeWord(m[4]))}
+	}
 	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
+}
+
+// typeMismatch matches the TOML decoder's report of a value of the wrong
+// type: its line, key, the value's Go type and the wanted type.
+var typeMismatch = regexp.MustCompile(`^toml: line (\d+) \(last key "([^"]*)"\): incompatible types: TOML value has type ([^;]+); destination has type (.+)$`)
+
+// tomlTypeWord names a Go type from the TOML decoder in a writer's words.
+func tomlTypeWord(goType string) string {
+	switch {
+	case strings.HasPrefix(goType, "int"), strings.HasPrefix(goType, "uint"), goType == "integer":
+		return "a whole number"
+	case strings.HasPrefix(goType, "float"):
+		return "a number"
+	case goType == "string":
+		return "a quoted string"
+	case goType == "bool":
+		return "true or false"
+	case strings.HasPrefix(goType, "[]"), goType == "slice", goType == "array":
+		return "a list"
+	case strings.HasPrefix(goType, "map"), goType == "struct":
+		return "a table"
+	case strings.Contains(goType, "Time"), strings.Contains(goType, "Date"):
+		return "a date or time"
+	}
+	return "a value of type " + goType
 }
 
 // Limits on one page, far above any hand-written page. Markdown parsing
