@@ -28,6 +28,12 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkContinue, nil
 	}
 	n := node.(*ValueRef)
+	if n.Problem != "" {
+		// No reference: only reachable when a page is rendered without
+		// the site's checks, which refuse it.
+		_, _ = w.WriteString(esc(string(source[n.Offset:n.End])))
+		return ast.WalkSkipChildren, nil
+	}
 	name := esc(n.Block + "." + n.Result)
 	text := esc(n.Shown)
 	if n.Shown == "" {

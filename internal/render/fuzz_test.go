@@ -2,6 +2,7 @@ package render
 
 import (
 	"bytes"
+	"strings"
 	"testing"
 	"unicode/utf8"
 )
@@ -9,7 +10,8 @@ import (
 // FuzzValueRef feeds arbitrary Markdown through Parse and Render: neither
 // may panic; valid UTF-8 renders as valid UTF-8; every value reference
 // found starts at its Offset with "=[" and its block and result; text
-// without "=[" holds no value reference and renders none.
+// without "=[" holds no value reference and renders none; a malformed one
+// says why and renders as text.
 func FuzzValueRef(f *testing.F) {
 	for _, s := range []string{
 		"It sweeps =[low.swept_volume cm3] per stroke.\n",
@@ -34,17 +36,28 @@ func FuzzValueRef(f *testing.F) {
 	md := New()
 	f.Fuzz(func(t *testing.T, src string) {
 		doc := md.Parse([]byte(src), 0)
-		refs := doc.ValueRefs()
-		for _, r := range refs {
+		all := doc.ValueRefs()
+		var refs []*ValueRef // the well-formed ones
+		for _, r := range all {
 			if r.Offset < 0 || r.Offset > len(src) || !bytes.HasPrefix([]byte(src[r.Offset:]), []byte("=[")) {
 				t.Fatalf("reference to %s.%s at offset %d is not where the source has =[", r.Block, r.Result, r.Offset)
+			}
+			if r.End <= r.Offset || r.End > len(src) {
+				t.Fatalf("reference at %d ends at %d", r.Offset, r.End)
+			}
+			if r.Problem != "" {
+				if !strings.HasPrefix(r.Written, "=[") {
+					t.Fatalf("malformed reference at %d written as %q", r.Offset, r.Written)
+				}
+				continue
 			}
 			if r.Block == "" || r.Result == "" {
 				t.Fatalf("reference at %d has an empty part: %+v", r.Offset, r)
 			}
+			refs = append(refs, r)
 		}
-		if !bytes.Contains([]byte(src), []byte("=[")) && len(refs) > 0 {
-			t.Fatalf("%d references in text without =[", len(refs))
+		if !bytes.Contains([]byte(src), []byte("=[")) && len(all) > 0 {
+			t.Fatalf("%d references in text without =[", len(all))
 		}
 		out, err := md.Render(doc)
 		if err != nil {

@@ -59,6 +59,7 @@ func New(opts ...Option) *Markdown {
 			parser.WithASTTransformers(
 				util.Prioritized(mdLinkTransformer{}, 100),
 				util.Prioritized(calcBlockTransformer{}, 100),
+				util.Prioritized(headingIDTransformer{}, 200),
 			),
 			parser.WithInlineParsers(util.Prioritized(valueRefParser{}, 500)),
 		),
@@ -77,6 +78,8 @@ type Document struct {
 	// written holds the destinations of links rewritten from .md as the
 	// page wrote them.
 	written map[ast.Node]string
+	// titleRefs are the value references of the heading TakeTitle took.
+	titleRefs []*ValueRef
 }
 
 // Parse parses a page body. lineOffset is the file line on which the body

@@ -2,6 +2,7 @@ package render
 
 import (
 	"bytes"
+	"strings"
 
 	"github.com/yuin/goldmark/ast"
 )
@@ -52,27 +53,83 @@ func (d *Document) Headings(maxLevel int) []Heading {
 	return out
 }
 
+// TitlePart is a piece of a page's level-1 heading: text, or a value
+// reference whose value the site fills in.
+type TitlePart struct {
+	Text string
+	Ref  *ValueRef
+}
+
 // TakeTitle removes a level-1 heading that opens the document and returns
-// its text, or "" when the document does not open with one. The layout shows
-// the page title itself, so the body must not repeat it.
-func (d *Document) TakeTitle() string {
+// its pieces, or nil when the document does not open with one. The layout
+// shows the page title itself, so the body must not repeat it. The
+// heading's value references stay first in ValueRefs, so that the site
+// checks and resolves them with the others.
+func (d *Document) TakeTitle() []TitlePart {
 	first := d.Root.FirstChild()
 	h, ok := first.(*ast.Heading)
 	if !ok || h.Level != 1 {
-		return ""
+		return nil
 	}
 	d.Root.RemoveChild(d.Root, h)
-	return plainText(h, d.Source)
+	var parts []TitlePart
+	var buf bytes.Buffer
+	flush := func() {
+		if buf.Len() > 0 {
+			parts = append(parts, TitlePart{Text: buf.String()})
+			buf.Reset()
+		}
+	}
+	writeText(&buf, h, d.Source, func(r *ValueRef) {
+		flush()
+		parts = append(parts, TitlePart{Ref: r})
+		d.titleRefs = append(d.titleRefs, r)
+	})
+	flush()
+	if parts == nil {
+		parts = []TitlePart{}
+	}
+	return parts
 }
 
-// plainText is the text content of a node, without markup.
+// TitleText joins a title's pieces, with value shown for each reference.
+func TitleText(parts []TitlePart, value func(*ValueRef) string) string {
+	var b strings.Builder
+	for _, p := range parts {
+		if p.Ref != nil {
+			b.WriteString(value(p.Ref))
+		} else {
+			b.WriteString(p.Text)
+		}
+	}
+	return b.String()
+}
+
+// plainText is the text content of a node, without markup; a value
+// reference counts as its value, or as written before it is resolved.
 func plainText(n ast.Node, source []byte) string {
 	var buf bytes.Buffer
+	writeText(&buf, n, source, func(r *ValueRef) {
+		if r.Shown != "" {
+			buf.WriteString(r.Shown)
+		} else {
+			buf.WriteString(r.Written)
+		}
+	})
+	return buf.String()
+}
+
+// writeText writes the text content of a node to buf, without markup, and
+// calls ref for each value reference in it.
+func writeText(buf *bytes.Buffer, n ast.Node, source []byte, ref func(*ValueRef)) {
 	_ = ast.Walk(n, func(c ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
 			return ast.WalkContinue, nil
 		}
 		switch t := c.(type) {
+		case *ValueRef:
+			ref(t)
+			return ast.WalkSkipChildren, nil
 		case *ast.Text:
 			buf.Write(t.Segment.Value(source))
 			if t.SoftLineBreak() {
@@ -96,5 +153,4 @@ func plainText(n ast.Node, source []byte) string {
 		}
 		return ast.WalkContinue, nil
 	})
-	return buf.String()
 }

@@ -19,8 +19,9 @@ func TestValueRefParsing(t *testing.T) {
 		refs []ref
 		html string // a substring of the rendered page (references unresolved)
 	}{
-		{"no dot is text", "a=[b]\n", nil, "<p>a=[b]</p>"},
 		{"an assignment is text", "x = [1, 2]\n", nil, "<p>x = [1, 2]</p>"},
+		{"equals then link is text", "a = [b](c.html)\n", nil, `<p>a = <a href="c.html">b</a></p>`},
+		{"equals alone is text", "a == b, c=d\n", nil, "<p>a == b, c=d</p>"},
 		{"reference with unit", "Delivery =[low.fad L/min] at speed.\n",
 			[]ref{{"low", "fad", "L/min", 1}}, `Delivery <span class="sg-value" title="from calculation low.fad">`},
 		{"unit with a space and a mark", "=[low.peak_torque N m] and =[low.max_pressure bar(a)]\n",
@@ -36,11 +37,8 @@ func TestValueRefParsing(t *testing.T) {
 		{"in a code span", "Write `=[low.x]` to quote.\n", nil, "<code>=[low.x]</code>"},
 		{"in a fenced code block", "```\n=[low.x]\n```\n", nil, "=[low.x]"},
 		{"escaped", "\\=[low.x]\n", nil, "<p>=[low.x]</p>"},
-		{"unclosed", "=[low.x\n", nil, "<p>=[low.x</p>"},
-		{"upper-case block", "=[Low.x]\n", nil, "<p>=[Low.x]</p>"},
-		{"two dots", "=[low.x.y]\n", nil, "<p>=[low.x.y]</p>"},
-		{"no result", "=[low.]\n", nil, "<p>=[low.]</p>"},
-		{"empty", "=[]\n", nil, "<p>=[]</p>"},
+		{"escaped, malformed", "\\=[low]\n", nil, "<p>=[low]</p>"},
+		{"in a code span, malformed", "`=[]` and `=[a.b.c]`\n", nil, "<code>=[]</code> and <code>=[a.b.c]</code>"},
 	}
 	md := New()
 	for _, c := range cases {
@@ -48,6 +46,11 @@ func TestValueRefParsing(t *testing.T) {
 			const offset = 4 // front matter lines before the body
 			doc := md.Parse([]byte(c.src), offset)
 			got := doc.ValueRefs()
+			for _, r := range got {
+				if r.Problem != "" {
+					t.Errorf("%q: %s: %s", c.src, r.Written, r.Problem)
+				}
+			}
 			if len(got) != len(c.refs) {
 				t.Fatalf("%q: %d references, want %d", c.src, len(got), len(c.refs))
 			}
@@ -71,5 +74,53 @@ func TestValueRefParsing(t *testing.T) {
 				t.Errorf("%q: rendered %s, want it to contain %s", c.src, out, c.html)
 			}
 		})
+	}
+}
+
+// TestMalformedValueRefs: every "=[...]" in prose that is no well-formed
+// reference is read as one with a Problem, what was written and a guess at
+// what was meant, and renders (unchecked) as the text written.
+func TestMalformedValueRefs(t *testing.T) {
+	cases := []struct {
+		src, written, problem string
+		block, result, unit   string // the guess; block "-": not checked
+	}{
+		{"It is =[a] here.\n", "=[a]", "names a block but no result", "a", "", ""},
+		{"a=[b]\n", "=[b]", "names a block but no result", "b", "", ""},
+		{"=[a.]\n", "=[a.]", "no result name after the dot", "a", "", ""},
+		{"=[.swept_volume]\n", "=[.swept_volume]", "no block id before the dot", "", "swept_volume", ""},
+		{"=[]\n", "=[]", "the reference is empty", "", "", ""},
+		{"=[  ]\n", "=[  ]", "the reference is empty", "", "", ""},
+		{"=[A.swept_volume]\n", "=[A.swept_volume]", `block id "A" may hold only lower-case letters`, "a", "swept_volume", ""},
+		{"=[a.swept-volume cm3]\n", "=[a.swept-volume cm3]", `result name "swept-volume" may hold only letters, digits and '_'`, "a", "swept_volume", "cm3"},
+		{"=[a.swept_volume,cm3]\n", "=[a.swept_volume,cm3]", `the unit is set apart with "," instead of a space`, "a", "swept_volume", "cm3"},
+		{"=[a.b.c]\n", "=[a.b.c]", "has more than one dot", "a", "b", "c"},
+		{"Wrapped =[low.free_air_delivery\nL/min] here.\n", "=[low.free_air_delivery", "no closing ] on this line", "low", "free_air_delivery", ""},
+		{"# Title =[a]\n", "=[a]", "names a block but no result", "a", "", ""},
+		{"| h |\n|---|\n| =[a.b |\n", "=[a.b", "no closing ]", "a", "b", ""},
+		{"x=[0, 1) and y\n", "=[0, 1) and y", "no closing ]", "-", "", ""},
+	}
+	md := New()
+	for _, c := range cases {
+		doc := md.Parse([]byte(c.src), 0)
+		refs := doc.ValueRefs()
+		if len(refs) != 1 {
+			t.Errorf("%q: %d references, want 1", c.src, len(refs))
+			continue
+		}
+		r := refs[0]
+		if r.Written != c.written || !strings.Contains(r.Problem, c.problem) {
+			t.Errorf("%q: written %q, problem %q; want %q, %q", c.src, r.Written, r.Problem, c.written, c.problem)
+		}
+		if c.block != "-" && (r.Block != c.block || r.Result != c.result || r.Unit != c.unit) {
+			t.Errorf("%q: guessed %q.%q %q, want %q.%q %q", c.src, r.Block, r.Result, r.Unit, c.block, c.result, c.unit)
+		}
+		out, err := md.Render(doc)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if strings.Contains(string(out), "sg-value") || !strings.Contains(string(out), "=[") {
+			t.Errorf("%q: rendered %s, want the text as written", c.src, out)
+		}
 	}
 }

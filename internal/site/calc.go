@@ -15,8 +15,11 @@ import (
 )
 
 // valueRef is an inline value of a page, as written, with its file line.
+// When Problem is set it is no well-formed reference, and Block, Result
+// and Unit are a guess at what was meant.
 type valueRef struct {
 	Block, Result, Unit string
+	Written, Problem    string
 	Line                int
 }
 
@@ -46,7 +49,8 @@ func readDoc(p *Page, doc *render.Document) error {
 		p.blocks = append(p.blocks, b)
 	}
 	for _, r := range doc.ValueRefs() {
-		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit, Line: doc.Line(r.Offset)})
+		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
+			Written: r.Written, Problem: r.Problem, Line: doc.Line(r.Offset)})
 	}
 	for _, cr := range doc.ChartRefs() {
 		for _, n := range cr.Names {
@@ -118,6 +122,15 @@ func (s *Site) evaluate() error {
 			if _, err := s.formatRef(p, ref); err != nil {
 				errs = append(errs, err)
 			}
+		}
+	}
+	if len(errs) == 0 {
+		// A title that quotes a value shows it, in <title> and navigation too.
+		for _, p := range s.Pages {
+			p.setHeading(func(i int) string {
+				v, _ := s.formatRef(p, p.refs[i])
+				return v.Shown
+			})
 		}
 	}
 	// Curves are only drawn from now on: a big site keeps those it charts.
@@ -251,6 +264,19 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 	fail := func(format string, args ...any) (refView, *Error) {
 		return refView{}, &Error{File: p.File, Line: ref.Line, Msg: written + ": " + fmt.Sprintf(format, args...)}
 	}
+	if ref.Problem != "" {
+		written = ref.Written
+		msg := ref.Problem + "; a value reference is " + render.ValueRefForms
+		if hint := s.refHint(p, ref); hint != "" {
+			msg += "; " + hint
+		}
+		if strings.HasSuffix(msg, "?") {
+			msg += " "
+		} else {
+			msg += ". "
+		}
+		return fail("%sTo show it as text, write it in a code span (`%s`) or escape the equals sign (\\%s)", msg, ref.Written, ref.Written)
+	}
 	e, ok := s.Calc.Lookup(ref.Block)
 	if !ok {
 		msg := fmt.Sprintf("there is no block %q in the site", ref.Block)
@@ -282,6 +308,67 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 		return fail("%v", err)
 	}
 	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
+}
+
+// refHint guesses what a malformed inline value meant: "did you mean
+// =[block.result unit]?" when its guessed parts name a block and one of its
+// results, or the block's results when only the block is clear.
+func (s *Site) refHint(p *Page, ref valueRef) string {
+	var e *calc.Evaluated
+	switch {
+	case ref.Block == "" && ref.Result != "":
+		// "=[.swept_volume]": the one block of the page, else of the
+		// site, that has the result.
+		var onPage []*calc.Evaluated
+		for _, b := range p.blocks {
+			if ev, ok := s.Calc.Lookup(b.ID); ok {
+				onPage = append(onPage, ev)
+			}
+		}
+		found := blocksWith(ref.Result, onPage)
+		if len(found) == 0 {
+			found = blocksWith(ref.Result, s.Calc.Blocks)
+		}
+		if len(found) != 1 {
+			return ""
+		}
+		e = found[0]
+	case ref.Block != "":
+		var ok bool
+		if e, ok = s.Calc.Lookup(ref.Block); !ok {
+			e, _ = s.Calc.Lookup(calc.Suggest(ref.Block, s.Calc.IDs()))
+		}
+	}
+	if e == nil {
+		return ""
+	}
+	names := make([]string, len(e.Results))
+	for i, r := range e.Results {
+		names[i] = r.Name
+	}
+	result := ref.Result
+	if _, _, _, ok := e.Quantity(result); !ok {
+		result = calc.Suggest(result, names)
+	}
+	if result == "" {
+		return fmt.Sprintf("block %s (%s) has results %s", e.Block.ID, e.Block.Kind.Name, strings.Join(names, ", "))
+	}
+	sug := "=[" + e.Block.ID + "." + result
+	if _, err := e.Format(result, ref.Unit); ref.Unit != "" && err == nil {
+		sug += " " + ref.Unit
+	}
+	return "did you mean " + sug + "]?"
+}
+
+// blocksWith lists the blocks among list that have a result or input name.
+func blocksWith(name string, list []*calc.Evaluated) []*calc.Evaluated {
+	var out []*calc.Evaluated
+	for _, e := range list {
+		if _, _, _, ok := e.Quantity(name); ok {
+			out = append(out, e)
+		}
+	}
+	return out
 }
 
 // checkChartName checks that a line of a chart fence names a block and

@@ -27,6 +27,9 @@ type Page struct {
 	frontLines map[string]int
 	Title      string // for navigation and <title>
 	Heading    string // the page's own level-1 heading, if it opens with one
+	// titleParts are the pieces of that heading, for showing the values it
+	// quotes once they are known.
+	titleParts []titlePart
 	// body is the Markdown after the front matter, which starts on file
 	// line lineOffset+1; the page is parsed from it again to render it.
 	body       []byte
@@ -115,18 +118,51 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
 	doc := md.Parse(body, offset)
 	p.body, p.lineOffset = body, offset
-	p.Heading = doc.TakeTitle()
-	p.Title = fm.Title
-	if p.Title == "" {
-		p.Title = p.Heading
-	}
-	if p.Title == "" {
-		p.Title = titleFromName(rel)
+	refs := 0
+	for _, part := range doc.TakeTitle() {
+		if part.Ref == nil {
+			p.titleParts = append(p.titleParts, titlePart{Text: part.Text, Ref: -1})
+			continue
+		}
+		// The title's references come first in doc.ValueRefs.
+		p.titleParts = append(p.titleParts, titlePart{Ref: refs})
+		refs++
 	}
 	if err := readDoc(p, doc); err != nil {
 		return nil, err
 	}
+	// Until the values are known, a reference in the title reads as written.
+	p.setHeading(func(i int) string { return p.refs[i].Written })
 	return p, nil
+}
+
+// titlePart is a piece of a page's level-1 heading: text, or (Ref >= 0)
+// the value of the page's inline value p.refs[Ref].
+type titlePart struct {
+	Text string
+	Ref  int
+}
+
+// setHeading sets the page's Heading from its level-1 heading, with value
+// giving the text of each inline value in it, and its Title: the front
+// matter's title, else that heading, else one made from the file name.
+func (p *Page) setHeading(value func(ref int) string) {
+	var b strings.Builder
+	for _, part := range p.titleParts {
+		if part.Ref >= 0 && part.Ref < len(p.refs) {
+			b.WriteString(value(part.Ref))
+		} else {
+			b.WriteString(part.Text)
+		}
+	}
+	p.Heading = b.String()
+	p.Title = p.Front.Title
+	if p.Title == "" {
+		p.Title = p.Heading
+	}
+	if p.Title == "" {
+		p.Title = titleFromName(p.Rel)
+	}
 }
 
 // titleFromName makes "tank-fill.md" into "Tank fill".
