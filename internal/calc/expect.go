@@ -95,6 +95,9 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 		if err != nil || f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
 			return bad("has a tolerance that is not a percentage")
 		}
+		if f >= 100 {
+			return bad("has a tolerance of 100 % or more, which says nothing about the value; allowed: below 100 %")
+		}
 		c.RelTol = f / 100
 	case tol != "":
 		f, err := strconv.ParseFloat(tol, 64)
@@ -109,6 +112,9 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 		}
 		if f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
 			return bad("has a negative or endless tolerance")
+		}
+		if c.Value != 0 && f >= math.Abs(c.Value) {
+			return bad("has a tolerance as large as the value itself, which says nothing about it; allowed: below the value")
 		}
 		c.Tolerance = math.Abs(f)
 	}
