@@ -136,6 +136,14 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 				}
 			}
 		}
+		if mat.YieldStrength > mat.TensileStrength && mat.TensileStrength > 0 {
+			key := "yield_strength"
+			if _, ok := row[key]; !ok {
+				key = "tensile_strength"
+			}
+			fail(key, fmt.Sprintf("yield strength %s is above tensile strength %s; a material yields before it breaks",
+				show(mat.YieldStrength/1e6, "MPa"), show(mat.TensileStrength/1e6, "MPa")))
+		}
 		if mat.Label == "" {
 			mat.Label = name
 		}
@@ -146,6 +154,9 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 	}
 	return out, nil
 }
+
+// maxMaterialTemperature bounds a material's temperature limits, K.
+const maxMaterialTemperature = 2000
 
 // set reads one property of a material row.
 func (m *Material) set(key string, v any) error {
@@ -162,6 +173,19 @@ func (m *Material) set(key string, v any) error {
 			return fmt.Errorf("%q must be above zero", s)
 		}
 		*dst = q.Value
+		return nil
+	}
+	// A part's temperature limit lies between where air would liquefy and
+	// where every material here has long melted.
+	temperature := func(dst *float64) error {
+		var t float64
+		if err := quantity(units.Temperature, &t); err != nil {
+			return err
+		}
+		if t < minGasTemperature || t > maxMaterialTemperature {
+			return fmt.Errorf("%q is out of range; allowed: %s to %s", v, show(minGasTemperature, "K"), show(maxMaterialTemperature, "K"))
+		}
+		*dst = t
 		return nil
 	}
 	text := func(dst *string) error {
@@ -207,9 +231,9 @@ func (m *Material) set(key string, v any) error {
 	case "density":
 		return quantity(units.Density, &m.Density)
 	case "service_temperature":
-		return quantity(units.Temperature, &m.ServiceTemperature)
+		return temperature(&m.ServiceTemperature)
 	case "heat_deflection_temperature":
-		return quantity(units.Temperature, &m.HeatDeflection)
+		return temperature(&m.HeatDeflection)
 	case "poisson_ratio":
 		f, ok := v.(float64)
 		if !ok || f <= 0 || f >= 0.5 {

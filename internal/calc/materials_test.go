@@ -123,7 +123,7 @@ func TestParseMaterialsOverride(t *testing.T) {
 	}
 	src := `
 [petg]
-tensile_strength = "38 MPa"
+tensile_strength = "58 MPa"
 
 [pom]
 label = "Acetal"
@@ -143,11 +143,11 @@ source = "our supplier's sheet"
 		t.Fatal(err)
 	}
 	was, _ := base.Lookup("petg")
-	if petg.TensileStrength != 38e6 {
-		t.Errorf("petg tensile strength %g, want 38e6", petg.TensileStrength)
+	if petg.TensileStrength != 58e6 {
+		t.Errorf("petg tensile strength %g, want 58e6", petg.TensileStrength)
 	}
 	// Only the one property changes.
-	was.TensileStrength = 38e6
+	was.TensileStrength = 58e6
 	if petg != was {
 		t.Errorf("override changed more than one property:\n got %+v\nwant %+v", petg, was)
 	}
@@ -194,6 +194,14 @@ func TestParseMaterialsErrors(t *testing.T) {
 			[]string{"materials.petg.poisson_ratio", "between 0 and 0.5"}},
 		{"bool as text", "[petg]\nprintable = \"yes\"\n",
 			[]string{"materials.petg.printable", "not true or false"}},
+		{"yield above tensile", "[cast-iron]\nyield_strength = \"1000 MPa\"\n",
+			[]string{"line 2: materials.cast-iron.yield_strength", "above tensile strength"}},
+		{"tensile below yield", "[s235]\ntensile_strength = \"200 MPa\"\n",
+			[]string{"line 2: materials.s235.tensile_strength", "yield strength 235 MPa is above tensile strength 200 MPa"}},
+		{"limit near absolute zero", "[pla]\nservice_temperature = \"1e-300 K\"\n",
+			[]string{"materials.pla.service_temperature", "out of range; allowed: 150 K to 2000 K"}},
+		{"limit above melting", "[pla]\nheat_deflection_temperature = \"5000 degC\"\n",
+			[]string{"materials.pla.heat_deflection_temperature", "out of range"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := ParseMaterials(c.src, base)
