@@ -2,6 +2,7 @@ package render
 
 import (
 	"bytes"
+	"strings"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/parser"
@@ -54,7 +55,8 @@ func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc 
 	for _, f := range fences {
 		switch string(f.Language(source)) {
 		case "cautions":
-			f.Parent().ReplaceChild(f.Parent(), f, &CautionList{})
+			f.Parent().ReplaceChild(f.Parent(), f, &CautionList{FenceLine: fenceLine(f, source),
+				Content: strings.TrimSpace(string(f.Lines().Value(source)))})
 			continue
 		case "chart":
 			f.Parent().ReplaceChild(f.Parent(), f, newChartRef(f, source))
@@ -66,10 +68,15 @@ func (calcBlockTransformer) Transform(doc *ast.Document, reader text.Reader, pc 
 			seg := lines.At(i)
 			src.Write(seg.Value(source))
 		}
-		n := &CalcBlock{Source: src.String(), FenceLine: bytes.Count(source[:f.Info.Segment.Start], []byte("\n")) + 1,
+		n := &CalcBlock{Source: src.String(), FenceLine: fenceLine(f, source),
 			Closed: fenceClosed(f, source)}
 		f.Parent().ReplaceChild(f.Parent(), f, n)
 	}
+}
+
+// fenceLine is the 1-based line of a fenced block's opening fence.
+func fenceLine(f *ast.FencedCodeBlock, source []byte) int {
+	return bytes.Count(source[:f.Info.Segment.Start], []byte("\n")) + 1
 }
 
 // fenceClosed reports whether a closing fence follows a fenced block's

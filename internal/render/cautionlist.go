@@ -16,7 +16,9 @@ var KindCautionList = ast.NewNodeKind("CautionList")
 // fills Items with every caution of every block, and it renders as a table.
 type CautionList struct {
 	ast.BaseBlock
-	Items []CautionItem
+	FenceLine int    // 1-based line of the opening fence in the document body
+	Content   string // what the fence holds, which should be nothing
+	Items     []CautionItem
 }
 
 // CautionItem is one caution with the block that raised it.

@@ -16,8 +16,9 @@ var KindChartRef = ast.NewNodeKind("ChartRef")
 // The site resolves the names and sets Charts.
 type ChartRef struct {
 	ast.BaseBlock
-	Names  []ChartName
-	Charts []*DrawnChart
+	Names     []ChartName
+	FenceLine int // 1-based line of the opening fence in the document body
+	Charts    []*DrawnChart
 }
 
 // ChartName is one line of a chart fence.
@@ -34,7 +35,7 @@ func (n *ChartRef) Kind() ast.NodeKind { return KindChartRef }
 func (n *ChartRef) Dump(source []byte, level int) { ast.DumpHelper(n, source, level, nil, nil) }
 
 func newChartRef(f *ast.FencedCodeBlock, source []byte) *ChartRef {
-	n := &ChartRef{}
+	n := &ChartRef{FenceLine: fenceLine(f, source)}
 	lines := f.Lines()
 	for i := 0; i < lines.Len(); i++ {
 		seg := lines.At(i)

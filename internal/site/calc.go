@@ -52,9 +52,27 @@ func readDoc(p *Page, doc *render.Document) error {
 		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
 			Written: r.Written, Problem: r.Problem, Line: doc.Line(r.Offset)})
 	}
+	drawn := map[string]int{} // chart name to the line that first draws it
 	for _, cr := range doc.ChartRefs() {
+		if len(cr.Names) == 0 {
+			errs = append(errs, &Error{File: p.File, Line: cr.FenceLine + doc.LineOffset,
+				Msg: "this chart fence names no chart; write one per line as block.chart, e.g. low.pv"})
+		}
 		for _, n := range cr.Names {
-			p.charts = append(p.charts, chartName{ChartName: n, Line: n.Line + doc.LineOffset})
+			line := n.Line + doc.LineOffset
+			if first, seen := drawn[n.Text]; seen {
+				errs = append(errs, &Error{File: p.File, Line: line,
+					Msg: fmt.Sprintf("chart %s is already drawn on this page (line %d); a page draws each chart once", n.Text, first)})
+				continue
+			}
+			drawn[n.Text] = line
+			p.charts = append(p.charts, chartName{ChartName: n, Line: line})
+		}
+	}
+	for _, list := range doc.CautionLists() {
+		if list.Content != "" {
+			errs = append(errs, &Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
+				Msg: "a cautions fence takes no content (the site fills it with every caution); leave it empty"})
 		}
 	}
 	p.links = doc.LinkRefs()
