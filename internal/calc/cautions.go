@@ -37,6 +37,10 @@ const (
 	// hurt"; from memory, several pneumatic-test guides use thresholds of this order).
 	storedEnergyNotice  = 1e3  // J
 	storedEnergyWarning = 10e3 // J
+	// fastRim: the rim speed long held as the limit for cast-iron flywheels,
+	// whose casting flaws make a stress check alone unsafe (common practice;
+	// from memory, machine-design handbooks give about 6000 ft/min, 30 m/s).
+	fastRim = 30.0 // m/s
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -48,6 +52,7 @@ var rules = []Rule{
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
+	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
 	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
 }
 
@@ -315,6 +320,27 @@ func printedPart(s *Set) []raised {
 				"The %s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
 				strings.ReplaceAll(key, "_", " "), m.Label)}})
 		}
+	}
+	return out
+}
+
+func fastFlywheel(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		v, ok := e.Result("rim_speed")
+		if !ok || v.Value <= fastRim {
+			continue
+		}
+		why := "only a density is given, so no strength check is made; name a material"
+		if m, named := e.material("material"); named {
+			if !m.Brittle {
+				continue
+			}
+			why = "its material (" + m.Label + ") is brittle and can burst from casting flaws well below its computed strength"
+		}
+		out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
+			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
+			e.show(v.Value, units.Velocity, "m/s"), e.show(fastRim, units.Velocity, "m/s"), why)}})
 	}
 	return out
 }
