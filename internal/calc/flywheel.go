@@ -90,7 +90,8 @@ Roark's Formulas for Stress and Strain, rotating disks)
   safety_factor = design strength (yield, or tensile strength without a
   yield point) / σ, given with material only. Keys, bolts, welds and
   spokes are not checked, nor bursting at overspeed: stress rises with the
-  square of the speed.
+  square of the speed. A rim faster than 30 m/s raises the fast-flywheel
+  caution when no material is named or the material is brittle.
 
 Chart: speed, the crank speed over a revolution,
   ω(θ)² = ω0² + 2·∫(T_m − T)dθ / I, with ω0 such that (ω_max + ω_min)/2 = ω,
