@@ -67,6 +67,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 		value float64
 		dst   []*float64
 	}{
+		// The general figure first, so that a specific one given beside it wins.
 		{"minimum_factor", cfg.Safety.MinimumFactor, []*float64{&safety.MinimumFactorMetal, &safety.MinimumFactorBrittle}},
 		{"minimum_factor_metal", cfg.Safety.MinimumFactorMetal, []*float64{&safety.MinimumFactorMetal}},
 		{"minimum_factor_plastic", cfg.Safety.MinimumFactorPlastic, []*float64{&safety.MinimumFactorBrittle}},

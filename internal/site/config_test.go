@@ -1,0 +1,37 @@
+package site
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+)
+
+// TestSafetyFactorPrecedence checks that a material-class minimum given
+// beside the general one wins, whatever the order of the keys.
+func TestSafetyFactorPrecedence(t *testing.T) {
+	for _, c := range []struct {
+		name, toml     string
+		metal, brittle float64
+	}{
+		{"defaults", "", 2.5, 4},
+		{"general only", "minimum_factor = 3\n", 3, 3},
+		{"general then metal", "minimum_factor = 3\nminimum_factor_metal = 2\n", 2, 3},
+		{"plastic then general", "minimum_factor_plastic = 6\nminimum_factor = 3\n", 3, 6},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			root := t.TempDir()
+			src := "title = \"T\"\n[safety]\n" + c.toml
+			if err := os.WriteFile(filepath.Join(root, ConfigFile), []byte(src), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			cfg, err := LoadConfig(root)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got := cfg.env.Safety
+			if got.MinimumFactorMetal != c.metal || got.MinimumFactorBrittle != c.brittle {
+				t.Errorf("metal %g, brittle %g; want %g, %g", got.MinimumFactorMetal, got.MinimumFactorBrittle, c.metal, c.brittle)
+			}
+		})
+	}
+}
