@@ -112,6 +112,11 @@ func readMultistageInput(in *Inputs) (multistageInput, error) {
 	m.tic = m.t1
 	if in.Has("intercooled_temperature") {
 		m.tic = in.Value("intercooled_temperature")
+		if hot := dischargeTemperature(m.t1, m.ratio(), m.n); m.tic > hot {
+			return m, &InputError{Key: "intercooled_temperature", Message: fmt.Sprintf(
+				"%s is above the %s at which air leaves the first stage: an intercooler cools the air; allowed: up to %s",
+				show(m.tic-273.15, "°C"), show(hot-273.15, "°C"), show(hot-273.15, "°C"))}
+		}
 	}
 	supply := in.LinkOf("supply")
 	switch {

@@ -216,6 +216,8 @@ func TestMultistageInputErrors(t *testing.T) {
 		{map[string]any{"supply": "low"}, "mass_flow", []string{"mass_flow or supply"}},
 		{map[string]any{"supply": "rx", "mass_flow": nil}, "supply", []string{"tank", "compressor"}},
 		{map[string]any{"discharge_pressure": "0.5 bar", "inlet_pressure": "2 bar(a)"}, "discharge_pressure", []string{"1.513 bar(a)", "2 bar(a)"}},
+		// By hand: r = (9.01325/1.01325)^(1/2) = 2.9825; 293.15 K · 2.9825^(0.3/1.3) = 377.2 K, 104.1 °C.
+		{map[string]any{"intercooled_temperature": "150 degC"}, "intercooled_temperature", []string{"150 °C", "above the 104.1 °C", "intercooler cools"}},
 		{map[string]any{"expect": map[string]any{"interstage_pressure_2": "3 bar"}}, "expect.interstage_pressure_2", []string{"computes no interstage_pressure_2", "with at least 3 stages"}},
 	}
 	for _, c := range cases {
