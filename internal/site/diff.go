@@ -249,12 +249,15 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 
 // relativeChange is (after − before)/|before| of the SI values (for a
 // pressure, the absolute ones; the Markdown says so). It is nil when
-// before is zero.
+// before is zero, or when the change overflows (hand-edited files).
 func relativeChange(x, y ResultJSON) *float64 {
 	if x.Value == 0 {
 		return nil
 	}
 	rel := (y.Value - x.Value) / math.Abs(x.Value)
+	if math.IsInf(rel, 0) || math.IsNaN(rel) {
+		return nil
+	}
 	return &rel
 }
 
