@@ -352,7 +352,15 @@ func (b *Block) lineOf(key string) int {
 	if l, ok := b.lines[key]; ok {
 		return b.Line + l
 	}
-	return b.Line
+	// A key written as a table (bore.x = ..., or [bore]) is on the line of
+	// its first entry.
+	first := 0
+	for k, l := range b.lines {
+		if strings.HasPrefix(k, key+".") && (first == 0 || l < first) {
+			first = l
+		}
+	}
+	return b.Line + first
 }
 
 // tomlError places a TOML syntax error on its file line.

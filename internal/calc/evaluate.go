@@ -309,6 +309,18 @@ func dependsOnFailed(b *Block, failed map[string]bool) bool {
 	return false
 }
 
+// linkCandidates are the blocks a key of b could name: any other block, of
+// the kinds the input takes if it says.
+func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
+	var out []string
+	for _, id := range ids {
+		if t := byID[id]; t != b && (len(in.LinkKinds) == 0 || contains(in.LinkKinds, t.Kind.Name)) {
+			out = append(out, id)
+		}
+	}
+	return out
+}
+
 // checkRefs checks that every "=id.result" of b names a block and one of
 // its results, of the input's dimension.
 func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
@@ -323,7 +335,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 				switch {
 				case !ok:
 					msg := fmt.Sprintf("names block %q, which does not exist", id)
-					if s := Suggest(id, ids); s != "" {
+					if s := Suggest(id, linkCandidates(b, in, byID, ids)); s != "" {
 						msg += fmt.Sprintf("; did you mean %q?", s)
 					}
 					fail(msg)
@@ -341,7 +353,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 		target, ok := byID[v.RefBlock]
 		if !ok {
 			msg := fmt.Sprintf("%q refers to block %q, which does not exist", v.Text, v.RefBlock)
-			if s := Suggest(v.RefBlock, ids); s != "" {
+			if s := Suggest(v.RefBlock, linkCandidates(b, InputSpec{}, byID, ids)); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			fail(msg)
