@@ -52,12 +52,21 @@ relief valve for those blocks. The no-relief caution rule compares its
 opening pressure with each protected part's allowable pressure and each
 compressor's dead-head pressure; the trace lists them.`
 
+// maxCrackingPressure is the highest cracking pressure taken as real: the
+// upper bound of the pressures the other kinds accept.
+const maxCrackingPressure = 1e9 // Pa
+
 func evaluateValve(in *Inputs) (*Outcome, error) {
 	d, k, x := in.Value("seat_diameter"), in.Value("spring_rate"), in.Value("preload")
 	force := k * x
 	area := math.Pi / 4 * d * d
 	crack := force / area
 	mm := func(v float64) string { return show(v*1e3, "mm") }
+	if crack > maxCrackingPressure {
+		return nil, &InputError{Key: "spring_rate", Message: fmt.Sprintf(
+			"a spring of %s compressed %s on a %s seat opens at %s, beyond any valve of an air machine; allowed: up to %s; check spring_rate, preload and seat_diameter",
+			show(k/1e3, "N/mm"), mm(x), mm(d), show(crack/1e6, "MPa"), show(maxCrackingPressure/1e6, "MPa"))}
+	}
 	res := []Result{
 		{Name: "spring_force", Value: force, Dim: units.Force, Trace: Trace{
 			"F = k · x", "= " + show(k/1e3, "N/mm") + " · " + mm(x)}},
