@@ -82,6 +82,9 @@ const (
 	maxGasTemperature = 1000             // K: beyond any inlet or intercooler of an air machine
 	minSolidDensity   = 100              // kg/m³: below the lightest woods
 	minVesselVolume   = 1e-8             // m³: 10 mm³
+	// maxMeanPistonSpeed: fast racing engines run at about 25 m/s (common
+	// practice); no air machine comes near 40 m/s.
+	maxMeanPistonSpeed = 40.0 // m/s
 )
 
 // positiveUpTo allows values above zero up to max.
@@ -195,6 +198,12 @@ func readCylinder(in *Inputs) (compressorInput, error) {
 		c.crankRadius = in.Value("crank_radius")
 	default:
 		return c, &InputError{Key: "stroke", Message: "missing: give stroke or crank_radius (a length, e.g. \"32 mm\")"}
+	}
+	if cm := 4 * c.crankRadius * c.omega / (2 * math.Pi); cm > maxMeanPistonSpeed {
+		return c, &InputError{Key: "speed", Message: fmt.Sprintf(
+			"at %s a %s stroke gives a mean piston speed of %s, beyond any piston machine; allowed: up to %s (%s with this stroke)",
+			show(c.omega*60/(2*math.Pi), "rpm"), show(2*c.crankRadius*1e3, "mm"), show(cm, "m/s"), show(maxMeanPistonSpeed, "m/s"),
+			show(maxMeanPistonSpeed*60/(4*c.crankRadius), "rpm"))}
 	}
 	if c.rod <= c.crankRadius*(1+minRodExcess) {
 		return c, &InputError{Key: "rod_length", Message: fmt.Sprintf(
