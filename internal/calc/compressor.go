@@ -23,7 +23,7 @@ var compressorKind = Kind{
 		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: positiveUpTo(100), Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
 		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: Between(minClearanceRatio, 100), Meaning: "clearance volume over swept volume, 1e-6 to 100; give clearance_volume or clearance_ratio"},
 		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased, 1 to 32"},
-		{Name: "speed", Dim: units.RotationalSpeed, Range: Between(minCrankSpeed, 1e5), Meaning: "crankshaft speed, 1 rpm to 1e5 rad/s"},
+		{Name: "speed", Dim: units.RotationalSpeed, Range: Between(minCrankSpeed, 1e5), Meaning: "crankshaft speed, 1 rpm to 1e5 rad/s, and at most 40 m/s of mean piston speed"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
 		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: Between(1, 1e9), Meaning: "pressure in the cylinder during suction, 1 Pa(a) to 1 GPa; default: ambient"},
 		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature at the inlet"},
