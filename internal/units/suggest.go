@@ -33,10 +33,13 @@ func suggest(key string, accept func(Unit) bool) string {
 	if len([]rune(key)) > 3 {
 		limit = 2
 	}
+	// One character is at distance 1 from every other: only a unit that
+	// starts with it is a guess ("C" for "cm", never "㎤" for "%").
+	single := len([]rune(key)) == 1
 	best, bestDist := "", limit+1
 	lower := strings.ToLower(key)
 	for _, e := range unitSpellings {
-		if !ok(e) {
+		if !ok(e) || single && !strings.HasPrefix(strings.ToLower(e.key), lower) {
 			continue
 		}
 		if d := EditDistance(lower, strings.ToLower(e.key)); d < bestDist {
@@ -48,7 +51,10 @@ func suggest(key string, accept func(Unit) bool) string {
 
 // hints are near misses that edit distance gets wrong: "C" is closer to
 // "K" than to "degC".
-var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h"}
+// Unicode's squared unit symbols are spelled out.
+var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h",
+	"㎤": "cm3", "㎣": "mm3", "㎥": "m3", "㎜": "mm", "㎝": "cm", "㎞": "km", "㎏": "kg", "㎎": "mg",
+	"℃": "degC", "℉": "degF", "㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L"}
 
 // EditDistance is the Levenshtein distance between a and b, counted in
 // runes. specgen uses it for "did you mean" everywhere.
