@@ -54,7 +54,7 @@ func suggest(key string, accept func(Unit) bool) string {
 // Unicode's squared unit symbols are spelled out.
 var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h",
 	"㎤": "cm3", "㎣": "mm3", "㎥": "m3", "㎜": "mm", "㎝": "cm", "㎞": "km", "㎏": "kg", "㎎": "mg",
-	"℃": "degC", "℉": "degF", "㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L"}
+	"㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L"}
 
 // EditDistance is the Levenshtein distance between a and b, counted in
 // runes. specgen uses it for "did you mean" everywhere.
