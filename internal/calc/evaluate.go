@@ -183,6 +183,9 @@ func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, 
 	if dim == units.Dimensionless && unit == "" {
 		return units.Format(si, sig), nil
 	}
+	if dim == units.Pressure {
+		unit = markedPressureUnit(si, unit, ambient)
+	}
 	v, err := units.FromSI(si, dim, unit, ambient)
 	if err != nil {
 		return "", err
@@ -418,6 +421,25 @@ func levels(order []*Block) [][]*Block {
 }
 
 // absoluteUnit is the absolute form of a pressure unit: "bar" → "bar(a)".
+// markedPressureUnit gives an unmarked pressure unit ("bar") its mark, so
+// that a shown pressure never leaves the reader to guess: gauge at or above
+// ambient, absolute below it, where a gauge figure hides how good a vacuum
+// is ("-1000 mbar" for 9 mbar(a)).
+func markedPressureUnit(si float64, unit string, ambient float64) string {
+	u, err := units.LookupUnit(unit)
+	if err != nil || u.Ref != units.Unmarked {
+		return unit
+	}
+	mark := "(g)"
+	if si < ambient {
+		mark = "(a)"
+	}
+	if m, err := units.LookupUnit(u.Symbol + mark); err == nil {
+		return m.Symbol
+	}
+	return unit
+}
+
 func absoluteUnit(unit string) string {
 	u, err := units.LookupUnit(unit)
 	if err != nil || u.Ref == units.Absolute {

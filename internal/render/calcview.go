@@ -233,6 +233,11 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 // pressurePair shows an absolute pressure both gauge and absolute, in the
 // family of unit: "6.00 bar(g) · 7.01 bar(a)".
 func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
+	if u, err := units.LookupUnit(unit); err == nil && u.Ref == units.Absolute && !strings.HasSuffix(u.Symbol, "(a)") {
+		// torr and atm are absolute by nature and have no gauge form.
+		s, _ := calc.FormatValue(abs, units.Pressure, u.Symbol, e.Ambient, e.SigFigs())
+		return s
+	}
 	base := pressureBase(unit)
 	g, errG := calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, e.SigFigs())
 	a, errA := calc.FormatValue(abs, units.Pressure, base+"(a)", e.Ambient, e.SigFigs())

@@ -126,3 +126,17 @@ func TestVacuumPressurePair(t *testing.T) {
 		t.Errorf("pressurePair = %q", got)
 	}
 }
+
+// TestAbsoluteByNaturePressurePair: torr and atm have no gauge form, so a
+// result asked for in them shows the absolute value alone, in that unit.
+func TestAbsoluteByNaturePressurePair(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	// NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory); 905 Pa = 6.788 torr.
+	if got := pressurePair(905, "torr", e); got != "6.79 torr" {
+		t.Errorf("pressurePair(905 Pa, torr) = %q, want \"6.79 torr\"", got)
+	}
+	// 1 atm = 101325 Pa (NIST SP 811 App. B).
+	if got := pressurePair(202650, "atm", e); got != "2.00 atm" {
+		t.Errorf("pressurePair(202650 Pa, atm) = %q, want \"2.00 atm\"", got)
+	}
+}
