@@ -90,8 +90,8 @@ Fill time
   p_max = p1·((1 + c)/c)^n; a target at or above it is an error.
 - Without supply there is no fill_time, fill curve or fill table.
   Chart "fill": tank pressure over time. Table: the fill time to each
-  whole bar (gauge) from start_pressure up to the target; above 50 rows the
-  step grows to 2, 5, 10, 20, 50 ... bar.
+  whole bar (gauge) from start_pressure, and to the target; above 50 rows
+  the step grows to 2, 5, 10, 20, 50 ... bar.
 
 Wall (optional)
   Give material, inner_diameter and wall_thickness or outer_diameter (and
@@ -317,7 +317,7 @@ func fillCurve(t tankInput) Curve {
 }
 
 // fillTable gives the time to reach each whole bar (gauge) from the start
-// pressure up to the target, in a 1-2-5 step of bars when whole bars would
+// pressure, and the target, in a 1-2-5 step of bars when whole bars would
 // give more than fillTableMaxRows rows.
 func fillTable(t tankInput) Table {
 	c := Table{Title: "Fill time at each bar",
@@ -331,6 +331,11 @@ func fillTable(t tankInput) Table {
 		elapsed += t.supply.fillTime(t.volume, prev, p)
 		c.XS, c.YS = append(c.XS, p), append(c.YS, elapsed)
 		prev = p
+	}
+	// The last row is the target itself when it is not a whole step.
+	if t.target-prev > 1e-9*t.target {
+		elapsed += t.supply.fillTime(t.volume, prev, t.target)
+		c.XS, c.YS = append(c.XS, t.target), append(c.YS, elapsed)
 	}
 	if elapsed > 180 {
 		c.Y.Unit = "min"

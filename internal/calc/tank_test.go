@@ -362,3 +362,21 @@ func TestFillTimeExtremes(t *testing.T) {
 		}
 	}
 }
+
+// TestTankFillTableEndsAtTarget: a target between whole bars gets its own
+// last row, at the fill time.
+func TestTankFillTableEndsAtTarget(t *testing.T) {
+	set, err := evaluateBlocks(t, benchSite(map[string]any{"pressure": "7.5 bar"}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("rx")
+	table := e.Tables[0]
+	fillTime, _ := e.Result("fill_time")
+	last := len(table.XS) - 1
+	if len(table.XS) != 9 || math.Abs(table.XS[last]-(e.Ambient+7.5e5)) > 1e-6 ||
+		math.Abs(table.YS[last]-fillTime.Value) > 1e-6*fillTime.Value {
+		t.Errorf("fill table has %d rows ending at (%g Pa, %g s); want 9 rows (0 to 7 bar, then 7.5) ending at the target (%g Pa, %g s)",
+			len(table.XS), table.XS[last], table.YS[last], e.Ambient+7.5e5, fillTime.Value)
+	}
+}
