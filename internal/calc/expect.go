@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -350,6 +351,10 @@ func (b *Block) decodeShow(v any) Errors {
 					fail(fmt.Sprintf("%s: %v; %s is %s", name, err, name, dimPhrase(spec.Dim)))
 					continue
 				}
+			}
+			if slices.ContainsFunc(b.Show.Outputs, func(o Output) bool { return o.Name == name }) {
+				fail(fmt.Sprintf("%s is listed twice; the table shows a result once, in one unit (quote it in others with =[%s.%s unit] in the prose)", name, b.ID, name))
+				continue
 			}
 			b.Show.Outputs = append(b.Show.Outputs, Output{Name: name, Unit: unit})
 		}
