@@ -51,7 +51,7 @@ var dimensions = [...]dimensionInfo{
 	Area:                  {"area", "mm2, cm2, m2, in2", "m2"},
 	Volume:                {"volume", "cm3, L, m3, in3, ft3", "m3"},
 	VolumeFlow:            {"volume flow", "L/min, L/s, m3/h, m3/min, cfm", "m3/s"},
-	Pressure:              {"pressure", "kPa, MPa, bar, psi, bar(a), psia, atm", "Pa"},
+	Pressure:              {"pressure", "kPa, MPa, bar, mbar, psi, bar(a), psia, atm, torr, inHg, mmHg", "Pa"},
 	Stress:                {"stress", "MPa, N/mm2, psi, ksi", "Pa"},
 	Temperature:           {"temperature", "degC, degF, K", "K"},
 	TemperatureDifference: {"temperature difference", "K, degC, degF", "K"},

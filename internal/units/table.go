@@ -14,6 +14,7 @@ const (
 	torr       = atm / 760
 	mercury    = 13595.1 // kg/m3, conventional density of mercury
 	inHg       = mercury * gravity * inch
+	mmHg       = mercury * gravity * 1e-3
 	horse      = 550 * foot * poundF // W, the mechanical horsepower, 550 ft·lbf/s
 	celsius0   = 273.15              // K at 0 degC
 	rankine    = 5.0 / 9             // K per degF
@@ -89,6 +90,7 @@ var unitTable = joinDefs(
 	pressureDefs("mbar", 100, nil, []string{"mbarg"}, []string{"mbara"}),
 	pressureDefs("psi", psi, []string{"PSI", "lbf/in2"}, []string{"psig", "PSIG"}, []string{"psia", "PSIA"}),
 	pressureDefs("inHg", inHg, nil, nil, nil),
+	pressureDefs("mmHg", mmHg, nil, nil, nil),
 	[]unitDef{
 		def("ksi", Pressure, 1000*psi),
 		// The standard atmosphere is absolute by definition.
