@@ -41,6 +41,8 @@ const (
 	// whose casting flaws make a stress check alone unsafe (common practice;
 	// from memory, machine-design handbooks give about 6000 ft/min, 30 m/s).
 	fastRim = 30.0 // m/s
+	// freezing: water in the air freezes below 0 °C.
+	freezing = 273.15 // K
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -53,6 +55,7 @@ var rules = []Rule{
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
+	{ID: "cold-exhaust", Level: Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", check: coldExhaust},
 	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
 }
 
@@ -341,6 +344,20 @@ func fastFlywheel(s *Set) []raised {
 		out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
 			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
 			e.show(v.Value, units.Velocity, "m/s"), e.show(fastRim, units.Velocity, "m/s"), why)}})
+	}
+	return out
+}
+
+func coldExhaust(s *Set) []raised {
+	var out []raised
+	for _, e := range s.Blocks {
+		t, ok := e.Result("expansion_temperature")
+		if !ok || t.Value >= freezing {
+			continue
+		}
+		out = append(out, raised{e, CautionNote{Level: Caution, Message: fmt.Sprintf(
+			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
+			e.show(t.Value, units.Temperature, "degC"))}})
 	}
 	return out
 }

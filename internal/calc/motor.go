@@ -27,10 +27,12 @@ var motorKind = Kind{
 		{Name: "cutoff", Dim: units.Dimensionless, Range: Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
 			Meaning: "fraction of the stroke at which the inlet valve closes, above 0 up to 1 (1: admission over the whole stroke)"},
 		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: Between(1, 1.67), Meaning: "n in p·V^n = const for the expansion after cut-off, 1 (isothermal) to 1.67"},
+		{Name: "supply_temperature", Dim: units.Temperature, Default: "20 degC", Range: Between(minGasTemperature, maxGasTemperature), Meaning: "temperature of the supply air at the inlet valve"},
 	},
 	Results: []ResultSpec{
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
 		{Name: "expansion_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "cylinder pressure at bottom dead centre, when the exhaust opens"},
+		{Name: "expansion_temperature", Dim: units.Temperature, Unit: "degC", Meaning: "air temperature at bottom dead centre, when the exhaust opens"},
 		{Name: "indicated_work", Dim: units.Energy, Unit: "J", Meaning: "gas work of all cylinders on the pistons in one revolution"},
 		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time, before friction"},
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the mean torque the motor delivers, before friction"},
@@ -83,6 +85,10 @@ Air consumption
   m1 = (p_s·V1 − p_a·V0)/(R·T_s). As free air (ambient pressure, supply
   temperature): V_free = (p_s·V1 − p_a·V0)/p_a, and
   air_consumption = z·V_free·N.
+
+Expansion temperature
+  T_e = T_s·(p_e/p_s)^((n−1)/n), the air at bottom dead centre. Below
+  0 °C the cold-exhaust caution says that moisture will freeze there.
 
 Efficiency
   η = W1 / (p_a·V_free·ln(p_s/p_a)), the indicated work over the work the
@@ -203,6 +209,7 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
 			show((c.ps-c.pa)/1e5, "bar(g)"), show(in.Value("cutoff"), ""), show(w1, "J"))}
 	}
+	ts := in.Value("supply_temperature")
 	steps := crankSteps(g.cylinders)
 	gas := phaseSum(sampleRevolution(steps, c.gasTorque), g.cylinders)
 	eLow, eHigh := excessEnergyRange(gas, meanLoad)
@@ -222,6 +229,8 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 		{Name: "expansion_pressure", Value: pe, Dim: units.Pressure, Trace: Trace{
 			"p_e = p_s · (V1/V2)^n, V1 = Vc + x_c·Vs, V2 = Vc + Vs",
 			"= " + bara(c.ps) + " · (" + cm3(c.v1) + " / " + cm3(c.v2) + ")^" + num(c.n)}},
+		{Name: "expansion_temperature", Value: ts * math.Pow(pe/c.ps, (c.n-1)/c.n), Dim: units.Temperature, Trace: Trace{
+			"T_e = T_s · (p_e/p_s)^((n−1)/n)", "= " + show(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
 		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: Trace{
 			"W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)",
 			"= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1-c.v0) + " + " + show(expand, "J") + " − " + bara(c.pa) + " · " + cm3(swept) + ")"}},
