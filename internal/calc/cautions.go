@@ -111,12 +111,34 @@ func (e *Evaluated) material(key string) (Material, bool) {
 	return m, err == nil
 }
 
+// show formats a value for a caution in the units the block's writer uses
+// (see unitFor), else in unit.
 func (e *Evaluated) show(si float64, dim units.Dimension, unit string) string {
-	s, err := FormatValue(si, dim, unit, e.Ambient, e.sigFigs)
+	s, err := FormatValue(si, dim, e.unitFor(dim, unit), e.Ambient, e.sigFigs)
 	if err != nil {
 		return units.Format(si, e.sigFigs)
 	}
 	return s
+}
+
+// unitFor is the unit of dimension dim that the block's writer chose: of a
+// [show] output, else of an input written in the block, else fallback. A
+// block written in psi and degF gets its cautions in psi and degF.
+func (e *Evaluated) unitFor(dim units.Dimension, fallback string) string {
+	for _, o := range e.Block.Show.Outputs {
+		if spec, ok := e.Block.Kind.result(o.Name); ok && o.Unit != "" && spec.Dim == dim {
+			return o.Unit
+		}
+	}
+	for _, in := range e.Inputs {
+		if in.Default || in.From != "" || in.Dim != dim {
+			continue
+		}
+		if q, err := units.Parse(in.Text, dim); err == nil && q.Unit.Symbol != "" {
+			return q.Unit.Symbol
+		}
+	}
+	return fallback
 }
 
 func hotDischarge(s *Set) []raised {
