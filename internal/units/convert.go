@@ -21,6 +21,11 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 		return 0, newError(unit, problem)
 	}
 	if dim == Pressure && u.Ref != Absolute {
+		// A gauge pressure within rounding noise of ambient is zero, not
+		// "6.6e-12 bar".
+		if math.Abs(si-ambient) <= 1e-12*math.Abs(ambient) {
+			si = ambient
+		}
 		si -= ambient
 	}
 	if !finite(si) {
