@@ -52,6 +52,7 @@ var rules = []Rule{
 	{ID: "low-safety-factor", Level: Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", check: lowSafetyFactor},
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
+	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
@@ -307,6 +308,28 @@ func noRelief(s *Set) []raised {
 			}
 			out = append(out, raised{c, CautionNote{Level: Danger, Message: msg}})
 		}
+	}
+	return out
+}
+
+func reliefUnnamed(s *Set) []raised {
+	var out []raised
+	for _, c := range s.Blocks {
+		dead, ok := c.Result("max_pressure")
+		ve, _ := c.Result("volumetric_efficiency")
+		if !ok || c.Block.Kind.Name != "compressor" || ve.Value <= 0 {
+			continue
+		}
+		named := false
+		for _, v := range s.Blocks {
+			named = named || (v.Block.Kind.Name == "valve" && v.links(c.Block.ID))
+		}
+		if named {
+			continue
+		}
+		out = append(out, raised{c, CautionNote{Level: Notice, Message: fmt.Sprintf(
+			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
+			c.Block.ID, c.show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
 	}
 	return out
 }
