@@ -253,7 +253,20 @@ func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
 		}
 		return a + " · " + g
 	}
+	// At high pressure the two can round alike ("1030 bar(g) · 1030 bar(a)"):
+	// more figures show the ambient between them.
+	for sig := e.SigFigs() + 1; sig <= 8 && sameNumber(g, a); sig++ {
+		g, _ = calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, sig)
+		a, _ = calc.FormatValue(abs, units.Pressure, base+"(a)", e.Ambient, sig)
+	}
 	return g + " · " + a
+}
+
+// sameNumber reports whether two shown quantities have the same number.
+func sameNumber(x, y string) bool {
+	nx, _, _ := strings.Cut(x, " ")
+	ny, _, _ := strings.Cut(y, " ")
+	return nx == ny
 }
 
 // roundsPastVacuum reports whether a shown gauge pressure is below minus

@@ -140,3 +140,18 @@ func TestAbsoluteByNaturePressurePair(t *testing.T) {
 		t.Errorf("pressurePair(202650 Pa, atm) = %q, want \"2.00 atm\"", got)
 	}
 }
+
+// TestHighPressurePairDiffers: gauge and absolute that round alike at the
+// site's figures get more, so the pair does not read as one number twice.
+func TestHighPressurePairDiffers(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	// 1031.2 bar(g) = 1031.2e5 + 101325 Pa absolute = 1032.213 bar(a).
+	got := pressurePair(1031.2e5+101325, "bar", e)
+	if got != "1031 bar(g) · 1032 bar(a)" {
+		t.Errorf("pressurePair = %q, want \"1031 bar(g) · 1032 bar(a)\"", got)
+	}
+	// Low pressures keep the site's figures.
+	if got := pressurePair(6e5+101325, "bar", e); got != "6.00 bar(g) · 7.01 bar(a)" {
+		t.Errorf("pressurePair = %q", got)
+	}
+}
