@@ -66,11 +66,12 @@ type ClaimChange struct {
 	After  string `json:"message"`
 }
 
-// CautionChange is a caution that appeared or went.
+// CautionChange is a caution that appeared or went, or whose acknowledgement
+// came or went.
 type CautionChange struct {
 	Level   string `json:"level"`
 	Rule    string `json:"rule"`
-	Status  string `json:"status"` // "appeared", "went"
+	Status  string `json:"status"` // "appeared", "went", "acknowledged" (Message: the reason), "no longer acknowledged"
 	Message string `json:"message"`
 }
 
@@ -224,16 +225,25 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "removed", After: c.Message})
 		}
 	}
-	key := func(c CautionJSON) string { return c.Level + "\x00" + c.Rule + "\x00" + c.Acknowledged }
-	had, has := map[string]bool{}, map[string]bool{}
+	key := func(c CautionJSON) string { return c.Level + "\x00" + c.Rule }
+	had, has := map[string]CautionJSON{}, map[string]bool{}
 	for _, c := range a.Cautions {
-		had[key(c)] = true
+		had[key(c)] = c
 	}
 	for _, c := range b.Cautions {
 		has[key(c)] = true
-		if !had[key(c)] {
+		was, existed := had[key(c)]
+		switch {
+		case !existed:
 			bd.Cautions = append(bd.Cautions, CautionChange{Level: c.Level, Rule: c.Rule, Status: "appeared", Message: c.Message})
 			if c.Level == "DANGER" && c.Acknowledged == "" {
+				d.NewDangers++
+			}
+		case was.Acknowledged == "" && c.Acknowledged != "":
+			bd.Cautions = append(bd.Cautions, CautionChange{Level: c.Level, Rule: c.Rule, Status: "acknowledged", Message: c.Acknowledged})
+		case was.Acknowledged != "" && c.Acknowledged == "":
+			bd.Cautions = append(bd.Cautions, CautionChange{Level: c.Level, Rule: c.Rule, Status: "no longer acknowledged", Message: c.Message})
+			if c.Level == "DANGER" {
 				d.NewDangers++
 			}
 		}
@@ -363,7 +373,7 @@ func (d *Diff) WriteMarkdown(w io.Writer) {
 			fmt.Fprintln(w)
 			for _, c := range b.Cautions {
 				level := c.Level
-				if c.Level == "DANGER" && c.Status == "appeared" {
+				if c.Level == "DANGER" && (c.Status == "appeared" || c.Status == "no longer acknowledged") {
 					level = "**DANGER**"
 				}
 				fmt.Fprintf(w, "- Caution %s %s (`%s`): %s\n", c.Status, level, c.Rule, mdCell(c.Message))

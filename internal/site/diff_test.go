@@ -13,3 +13,24 @@ func TestRelativeChangeOverflow(t *testing.T) {
 		t.Errorf("change %v, want 0.5", c)
 	}
 }
+
+// TestCautionAcknowledgementDiff: acknowledging a caution reads as such,
+// not as one caution going and another appearing; withdrawing the
+// acknowledgement of a DANGER fails the diff like a new DANGER.
+func TestCautionAcknowledgementDiff(t *testing.T) {
+	open := CautionJSON{Level: "DANGER", Rule: "hot-discharge", Message: "too hot"}
+	accepted := open
+	accepted.Acknowledged = "bench test behind a shield"
+	block := func(c CautionJSON) ResultBlock { return ResultBlock{ID: "c", Kind: "compressor", Cautions: []CautionJSON{c}} }
+
+	var d Diff
+	bd, changed := compareBlock(block(open), block(accepted), &d)
+	if !changed || len(bd.Cautions) != 1 || bd.Cautions[0].Status != "acknowledged" || bd.Cautions[0].Message != accepted.Acknowledged || d.Failed() {
+		t.Errorf("acknowledging: %+v, failed %v", bd.Cautions, d.Failed())
+	}
+	d = Diff{}
+	bd, _ = compareBlock(block(accepted), block(open), &d)
+	if len(bd.Cautions) != 1 || bd.Cautions[0].Status != "no longer acknowledged" || !d.Failed() {
+		t.Errorf("withdrawing: %+v, failed %v", bd.Cautions, d.Failed())
+	}
+}
