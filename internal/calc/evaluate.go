@@ -58,6 +58,9 @@ type Evaluated struct {
 	Tables   []Table
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
+	// customary: every input the block writes with a unit is in US
+	// customary units, so its results show in them too.
+	customary bool
 }
 
 // InputValue is one input as read: what was written, or the default.
@@ -121,7 +124,8 @@ func (e *Evaluated) Failed() bool {
 }
 
 // DisplayUnit is the unit a result shows in: the block's [show] choice,
-// else the kind's default.
+// else the kind's default, in US customary units when the block is written
+// in them.
 func (e *Evaluated) DisplayUnit(name string) string {
 	for _, o := range e.Block.Show.Outputs {
 		if o.Name == name && o.Unit != "" {
@@ -129,6 +133,9 @@ func (e *Evaluated) DisplayUnit(name string) string {
 		}
 	}
 	if spec, ok := e.Block.Kind.result(name); ok {
+		if e.customary {
+			return units.CustomaryFor(spec.Unit)
+		}
 		return spec.Unit
 	}
 	return ""
@@ -557,6 +564,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env, noCurves: !wantCurves}
+	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {
@@ -631,6 +639,9 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			}
 			value = q.Absolute(e.Ambient)
 			shownUnit = q.Unit.Symbol
+			if given {
+				systems[units.SystemOf(q.Unit.Symbol)]++
+			}
 		}
 		if !spec.Range.Contains(value) {
 			fail(spec.Name, line, fmt.Sprintf("%q is out of range; allowed: %s", iv.Text, describeRange(spec, shownUnit, e.Ambient, opts.SigFigs)))
@@ -643,6 +654,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
+	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
 	out, err := b.Kind.Evaluate(in)
 	if err != nil {
 		var ie *InputError

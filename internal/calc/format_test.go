@@ -31,3 +31,39 @@ func TestFormatValueMarksPressures(t *testing.T) {
 		}
 	}
 }
+
+// TestCustomaryBlockDisplay: a block written wholly in US customary units
+// shows its results in them; one unit of metric keeps the kind's units.
+func TestCustomaryBlockDisplay(t *testing.T) {
+	base := map[string]any{"id": "c", "kind": "compressor", "bore": "1.9685 in", "stroke": "1.5748 in",
+		"rod_length": "3.5 in", "clearance_volume": "0.25 in3", "speed": "1450 rpm", "discharge_pressure": "116 psi",
+		"inlet_temperature": "68 degF"}
+	for _, c := range []struct {
+		name   string
+		change map[string]any
+		want   map[string]string
+	}{
+		{"customary", nil, map[string]string{
+			// 4.79 in³: π/4·1.9685²·1.5748 = 4.793 in³ (by hand).
+			"swept_volume": "4.79 in³", "discharge_temperature": "414 °F", "free_air_delivery": "3.10 cfm"}},
+		{"mixed", map[string]any{"bore": "50 mm"}, map[string]string{"swept_volume": "78.5 cm³"}},
+	} {
+		block := map[string]any{}
+		for k, v := range base {
+			block[k] = v
+		}
+		for k, v := range c.change {
+			block[k] = v
+		}
+		set, err := evaluateBlocks(t, []map[string]any{block})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("c")
+		for name, want := range c.want {
+			if got, err := e.Format(name, ""); err != nil || got != want {
+				t.Errorf("%s: %s shows %q, %v; want %q", c.name, name, got, err, want)
+			}
+		}
+	}
+}

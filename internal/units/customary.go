@@ -1,0 +1,61 @@
+package units
+
+import "strings"
+
+// UnitSystem tells the US customary spellings from the metric ones.
+type UnitSystem int
+
+const (
+	// Neutral units belong to both (rpm, s, degrees, atm, torr).
+	Neutral UnitSystem = iota
+	Metric
+	Customary
+)
+
+// customaryUnits are the US customary symbols of the unit table.
+var customaryUnits = map[string]bool{
+	"in": true, "ft": true, "in2": true, "ft2": true, "in3": true, "ft3": true, "gal": true, "cfm": true,
+	"psi": true, "ksi": true, "inHg": true, "degF": true, "degR": true, "lbf": true, "lbf in": true, "lbf ft": true,
+	"hp": true, "lb": true, "lb/ft3": true, "lb/in3": true, "lbf/in": true, "ft/min": true, "ft/s": true,
+	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true,
+}
+
+// neutralUnits are used alike in both systems.
+var neutralUnits = map[string]bool{
+	"": true, "%": true, "rpm": true, "rev/s": true, "rad/s": true, "rad": true, "deg": true,
+	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true,
+}
+
+// SystemOf tells which system a unit symbol (as LookupUnit gives it)
+// belongs to; a pressure's gauge or absolute mark does not matter.
+func SystemOf(symbol string) UnitSystem {
+	base := strings.TrimSuffix(strings.TrimSuffix(symbol, "(g)"), "(a)")
+	switch {
+	case customaryUnits[base]:
+		return Customary
+	case neutralUnits[base]:
+		return Neutral
+	}
+	return Metric
+}
+
+// customaryOf is the customary unit a workshop in the US would read a
+// metric display unit in.
+var customaryOf = map[string]string{
+	"mm": "in", "cm": "in", "m": "ft", "mm2": "in2", "cm2": "in2", "m2": "ft2",
+	"mm3": "in3", "cm3": "in3", "L": "gal", "m3": "ft3",
+	"L/min": "cfm", "L/s": "cfm", "m3/h": "cfm", "m3/min": "cfm", "m3/s": "cfm",
+	"bar": "psi", "mbar": "psi", "kPa": "psi", "MPa": "psi", "Pa": "psi",
+	"degC": "degF", "N": "lbf", "kN": "lbf", "N m": "lbf ft", "N mm": "lbf in",
+	"W": "hp", "kW": "hp", "g": "lb", "kg": "lb", "kg/m3": "lb/ft3",
+	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in",
+}
+
+// CustomaryFor is the US customary counterpart of a metric display unit,
+// or the unit itself when it has none (J, kJ/kg) or is not metric.
+func CustomaryFor(unit string) string {
+	if c, ok := customaryOf[unit]; ok {
+		return c
+	}
+	return unit
+}

@@ -1,0 +1,31 @@
+package units
+
+import "testing"
+
+// TestCustomaryCounterparts checks that every customary counterpart is a
+// customary unit of the table measuring what its metric unit measures.
+func TestCustomaryCounterparts(t *testing.T) {
+	for metric, customary := range customaryOf {
+		m, err := LookupUnit(metric)
+		if err != nil {
+			t.Fatalf("%s: %v", metric, err)
+		}
+		c, err := LookupUnit(customary)
+		if err != nil {
+			t.Fatalf("%s: %v", customary, err)
+		}
+		if m.Dim != c.Dim || SystemOf(m.Symbol) != Metric || SystemOf(c.Symbol) != Customary {
+			t.Errorf("%s (%v, %v) → %s (%v, %v)", metric, m.Dim, SystemOf(m.Symbol), customary, c.Dim, SystemOf(c.Symbol))
+		}
+	}
+	for symbol := range customaryUnits {
+		if _, err := LookupUnit(symbol); err != nil {
+			t.Errorf("customary unit %s: %v", symbol, err)
+		}
+	}
+	for symbol, want := range map[string]UnitSystem{"psi(g)": Customary, "psi(a)": Customary, "bar(a)": Metric, "rpm": Neutral, "torr": Neutral, "degF": Customary} {
+		if got := SystemOf(symbol); got != want {
+			t.Errorf("SystemOf(%q) = %v, want %v", symbol, got, want)
+		}
+	}
+}
