@@ -314,7 +314,15 @@ func noRelief(s *Set) []raised {
 
 func reliefUnnamed(s *Set) []raised {
 	var out []raised
+	// A compressor with a no-relief DANGER already says so.
+	warned := map[*Evaluated]bool{}
+	for _, r := range noRelief(s) {
+		warned[r.block] = true
+	}
 	for _, c := range s.Blocks {
+		if warned[c] {
+			continue
+		}
 		dead, ok := c.Result("max_pressure")
 		ve, _ := c.Result("volumetric_efficiency")
 		if !ok || c.Block.Kind.Name != "compressor" || ve.Value <= 0 {
