@@ -85,6 +85,12 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 		return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)
 	}
 	c.Name, c.Ambient = name, e.Ambient
+	if e.customary {
+		c.X.Unit = units.CustomaryFor(c.X.Unit)
+		for i := range c.Panels {
+			c.Panels[i].Y.Unit = units.CustomaryFor(c.Panels[i].Y.Unit)
+		}
+	}
 	return c, nil
 }
 

@@ -655,6 +655,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		return nil, err
 	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
+	in.customary = e.customary
 	out, err := b.Kind.Evaluate(in)
 	if err != nil {
 		var ie *InputError

@@ -112,7 +112,13 @@ type Inputs struct {
 	env     *Env
 	// noCurves tells the model that nothing will draw or read its curves.
 	noCurves bool
+	// customary: the block is written in US customary units.
+	customary bool
 }
+
+// Customary reports whether the block is written in US customary units,
+// for a model that lays out tables in round numbers of them.
+func (in *Inputs) Customary() bool { return in.customary }
 
 // WantCurves reports whether the block's curves are used (by its charts or
 // by a block that links to it); a model may skip sampling them otherwise.

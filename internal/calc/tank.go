@@ -62,6 +62,8 @@ const airGamma = 1.4
 const (
 	fillCurveIntervals = 200 // equal pressure steps of the "fill" curve
 	fillTableMaxRows   = 50  // the table's step grows 1-2-5 beyond this
+	// fillTableMaxRowsPsi: a psi is small, so customary tables step sooner.
+	fillTableMaxRowsPsi = 15
 )
 
 const tankDoc = `The tank kind models an air receiver of volume V filled to the target pressure
@@ -194,11 +196,13 @@ func (s supplyModel) riseIntegral(ua, ub float64) float64 {
 type tankInput struct {
 	volume, target, start, ambient float64
 	supply                         *supplyModel
+	customary                      bool // the block is written in US customary units
 }
 
 // readTankInput applies the checks that single-input ranges cannot.
 func readTankInput(in *Inputs) (tankInput, error) {
-	t := tankInput{volume: in.Value("volume"), target: in.Value("pressure"), start: in.Value("start_pressure"), ambient: in.Ambient}
+	t := tankInput{volume: in.Value("volume"), target: in.Value("pressure"), start: in.Value("start_pressure"), ambient: in.Ambient,
+		customary: in.Customary()}
 	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
 	if t.target <= t.ambient {
 		return t, &InputError{Key: "pressure", Message: fmt.Sprintf(
@@ -318,16 +322,21 @@ func fillCurve(t tankInput) Curve {
 
 // fillTable gives the time to reach each whole bar (gauge) from the start
 // pressure, and the target, in a 1-2-5 step of bars when whole bars would
-// give more than fillTableMaxRows rows.
+// give more than fillTableMaxRows rows. A block written in US customary
+// units gets steps of psi instead, fewer of them, as psi are small.
 func fillTable(t tankInput) Table {
-	c := Table{Title: "Fill time at each bar",
-		X: Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: "bar"},
+	unit, perUnit, maxRows := "bar", 1e5, fillTableMaxRows
+	if psi, err := units.LookupUnit("psi"); err == nil && t.customary {
+		unit, perUnit, maxRows = "psi", psi.Factor, fillTableMaxRowsPsi
+	}
+	c := Table{Title: "Fill time by tank pressure",
+		X: Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: unit},
 		Y: Axis{Label: "Time from start", Dim: units.Time, Unit: "s"}}
-	step := tableStep((t.target - t.ambient) / 1e5)
-	first := math.Ceil((t.start - t.ambient) / 1e5 / step)
+	step := tableStep((t.target-t.ambient)/perUnit, maxRows)
+	first := math.Ceil((t.start - t.ambient) / perUnit / step)
 	elapsed, prev := 0.0, t.start
-	for k := first; t.ambient+k*step*1e5 <= t.target; k++ {
-		p := t.ambient + k*step*1e5
+	for k := first; t.ambient+k*step*perUnit <= t.target; k++ {
+		p := t.ambient + k*step*perUnit
 		elapsed += t.supply.fillTime(t.volume, prev, p)
 		c.XS, c.YS = append(c.XS, p), append(c.YS, elapsed)
 		prev = p
@@ -343,12 +352,12 @@ func fillTable(t tankInput) Table {
 	return c
 }
 
-// tableStep returns the smallest step of 1, 2, 5, 10, 20, 50 ... bar that
-// covers span bar in at most fillTableMaxRows steps.
-func tableStep(span float64) float64 {
+// tableStep returns the smallest step of 1, 2, 5, 10, 20, 50 ... units
+// that covers span in at most maxRows steps.
+func tableStep(span float64, maxRows int) float64 {
 	for decade := 1.0; ; decade *= 10 {
 		for _, m := range []float64{1, 2, 5} {
-			if span/(m*decade) <= fillTableMaxRows {
+			if span/(m*decade) <= float64(maxRows) {
 				return m * decade
 			}
 		}

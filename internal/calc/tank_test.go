@@ -249,7 +249,7 @@ func TestTableStep(t *testing.T) {
 	for _, c := range []struct{ span, step float64 }{
 		{0.5, 1}, {8, 1}, {50, 1}, {50.5, 2}, {100, 2}, {101, 5}, {250, 5}, {251, 10}, {9000, 200},
 	} {
-		if got := tableStep(c.span); got != c.step {
+		if got := tableStep(c.span, fillTableMaxRows); got != c.step {
 			t.Errorf("tableStep(%g bar) = %g, want %g", c.span, got, c.step)
 		}
 	}
@@ -378,5 +378,32 @@ func TestTankFillTableEndsAtTarget(t *testing.T) {
 		math.Abs(table.YS[last]-fillTime.Value) > 1e-6*fillTime.Value {
 		t.Errorf("fill table has %d rows ending at (%g Pa, %g s); want 9 rows (0 to 7 bar, then 7.5) ending at the target (%g Pa, %g s)",
 			len(table.XS), table.XS[last], table.YS[last], e.Ambient+7.5e5, fillTime.Value)
+	}
+}
+
+// TestTankFillTableCustomary: a tank written in US customary units gets
+// its fill table in psi, in round steps (10 psi up to 116 psi), ending at
+// the target.
+func TestTankFillTableCustomary(t *testing.T) {
+	set, err := evaluateBlocks(t, []map[string]any{
+		{"id": "twin", "kind": "compressor", "bore": "1.9685 in", "stroke": "1.5748 in", "rod_length": "3.5 in",
+			"clearance_volume": "0.25 in3", "cylinders": 2, "speed": "1450 rpm", "discharge_pressure": "116 psi"},
+		{"id": "rx", "kind": "tank", "volume": "15 gal", "pressure": "116 psi", "supply": "twin"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("rx")
+	table := e.Tables[0]
+	const psi = 6894.757 // Pa, to 7 figures; NIST SP 811 App. B (from memory)
+	if table.X.Unit != "psi" || len(table.XS) != 13 {
+		t.Fatalf("table in %s with %d rows; want psi, 0 to 110 psi by 10 and the target", table.X.Unit, len(table.XS))
+	}
+	for i, p := range table.XS[:12] {
+		if want := e.Ambient + float64(10*i)*psi; math.Abs(p-want) > 1e-7*want {
+			t.Errorf("row %d at %g Pa, want %g Pa (%d psi gauge)", i, p, want, 10*i)
+		}
+	}
+	if last := table.XS[12]; math.Abs(last-(e.Ambient+116*psi)) > 1e-7*last {
+		t.Errorf("last row at %g Pa, want the target %g Pa", last, e.Ambient+116*psi)
 	}
 }

@@ -53,9 +53,20 @@ var customaryOf = map[string]string{
 
 // CustomaryFor is the US customary counterpart of a metric display unit,
 // or the unit itself when it has none (J, kJ/kg) or is not metric.
+// A pressure keeps its mark: "bar(a)" becomes "psi(a)".
 func CustomaryFor(unit string) string {
-	if c, ok := customaryOf[unit]; ok {
-		return c
+	base, mark := unit, ""
+	for _, m := range []string{"(a)", "(g)"} {
+		if b, ok := strings.CutSuffix(unit, m); ok {
+			base, mark = b, m
+		}
 	}
-	return unit
+	c, ok := customaryOf[base]
+	if !ok {
+		return unit
+	}
+	if _, err := LookupUnit(c + mark); err != nil {
+		return unit
+	}
+	return c + mark
 }

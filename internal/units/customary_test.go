@@ -29,3 +29,11 @@ func TestCustomaryCounterparts(t *testing.T) {
 		}
 	}
 }
+
+func TestCustomaryForKeepsMarks(t *testing.T) {
+	for unit, want := range map[string]string{"bar(a)": "psi(a)", "bar(g)": "psi(g)", "bar": "psi", "cm3": "in3", "J": "J", "rpm": "rpm", "deg": "deg"} {
+		if got := CustomaryFor(unit); got != want {
+			t.Errorf("CustomaryFor(%q) = %q, want %q", unit, got, want)
+		}
+	}
+}
