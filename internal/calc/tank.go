@@ -93,7 +93,8 @@ Fill time
 - Without supply there is no fill_time, fill curve or fill table.
   Chart "fill": tank pressure over time. Table: the fill time to each
   whole bar (gauge) from start_pressure, and to the target; above 50 rows
-  the step grows to 2, 5, 10, 20, 50 ... bar.
+  the step grows to 2, 5, 10, 20, 50 ... bar. A block written in US
+  customary units steps in psi (1, 2, 5, 10 ... psi, at most 15 rows).
 
 Wall (optional)
   Give material, inner_diameter and wall_thickness or outer_diameter (and
