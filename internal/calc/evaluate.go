@@ -123,6 +123,10 @@ func (e *Evaluated) Failed() bool {
 	return false
 }
 
+// Customary reports whether the block is written wholly in US customary
+// units, and so shows its results in them.
+func (e *Evaluated) Customary() bool { return e.customary }
+
 // DisplayUnit is the unit a result shows in: the block's [show] choice,
 // else the kind's default, in US customary units when the block is written
 // in them.

@@ -135,7 +135,18 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 		value := esc(in.Text)
 		switch {
 		case in.Dim == units.Pressure && in.Type == calc.Quantity:
-			value = esc(pressurePair(in.Value, unitOf(in.Text), e))
+			unit := unitOf(in.Text)
+			if in.Default && e.Customary() {
+				unit = units.CustomaryFor(unit)
+			}
+			value = esc(pressurePair(in.Value, unit, e))
+		case in.Default && e.Customary() && in.Type == calc.Quantity && in.Dim != units.Dimensionless:
+			// A default is written in SI; a customary block reads it in its own units.
+			if q, err := units.Parse(in.Text, in.Dim); err == nil {
+				if s, err := calc.FormatValue(in.Value, in.Dim, units.CustomaryFor(q.Unit.Symbol), e.Ambient, e.SigFigs()); err == nil {
+					value = esc(s)
+				}
+			}
 		case len(in.Links) > 0:
 			parts := make([]string, len(in.Links))
 			for i, id := range in.Links {

@@ -155,3 +155,26 @@ func TestHighPressurePairDiffers(t *testing.T) {
 		t.Errorf("pressurePair = %q", got)
 	}
 }
+
+// TestCustomaryDefaults: a block written in US customary units shows the
+// defaults it did not write in its units too (20 °C = 68 °F).
+func TestCustomaryDefaults(t *testing.T) {
+	e := evaluated(t, `id = "twin"
+kind = "compressor"
+bore = "2 in"
+stroke = "1.5 in"
+rod_length = "3.5 in"
+clearance_volume = "0.25 in3"
+speed = "1450 rpm"
+discharge_pressure = "116 psi"
+`)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	writeInputs(w, e, nil)
+	_ = w.Flush()
+	for _, want := range []string{"68.0 °F", "116 psi(g) · 131 psi(a)"} {
+		if !strings.Contains(buf.String(), want) {
+			t.Errorf("inputs lack %q:\n%s", want, buf.String())
+		}
+	}
+}
