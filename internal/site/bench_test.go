@@ -50,9 +50,14 @@ func WriteBenchSite(tb testing.TB, root string, n int) {
 		fmt.Fprintf(&b, "+++\ntitle = \"Page %d\"\norder = %d\ndescription = \"Generated page %d.\"\n+++\n\n", i, i%20, i)
 		id := fmt.Sprintf("stage-%04d", i)
 		withBlock := i%5 != 4
+		// The first page of a section is its index.md.
+		prev := fmt.Sprintf("page-%03d.md", (i+19)%20)
+		if (i+19)%20 == 0 {
+			prev = "index.md"
+		}
 		for s := 0; s < 4; s++ {
 			fmt.Fprintf(&b, "## Step %d of the build\n\nFit the part, check the clearance with a feeler gauge and note it in the log. "+
-				"See [the previous page](page-%03d.md) and the [section start](index.md).", s, (i+19)%20)
+				"See [the previous page](%s) and the [section start](index.md).", s, prev)
 			if withBlock && s == 1 {
 				fmt.Fprintf(&b, " The stage sweeps =[%s.swept_volume cm3] and delivers =[%s.free_air_delivery L/min].", id, id)
 			}
@@ -102,6 +107,20 @@ func TestWriteBenchSite(t *testing.T) {
 		}
 	}
 	WriteBenchSite(t, dir, n)
+}
+
+// TestBenchSiteBuilds keeps the benchmark site valid as the checks grow: a
+// site of two parts builds with no problem.
+func TestBenchSiteBuilds(t *testing.T) {
+	root := t.TempDir()
+	WriteBenchSite(t, root, 240)
+	s, err := Load(root)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := s.Write(Options{}); err != nil {
+		t.Fatal(err)
+	}
 }
 
 func benchBuild(b *testing.B, pages int) {
