@@ -21,7 +21,9 @@ func TestCautionAcknowledgementDiff(t *testing.T) {
 	open := CautionJSON{Level: "DANGER", Rule: "hot-discharge", Message: "too hot"}
 	accepted := open
 	accepted.Acknowledged = "bench test behind a shield"
-	block := func(c CautionJSON) ResultBlock { return ResultBlock{ID: "c", Kind: "compressor", Cautions: []CautionJSON{c}} }
+	block := func(c CautionJSON) ResultBlock {
+		return ResultBlock{ID: "c", Kind: "compressor", Cautions: []CautionJSON{c}}
+	}
 
 	var d Diff
 	bd, changed := compareBlock(block(open), block(accepted), &d)
