@@ -23,7 +23,7 @@ func TestFormatValueMarksPressures(t *testing.T) {
 		{905, "mbar(g)", "-1000 mbar(g)"},
 		{905, "torr", "6.79 torr"}, // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
 		// NIST SP 811 App. B: 1 psi = 6894.757 Pa; 101325 + 100·6894.757 = 790800.7 Pa.
-		{790800.7, "psi", "100 psi(g)"},
+		{790800.7, "psi", "100 psig"},
 	} {
 		got, err := FormatValue(c.si, units.Pressure, c.unit, ambient, 3)
 		if err != nil || got != c.want {

@@ -61,7 +61,7 @@ func TestCalcBlockHTML(t *testing.T) {
 		`<span class="sg-note">default</span>`,
 		`<details class="sg-trace"><summary>working</summary>`,
 		`<tr class="sg-shown"><th scope="row"><code>free_air_delivery</code>`,
-		`psi(g) · `,
+		`psig · `,
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("block HTML lacks %s", want)
@@ -122,7 +122,7 @@ func TestVacuumPressurePair(t *testing.T) {
 	// 1 Pa absolute on 1 atm: -14.6958 psi(g) (NIST SP 811: 1 psi = 6894.757 Pa);
 	// three figures would give -14.7, below a perfect vacuum.
 	got := pressurePair(1, "psi", e)
-	if !strings.HasPrefix(got, "0.000145 psi(a) · -14.69") {
+	if !strings.HasPrefix(got, "0.000145 psia · -14.69") {
 		t.Errorf("pressurePair = %q", got)
 	}
 }
@@ -172,7 +172,7 @@ discharge_pressure = "116 psi"
 	w := bufio.NewWriter(&buf)
 	writeInputs(w, e, nil)
 	_ = w.Flush()
-	for _, want := range []string{"68.0 °F", "116 psi(g) · 131 psi(a)"} {
+	for _, want := range []string{"68.0 °F", "116 psig · 131 psia"} {
 		if !strings.Contains(buf.String(), want) {
 			t.Errorf("inputs lack %q:\n%s", want, buf.String())
 		}

@@ -17,6 +17,10 @@ func Pretty(symbol string) string {
 		return "°"
 	case "um":
 		return "µm"
+	case "psi(g)":
+		return "psig" // the trade's spelling in the US
+	case "psi(a)":
+		return "psia"
 	}
 	return prettyParts.Replace(symbol)
 }
