@@ -431,5 +431,12 @@ const StandardCaution = "Compressed air stores energy that can burst vessels, th
 	"The figures on this page come from simplified models and are not a certification. " +
 	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
 
+// StandardVacuumCaution replaces StandardCaution on a page whose pressure
+// calculations are all vacuum ones, which hold no compressed air.
+const StandardVacuumCaution = "A vessel under vacuum carries the full weight of the atmosphere on its walls, about 10 tonnes on every square metre. " +
+	"Thin sheet, plastic boxes and glass can implode and throw fragments. " +
+	"The figures on this page come from simplified models and are not a certification. " +
+	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
 // PressureKinds are the kinds whose pages carry the standard caution.
 var PressureKinds = []string{"bolts", "compressor", "motor", "multistage", "tank", "tube", "vacuum", "valve"}

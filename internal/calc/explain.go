@@ -34,6 +34,7 @@ func ExplainCautions(w io.Writer) {
 	}
 	_ = tw.Flush()
 	fmt.Fprintf(w, "\nEvery page with a pressure calculation also carries the standard caution:\n  %s\n", StandardCaution)
+	fmt.Fprintf(w, "or, when all of them are vacuum calculations:\n  %s\n", StandardVacuumCaution)
 }
 
 // ExplainMaterials writes the materials of env with their main properties.

@@ -333,12 +333,13 @@ func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
 }
 
 // StandardCautionHTML is the box every page with a pressure calculation
-// carries.
-func StandardCautionHTML() string {
+// carries, with the message that fits it (calc.StandardCaution or
+// calc.StandardVacuumCaution).
+func StandardCautionHTML(message string) string {
 	var b strings.Builder
 	w := bufio.NewWriter(&b)
 	_, _ = w.WriteString(`<div class="sg-standard-caution">`)
-	WriteCaution(w, calc.CautionNote{Level: calc.Warning, Message: calc.StandardCaution}, "")
+	WriteCaution(w, calc.CautionNote{Level: calc.Warning, Message: message}, "")
 	_, _ = w.WriteString("</div>\n")
 	_ = w.Flush()
 	return b.String()

@@ -391,10 +391,14 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 }
 
 func (s *Site) standardCaution(p *Page) template.HTML {
-	if !s.showsPressureCalc(p) {
+	shows, vacuum := s.pressureCalcs(p)
+	switch {
+	case !shows:
 		return ""
+	case vacuum:
+		return template.HTML(render.StandardCautionHTML(calc.StandardVacuumCaution))
 	}
-	return template.HTML(render.StandardCautionHTML())
+	return template.HTML(render.StandardCautionHTML(calc.StandardCaution))
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a

@@ -257,15 +257,18 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 	return template.HTML(b.String())
 }
 
-// showsPressureCalc reports whether a page holds, quotes or charts a
-// calculation of a kind that involves pressure.
-func (s *Site) showsPressureCalc(p *Page) bool {
+// pressureCalcs reports whether a page holds, quotes or charts a
+// calculation of a kind that involves pressure, and whether all of those
+// are vacuum calculations.
+func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
+	allVacuum = true
 	for _, id := range s.blocksShown(p) {
 		if e, ok := s.Calc.Lookup(id); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
-			return true
+			any = true
+			allVacuum = allVacuum && e.Block.Kind.Name == "vacuum"
 		}
 	}
-	return false
+	return any, any && allVacuum
 }
 
 // refView is an inline value as shown: its text and its link.

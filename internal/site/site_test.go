@@ -368,3 +368,29 @@ func TestSiteWithoutHomePage(t *testing.T) {
 	}
 	checkLinks(t, readTree(t, filepath.Join(root, DefaultOut)))
 }
+
+// TestStandardCautionFitsThePage: a page whose only pressure calculation is
+// a vacuum one gets the vacuum wording; one with compressed air the other;
+// both say that local codes and licensed practice govern.
+func TestStandardCautionFitsThePage(t *testing.T) {
+	root := t.TempDir()
+	pump := "```calc\nid = \"pump\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"90 mm\"\n" +
+		"clearance_ratio = 0.02\nspeed = \"1450 rpm\"\nvessel_volume = \"20 L\"\ntarget_pressure = \"50 mbar(a)\"\n```\n"
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Vacuum\n\n"+pump)
+	writeFile(t, filepath.Join(root, "content", "both.md"), "# Both\n\nThe pump reaches =[pump.ultimate_pressure mbar].\n\n"+
+		"```calc\nid = \"stage\"\nkind = \"compressor\"\nbore = \"28 mm\"\nstroke = \"32 mm\"\nrod_length = \"70 mm\"\n"+
+		"clearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n```\n")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	for page, want := range map[string]string{"index.html": "weight of the atmosphere", "both.html": "Compressed air stores energy"} {
+		b, err := os.ReadFile(filepath.Join(root, DefaultOut, page))
+		if err != nil {
+			t.Fatal(err)
+		}
+		html := string(b)
+		if !strings.Contains(html, want) || !strings.Contains(html, "licensed practice govern") {
+			t.Errorf("%s: standard caution lacks %q or the deference to local codes", page, want)
+		}
+	}
+}
