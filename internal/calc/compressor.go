@@ -256,6 +256,21 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 	return c, nil
 }
 
+// traceIn formats an SI value for a formula trace in unit, a metric symbol
+// of the unit table, or in its US customary counterpart when customary.
+// Only for units read from zero (lengths, volumes, absolute pressures).
+func traceIn(customary bool, unit string) func(float64) string {
+	if customary {
+		unit = units.CustomaryFor(unit)
+	}
+	u, err := units.LookupUnit(unit)
+	if err != nil {
+		return func(si float64) string { return show(si, unit) }
+	}
+	pretty := units.Pretty(u.Symbol)
+	return func(si float64) string { return show((si-u.Offset)/u.Factor, pretty) }
+}
+
 // show formats a value already scaled to unit at 4 significant figures,
 // without trailing zeros after the decimal point ("28 mm", "1.013 bar(a)").
 func show(v float64, unit string) string {
@@ -326,11 +341,10 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 	}
 	eLow, eHigh := excessEnergyRange(gas, meanTorque)
 
-	// Trace helpers in convenient units.
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	mm2 := func(v float64) string { return show(v*1e6, "mm²") }
-	cm3 := func(v float64) string { return show(v*1e6, "cm³") }
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	// Trace helpers in convenient units, customary for a customary block.
+	cust := in.Customary()
+	mm, mm2, cm3 := traceIn(cust, "mm"), traceIn(cust, "mm2"), traceIn(cust, "cm3")
+	bara, lpm, watts, nm := traceIn(cust, "bar(a)"), traceIn(cust, "L/min"), traceIn(cust, "W"), traceIn(cust, "N m")
 	num := func(v float64) string { return show(v, "") }
 	rps := show(revs, "rev/s")
 	nWord := num(c.n)
@@ -344,7 +358,7 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 			"V_d = z · Vs", "= " + num(z) + " · " + cm3(swept)}},
 		{Name: "displacement_rate", Value: rate, Dim: units.VolumeFlow, Trace: Trace{
 			"V̇_d = V_d · N", "= " + cm3(disp) + " · " + rps}},
-		clearanceResult(c, swept),
+		clearanceResult(c, swept, cm3),
 		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: Trace{
 			"CR = (Vs + Vc) / Vc", "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: Trace{
@@ -352,7 +366,7 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: Trace{
 			"η_v = 1 − c·(r^(1/n) − 1)", "= 1 − " + num(c.clearanceRatio) + "·(" + num(r) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
 		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: Trace{
-			"FAD = η_v · V̇_d", "= " + num(ve) + " · " + show(rate*6e4, "L/min")}},
+			"FAD = η_v · V̇_d", "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: Trace{
 			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
@@ -368,12 +382,12 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 		{Name: "isothermal_power", Value: isoPower, Dim: units.Power, Trace: Trace{
 			"P_iso = z · p1 · Vi · ln r · N", "= " + num(z) + " · " + bara(c.p1) + " · " + cm3(vi) + " · ln " + num(r) + " · " + rps}},
 		{Name: "shaft_power", Value: power / c.etaMech, Dim: units.Power, Trace: Trace{
-			"P_s = P_i / η_m", "= " + show(power, "W") + " / " + num(c.etaMech)}},
+			"P_s = P_i / η_m", "= " + watts(power) + " / " + num(c.etaMech)}},
 		{Name: "mean_torque", Value: meanTorque, Dim: units.Torque, Trace: Trace{
 			"T_m = W / 2π", "= " + show(work, "J") + " / 2π"}},
 		{Name: "peak_torque", Value: peakTorque, Dim: units.Torque, Trace: Trace{
 			"T_peak = max over θ of Σ −(p(θ) − p_amb)·A·dx/dθ",
-			fmt.Sprintf("= %s, over %d crank steps, %s", show(peakTorque, "N m"), steps, phasing(c.cylinders))}},
+			fmt.Sprintf("= %s, over %d crank steps, %s", nm(peakTorque), steps, phasing(c.cylinders))}},
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: Trace{
 			"ΔE = max − min of ∫(T_m − T(θ)) dθ", "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
 	}
@@ -407,8 +421,8 @@ func compressorDischargeTemperature(c compressorInput, delivers bool, r, cr floa
 }
 
 // clearanceResult reports the clearance ratio, derived or as given.
-func clearanceResult(c compressorInput, swept float64) Result {
-	t := Trace{"c = Vc / Vs", "= " + show(c.clearanceVolume*1e6, "cm³") + " / " + show(swept*1e6, "cm³")}
+func clearanceResult(c compressorInput, swept float64, cm3 func(float64) string) Result {
+	t := Trace{"c = Vc / Vs", "= " + cm3(c.clearanceVolume) + " / " + cm3(swept)}
 	if !c.clearanceGiven {
 		t = Trace{"c (given)", "= " + show(c.clearanceRatio, "")}
 	}

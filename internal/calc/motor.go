@@ -214,9 +214,8 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 	gas := phaseSum(sampleRevolution(steps, c.gasTorque), g.cylinders)
 	eLow, eHigh := excessEnergyRange(gas, meanLoad)
 
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	cm3 := func(v float64) string { return show(v*1e6, "cm³") }
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	cust := in.Customary()
+	mm, cm3, bara := traceIn(cust, "mm"), traceIn(cust, "cm3"), traceIn(cust, "bar(a)")
 	num := func(v float64) string { return show(v, "") }
 	rps := show(revs, "rev/s")
 	expandTrace := "p_s·V1/(n−1)·(1 − (V1/V2)^(n−1))"

@@ -283,9 +283,9 @@ func checkWallInputs(in *Inputs) error {
 // fillResult is the fill time with its working.
 func fillResult(t tankInput) Result {
 	s := t.supply
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
-	litres := show(t.volume*1e3, "L")
-	rate := show(s.rate*6e4, "L/min")
+	bara := traceIn(t.customary, "bar(a)")
+	litres := traceIn(t.customary, "L")(t.volume)
+	rate := traceIn(t.customary, "L/min")(s.rate)
 	supply := fmt.Sprintf("supply %s: V̇d = %s, c = %s, n = %s, p1 = %s, p_max = %s",
 		s.id, rate, show(s.c, ""), show(s.n, ""), bara(s.p1), bara(s.pMax))
 	r := Result{Name: "fill_time", Value: s.fillTime(t.volume, t.start, t.target), Dim: units.Time}
@@ -372,9 +372,9 @@ func storedEnergyResult(t tankInput) Result {
 	p, pa, v := t.target, t.ambient, t.volume
 	e := -p * v / (airGamma - 1) * math.Expm1(k*math.Log(pa/p))
 	iso := p * v * math.Log(p/pa)
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	bara, litres := traceIn(t.customary, "bar(a)"), traceIn(t.customary, "L")
 	return Result{Name: "stored_energy", Value: e, Dim: units.Energy, Trace: Trace{
 		"E = p·V/(γ−1) · [1 − (p_a/p)^((γ−1)/γ)], γ = 1.4 (isentropic expansion to ambient, as ASME PCC-2 Art. 501 for pneumatic tests)",
 		fmt.Sprintf("= %s · %s / 0.4 · [1 − (%s / %s)^(0.4/1.4)]; isothermal for comparison: p·V·ln(p/p_a) = %s",
-			bara(p), show(v*1e3, "L"), bara(pa), bara(p), show(iso/1e3, "kJ"))}}
+			bara(p), litres(v), bara(pa), bara(p), show(iso/1e3, "kJ"))}}
 }

@@ -175,9 +175,8 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 		axial = c.p * ri2 / (c.t * (c.ro + c.ri))
 	}
 
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	mpa := func(v float64) string { return show(v/1e6, "MPa") }
-	bar := func(v float64) string { return show(v/1e5, "bar") }
+	cust := in.Customary()
+	mm, mpa, bar := traceIn(cust, "mm"), traceIn(cust, "MPa"), traceIn(cust, "bar")
 	num := func(v float64) string { return show(v, "") }
 
 	thinTrace := Trace{"σ_θ,thin = p · Di / (2 · t)", "= " + bar(c.p) + " · " + mm(di) + " / (2 · " + mm(c.t) + ")"}
@@ -190,7 +189,7 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 		axialTrace = Trace{"σ_a = 0 (open ends: the end load is carried elsewhere)", "= 0 MPa"}
 	}
 	strength, strengthName := c.material.DesignStrength()
-	factor, factorTrace := tubeFactor(hoop, axial, radial, strength, strengthName, c.material.YieldStrength > 0)
+	factor, factorTrace := tubeFactor(hoop, axial, radial, strength, strengthName, c.material.YieldStrength > 0, mpa)
 
 	res := []Result{
 		{Name: "hoop_stress", Value: hoop, Dim: units.Stress, Trace: Trace{
@@ -213,8 +212,7 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 // tubeFactor returns the safety factor at the bore and its trace: the
 // strength over the von Mises stress when the strength is a yield
 // strength, else over the largest principal stress magnitude.
-func tubeFactor(hoop, axial, radial, strength float64, strengthName string, ductile bool) (float64, Trace) {
-	mpa := func(v float64) string { return show(v/1e6, "MPa") }
+func tubeFactor(hoop, axial, radial, strength float64, strengthName string, ductile bool, mpa func(float64) string) (float64, Trace) {
 	if ductile {
 		vm := math.Sqrt(((hoop-axial)*(hoop-axial) + (axial-radial)*(axial-radial) + (radial-hoop)*(radial-hoop)) / 2)
 		return strength / vm, Trace{

@@ -148,8 +148,8 @@ func evaluateVacuum(in *Inputs) (*Outcome, error) {
 	c := v.cyl
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	revs := c.omega / (2 * math.Pi)
-	mbar := func(p float64) string { return show(p/100, "mbar(a)") }
-	lpm := func(q float64) string { return show(q*6e4, "L/min") }
+	cust := in.Customary()
+	mbar, lpm, mm, cm3 := traceIn(cust, "mbar(a)"), traceIn(cust, "L/min"), traceIn(cust, "mm"), traceIn(cust, "cm3")
 	num := func(x float64) string { return show(x, "") }
 	speed := func(p float64) Trace {
 		return Trace{"S = V̇d · η_v, η_v = 1 − c·((p_a/p)^(1/n) − 1)",
@@ -158,15 +158,15 @@ func evaluateVacuum(in *Inputs) (*Outcome, error) {
 	res := []Result{
 		{Name: "displacement_rate", Value: pump.rate, Dim: units.VolumeFlow, Trace: Trace{
 			"V̇d = z · π/4 · D² · s · N", fmt.Sprintf("= %d · π/4 · (%s)² · %s · %s",
-				c.cylinders, show(c.bore*1e3, "mm"), show(2*c.crankRadius*1e3, "mm"), show(revs, "rev/s"))}},
-		clearanceResult(c, swept),
+				c.cylinders, mm(c.bore), mm(2*c.crankRadius), show(revs, "rev/s"))}},
+		clearanceResult(c, swept, cm3),
 		{Name: "ultimate_pressure", Value: pump.ultimate(), Dim: units.Pressure, Trace: Trace{
 			"p_u = p_a · (c/(1 + c))^n", fmt.Sprintf("= %s · (%s/(1 + %s))^%s", mbar(v.ambient), num(pump.c), num(pump.c), num(pump.n))}},
 		{Name: "pumping_speed", Value: pump.rate * pump.efficiency(v.start), Dim: units.VolumeFlow, Trace: speed(v.start)},
 		{Name: "target_pumping_speed", Value: pump.rate * pump.efficiency(v.target), Dim: units.VolumeFlow, Trace: speed(v.target)},
 		{Name: "pumpdown_time", Value: pump.time(v.volume, v.start, v.target), Dim: units.Time, Trace: Trace{
 			"t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η_v(p0)/η_v(p))] (isothermal vessel, no leaks)",
-			fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", show(v.volume*1e3, "L"), lpm(pump.rate), num(pump.c),
+			fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", traceIn(cust, "L")(v.volume), lpm(pump.rate), num(pump.c),
 				mbar(v.start), mbar(v.target), num(pump.n), num(pump.efficiency(v.start)), num(pump.efficiency(v.target)))}},
 	}
 	return &Outcome{Results: res}, nil
