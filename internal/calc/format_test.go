@@ -67,3 +67,23 @@ func TestCustomaryBlockDisplay(t *testing.T) {
 		}
 	}
 }
+
+// TestCustomaryWorking: the working of a customary block substitutes its
+// values in its units; a metric block keeps millimetres.
+func TestCustomaryWorking(t *testing.T) {
+	for _, c := range []struct{ bore, stroke, rod, want string }{
+		{"1.9685 in", "1.5748 in", "3.5 in", "= π/4 · (1.968 in)²"},
+		{"50 mm", "40 mm", "90 mm", "= π/4 · (50 mm)²"},
+	} {
+		set, err := evaluateBlocks(t, []map[string]any{{"id": "c", "kind": "compressor", "bore": c.bore, "stroke": c.stroke,
+			"rod_length": c.rod, "clearance_ratio": 0.05, "speed": "1450 rpm", "discharge_pressure": "116 psi"}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("c")
+		r, _ := e.Result("piston_area")
+		if r.Trace.Substituted != c.want {
+			t.Errorf("bore %s: working %q, want %q", c.bore, r.Trace, c.want)
+		}
+	}
+}
