@@ -99,10 +99,11 @@ func evaluateBalance(in *Inputs) (*Outcome, error) {
 		frac   = in.Value("balance_fraction")
 		rcw    = in.Value("counterweight_radius")
 		prim   = mRec * r * omega * omega
-		kg     = func(v float64) string { return show(v, "kg") }
-		mm     = func(v float64) string { return show(v*1e3, "mm") }
+		cust   = in.Customary()
+		kg     = traceIn(cust, "kg")
+		mm     = traceIn(cust, "mm")
 		num    = func(v float64) string { return show(v, "") }
-		force  = func(v float64) string { return show(v, "N") }
+		force  = traceIn(cust, "N")
 		rads   = show(omega, "rad/s")
 		primed = kg(mRec) + " · " + mm(r) + " · (" + rads + ")²"
 	)

@@ -252,9 +252,9 @@ func evaluateFlywheel(in *Inputs) (*Outcome, error) {
 	w := f.omega
 	inertia := de / (f.cs * w * w)
 
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	kgm2 := func(v float64) string { return show(v, "kg m²") }
-	rho := show(f.density, "kg/m³")
+	cust := in.Customary()
+	mm, kgm2 := traceIn(cust, "mm"), traceIn(cust, "kg m2")
+	rho := traceIn(cust, "kg/m3")(f.density)
 	rads := show(w, "rad/s")
 	nu := show(f.poisson, "")
 	var (
