@@ -638,7 +638,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 				continue
 			}
 			if spec.Absolute && q.Unit.Ref != units.Absolute {
-				fail(spec.Name, line, fmt.Sprintf("%q is a gauge pressure; %s takes an absolute pressure: write mbar(a), kPa(a), bar(a), psia or torr, e.g. \"20 mbar(a)\"", text, spec.Name))
+				fail(spec.Name, line, fmt.Sprintf("%q is a gauge pressure; %s takes an absolute pressure: write mbar(a), kPa(a), bar(a), psia, inHg(a), mmHg(a) or torr, e.g. \"20 mbar(a)\"", text, spec.Name))
 				continue
 			}
 			value = q.Absolute(e.Ambient)
