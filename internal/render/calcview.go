@@ -3,6 +3,7 @@ package render
 import (
 	"bufio"
 	"html"
+	"math"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
@@ -258,8 +259,10 @@ func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
 	}
 	if abs < e.Ambient {
 		// A vacuum reads best absolute first, and its gauge value must not
-		// round past a perfect vacuum (-14.696 psi(g) shown as -14.7).
-		for sig := e.SigFigs() + 1; sig <= 8 && roundsPastVacuum(g, e.Ambient); sig++ {
+		// round past a perfect vacuum (-14.696 psi(g) shown as -14.7), nor
+		// so coarsely that it hides the absolute value beside it (6.11
+		// mbar(a) beside -1010 mbar(g)): up to six figures.
+		for sig := e.SigFigs() + 1; sig <= 8 && (roundsPastVacuum(g, e.Ambient) || sig <= 6 && gaugeHides(g, abs, e.Ambient)); sig++ {
 			g, _ = calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, sig)
 		}
 		return a + " · " + g
@@ -278,6 +281,16 @@ func sameNumber(x, y string) bool {
 	nx, _, _ := strings.Cut(x, " ")
 	ny, _, _ := strings.Cut(y, " ")
 	return nx == ny
+}
+
+// gaugeHides reports whether a shown gauge pressure is off the true one
+// by more than a tenth of the absolute pressure abs (Pa).
+func gaugeHides(shown string, abs, ambient float64) bool {
+	q, err := units.Parse(shown, units.Pressure)
+	if err != nil {
+		return false
+	}
+	return math.Abs(q.Value-(abs-ambient)) > abs/10
 }
 
 // roundsPastVacuum reports whether a shown gauge pressure is below minus

@@ -178,3 +178,13 @@ discharge_pressure = "116 psi"
 		}
 	}
 }
+
+// TestVacuumGaugeResolvesAbsolute: beside 6.11 mbar(a) the gauge figure
+// must not round to -1010 mbar(g), which hides the vacuum's quality.
+func TestVacuumGaugeResolvesAbsolute(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	// 611 Pa absolute on 101325 Pa: -100714 Pa = -1007.14 mbar(g).
+	if got := pressurePair(611, "mbar", e); got != "6.11 mbar(a) · -1007 mbar(g)" {
+		t.Errorf("pressurePair = %q, want \"6.11 mbar(a) · -1007 mbar(g)\"", got)
+	}
+}
