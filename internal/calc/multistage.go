@@ -57,7 +57,10 @@ Assumptions
   that needs least total work (set the derivative of the total work with
   respect to each interstage pressure to zero). With T_ic ≠ T1 it is close to,
   but not exactly, the optimum.
-- Air is an ideal gas with R = 287.05 J/(kg K) (dry air, ISO 2533).
+- Air is an ideal gas with R = 287.05 J/(kg K) (dry air, ISO 2533). Above
+  about 50 bar real air departs from it by a few per cent and more (its
+  compressibility factor; common practice), which is not modelled: the
+  specific work's trace carries a NOTE there.
 
 Model
   r = (p2/p1)^(1/N)                     stage pressure ratio
@@ -207,7 +210,7 @@ func evaluateMultistage(in *Inputs) (*Outcome, error) {
 	}
 	res = append(res,
 		Result{Name: "discharge_temperature", Value: dischargeTemperature(hottest, r, m.n), Dim: units.Temperature, Trace: tTrace},
-		Result{Name: "specific_work", Value: work, Dim: units.SpecificEnergy, Trace: wTrace},
+		Result{Name: "specific_work", Value: work, Dim: units.SpecificEnergy, Trace: idealGasNote(wTrace, m.p2)},
 		Result{Name: "single_stage_specific_work", Value: single, Dim: units.SpecificEnergy, Trace: w1Trace},
 		Result{Name: "single_stage_discharge_temperature", Value: dischargeTemperature(m.t1, rAll, m.n), Dim: units.Temperature, Trace: Trace{
 			"T_d1 = T1 · (p2/p1)^((n−1)/n)", fmt.Sprintf("= %s · %s^(%s/%s)", kelvin(m.t1), num(rAll), nm1, nw)}},
@@ -276,4 +279,17 @@ func multistageChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 			Marks:  marks,
 		}},
 	}, nil
+}
+
+// idealGasLimit is where real air departs from the ideal gas by a few per
+// cent (common practice).
+const idealGasLimit = 50e5 // Pa absolute
+
+// idealGasNote adds a NOTE to a trace whose pressures reach idealGasLimit.
+func idealGasNote(t Trace, p float64) Trace {
+	if p > idealGasLimit {
+		t.Substituted += fmt.Sprintf(" (NOTE: at %s real air departs from the ideal gas by a few per cent or more; compressibility is not modelled)",
+			show(p/1e5, "bar(a)"))
+	}
+	return t
 }

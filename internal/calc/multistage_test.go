@@ -2,6 +2,7 @@ package calc
 
 import (
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -222,5 +223,21 @@ func TestMultistageInputErrors(t *testing.T) {
 	}
 	for _, c := range cases {
 		wantInputError(t, c.changes, c.key, c.says, staging)
+	}
+}
+
+// TestMultistageIdealGasNote: the specific work's trace warns of the ideal
+// gas above 50 bar and not below.
+func TestMultistageIdealGasNote(t *testing.T) {
+	for p, want := range map[string]bool{"200 bar": true, "8 bar": false} {
+		set, err := evaluateBlocks(t, staging(map[string]any{"discharge_pressure": p, "stages": 3}))
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("ms")
+		r, _ := e.Result("specific_work")
+		if got := strings.Contains(r.Trace.Substituted, "NOTE: at"); got != want {
+			t.Errorf("%s: note %v, want %v (%s)", p, got, want, r.Trace.Substituted)
+		}
 	}
 }
