@@ -96,12 +96,12 @@ func resultMap(out *Outcome) map[string]Result {
 
 // checkWellFormed checks that the outcome has every declared result, in
 // order, each finite and with a trace.
-func checkWellFormed(t *testing.T, label string, out *Outcome) {
+func checkWellFormed(t *testing.T, label string, kind *Kind, out *Outcome) {
 	t.Helper()
-	if len(out.Results) != len(compressorKind.Results) {
-		t.Fatalf("%s: %d results, %d declared", label, len(out.Results), len(compressorKind.Results))
+	if len(out.Results) != len(kind.Results) {
+		t.Fatalf("%s: %d results, %d declared", label, len(out.Results), len(kind.Results))
 	}
-	for i, spec := range compressorKind.Results {
+	for i, spec := range kind.Results {
 		r := out.Results[i]
 		if r.Name != spec.Name || r.Dim != spec.Dim {
 			t.Errorf("%s: result %d is %s (%v), declared %s (%v)", label, i, r.Name, r.Dim, spec.Name, spec.Dim)
@@ -150,7 +150,7 @@ func TestCompressorReference(t *testing.T) {
 				ambient = q.Absolute(0)
 			}
 			in, out := evaluateCase(t, c.Inputs, ambient)
-			checkWellFormed(t, filepath.Base(f), out)
+			checkWellFormed(t, filepath.Base(f), &compressorKind, out)
 			got := resultMap(out)
 			for _, ch := range c.Check {
 				r, ok := got[ch.Result]
@@ -256,7 +256,7 @@ func TestCompressorNoDelivery(t *testing.T) {
 	_, out := evaluateCase(t, withInputs(map[string]any{
 		"clearance_volume": nil, "clearance_ratio": 0.5, "discharge_pressure": "10 bar(a)",
 	}), standardAtmosphere)
-	checkWellFormed(t, "no delivery", out)
+	checkWellFormed(t, "no delivery", &compressorKind, out)
 	got := resultMap(out)
 	for _, name := range []string{"volumetric_efficiency", "free_air_delivery", "indicated_work", "indicated_power", "isothermal_power", "shaft_power", "mean_torque"} {
 		if v := got[name].Value; v != 0 {
@@ -280,7 +280,7 @@ func TestCompressorNoDelivery(t *testing.T) {
 
 func TestCompressorDeliveringHasNoCaution(t *testing.T) {
 	_, out := evaluateCase(t, benchBlock(), standardAtmosphere)
-	checkWellFormed(t, "bench", out)
+	checkWellFormed(t, "bench", &compressorKind, out)
 	if len(out.Cautions) != 0 {
 		t.Errorf("cautions = %+v, want none", out.Cautions)
 	}
@@ -290,7 +290,7 @@ func TestCompressorDeliveringHasNoCaution(t *testing.T) {
 // indicated power equals the isothermal power (any thermodynamics text).
 func TestCompressorIsothermal(t *testing.T) {
 	in, out := evaluateCase(t, withInputs(map[string]any{"polytropic_index": 1}), standardAtmosphere)
-	checkWellFormed(t, "n = 1", out)
+	checkWellFormed(t, "n = 1", &compressorKind, out)
 	got := resultMap(out)
 	if v, want := got["discharge_temperature"].Value, in.Value("inlet_temperature"); math.Abs(v-want) > 1e-9 {
 		t.Errorf("discharge_temperature = %g K, want T1 = %g K", v, want)
@@ -350,7 +350,7 @@ func TestCompressorInputErrors(t *testing.T) {
 func TestCompressorCrankshaftTorque(t *testing.T) {
 	for _, z := range []int{1, 2, 3, 7} {
 		_, out := evaluateCase(t, withInputs(map[string]any{"cylinders": z}), standardAtmosphere)
-		checkWellFormed(t, fmt.Sprint(z, " cylinders"), out)
+		checkWellFormed(t, fmt.Sprint(z, " cylinders"), &compressorKind, out)
 		got := resultMap(out)
 		curves := map[string]Curve{}
 		for _, c := range out.Curves {
@@ -476,7 +476,7 @@ func TestCompressorExtremes(t *testing.T) {
 			continue
 		}
 		finiteOutcomes++
-		checkWellFormed(t, fmt.Sprintf("trial %d %v", trial, in.values), out)
+		checkWellFormed(t, fmt.Sprintf("trial %d %v", trial, in.values), &compressorKind, out)
 	}
 	if finiteOutcomes < 50 {
 		t.Errorf("only %d of 300 trials evaluated; the test exercises too little", finiteOutcomes)

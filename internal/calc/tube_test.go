@@ -82,28 +82,6 @@ func evaluateTubeCase(raw map[string]any, env *Env) (*Outcome, error) {
 	return tubeKind.Evaluate(in)
 }
 
-// checkTubeOutcome checks that the outcome has every declared result, in
-// order, each finite and with a trace.
-func checkTubeOutcome(t *testing.T, label string, out *Outcome) {
-	t.Helper()
-	if len(out.Results) != len(tubeKind.Results) {
-		t.Fatalf("%s: %d results, %d declared", label, len(out.Results), len(tubeKind.Results))
-	}
-	for i, spec := range tubeKind.Results {
-		r := out.Results[i]
-		if r.Name != spec.Name || r.Dim != spec.Dim {
-			t.Errorf("%s: result %d is %s (%v), declared %s (%v)", label, i, r.Name, r.Dim, spec.Name, spec.Dim)
-		}
-		if math.IsNaN(r.Value) || math.IsInf(r.Value, 0) {
-			t.Errorf("%s: %s = %g", label, r.Name, r.Value)
-		}
-		if r.Trace.Formula == "" || !strings.HasPrefix(r.Trace.Substituted, "= ") ||
-			strings.Contains(r.Trace.Substituted, "NaN") || strings.Contains(r.Trace.Substituted, "Inf") {
-			t.Errorf("%s: %s has trace %q / %q", label, r.Name, r.Trace.Formula, r.Trace.Substituted)
-		}
-	}
-}
-
 func TestTubeReference(t *testing.T) {
 	files, err := filepath.Glob("../../testdata/reference/tube/*.toml")
 	if err != nil || len(files) < 3 {
@@ -130,7 +108,7 @@ func TestTubeReference(t *testing.T) {
 				if err != nil {
 					t.Fatal(err)
 				}
-				checkTubeOutcome(t, cs.Name, out)
+				checkWellFormed(t, cs.Name, &tubeKind, out)
 				got := resultMap(out)
 				for _, ch := range cs.Check {
 					r, ok := got[ch.Result]
