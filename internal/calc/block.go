@@ -3,8 +3,10 @@ package calc
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -315,7 +317,7 @@ func (b *Block) decodeAcknowledge(v any) Errors {
 	var errs Errors
 	b.Acknowledge = map[string]string{}
 	ids := RuleIDs()
-	for _, rule := range sortedKeys(table) {
+	for _, rule := range slices.Sorted(maps.Keys(table)) {
 		key := "acknowledge." + rule
 		reason, isString := table[rule].(string)
 		switch {
@@ -333,15 +335,6 @@ func (b *Block) decodeAcknowledge(v any) Errors {
 		}
 	}
 	return errs
-}
-
-func sortedKeys[V any](m map[string]V) []string {
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	return keys
 }
 
 // LineOf is the file line of a key ("show.charts" for a key in a table).

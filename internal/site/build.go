@@ -6,7 +6,9 @@ import (
 	"fmt"
 	"html/template"
 	"io"
+	"maps"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -243,7 +245,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		fixed[name] = data
 	}
 	taken := map[string]bool{"results.json": true}
-	for _, name := range sortedKeys(fixed) {
+	for _, name := range slices.Sorted(maps.Keys(fixed)) {
 		if taken[name] {
 			return &Error{File: StaticDir + "/" + name, Msg: "this name is specgen's own output; rename the file"}
 		}
@@ -272,7 +274,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 			errs[i] = err
 			return
 		}
-		for _, name := range sortedKeys(files) {
+		for _, name := range slices.Sorted(maps.Keys(files)) {
 			if err := claim(p, name); err != nil {
 				errs[i] = err
 				return

@@ -4,9 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"maps"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"strings"
 
@@ -87,7 +89,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 	}
 	env.Safety = safety
 	badName := false
-	for _, name := range sortedKeys(cfg.Materials) {
+	for _, name := range slices.Sorted(maps.Keys(cfg.Materials)) {
 		if !materialName.MatchString(name) {
 			badName = true
 			errs = append(errs, &Error{File: ConfigFile, Line: lines["materials."+name],

@@ -6,9 +6,11 @@ import (
 	"encoding/hex"
 	"flag"
 	"io/fs"
+	"maps"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
@@ -60,7 +62,7 @@ func readTree(t testing.TB, dir string) map[string][]byte {
 
 func treeHash(t testing.TB, dir string) string {
 	files := readTree(t, dir)
-	names := sortedKeys(files)
+	names := slices.Sorted(maps.Keys(files))
 	h := sha256.New()
 	for _, n := range names {
 		h.Write([]byte(n + "\x00"))
@@ -108,12 +110,12 @@ func TestGoldenPages(t *testing.T) {
 		return
 	}
 	want := readTree(t, golden)
-	for _, name := range sortedKeys(want) {
+	for _, name := range slices.Sorted(maps.Keys(want)) {
 		if !bytes.Equal(got[name], want[name]) {
 			t.Errorf("%s differs from the golden file (run go test ./internal/site -run TestGoldenPages -update to accept)", name)
 		}
 	}
-	for _, name := range sortedKeys(got) {
+	for _, name := range slices.Sorted(maps.Keys(got)) {
 		if _, ok := want[name]; !ok {
 			t.Errorf("%s is new output without a golden file", name)
 		}
