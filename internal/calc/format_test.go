@@ -44,8 +44,12 @@ func TestCustomaryBlockDisplay(t *testing.T) {
 		want   map[string]string
 	}{
 		{"customary", nil, map[string]string{
-			// 4.79 in³: π/4·1.9685²·1.5748 = 4.793 in³ (by hand).
+			// By hand: Vs = π/4·1.9685²·1.5748 = 4.793 in³; T2 = 485.40 K = 414 °F (as in
+			// testdata/cautions/customary-units.toml); c = 0.25/4.793 = 0.05216, r = 8.8933,
+			// η_v = 1 − 0.05216·(8.8933^(1/1.3) − 1) = 0.7720, FAD = 0.7720·4.793 in³·1450/min
+			// = 5365 in³/min = 3.105 cfm (1 ft³ = 1728 in³).
 			"swept_volume": "4.79 in³", "discharge_temperature": "414 °F", "free_air_delivery": "3.10 cfm"}},
+		// By hand: π/4·(5 cm)²·4.0 cm (1.5748 in) = 78.54 cm³.
 		{"mixed", map[string]any{"bore": "50 mm"}, map[string]string{"swept_volume": "78.5 cm³"}},
 	} {
 		block := map[string]any{}
