@@ -356,7 +356,11 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
 				case len(in.LinkKinds) > 0 && !contains(in.LinkKinds, target.Kind.Name):
-					fail(fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(in.LinkKinds, " or ")))
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(in.LinkKinds, " or "))
+					if target.Kind.Name == "multistage" && contains(in.LinkKinds, "compressor") {
+						msg += " (a multistage block has no cylinders: name the compressor block of the stage that delivers)"
+					}
+					fail(msg)
 				}
 			}
 			continue
