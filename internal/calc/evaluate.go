@@ -586,6 +586,9 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			}
 			if spec.Choices != nil {
 				choices := spec.Choices(opts.Env)
+				if resolved, ok := resolveChoice(spec, opts.Env, text); ok {
+					text = resolved
+				}
 				if !contains(choices, text) {
 					msg := fmt.Sprintf("%q is not known; allowed: %s", text, strings.Join(choices, ", "))
 					if s := Suggest(text, choices); s != "" {
@@ -774,4 +777,12 @@ func givenInputs(in []InputValue) string {
 		return "(all defaults)"
 	}
 	return strings.Join(parts, ", ")
+}
+
+// resolveChoice maps text to one of spec's choices through spec.Resolve.
+func resolveChoice(spec InputSpec, env *Env, text string) (string, bool) {
+	if spec.Resolve == nil {
+		return "", false
+	}
+	return spec.Resolve(env, text)
 }

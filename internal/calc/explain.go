@@ -56,6 +56,12 @@ func ExplainMaterials(w io.Writer, env *Env) {
 			units.Format(m.TemperatureLimit()-273.15, 3), units.Format(env.Safety.MinimumFor(m), 2), m.Source)
 	}
 	_ = tw.Flush()
+	fmt.Fprintln(w, "\nOther names a block may use (case, spaces and underscores do not matter):")
+	for _, name := range env.Materials.Names() {
+		if m, _ := env.Materials.Lookup(name); len(m.Aliases) > 0 {
+			fmt.Fprintf(w, "  %s: %s\n", name, strings.Join(m.Aliases, ", "))
+		}
+	}
 }
 
 // Explain writes one kind's documentation: the model, its inputs with

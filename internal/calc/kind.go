@@ -54,6 +54,9 @@ type InputSpec struct {
 	// Choices lists the values a Name input allows (for messages and
 	// checks); nil allows any non-empty name the model checks itself.
 	Choices func(env *Env) []string
+	// Resolve maps another way of writing a choice (other case, an alias
+	// such as "nylon" for "pa12") to the choice; nil accepts choices only.
+	Resolve func(env *Env, text string) (string, bool)
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.

@@ -3,6 +3,9 @@ package calc
 import (
 	_ "embed"
 	"fmt"
+	"maps"
+	"regexp"
+	"slices"
 	"sort"
 	"strings"
 
@@ -35,6 +38,9 @@ type Material struct {
 	// Temperature limits, K. HeatDeflection is 0 for metals.
 	ServiceTemperature, HeatDeflection float64
 	Source                             string // where the typical values come from
+	// Aliases are other names users write for the material ("nylon" for
+	// pa12); a block may name the material by any of them.
+	Aliases []string
 }
 
 // DesignStrength is the strength safety factors are taken against: yield
@@ -58,7 +64,8 @@ func (m Material) TemperatureLimit() float64 {
 
 // Materials is a table of materials by name.
 type Materials struct {
-	byName map[string]Material
+	byName  map[string]Material
+	byAlias map[string]string // normalised alias to material name
 }
 
 //go:embed materials.toml
@@ -69,7 +76,7 @@ var materialsTOML string
 type MaterialRow map[string]any
 
 var materialKeys = []string{
-	"brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
+	"aliases", "brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
 	"printable", "service_temperature", "source", "tensile_strength", "yield_strength",
 }
 
@@ -149,11 +156,78 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 		}
 		out.byName[name] = mat
 	}
+	out.byAlias, errs = aliasIndex(out.byName, names, lines, file, errs)
 	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
 	return out, nil
 }
+
+// aliasIndex maps every material's aliases to its name. An alias that is
+// also a material's name gives way to that material, so a site can define
+// "nylon" itself; one alias on two materials is an error at the row that
+// set it last (one of changed, the rows just read).
+func aliasIndex(byName map[string]Material, changed []string, lines map[string]int, file string, errs Errors) (map[string]string, Errors) {
+	owner := map[string]string{}
+	isChanged := map[string]bool{}
+	for _, n := range changed {
+		isChanged[n] = true
+	}
+	for _, name := range slices.Sorted(maps.Keys(byName)) {
+		for _, alias := range byName[name].Aliases {
+			key := normalMaterialName(alias)
+			if _, isName := byName[key]; isName {
+				continue
+			}
+			if prev, taken := owner[key]; taken && prev != name {
+				at := name
+				if !isChanged[at] {
+					at = prev
+				}
+				errs = append(errs, &Error{File: file, Line: lines["materials."+at+".aliases"] + lines[at+".aliases"], Key: "materials." + at + ".aliases",
+					Msg: fmt.Sprintf("alias %q already names %q; an alias names one material", alias, otherOf(prev, name, at))})
+				continue
+			}
+			owner[key] = name
+		}
+	}
+	return owner, errs
+}
+
+// otherOf returns whichever of a and b is not at.
+func otherOf(a, b, at string) string {
+	if a == at {
+		return b
+	}
+	return a
+}
+
+// aliasPattern is what an alias looks like once normalised.
+var aliasPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9._-]*$`)
+
+// normalMaterialName folds the ways people write a material name: case,
+// spaces and underscores ("Stainless_304" is "stainless-304").
+func normalMaterialName(s string) string {
+	s = strings.ToLower(strings.TrimSpace(s))
+	return strings.NewReplacer(" ", "-", "_", "-").Replace(s)
+}
+
+// Resolve returns the name of the material that text names: its name, its
+// name written another way (case, spaces, underscores) or an alias.
+func (m *Materials) Resolve(text string) (string, bool) {
+	if _, ok := m.byName[text]; ok {
+		return text, true
+	}
+	key := normalMaterialName(text)
+	if _, ok := m.byName[key]; ok {
+		return key, true
+	}
+	name, ok := m.byAlias[key]
+	return name, ok
+}
+
+// resolveMaterial is the Resolve of material inputs.
+func resolveMaterial(env *Env, text string) (string, bool) { return env.Materials.Resolve(text) }
 
 // maxMaterialTemperature bounds a material's temperature limits, K.
 const maxMaterialTemperature = 2000
@@ -196,6 +270,22 @@ func (m *Material) set(key string, v any) error {
 		*dst = s
 		return nil
 	}
+	names := func(dst *[]string) error {
+		list, ok := v.([]any)
+		if !ok {
+			return fmt.Errorf("%s is not a list; write a list of names such as [\"nylon\", \"pa-12\"]", tomlText(v))
+		}
+		out := make([]string, 0, len(list))
+		for _, item := range list {
+			s, ok := item.(string)
+			if !ok || !aliasPattern.MatchString(normalMaterialName(s)) {
+				return fmt.Errorf("%s is not an alias; allowed: letters, digits, '-', '_', '.' and spaces, starting with a letter or digit", tomlText(item))
+			}
+			out = append(out, normalMaterialName(s))
+		}
+		*dst = out
+		return nil
+	}
 	flag := func(dst *bool) error {
 		b, ok := v.(bool)
 		if !ok {
@@ -218,6 +308,8 @@ func (m *Material) set(key string, v any) error {
 			return fmt.Errorf("%q is not a class; allowed: plastic, metal", c)
 		}
 		m.Class = MaterialClass(c)
+	case "aliases":
+		return names(&m.Aliases)
 	case "printable":
 		return flag(&m.Printable)
 	case "brittle":
@@ -253,8 +345,8 @@ func (m *Material) set(key string, v any) error {
 // Lookup returns the material named name, or an error that lists the
 // names (with a suggestion for a near miss).
 func (m *Materials) Lookup(name string) (Material, error) {
-	if mat, ok := m.byName[name]; ok {
-		return mat, nil
+	if resolved, ok := m.Resolve(name); ok {
+		return m.byName[resolved], nil
 	}
 	names := m.Names()
 	if s := Suggest(name, names); s != "" {

@@ -2,6 +2,7 @@ package calc
 
 import (
 	"math"
+	"reflect"
 	"slices"
 	"strings"
 	"testing"
@@ -148,7 +149,7 @@ source = "our supplier's sheet"
 	}
 	// Only the one property changes.
 	was.TensileStrength = 58e6
-	if petg != was {
+	if !reflect.DeepEqual(petg, was) {
 		t.Errorf("override changed more than one property:\n got %+v\nwant %+v", petg, was)
 	}
 	pom, err := mats.Lookup("pom")
@@ -229,5 +230,128 @@ func TestMaterialLookupSuggests(t *testing.T) {
 	_, err = mats.Lookup("unobtainium")
 	if err == nil || !strings.Contains(err.Error(), "pla") || !strings.Contains(err.Error(), "[materials]") {
 		t.Errorf("Lookup(unobtainium) = %v", err)
+	}
+}
+
+func TestMaterialResolve(t *testing.T) {
+	mats, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct{ text, want string }{
+		{"pa12", "pa12"},
+		{"nylon", "pa12"},
+		{"Nylon", "pa12"},
+		{"PA-12", "pa12"},
+		{"PETG", "petg"},
+		{"Stainless_304", "stainless-304"},
+		{"stainless 304", "stainless-304"},
+		{"304", "stainless-304"},
+		{"6061-T6", "aluminium-6061-t6"},
+		{"aluminum-6061-t6", "aluminium-6061-t6"},
+		{"mild steel", "s235"},
+		{"acrylic", "pmma"},
+		{"polycarbonate", "pc"},
+	} {
+		got, ok := mats.Resolve(c.text)
+		if !ok || got != c.want {
+			t.Errorf("Resolve(%q) = %q, %v; want %q", c.text, got, ok, c.want)
+		}
+		if m, err := mats.Lookup(c.text); err != nil || m.Name != c.want {
+			t.Errorf("Lookup(%q) = %q, %v; want %q", c.text, m.Name, err, c.want)
+		}
+	}
+	for _, text := range []string{"unobtainium", "nylon-6", "", "steel"} {
+		if got, ok := mats.Resolve(text); ok {
+			t.Errorf("Resolve(%q) = %q, want no material", text, got)
+		}
+	}
+}
+
+func TestMaterialAliasesInSiteTable(t *testing.T) {
+	base, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A site material named like a built-in alias takes the name over.
+	mats, err := ParseMaterials(`
+[nylon]
+label = "Cast nylon PA6"
+class = "plastic"
+tensile_strength = "80 MPa"
+elastic_modulus = "3 GPa"
+density = "1.15 g/cm3"
+service_temperature = "90 degC"
+aliases = ["PA6", "cast nylon"]
+`, base)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for text, want := range map[string]string{"nylon": "nylon", "pa6": "nylon", "Cast Nylon": "nylon", "pa-12": "pa12"} {
+		if got, _ := mats.Resolve(text); got != want {
+			t.Errorf("Resolve(%q) = %q, want %q", text, got, want)
+		}
+	}
+	for _, c := range []struct {
+		name, src string
+		want      []string
+	}{
+		{"alias on two materials", "[brass]\naliases = [\"304\"]\n",
+			[]string{"line 2: materials.brass.aliases", `alias "304" already names "stainless-304"`}},
+		{"not a list", "[brass]\naliases = \"yellow\"\n",
+			[]string{"materials.brass.aliases", "is not a list"}},
+		{"not a name", "[brass]\naliases = [\"#1\"]\n",
+			[]string{"materials.brass.aliases", "is not an alias"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := ParseMaterials(c.src, base)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q does not contain %q", err, w)
+				}
+			}
+		})
+	}
+}
+
+// A block may name a material by an alias; the model and the cautions see
+// the material itself.
+func TestBlockMaterialAlias(t *testing.T) {
+	set, err := evaluateBlocks(t, []map[string]any{{
+		"id": "pipe", "kind": "tube", "inner_diameter": "40 mm", "wall_thickness": "4 mm",
+		"pressure": "8 bar", "material": "Nylon",
+	}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("pipe")
+	var material string
+	for _, in := range e.Inputs {
+		if in.Name == "material" {
+			material = in.Text
+		}
+	}
+	if material != "pa12" {
+		t.Errorf("material input reads %q, want pa12", material)
+	}
+	printed := false
+	for _, c := range e.Cautions {
+		printed = printed || strings.Contains(c.Message, "3D-print") || strings.Contains(c.Message, "printed")
+	}
+	if !printed {
+		t.Errorf("a nylon tube raises no printed-part caution: %+v", e.Cautions)
+	}
+}
+
+func TestExplainMaterialsListsAliases(t *testing.T) {
+	var b strings.Builder
+	ExplainMaterials(&b, DefaultEnv())
+	for _, want := range []string{"pa12: nylon, nylon-12", "stainless-304: 304, ss304"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("explain materials lacks %q:\n%s", want, b.String())
+		}
 	}
 }
