@@ -22,7 +22,7 @@ var boltsKind = Kind{
 		{Name: "property_class", Type: Name, Choices: propertyClassChoices, Meaning: "ISO 898-1 property class of the bolts: " + strings.Join(propertyClassChoices(nil), ", ") + " (8.8 or \"8.8\")"},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure under the head, gauge unless marked absolute; must be above ambient"},
 		{Name: "pressure_diameter", Dim: units.Length, Range: Between(minPartSize, 10), Meaning: "diameter the pressure acts over: the gasket's mean diameter, or its outer diameter to be safe; up to 10 m"},
-		{Name: "nut_material", Type: Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
+		{Name: "nut_material", Type: Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
 		{Name: "engagement_length", Dim: units.Length, Optional: true, Range: Between(minPartSize, 1), Meaning: "length of full thread engaged in the nut or tapped hole, at least one pitch; default 0.8 × the nominal diameter for the default nut, required when nut_material is given"},
 	},
 	Results: []ResultSpec{

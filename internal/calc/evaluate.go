@@ -73,6 +73,9 @@ type InputValue struct {
 	From    string // "=id.result" when the value came from another block
 	Type    InputType
 	Links   []string // the blocks a Link or LinkList input names
+	// Label says what a Name input's choice stands for; Written is the
+	// text as written when it named the choice another way ("nylon").
+	Label, Written string
 }
 
 // linked is the view of e that a block linking to it gets.
@@ -584,6 +587,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			if given {
 				text, line = v.Text, v.Line
 			}
+			written := text
 			if spec.Choices != nil {
 				choices := spec.Choices(opts.Env)
 				if resolved, ok := resolveChoice(spec, opts.Env, text); ok {
@@ -599,7 +603,14 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 				}
 			}
 			in.SetName(spec.Name, text, given)
-			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: text, Default: !given, Type: Name})
+			iv := InputValue{Name: spec.Name, Text: text, Default: !given, Type: Name}
+			if written != text {
+				iv.Written = written
+			}
+			if spec.Label != nil {
+				iv.Label = spec.Label(opts.Env, text)
+			}
+			e.Inputs = append(e.Inputs, iv)
 			continue
 		case Link, LinkList:
 			if !given {

@@ -57,6 +57,9 @@ type InputSpec struct {
 	// Resolve maps another way of writing a choice (other case, an alias
 	// such as "nylon" for "pa12") to the choice; nil accepts choices only.
 	Resolve func(env *Env, text string) (string, bool)
+	// Label says what a choice stands for, for people ("Mild steel S235"
+	// for "s235"); nil when the choice says it itself.
+	Label func(env *Env, choice string) string
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.

@@ -229,6 +229,14 @@ func (m *Materials) Resolve(text string) (string, bool) {
 // resolveMaterial is the Resolve of material inputs.
 func resolveMaterial(env *Env, text string) (string, bool) { return env.Materials.Resolve(text) }
 
+// materialLabel is the Label of material inputs.
+func materialLabel(env *Env, name string) string {
+	if m, err := env.Materials.Lookup(name); err == nil && m.Label != name {
+		return m.Label
+	}
+	return ""
+}
+
 // maxMaterialTemperature bounds a material's temperature limits, K.
 const maxMaterialTemperature = 2000
 

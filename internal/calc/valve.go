@@ -19,7 +19,7 @@ var valveKind = Kind{
 		{Name: "spring_rate", Dim: units.Stiffness, Range: positiveUpTo(1e9), Meaning: "spring stiffness, force per unit compression"},
 		{Name: "preload", Dim: units.Length, Range: Between(0, 1), Meaning: "how far the spring is compressed with the valve closed, 0 to 1 m"},
 		{Name: "protects", Type: LinkList, Optional: true, LinkKinds: []string{"compressor", "tank", "tube"}, Meaning: "ids of the compressors and pressure parts the valve relieves; makes it a relief valve"},
-		{Name: "material", Type: Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Meaning: "material of the seat or poppet, for the printed-part caution"},
+		{Name: "material", Type: Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the seat or poppet, for the printed-part caution"},
 	},
 	Results: []ResultSpec{
 		{Name: "spring_force", Dim: units.Force, Unit: "N", Meaning: "spring force on the closed valve: rate times preload"},

@@ -156,6 +156,12 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 			value = strings.Join(parts, ", ")
 		}
 		note := ""
+		if in.Label != "" {
+			value += ` <span class="sg-note">` + esc(in.Label) + `</span>`
+		}
+		if in.Written != "" {
+			value += ` <span class="sg-note">written “` + esc(in.Written) + `”</span>`
+		}
 		switch {
 		case in.Default:
 			note = ` <span class="sg-note">default</span>`

@@ -188,3 +188,24 @@ func TestVacuumGaugeResolvesAbsolute(t *testing.T) {
 		t.Errorf("pressurePair = %q, want \"6.11 mbar(a) · -1007 mbar(g)\"", got)
 	}
 }
+
+// A material named by an alias shows the material it resolved to, its
+// label and what the author wrote, so a reviewer sees which row was used.
+func TestMaterialInputShowsLabel(t *testing.T) {
+	src := `id = "sleeve"
+kind = "tube"
+inner_diameter = "32 mm"
+wall_thickness = "3 mm"
+pressure = "1 bar"
+material = "Nylon"
+`
+	e := evaluated(t, src)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	WriteCalcBlock(w, e, src, nil, nil)
+	_ = w.Flush()
+	want := `<td class="sg-num">pa12 <span class="sg-note">Nylon PA12 (printed, SLS or FDM)</span> <span class="sg-note">written “Nylon”</span></td>`
+	if !strings.Contains(buf.String(), want) {
+		t.Errorf("block HTML lacks %s", want)
+	}
+}
