@@ -177,10 +177,7 @@ func TestParseMaterialsErrors(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, c := range []struct {
-		name, src string
-		want      []string
-	}{
+	wantMaterialErrors(t, base, []materialErrorCase{
 		{"unknown property", "[petg]\ntensile_strenght = \"40 MPa\"\n",
 			[]string{"line 2: materials.petg.tensile_strenght", `did you mean "tensile_strength"?`}},
 		{"bad class", "[petg]\nclass = \"ceramic\"\n",
@@ -203,19 +200,7 @@ func TestParseMaterialsErrors(t *testing.T) {
 			[]string{"materials.pla.service_temperature", "out of range; allowed: 150 K to 2000 K"}},
 		{"limit above melting", "[pla]\nheat_deflection_temperature = \"5000 degC\"\n",
 			[]string{"materials.pla.heat_deflection_temperature", "out of range"}},
-	} {
-		t.Run(c.name, func(t *testing.T) {
-			_, err := ParseMaterials(c.src, base)
-			if err == nil {
-				t.Fatal("no error")
-			}
-			for _, w := range c.want {
-				if !strings.Contains(err.Error(), w) {
-					t.Errorf("error %q does not contain %q", err, w)
-				}
-			}
-		})
-	}
+	})
 }
 
 func TestMaterialLookupSuggests(t *testing.T) {
@@ -292,29 +277,14 @@ aliases = ["PA6", "cast nylon"]
 			t.Errorf("Resolve(%q) = %q, want %q", text, got, want)
 		}
 	}
-	for _, c := range []struct {
-		name, src string
-		want      []string
-	}{
+	wantMaterialErrors(t, base, []materialErrorCase{
 		{"alias on two materials", "[brass]\naliases = [\"304\"]\n",
 			[]string{"line 2: materials.brass.aliases", `alias "304" already names "stainless-304"`}},
 		{"not a list", "[brass]\naliases = \"yellow\"\n",
 			[]string{"materials.brass.aliases", "is not a list"}},
 		{"not a name", "[brass]\naliases = [\"#1\"]\n",
 			[]string{"materials.brass.aliases", "is not an alias"}},
-	} {
-		t.Run(c.name, func(t *testing.T) {
-			_, err := ParseMaterials(c.src, base)
-			if err == nil {
-				t.Fatal("no error")
-			}
-			for _, w := range c.want {
-				if !strings.Contains(err.Error(), w) {
-					t.Errorf("error %q does not contain %q", err, w)
-				}
-			}
-		})
-	}
+	})
 }
 
 // A block may name a material by an alias; the model and the cautions see
@@ -353,5 +323,29 @@ func TestExplainMaterialsListsAliases(t *testing.T) {
 		if !strings.Contains(b.String(), want) {
 			t.Errorf("explain materials lacks %q:\n%s", want, b.String())
 		}
+	}
+}
+
+// materialErrorCase is a materials table that must fail, and what its
+// error must say.
+type materialErrorCase struct {
+	name, src string
+	want      []string
+}
+
+func wantMaterialErrors(t *testing.T, base *Materials, cases []materialErrorCase) {
+	t.Helper()
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := ParseMaterials(c.src, base)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q does not contain %q", err, w)
+				}
+			}
+		})
 	}
 }
