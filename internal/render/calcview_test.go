@@ -208,4 +208,9 @@ material = "Nylon"
 	if !strings.Contains(buf.String(), want) {
 		t.Errorf("block HTML lacks %s", want)
 	}
+	var text strings.Builder
+	WriteText(&text, e)
+	if want := "Nylon PA12 (printed, SLS or FDM); written “Nylon”"; !strings.Contains(text.String(), want) {
+		t.Errorf("text form lacks %q:\n%s", want, text.String())
+	}
 }

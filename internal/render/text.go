@@ -3,6 +3,7 @@ package render
 import (
 	"fmt"
 	"io"
+	"strings"
 	"text/tabwriter"
 
 	"specgen/internal/calc"
@@ -24,14 +25,20 @@ func WriteText(w io.Writer, e *calc.Evaluated) {
 		if in.Dim == units.Pressure {
 			value = pressurePair(in.Value, unitOf(in.Text), e)
 		}
-		note := ""
+		var notes []string
 		switch {
 		case in.Default:
-			note = "(default)"
+			notes = append(notes, "(default)")
 		case in.From != "":
-			note = "(from " + in.From + ")"
+			notes = append(notes, "(from "+in.From+")")
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\n", in.Name, value, note)
+		if in.Label != "" {
+			notes = append(notes, in.Label)
+		}
+		if in.Written != "" {
+			notes = append(notes, "written “"+in.Written+"”")
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\n", in.Name, value, strings.Join(notes, "; "))
 	}
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nResults")
