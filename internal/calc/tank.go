@@ -200,18 +200,24 @@ type tankInput struct {
 	customary                      bool // the block is written in US customary units
 }
 
+// gaugeAndAbsolute shows an absolute pressure p the way blocks are written,
+// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))".
+func gaugeAndAbsolute(p, ambient float64, customary bool) string {
+	return traceIn(customary, "bar")(p-ambient) + "(g) (" + traceIn(customary, "bar(a)")(p) + ")"
+}
+
 // readTankInput applies the checks that single-input ranges cannot.
 func readTankInput(in *Inputs) (tankInput, error) {
 	t := tankInput{volume: in.Value("volume"), target: in.Value("pressure"), start: in.Value("start_pressure"), ambient: in.Ambient,
 		customary: in.Customary()}
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	pair := func(p float64) string { return gaugeAndAbsolute(p, t.ambient, t.customary) }
 	if t.target <= t.ambient {
 		return t, &InputError{Key: "pressure", Message: fmt.Sprintf(
-			"target pressure %s must be above ambient %s: a receiver stores compressed air", bara(t.target), bara(t.ambient))}
+			"target pressure %s must be above ambient %s: a receiver stores compressed air", pair(t.target), traceIn(t.customary, "bar(a)")(t.ambient))}
 	}
 	if t.start >= t.target {
 		return t, &InputError{Key: "start_pressure", Message: fmt.Sprintf(
-			"start pressure %s must be below the target pressure %s", bara(t.start), bara(t.target))}
+			"start pressure %s must be below the target pressure %s", pair(t.start), pair(t.target))}
 	}
 	if err := checkWallInputs(in); err != nil {
 		return t, err
@@ -224,7 +230,7 @@ func readTankInput(in *Inputs) (tankInput, error) {
 		if t.target >= s.pMax || !s.delivers(t.target) {
 			return t, &InputError{Key: "pressure", Message: fmt.Sprintf(
 				"target pressure %s is at or above the dead-head pressure %s of supply %s: its delivery falls to zero before the receiver gets there; "+
-					"lower the target or the supply's clearance", bara(t.target), bara(s.pMax), s.id)}
+					"lower the target or the supply's clearance", pair(t.target), pair(s.pMax), s.id)}
 		}
 		t.supply = &s
 	}
