@@ -580,7 +580,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		v, given := b.Values[spec.Name]
 		switch spec.Type {
 		case Name:
-			if !given && spec.Default == "" {
+			if !given && (spec.Default == "" || !defaultApplies(spec, b)) {
 				continue
 			}
 			text, line := spec.Default, b.Line
@@ -796,4 +796,14 @@ func resolveChoice(spec InputSpec, env *Env, text string) (string, bool) {
 		return "", false
 	}
 	return spec.Resolve(env, text)
+}
+
+// defaultApplies reports whether spec's default holds in block b: always,
+// unless it depends on an input b leaves out.
+func defaultApplies(spec InputSpec, b *Block) bool {
+	if spec.DefaultWith == "" {
+		return true
+	}
+	_, given := b.Values[spec.DefaultWith]
+	return given
 }

@@ -74,6 +74,9 @@ func (k *Kind) Explain(w io.Writer) {
 	fmt.Fprintln(tw, "  name\tdefault\tunits\tmeaning")
 	for _, in := range k.Inputs {
 		def := in.Default
+		if def != "" && in.DefaultWith != "" {
+			def += " (with " + in.DefaultWith + ")"
+		}
 		switch {
 		case def == "" && in.Optional:
 			def = "(optional)"

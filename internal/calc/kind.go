@@ -40,6 +40,9 @@ type InputSpec struct {
 	Type    InputType
 	Dim     units.Dimension // for Quantity inputs
 	Default string          // as the user would write it; "" means required unless Optional
+	// DefaultWith names the input without which Default does not apply
+	// (a tank's closed_ends means nothing without its wall's material).
+	DefaultWith string
 	// Optional inputs may be left out; the model decides what their absence
 	// means (one of two alternatives, say).
 	Optional bool

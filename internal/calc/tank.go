@@ -45,6 +45,9 @@ func tankWallInputs() []InputSpec {
 	for _, name := range tankWall {
 		spec, _ := tubeKind.input(name)
 		spec.Optional = true
+		if spec.Default != "" {
+			spec.DefaultWith = "material"
+		}
 		spec.Meaning = "shell wall, as the tube kind: " + spec.Meaning
 		specs = append(specs, spec)
 	}

@@ -427,3 +427,28 @@ func TestTankFillTableCustomary(t *testing.T) {
 		t.Errorf("last row at %g Pa, want the target %g Pa", last, e.Ambient+116*psi)
 	}
 }
+
+// closed_ends belongs to the wall: a tank without one does not list it,
+// a tank with one lists its default.
+func TestTankClosedEndsOnlyWithWall(t *testing.T) {
+	for _, c := range []struct {
+		changes map[string]any
+		want    bool
+	}{
+		{map[string]any{}, false},
+		{map[string]any{"material": "s235", "inner_diameter": "150 mm", "wall_thickness": "2 mm"}, true},
+	} {
+		set, err := evaluateBlocks(t, benchSite(c.changes))
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("rx")
+		listed := false
+		for _, in := range e.Inputs {
+			listed = listed || (in.Name == "closed_ends" && in.Default && in.Text == "true")
+		}
+		if listed != c.want {
+			t.Errorf("%v: closed_ends listed %v, want %v", c.changes, listed, c.want)
+		}
+	}
+}
