@@ -118,7 +118,8 @@ func TestPreviewRefusesPublicAddress(t *testing.T) {
 // TestPreviewNeverServesHalfPages rewrites a page over and over while the
 // preview rebuilds and pages are fetched: every page served is whole.
 func TestPreviewNeverServesHalfPages(t *testing.T) {
-	dir := filepath.Join(t.TempDir(), "site")
+	tmp := t.TempDir()
+	dir := filepath.Join(tmp, "site")
 	var out, errb syncBuffer
 	if code := run([]string{"init", dir}, &out, &errb); code != exitOK {
 		t.Fatal("init failed")
@@ -141,8 +142,13 @@ func TestPreviewNeverServesHalfPages(t *testing.T) {
 				return
 			default:
 			}
+			// Written whole, then renamed over the page, as editors save:
+			// an in-place write would let the preview read a truncated
+			// file, which it rightly builds into a whole (short) page.
 			text := strings.Replace(string(src), "# First stage", "# First stage, edit "+strconv.Itoa(i), 1)
-			_ = os.WriteFile(page, []byte(text), 0o644)
+			next := filepath.Join(tmp, "next.md")
+			_ = os.WriteFile(next, []byte(text), 0o644)
+			_ = os.Rename(next, page)
 			time.Sleep(15 * time.Millisecond)
 		}
 	}()
