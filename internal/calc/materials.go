@@ -237,6 +237,20 @@ func materialLabel(env *Env, name string) string {
 	return ""
 }
 
+// materialSpans bound the properties of any solid a part is made of, so that
+// a slip of units ("50 GPa" for a plastic's strength is possible, "50 TPa"
+// is not) is caught. The bounds are wide on purpose: common practice, from
+// handbook orders of magnitude (foams to hard metals, diamond's modulus).
+var materialSpans = map[string]struct {
+	min, max, scale float64
+	unit, why       string
+}{
+	"tensile_strength": {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
+	"yield_strength":   {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
+	"elastic_modulus":  {1e6, 1.2e12, 1e9, "GPa", "from elastomers to diamond"},
+	"density":          {10, 25e3, 1e3, "g/cm3", "from foams to the densest metals"},
+}
+
 // maxMaterialTemperature bounds a material's temperature limits, K.
 const maxMaterialTemperature = 2000
 
@@ -253,6 +267,9 @@ func (m *Material) set(key string, v any) error {
 		}
 		if q.Value <= 0 {
 			return fmt.Errorf("%q must be above zero", s)
+		}
+		if span, ok := materialSpans[key]; ok && (q.Value < span.min || q.Value > span.max) {
+			return fmt.Errorf("%q is out of range; allowed: %s to %s (%s)", s, show(span.min/span.scale, span.unit), show(span.max/span.scale, span.unit), span.why)
 		}
 		*dst = q.Value
 		return nil
