@@ -54,7 +54,7 @@ var rules = []Rule{
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
-	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
+	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
 	{ID: "cold-exhaust", Level: Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", check: coldExhaust},
 	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
@@ -367,14 +367,20 @@ func printedPart(s *Set) []raised {
 		if _, ok := e.Result("allowable_pressure"); ok {
 			isPart = true
 		}
-		for _, key := range []string{"material", "head_material", "valve_material"} {
+		// nut_material is the part a head's bolts thread into: printed, its
+		// threads carry the whole head load.
+		for _, key := range []string{"material", "head_material", "valve_material", "nut_material"} {
 			m, ok := e.material(key)
 			if !ok || !m.Printable || (key == "material" && !isPart && e.Block.Kind.Name != "valve") {
 				continue
 			}
+			what := strings.ReplaceAll(key, "_", " ")
+			if key == "nut_material" {
+				what = "nut or tapped part the bolts thread into"
+			}
 			out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
 				"The %s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
-				strings.ReplaceAll(key, "_", " "), m.Label)}})
+				what, m.Label)}})
 		}
 	}
 	return out
