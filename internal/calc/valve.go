@@ -62,6 +62,16 @@ func evaluateValve(in *Inputs) (*Outcome, error) {
 	area := math.Pi / 4 * d * d
 	crack := force / area
 	mm := func(v float64) string { return show(v*1e3, "mm") }
+	// A block named twice is a slip (often a copied line meant for another
+	// part), and would be listed twice in the trace.
+	seen := map[string]bool{}
+	for _, l := range in.LinksOf("protects") {
+		if seen[l.ID] {
+			return nil, &InputError{Key: "protects", Message: fmt.Sprintf(
+				"names block %q twice; list each compressor, tank or tube the valve relieves once", l.ID)}
+		}
+		seen[l.ID] = true
+	}
 	if crack > maxCrackingPressure {
 		return nil, &InputError{Key: "spring_rate", Message: fmt.Sprintf(
 			"a spring of %s compressed %s on a %s seat opens at %s, beyond any valve of an air machine; allowed: up to %s; check spring_rate, preload and seat_diameter",
