@@ -295,7 +295,9 @@ func noRelief(s *Set) []raised {
 					relieved = true
 					break
 				}
-				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, v.show(set.Value, units.Stress, "bar")))
+				// Shown as the part's pressures are (gauge or absolute, its
+				// unit), so the three numbers compare at a glance.
+				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, p.show(set.Value+v.Ambient, units.Pressure, "bar")))
 			}
 			if relieved {
 				continue
