@@ -53,6 +53,7 @@ var rules = []Rule{
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
+	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the target pressure of a tank it protects: the tank never fills and the valve blows off continuously", check: reliefBelowTarget},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
@@ -340,6 +341,37 @@ func reliefUnnamed(s *Set) []raised {
 		out = append(out, raised{c, CautionNote{Level: Notice, Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
 			c.Block.ID, c.show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+	}
+	return out
+}
+
+// reliefBelowTarget raises a CAUTION on a relief valve that opens below the
+// working (target) pressure of a tank it protects: not a hazard, since the
+// valve holds the pressure down, but the receiver never reaches its target,
+// the compressor runs on with the valve blowing off, and the tank's
+// fill_time is for a pressure it cannot reach.
+func reliefBelowTarget(s *Set) []raised {
+	var out []raised
+	for _, v := range s.Blocks {
+		set, ok := v.Result("cracking_pressure")
+		if !ok || v.Block.Kind.Name != "valve" || v.in == nil {
+			continue
+		}
+		opens := set.Value + v.Ambient // absolute: the valve vents to ambient
+		for _, l := range v.in.LinksOf("protects") {
+			t, ok := s.Lookup(l.ID)
+			if !ok || t.Block.Kind.Name != "tank" || t.in == nil || !t.in.Has("pressure") {
+				continue
+			}
+			target := t.in.Value("pressure")
+			if opens >= target {
+				continue
+			}
+			out = append(out, raised{v, CautionNote{Level: Caution, Message: fmt.Sprintf(
+				"%s opens at %s, below the target pressure %s of %s, which it protects: %s never reaches its target, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the receiver's allowable pressure; or lower the target.",
+				v.Block.ID, t.show(opens, units.Pressure, "bar"), t.show(target, units.Pressure, "bar"), t.Block.ID,
+				t.Block.ID, t.show(target, units.Pressure, "bar"))}})
+		}
 	}
 	return out
 }
