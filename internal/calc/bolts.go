@@ -159,7 +159,9 @@ Threads
   M4 0.7, M5 0.8, M6 1, M8 1.25, M10 1.5, M12 1.75, M14 2, M16 2, M18 2.5,
   M20 2.5, M22 2.5, M24 3. Fine: M8x1, M10x1.25, M10x1, M12x1.5, M12x1.25,
   M14x1.5, M16x1.5, M18x1.5, M20x1.5, M22x1.5, M24x2. Other pitches are not
-  in the table and are refused: check the designation against the drawing.`
+  in the table and are refused: check the designation against the drawing.
+  Sizes are plain decimals ("M8.0" is M8, "M8x1.0" is M8x1); exponents,
+  signs and leading zeros ("M1e1", "M+8", "M08") are refused.`
 
 // boltsInput is a bolts block's inputs in SI.
 type boltsInput struct {

@@ -239,6 +239,7 @@ func TestLookupThread(t *testing.T) {
 	}
 	for _, c := range []struct{ name, want string }{
 		{"M8", "M8"}, {"M8x1", "M8x1"}, {"M8x1.25", "M8"}, {"M8x1.0", "M8x1"}, {"M2.5", "M2.5"}, {"M24x2", "M24x2"},
+		{"M8.0", "M8"}, {"M10x1.250", "M10x1.25"},
 	} {
 		th, err := LookupThread(c.name)
 		if err != nil || th.Name != c.want {
@@ -253,10 +254,24 @@ func TestLookupThread(t *testing.T) {
 		{"M1", `did you mean "M2"?`},
 		{"M10x0.75", `did you mean "M10", "M10x1.25" or "M10x1"?`},
 		{"bolt", `write a coarse thread as "M8"`},
+		// strconv would read these as sizes; ISO 261 writes plain decimals.
+		{"M1e1", `an exponent is not a size; write M, the nominal diameter in mm and, for a fine thread, "x" and the pitch in mm, in plain decimals, as "M8" or "M8x1"`},
+		{"M8x1e0", `an exponent is not a size`},
+		{"M+8", `a size has no sign; write M`},
+		{"M8x+1", `did you mean "M8x1"?`},
+		{"M08", `a size has no leading zero; write M`},
+		{"M8x01", `did you mean "M8x1"?`},
+		{"M8.0x1.25x", `the designation ends in "x"; write M`},
+		{"M8.0x1.25x", `did you mean "M8"?`},
+		{"M8.", `did you mean "M8"?`},
+		{"M.8", `a size starts with a digit, as 0.8`},
 	} {
-		_, err := LookupThread(c.name)
-		if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "M24x2") {
-			t.Errorf("LookupThread(%q): %v; want an error with %s and the table", c.name, err, c.want)
+		th, err := LookupThread(c.name)
+		switch {
+		case err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "M24x2"):
+			t.Errorf("LookupThread(%q) = %q, %v; want an error with %s and the table", c.name, th.Name, err, c.want)
+		case strings.Contains(c.want, "exponent") && strings.Contains(err.Error(), "did you mean"):
+			t.Errorf("LookupThread(%q): %v; an exponent hides the size, so no guess", c.name, err)
 		}
 	}
 }
