@@ -240,10 +240,9 @@ func evaluateBolts(in *Inputs) (*Outcome, error) {
 		shear  = t.InternalShearArea(b.engagement)
 		tau    = shearOverTensile * b.nut.TensileStrength
 	)
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	mm2 := func(v float64) string { return show(v*1e6, "mm²") }
-	mpa := func(v float64) string { return show(v/1e6, "MPa") }
-	newton := func(v float64) string { return show(v, "N") }
+	cust := in.Customary()
+	mm, mm2, mpa := traceIn(cust, "mm"), traceIn(cust, "mm2"), traceIn(cust, "MPa")
+	newton, bar := traceIn(cust, "N"), traceIn(cust, "bar")
 	classNote := "class " + b.class.name
 	if b.classRange != "" {
 		classNote += ", " + b.classRange
@@ -254,7 +253,7 @@ func evaluateBolts(in *Inputs) (*Outcome, error) {
 	}
 	res := []Result{
 		{Name: "head_load", Value: load, Dim: units.Force, Trace: Trace{
-			"F = p_g · π/4 · D_p²", "= " + show(b.gauge/1e5, "bar") + " · π/4 · (" + mm(b.diameter) + ")²"}},
+			"F = p_g · π/4 · D_p²", "= " + bar(b.gauge) + " · π/4 · (" + mm(b.diameter) + ")²"}},
 		{Name: "load_per_bolt", Value: perOne, Dim: units.Force, Trace: Trace{
 			"F_b = F / z", "= " + newton(load) + " / " + show(z, "")}},
 		{Name: "tensile_stress_area", Value: as, Dim: units.Area, Trace: Trace{
