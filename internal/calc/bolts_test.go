@@ -292,6 +292,8 @@ func TestBoltsInputErrors(t *testing.T) {
 		{map[string]any{"count": -3}, "count", "out of range"},
 		{map[string]any{"property_class": 8.9}, "property_class", `"8.9" is not known; did you mean "8.8"?`},
 		{map[string]any{"thread": "M7"}, "thread", `"M7" is not known; did you mean "M6" or "M8"?`},
+		// ISO 898-1 (from memory): class 9.8 is made only up to 16 mm.
+		{map[string]any{"property_class": 9.8, "thread": "M18", "engagement_length": "18 mm"}, "property_class", `"9.8" is made only up to 16 mm diameter`},
 		{map[string]any{"pressure": "-0.2 bar"}, "pressure", "is not above ambient"},
 		{map[string]any{"pressure": "1 bar(a)"}, "pressure", "is not above ambient"},
 		{map[string]any{"engagement_length": "1 mm"}, "engagement_length", "less than one pitch of M8"},
@@ -387,5 +389,20 @@ func TestBoltsCautions(t *testing.T) {
 		if got != c.level {
 			t.Errorf("engagement %s: low-safety-factor at %v, want %v", c.engagement, got, c.level)
 		}
+	}
+}
+
+// TestBoltsClass98UpTo16: class 9.8 holds up to and including 16 mm
+// (ISO 898-1, from memory), and the working names the range.
+func TestBoltsClass98UpTo16(t *testing.T) {
+	env := &Env{Materials: mustMaterials(t, map[string]MaterialRow{"test-steel": testSteel()}), Safety: DefaultSafety}
+	out, err := evaluateBoltsBlock(t, map[string]any{"thread": "M16", "count": 6, "property_class": 9.8, "pressure": "10 bar",
+		"pressure_diameter": "80 mm", "nut_material": "test-steel", "engagement_length": "16 mm"}, env)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, _ := out.Result("safety_factor")
+	if want := "650 MPa (class 9.8, d ≤ 16 mm)"; !strings.Contains(r.Trace.Substituted, want) {
+		t.Errorf("working %q lacks %q", r.Trace.Substituted, want)
 	}
 }
