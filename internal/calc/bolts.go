@@ -54,11 +54,13 @@ const (
 
 // propertyClass is one ISO 898-1 property class with its proof strength,
 // Pa. Class 8.8 is stronger above 16 mm: big holds it for d > bigFromDia.
+// Class 9.8 exists only up to 16 mm: maxDia.
 type propertyClass struct {
 	name       string
 	proof      float64 // proof strength S_p,nom
 	big        *propertyClass
 	bigFromDia float64 // m
+	maxDia     float64 // m; 0 when the class has no upper size
 }
 
 // propertyClasses are the proof strengths of ISO 898-1:2013, Table 3
@@ -66,20 +68,26 @@ type propertyClass struct {
 var propertyClasses = []propertyClass{
 	{name: "4.6", proof: 225e6},
 	{name: "4.8", proof: 310e6},
+	{name: "5.6", proof: 280e6},
 	{name: "5.8", proof: 380e6},
+	{name: "6.8", proof: 440e6},
 	{name: "8.8", proof: 580e6, bigFromDia: 16e-3, big: &propertyClass{name: "8.8", proof: 600e6}},
+	{name: "9.8", proof: 650e6, maxDia: 16e-3},
 	{name: "10.9", proof: 830e6},
 	{name: "12.9", proof: 970e6},
 }
 
 // lookupClass returns the strengths of class name for a bolt of nominal
-// diameter d, and the diameter range they hold for ("" when all).
+// diameter d, and the diameter range they hold for ("" when all). A bolt
+// above the class's largest size is found too: readBoltsInput refuses it.
 func lookupClass(name string, d float64) (propertyClass, string, bool) {
 	for _, c := range propertyClasses {
 		if c.name != name {
 			continue
 		}
 		switch {
+		case c.maxDia > 0:
+			return c, "d ≤ " + show(c.maxDia*1e3, "mm"), true
 		case c.big == nil:
 			return c, "", true
 		case d > c.bigFromDia*(1+1e-9):
@@ -89,6 +97,17 @@ func lookupClass(name string, d float64) (propertyClass, string, bool) {
 		}
 	}
 	return propertyClass{}, "", false
+}
+
+// classesFor lists the property classes made in nominal diameter d.
+func classesFor(d float64) []string {
+	var names []string
+	for _, c := range propertyClasses {
+		if c.maxDia == 0 || d <= c.maxDia*(1+1e-9) {
+			names = append(names, c.name)
+		}
+	}
+	return names
 }
 
 // propertyClassChoices lists the property classes, for the Name input.
@@ -126,9 +145,10 @@ Bolt (ISO 898-1)
   A_s = π/4 · ((d2 + d3)/2)²    σ = F_b / A_s
   safety_factor = S_p / σ, with S_p the proof strength of the property class
   (ISO 898-1 Table 3, from memory; MPa):
-    class   4.6  4.8  5.8  8.8 (d ≤ 16 mm)  8.8 (d > 16 mm)  10.9  12.9
-    S_p     225  310  380  580              600              830   970
-    R_m,min 400  420  520  800              830              1040  1220
+    class   4.6  4.8  5.6  5.8  6.8  8.8 (d ≤ 16 mm)  8.8 (d > 16 mm)  9.8  10.9  12.9
+    S_p     225  310  280  380  440  580              600              650  830   970
+    R_m,min 400  420  500  520  600  800              830              900  1040  1220
+  Class 9.8 is made only up to 16 mm and is refused above.
   The proof strength is the stress a bolt carries without lasting set; the
   factor is on it, not on the ultimate strength.
 
@@ -159,7 +179,9 @@ Threads
   M4 0.7, M5 0.8, M6 1, M8 1.25, M10 1.5, M12 1.75, M14 2, M16 2, M18 2.5,
   M20 2.5, M22 2.5, M24 3. Fine: M8x1, M10x1.25, M10x1, M12x1.5, M12x1.25,
   M14x1.5, M16x1.5, M18x1.5, M20x1.5, M22x1.5, M24x2. Other pitches are not
-  in the table and are refused: check the designation against the drawing.`
+  in the table and are refused: check the designation against the drawing.
+  Sizes are plain decimals ("M8.0" is M8, "M8x1.0" is M8x1); exponents,
+  signs and leading zeros ("M1e1", "M+8", "M08") are refused.`
 
 // boltsInput is a bolts block's inputs in SI.
 type boltsInput struct {
@@ -186,6 +208,11 @@ func readBoltsInput(in *Inputs) (boltsInput, error) {
 	if !ok {
 		return b, &InputError{Key: "property_class", Message: fmt.Sprintf("%q is not known; allowed: %s",
 			in.NameOf("property_class"), strings.Join(propertyClassChoices(nil), ", "))}
+	}
+	if c.maxDia > 0 && t.D > c.maxDia*(1+1e-9) {
+		return b, &InputError{Key: "property_class", Message: fmt.Sprintf(
+			"%q is made only up to %s diameter (ISO 898-1), and %s is %s; allowed for %s: %s",
+			c.name, show(c.maxDia*1e3, "mm"), t.Name, show(t.D*1e3, "mm"), t.Name, strings.Join(classesFor(t.D), ", "))}
 	}
 	b.class, b.classRange = c, dr
 	z := in.Value("count")
@@ -238,10 +265,9 @@ func evaluateBolts(in *Inputs) (*Outcome, error) {
 		shear  = t.InternalShearArea(b.engagement)
 		tau    = shearOverTensile * b.nut.TensileStrength
 	)
-	mm := func(v float64) string { return show(v*1e3, "mm") }
-	mm2 := func(v float64) string { return show(v*1e6, "mm²") }
-	mpa := func(v float64) string { return show(v/1e6, "MPa") }
-	newton := func(v float64) string { return show(v, "N") }
+	cust := in.Customary()
+	mm, mm2, mpa := traceIn(cust, "mm"), traceIn(cust, "mm2"), traceIn(cust, "MPa")
+	newton, bar := traceIn(cust, "N"), traceIn(cust, "bar")
 	classNote := "class " + b.class.name
 	if b.classRange != "" {
 		classNote += ", " + b.classRange
@@ -252,7 +278,7 @@ func evaluateBolts(in *Inputs) (*Outcome, error) {
 	}
 	res := []Result{
 		{Name: "head_load", Value: load, Dim: units.Force, Trace: Trace{
-			"F = p_g · π/4 · D_p²", "= " + show(b.gauge/1e5, "bar") + " · π/4 · (" + mm(b.diameter) + ")²"}},
+			"F = p_g · π/4 · D_p²", "= " + bar(b.gauge) + " · π/4 · (" + mm(b.diameter) + ")²"}},
 		{Name: "load_per_bolt", Value: perOne, Dim: units.Force, Trace: Trace{
 			"F_b = F / z", "= " + newton(load) + " / " + show(z, "")}},
 		{Name: "tensile_stress_area", Value: as, Dim: units.Area, Trace: Trace{

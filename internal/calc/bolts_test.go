@@ -239,6 +239,7 @@ func TestLookupThread(t *testing.T) {
 	}
 	for _, c := range []struct{ name, want string }{
 		{"M8", "M8"}, {"M8x1", "M8x1"}, {"M8x1.25", "M8"}, {"M8x1.0", "M8x1"}, {"M2.5", "M2.5"}, {"M24x2", "M24x2"},
+		{"M8.0", "M8"}, {"M10x1.250", "M10x1.25"},
 	} {
 		th, err := LookupThread(c.name)
 		if err != nil || th.Name != c.want {
@@ -253,10 +254,24 @@ func TestLookupThread(t *testing.T) {
 		{"M1", `did you mean "M2"?`},
 		{"M10x0.75", `did you mean "M10", "M10x1.25" or "M10x1"?`},
 		{"bolt", `write a coarse thread as "M8"`},
+		// strconv would read these as sizes; ISO 261 writes plain decimals.
+		{"M1e1", `an exponent is not a size; write M, the nominal diameter in mm and, for a fine thread, "x" and the pitch in mm, in plain decimals, as "M8" or "M8x1"`},
+		{"M8x1e0", `an exponent is not a size`},
+		{"M+8", `a size has no sign; write M`},
+		{"M8x+1", `did you mean "M8x1"?`},
+		{"M08", `a size has no leading zero; write M`},
+		{"M8x01", `did you mean "M8x1"?`},
+		{"M8.0x1.25x", `the designation ends in "x"; write M`},
+		{"M8.0x1.25x", `did you mean "M8"?`},
+		{"M8.", `did you mean "M8"?`},
+		{"M.8", `a size starts with a digit, as 0.8`},
 	} {
-		_, err := LookupThread(c.name)
-		if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "M24x2") {
-			t.Errorf("LookupThread(%q): %v; want an error with %s and the table", c.name, err, c.want)
+		th, err := LookupThread(c.name)
+		switch {
+		case err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "M24x2"):
+			t.Errorf("LookupThread(%q) = %q, %v; want an error with %s and the table", c.name, th.Name, err, c.want)
+		case strings.Contains(c.want, "exponent") && strings.Contains(err.Error(), "did you mean"):
+			t.Errorf("LookupThread(%q): %v; an exponent hides the size, so no guess", c.name, err)
 		}
 	}
 }
@@ -277,6 +292,8 @@ func TestBoltsInputErrors(t *testing.T) {
 		{map[string]any{"count": -3}, "count", "out of range"},
 		{map[string]any{"property_class": 8.9}, "property_class", `"8.9" is not known; did you mean "8.8"?`},
 		{map[string]any{"thread": "M7"}, "thread", `"M7" is not known; did you mean "M6" or "M8"?`},
+		// ISO 898-1 (from memory): class 9.8 is made only up to 16 mm.
+		{map[string]any{"property_class": 9.8, "thread": "M18", "engagement_length": "18 mm"}, "property_class", `"9.8" is made only up to 16 mm diameter`},
 		{map[string]any{"pressure": "-0.2 bar"}, "pressure", "is not above ambient"},
 		{map[string]any{"pressure": "1 bar(a)"}, "pressure", "is not above ambient"},
 		{map[string]any{"engagement_length": "1 mm"}, "engagement_length", "less than one pitch of M8"},
@@ -372,5 +389,20 @@ func TestBoltsCautions(t *testing.T) {
 		if got != c.level {
 			t.Errorf("engagement %s: low-safety-factor at %v, want %v", c.engagement, got, c.level)
 		}
+	}
+}
+
+// TestBoltsClass98UpTo16: class 9.8 holds up to and including 16 mm
+// (ISO 898-1, from memory), and the working names the range.
+func TestBoltsClass98UpTo16(t *testing.T) {
+	env := &Env{Materials: mustMaterials(t, map[string]MaterialRow{"test-steel": testSteel()}), Safety: DefaultSafety}
+	out, err := evaluateBoltsBlock(t, map[string]any{"thread": "M16", "count": 6, "property_class": 9.8, "pressure": "10 bar",
+		"pressure_diameter": "80 mm", "nut_material": "test-steel", "engagement_length": "16 mm"}, env)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, _ := out.Result("safety_factor")
+	if want := "650 MPa (class 9.8, d ≤ 16 mm)"; !strings.Contains(r.Trace.Substituted, want) {
+		t.Errorf("working %q lacks %q", r.Trace.Substituted, want)
 	}
 }

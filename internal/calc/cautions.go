@@ -53,8 +53,9 @@ var rules = []Rule{
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
+	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the target pressure of a tank it protects: the tank never fills and the valve blows off continuously", check: reliefBelowTarget},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
-	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic", check: printedPart},
+	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
 	{ID: "cold-exhaust", Level: Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", check: coldExhaust},
 	{ID: "vacuum-vessel", Level: Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", check: vacuumVessel},
@@ -295,7 +296,9 @@ func noRelief(s *Set) []raised {
 					relieved = true
 					break
 				}
-				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, v.show(set.Value, units.Stress, "bar")))
+				// Shown as the part's pressures are (gauge or absolute, its
+				// unit), so the three numbers compare at a glance.
+				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, p.show(set.Value+v.Ambient, units.Pressure, "bar")))
 			}
 			if relieved {
 				continue
@@ -342,6 +345,37 @@ func reliefUnnamed(s *Set) []raised {
 	return out
 }
 
+// reliefBelowTarget raises a CAUTION on a relief valve that opens below the
+// working (target) pressure of a tank it protects: not a hazard, since the
+// valve holds the pressure down, but the receiver never reaches its target,
+// the compressor runs on with the valve blowing off, and the tank's
+// fill_time is for a pressure it cannot reach.
+func reliefBelowTarget(s *Set) []raised {
+	var out []raised
+	for _, v := range s.Blocks {
+		set, ok := v.Result("cracking_pressure")
+		if !ok || v.Block.Kind.Name != "valve" || v.in == nil {
+			continue
+		}
+		opens := set.Value + v.Ambient // absolute: the valve vents to ambient
+		for _, l := range v.in.LinksOf("protects") {
+			t, ok := s.Lookup(l.ID)
+			if !ok || t.Block.Kind.Name != "tank" || t.in == nil || !t.in.Has("pressure") {
+				continue
+			}
+			target := t.in.Value("pressure")
+			if opens >= target {
+				continue
+			}
+			out = append(out, raised{v, CautionNote{Level: Caution, Message: fmt.Sprintf(
+				"%s opens at %s, below the target pressure %s of %s, which it protects: %s never reaches its target, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the receiver's allowable pressure; or lower the target.",
+				v.Block.ID, t.show(opens, units.Pressure, "bar"), t.show(target, units.Pressure, "bar"), t.Block.ID,
+				t.Block.ID, t.show(target, units.Pressure, "bar"))}})
+		}
+	}
+	return out
+}
+
 func storedEnergy(s *Set) []raised {
 	var out []raised
 	for _, e := range s.Blocks {
@@ -367,14 +401,20 @@ func printedPart(s *Set) []raised {
 		if _, ok := e.Result("allowable_pressure"); ok {
 			isPart = true
 		}
-		for _, key := range []string{"material", "head_material", "valve_material"} {
+		// nut_material is the part a head's bolts thread into: printed, its
+		// threads carry the whole head load.
+		for _, key := range []string{"material", "head_material", "valve_material", "nut_material"} {
 			m, ok := e.material(key)
 			if !ok || !m.Printable || (key == "material" && !isPart && e.Block.Kind.Name != "valve") {
 				continue
 			}
+			what := strings.ReplaceAll(key, "_", " ")
+			if key == "nut_material" {
+				what = "nut or tapped part the bolts thread into"
+			}
 			out = append(out, raised{e, CautionNote{Level: Warning, Message: fmt.Sprintf(
 				"The %s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
-				strings.ReplaceAll(key, "_", " "), m.Label)}})
+				what, m.Label)}})
 		}
 	}
 	return out

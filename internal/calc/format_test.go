@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"strings"
 	"testing"
 
 	"specgen/internal/units"
@@ -88,6 +89,63 @@ func TestCustomaryWorking(t *testing.T) {
 		r, _ := e.Result("piston_area")
 		if r.Trace.Substituted != c.want {
 			t.Errorf("bore %s: working %q, want %q", c.bore, r.Trace, c.want)
+		}
+	}
+}
+
+// TestCustomaryWorkingKinds: the valve, bolts and multistage traces, like
+// the compressor's, substitute a customary block's values in its units and
+// a metric block's in metric ones. Conversions: 1 in = 25.4 mm, 1 lbf =
+// 4.448222 N, 1 psi = 6894.757 Pa, 1 atm = 14.696 psi (NIST SP 811 App. B,
+// from memory).
+func TestCustomaryWorkingKinds(t *testing.T) {
+	for _, c := range []struct {
+		block  map[string]any
+		result string
+		want   []string
+		wrong  []string // units of the other system
+	}{
+		{map[string]any{"id": "v", "kind": "valve", "seat_diameter": "0.25 in", "spring_rate": "100 lbf/in", "preload": "0.2 in"},
+			"spring_force", []string{"= 100 lbf/in · 0.2 in"}, []string{"mm", "N/mm"}},
+		{map[string]any{"id": "v", "kind": "valve", "seat_diameter": "0.25 in", "spring_rate": "100 lbf/in", "preload": "0.2 in"},
+			"cracking_pressure", []string{"= 20 lbf / (π/4 · (0.25 in)²)"}, []string{"mm", " N "}},
+		{map[string]any{"id": "v", "kind": "valve", "seat_diameter": "6 mm", "spring_rate": "5 N/mm", "preload": "2 mm"},
+			"cracking_pressure", []string{"= 10 N / (π/4 · (6 mm)²)"}, []string{"in", "lbf"}},
+		// 116 psi over a 2.362 in gasket, six M8 bolts: F = 116 · π/4 · 2.362² = 508.3 lbf, 84.71 lbf each;
+		// A_s(M8) = 36.61 mm² (ISO 898-1) = 36.61 / 645.16 = 0.05674 in².
+		{map[string]any{"id": "b", "kind": "bolts", "thread": "M8", "count": 6, "property_class": "8.8", "pressure": "116 psi", "pressure_diameter": "2.362 in"},
+			"head_load", []string{"= 116 psi · π/4 · (2.362 in)²"}, []string{"mm", "bar"}},
+		{map[string]any{"id": "b", "kind": "bolts", "thread": "M8", "count": 6, "property_class": "8.8", "pressure": "116 psi", "pressure_diameter": "2.362 in"},
+			"bolt_stress", []string{"= 84.71 lbf / 0.05674 in²"}, []string{"mm", " N "}},
+		{map[string]any{"id": "b", "kind": "bolts", "thread": "M8", "count": 6, "property_class": "8.8", "pressure": "8 bar", "pressure_diameter": "60 mm"},
+			"head_load", []string{"= 8 bar · π/4 · (60 mm)²"}, []string{"in", "psi"}},
+		// 87 psi gauge is 87 + 14.696 = 101.7 psia.
+		{map[string]any{"id": "m", "kind": "multistage", "stages": 2, "discharge_pressure": "87 psi", "inlet_temperature": "68 degF"},
+			"stage_pressure_ratio", []string{"= (101.7 psia / 14.7 psia)^(1/2)"}, []string{"bar"}},
+		// 1160 psi gauge is 1174.7 psia, above the ideal-gas limit of 50 bar(a) = 725 psia.
+		{map[string]any{"id": "m", "kind": "multistage", "stages": 3, "discharge_pressure": "1160 psi", "inlet_temperature": "68 degF"},
+			"specific_work", []string{"NOTE: at 1175 psia"}, []string{"bar"}},
+		{map[string]any{"id": "m", "kind": "multistage", "stages": 2, "discharge_pressure": "6 bar"},
+			"stage_pressure_ratio", []string{"= (7.013 bar(a) / 1.013 bar(a))^(1/2)"}, []string{"psi"}},
+	} {
+		set, err := evaluateBlocks(t, []map[string]any{c.block})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup(c.block["id"].(string))
+		r, ok := e.Result(c.result)
+		if !ok {
+			t.Fatalf("%s: no %s", c.block["kind"], c.result)
+		}
+		for _, w := range c.want {
+			if !strings.Contains(r.Trace.Substituted, w) {
+				t.Errorf("%s %s: working %q lacks %q", c.block["kind"], c.result, r.Trace.Substituted, w)
+			}
+		}
+		for _, w := range c.wrong {
+			if strings.Contains(r.Trace.Substituted, w) {
+				t.Errorf("%s %s: working %q shows %q, a unit the block is not written in", c.block["kind"], c.result, r.Trace.Substituted, w)
+			}
 		}
 	}
 }

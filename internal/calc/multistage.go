@@ -107,7 +107,8 @@ func readMultistageInput(in *Inputs) (multistageInput, error) {
 	if in.Has("inlet_pressure") {
 		m.p1 = in.Value("inlet_pressure")
 	}
-	bara := func(p float64) string { return show(p/1e5, "bar(a)") }
+	cust := in.Customary()
+	bara := traceIn(cust, "bar(a)")
 	if m.p2 <= m.p1 {
 		return m, &InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
 			"discharge pressure %s must be above the inlet pressure %s", bara(m.p2), bara(m.p1))}
@@ -140,7 +141,7 @@ func readMultistageInput(in *Inputs) (multistageInput, error) {
 		}
 		m.flow = fad * ps / (airGasConstant * ts)
 		m.flowFrom = fmt.Sprintf("ṁ = FAD·p_s/(R·T_s) = %s · %s / (287.05 J/(kg K) · %s), from supply %s",
-			show(fad*6e4, "L/min"), bara(ps), show(ts, "K"), supply.ID)
+			traceIn(cust, "L/min")(fad), bara(ps), show(ts, "K"), supply.ID)
 	}
 	return m, nil
 }
@@ -175,7 +176,7 @@ func evaluateMultistage(in *Inputs) (*Outcome, error) {
 		single  = stageWork(m.t1, rAll, m.n)
 		hottest = math.Max(m.t1, m.tic)
 	)
-	bara := func(p float64) string { return show(p/1e5, "bar(a)") }
+	bara := traceIn(in.Customary(), "bar(a)")
 	num := func(x float64) string { return show(x, "") }
 	kelvin := func(t float64) string { return show(t, "K") }
 	nw, nm1 := num(m.n), num(m.n-1)
@@ -210,7 +211,7 @@ func evaluateMultistage(in *Inputs) (*Outcome, error) {
 	}
 	res = append(res,
 		Result{Name: "discharge_temperature", Value: dischargeTemperature(hottest, r, m.n), Dim: units.Temperature, Trace: tTrace},
-		Result{Name: "specific_work", Value: work, Dim: units.SpecificEnergy, Trace: idealGasNote(wTrace, m.p2)},
+		Result{Name: "specific_work", Value: work, Dim: units.SpecificEnergy, Trace: idealGasNote(wTrace, m.p2, bara)},
 		Result{Name: "single_stage_specific_work", Value: single, Dim: units.SpecificEnergy, Trace: w1Trace},
 		Result{Name: "single_stage_discharge_temperature", Value: dischargeTemperature(m.t1, rAll, m.n), Dim: units.Temperature, Trace: Trace{
 			"T_d1 = T1 · (p2/p1)^((n−1)/n)", fmt.Sprintf("= %s · %s^(%s/%s)", kelvin(m.t1), num(rAll), nm1, nw)}},
@@ -286,10 +287,10 @@ func multistageChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 const idealGasLimit = 50e5 // Pa absolute
 
 // idealGasNote adds a NOTE to a trace whose pressures reach idealGasLimit.
-func idealGasNote(t Trace, p float64) Trace {
+func idealGasNote(t Trace, p float64, bara func(float64) string) Trace {
 	if p > idealGasLimit {
 		t.Substituted += fmt.Sprintf(" (NOTE: at %s real air departs from the ideal gas by a few per cent or more; compressibility is not modelled)",
-			show(p/1e5, "bar(a)"))
+			bara(p))
 	}
 	return t
 }

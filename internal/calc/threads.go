@@ -3,6 +3,7 @@ package calc
 import (
 	"fmt"
 	"math"
+	"regexp"
 	"sort"
 	"strconv"
 	"strings"
@@ -110,9 +111,12 @@ func ThreadNames() []string {
 
 // LookupThread returns the thread of the table named name: "M8" (coarse),
 // "M8x1" (fine). A designation with the same diameter and pitch in other
-// digits is the same thread: "M8x1.25" is M8, "M8x1.0" is M8x1. Anything
-// else is an error that suggests the nearest designations and lists the
-// table.
+// digits is the same thread: "M8x1.25" is M8, "M8x1.0" is M8x1, "M8.0" is
+// M8. Numbers are plain decimals: exponents ("M1e1"), signs ("M+8"),
+// leading zeros ("M08") and a dangling "x" or "." are refused, since
+// strconv would read them as a size the writer may not have meant.
+// Anything else is an error that suggests the nearest designations and
+// lists the table.
 func LookupThread(name string) (Thread, error) {
 	if d, p, ok := parseDesignation(name); ok {
 		for _, t := range threads {
@@ -122,6 +126,14 @@ func LookupThread(name string) (Thread, error) {
 		}
 	}
 	list := "ISO metric threads: " + strings.Join(ThreadNames(), ", ")
+	if why, guess := designationFault(name); why != "" {
+		msg := fmt.Sprintf("%q is not an ISO 261 designation: %s; write M, the nominal diameter in mm and, for a fine thread, \"x\" and the pitch in mm, in plain decimals", name, why)
+		// An exponent or a bare point hides the size meant; a guess would mislead.
+		if s := suggestThreads(name); len(s) > 0 && guess {
+			return Thread{}, fmt.Errorf("%s; did you mean %s? (%s)", msg, quoteOr(s), list)
+		}
+		return Thread{}, fmt.Errorf("%s, as \"M8\" or \"M8x1\" (%s)", msg, list)
+	}
 	if s := suggestThreads(name); len(s) > 0 {
 		return Thread{}, fmt.Errorf("%q is not known; did you mean %s? (%s)", name, quoteOr(s), list)
 	}
@@ -132,24 +144,64 @@ func LookupThread(name string) (Thread, error) {
 // thousandth of a micrometre.
 func sameMM(m, v float64) bool { return math.Abs(m*1e3-v) < 1e-6 }
 
+// designation is the form of an ISO 261 designation: M, the diameter and
+// an optional "x" and pitch, both plain decimals without leading zeros.
+var designation = regexp.MustCompile(`^M((?:0|[1-9][0-9]*)(?:\.[0-9]+)?)(?:x((?:0|[1-9][0-9]*)(?:\.[0-9]+)?))?$`)
+
 // parseDesignation reads "M10x1.25" as 10 and 1.25 (mm; pitch 0 when not
 // written); ok is false when name is not of that form.
 func parseDesignation(name string) (d, p float64, ok bool) {
-	rest, found := strings.CutPrefix(name, "M")
-	if !found {
+	m := designation.FindStringSubmatch(name)
+	if m == nil {
 		return 0, 0, false
 	}
-	ds, ps, hasPitch := strings.Cut(rest, "x")
-	d, err := strconv.ParseFloat(ds, 64)
+	d, err := strconv.ParseFloat(m[1], 64)
 	if err != nil || !(d > 0 && d < 1e4) {
 		return 0, 0, false
 	}
-	if hasPitch {
-		if p, err = strconv.ParseFloat(ps, 64); err != nil || !(p > 0 && p < d) {
+	if m[2] != "" {
+		if p, err = strconv.ParseFloat(m[2], 64); err != nil || !(p > 0 && p < d) {
 			return 0, 0, false
 		}
 	}
 	return d, p, true
+}
+
+// designationFault names what makes an M-designation's numbers unreadable
+// ("" when nothing of the kinds users write by mistake), and whether
+// tidyDesignation can guess the size meant.
+func designationFault(name string) (why string, guess bool) {
+	rest, ok := strings.CutPrefix(name, "M")
+	if !ok || designation.MatchString(name) {
+		return "", false
+	}
+	switch {
+	case exponent.MatchString(rest):
+		return "an exponent is not a size", false
+	case strings.ContainsAny(rest, "+-"):
+		return "a size has no sign", true
+	case strings.HasPrefix(rest, ".") || strings.Contains(rest, "x."):
+		return "a size starts with a digit, as 0.8", false
+	case leadingZero.MatchString(rest):
+		return "a size has no leading zero", true
+	case strings.HasSuffix(rest, "x") || strings.HasSuffix(rest, "."):
+		return "the designation ends in \"" + rest[len(rest)-1:] + "\"", true
+	}
+	return "", false
+}
+
+// exponent matches a number in exponent form: "1e1", "1.25E-3".
+var exponent = regexp.MustCompile(`[0-9.][eE][+-]?[0-9]`)
+
+// leadingZero matches a number written with a leading zero: "08", "x01".
+var leadingZero = regexp.MustCompile(`(^|[^0-9.])0+([0-9])`)
+
+// tidyDesignation drops what designationFault can guess past: signs,
+// leading zeros and a dangling "x" or ".", for suggestions.
+func tidyDesignation(s string) string {
+	s = strings.NewReplacer("+", "", "-", "").Replace(s)
+	s = leadingZero.ReplaceAllString(s, "${1}${2}")
+	return strings.TrimRight(s, "x.")
 }
 
 // suggestThreads proposes designations for a name that is not in the
@@ -161,6 +213,7 @@ func suggestThreads(name string) []string {
 	if strings.HasPrefix(norm, "m") {
 		norm = "M" + norm[1:]
 	}
+	norm = tidyDesignation(norm)
 	if norm != name {
 		if t, err := LookupThread(norm); err == nil {
 			return []string{t.Name}

@@ -50,7 +50,9 @@ Assumptions
 With protects (a list of compressor, tank or tube block ids), the valve is a
 relief valve for those blocks. The no-relief caution rule compares its
 opening pressure with each protected part's allowable pressure and each
-compressor's dead-head pressure; the trace lists them.`
+compressor's dead-head pressure; the trace lists them. The
+relief-below-target rule cautions when it opens below the target pressure
+of a tank it protects, which then never fills.`
 
 // maxCrackingPressure is the highest cracking pressure taken as real: the
 // upper bound of the pressures the other kinds accept.
@@ -61,17 +63,28 @@ func evaluateValve(in *Inputs) (*Outcome, error) {
 	force := k * x
 	area := math.Pi / 4 * d * d
 	crack := force / area
-	mm := func(v float64) string { return show(v*1e3, "mm") }
+	cust := in.Customary()
+	mm, rate, newton := traceIn(cust, "mm"), traceIn(cust, "N/mm"), traceIn(cust, "N")
+	// A block named twice is a slip (often a copied line meant for another
+	// part), and would be listed twice in the trace.
+	seen := map[string]bool{}
+	for _, l := range in.LinksOf("protects") {
+		if seen[l.ID] {
+			return nil, &InputError{Key: "protects", Message: fmt.Sprintf(
+				"names block %q twice; list each compressor, tank or tube the valve relieves once", l.ID)}
+		}
+		seen[l.ID] = true
+	}
 	if crack > maxCrackingPressure {
 		return nil, &InputError{Key: "spring_rate", Message: fmt.Sprintf(
 			"a spring of %s compressed %s on a %s seat opens at %s, beyond any valve of an air machine; allowed: up to %s; check spring_rate, preload and seat_diameter",
-			show(k/1e3, "N/mm"), mm(x), mm(d), show(crack/1e6, "MPa"), show(maxCrackingPressure/1e6, "MPa"))}
+			rate(k), mm(x), mm(d), traceIn(cust, "MPa")(crack), traceIn(cust, "MPa")(maxCrackingPressure))}
 	}
 	res := []Result{
 		{Name: "spring_force", Value: force, Dim: units.Force, Trace: Trace{
-			"F = k · x", "= " + show(k/1e3, "N/mm") + " · " + mm(x)}},
+			"F = k · x", "= " + rate(k) + " · " + mm(x)}},
 		{Name: "cracking_pressure", Value: crack, Dim: units.Stress, Trace: Trace{
-			"Δp = F / (π/4 · d²)", "= " + show(force, "N") + " / (π/4 · (" + mm(d) + ")²)" + protectedText(in, crack)}},
+			"Δp = F / (π/4 · d²)", "= " + newton(force) + " / (π/4 · (" + mm(d) + ")²)" + protectedText(in, crack)}},
 	}
 	return &Outcome{Results: res}, nil
 }
@@ -84,7 +97,7 @@ func protectedText(in *Inputs, crack float64) string {
 	if len(linked) == 0 {
 		return ""
 	}
-	bara := func(v float64) string { return show(v/1e5, "bar(a)") }
+	bara := traceIn(in.Customary(), "bar(a)")
 	var parts []string
 	for _, l := range linked {
 		switch {
