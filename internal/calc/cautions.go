@@ -53,7 +53,7 @@ var rules = []Rule{
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
-	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the target pressure of a tank it protects: the tank never fills and the valve blows off continuously", check: reliefBelowTarget},
+	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", check: reliefBelowTarget},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
@@ -350,6 +350,14 @@ func reliefUnnamed(s *Set) []raised {
 // valve holds the pressure down, but the receiver never reaches its target,
 // the compressor runs on with the valve blowing off, and the tank's
 // fill_time is for a pressure it cannot reach.
+// workingPressureKey names, per kind, the input that is a part's working
+// pressure: the pressure a relief valve protecting it must stay shut at.
+var workingPressureKey = map[string]struct{ key, name string }{
+	"tank":       {"pressure", "target pressure"},
+	"tube":       {"pressure", "working pressure"},
+	"compressor": {"discharge_pressure", "discharge pressure"},
+}
+
 func reliefBelowTarget(s *Set) []raised {
 	var out []raised
 	for _, v := range s.Blocks {
@@ -359,18 +367,22 @@ func reliefBelowTarget(s *Set) []raised {
 		}
 		opens := set.Value + v.Ambient // absolute: the valve vents to ambient
 		for _, l := range v.in.LinksOf("protects") {
-			t, ok := s.Lookup(l.ID)
-			if !ok || t.Block.Kind.Name != "tank" || t.in == nil || !t.in.Has("pressure") {
+			p, ok := s.Lookup(l.ID)
+			if !ok || p.in == nil {
 				continue
 			}
-			target := t.in.Value("pressure")
+			working, ok := workingPressureKey[p.Block.Kind.Name]
+			if !ok || !p.in.Has(working.key) {
+				continue
+			}
+			target := p.in.Value(working.key)
 			if opens >= target {
 				continue
 			}
 			out = append(out, raised{v, CautionNote{Level: Caution, Message: fmt.Sprintf(
-				"%s opens at %s, below the target pressure %s of %s, which it protects: %s never reaches its target, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the receiver's allowable pressure; or lower the target.",
-				v.Block.ID, t.show(opens, units.Pressure, "bar"), t.show(target, units.Pressure, "bar"), t.Block.ID,
-				t.Block.ID, t.show(target, units.Pressure, "bar"))}})
+				"%s opens at %s, below the %s %s of %s, which it protects: %s never reaches it, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the allowable pressure of the parts it protects; or lower the %s.",
+				v.Block.ID, p.show(opens, units.Pressure, "bar"), working.name, p.show(target, units.Pressure, "bar"), p.Block.ID,
+				p.Block.ID, p.show(target, units.Pressure, "bar"), working.name)}})
 		}
 	}
 	return out
