@@ -6,6 +6,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 )
@@ -226,5 +227,44 @@ func TestDiffAbsoluteScales(t *testing.T) {
 		if unit, marked := want[r.Name]; r.Absolute != marked || marked && r.Unit != unit {
 			t.Errorf("%s: absolute %v, unit %q; want absolute %v, unit %q", r.Name, r.Absolute, r.Unit, marked, unit)
 		}
+	}
+}
+
+// TestDiffBadResultsFiles: a file that is not a results.json is refused
+// with what is wrong in JSON's words, never Go's type names.
+func TestDiffBadResultsFiles(t *testing.T) {
+	dir := t.TempDir()
+	good := filepath.Join(dir, "good.json")
+	if err := os.WriteFile(good, []byte(`{"version":1,"blocks":[]}`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	goName := regexp.MustCompile(`Go (value|struct)|\bsite\.|\b(float|u?int)(32|64)\b|interface \{\}`)
+	cases := []struct{ name, text, want string }{
+		{"empty", ``, "bad.json: not a specgen results.json: the file is empty"},
+		{"cut short", `{"version":1`, "the file ends in the middle of its JSON"},
+		{"array", `[]`, "the file holds a JSON array; results.json holds an object"},
+		{"no version", `{}`, "it has no version; specgen build writes one as dist/results.json"},
+		{"later version", `{"version":2,"blocks":[]}`, "results.json version 2; this specgen reads version 1"},
+		{"wrong type", `{"version":1,"blocks":[{"id":"x","kind":5}]}`, "blocks.kind: a JSON number where a string belongs"},
+		{"wrong value type", `{"version":1,"blocks":[{"id":"x","results":{"a":{"value":"1"}}}]}`, "blocks.results.value: a JSON string where a number belongs"},
+		{"no id", `{"version":1,"blocks":[{"kind":"tank"}]}`, "block 1 of its list has no id"},
+		{"unknown field", `{"version":1,"blocks":[],"extra":1}`, `unknown field "extra"`},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			bad := filepath.Join(dir, "bad.json")
+			if err := os.WriteFile(bad, []byte(c.text), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			var stdout, stderr bytes.Buffer
+			code := run([]string{"diff", bad, good}, &stdout, &stderr)
+			msg := stderr.String()
+			if code != exitBadInput || !strings.Contains(msg, c.want) {
+				t.Errorf("exit %d, message %q; want exit %d and %q", code, msg, exitBadInput, c.want)
+			}
+			if m := goName.FindString(msg); m != "" {
+				t.Errorf("message names a Go type (%q): %s", m, msg)
+			}
+		})
 	}
 }
