@@ -277,7 +277,8 @@ const phoneOverflowScript = `(() => {
   document.querySelectorAll("details").forEach(d => d.open = true);
   const vw = document.documentElement.clientWidth;
   const out = {viewport: vw, page: document.documentElement.scrollWidth, tables: 0, wide: []};
-  const body = document.querySelector(".sg-body").getBoundingClientRect();
+  const main = document.querySelector(".sg-body") || document.body;
+  const body = main.getBoundingClientRect();
   for (const t of document.querySelectorAll(".sg-calc table")) {
     out.tables++;
     const r = t.getBoundingClientRect();
@@ -308,9 +309,21 @@ func TestBrowserPhoneWidth(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 900)); err != nil {
 		t.Fatal(err)
 	}
+	// Every page of the demo, so that a new one is checked too.
+	var pagesToCheck []string
+	content := filepath.Join("..", "..", "content")
+	err := filepath.WalkDir(content, func(p string, d os.DirEntry, err error) error {
+		if err == nil && !d.IsDir() && strings.HasSuffix(p, ".md") {
+			rel, _ := filepath.Rel(content, p)
+			pagesToCheck = append(pagesToCheck, strings.TrimSuffix(filepath.ToSlash(rel), ".md")+".html")
+		}
+		return err
+	})
+	if err != nil || len(pagesToCheck) < 10 {
+		t.Fatalf("demo pages: %v (%d found)", err, len(pagesToCheck))
+	}
 	tables := 0
-	for _, pageName := range []string{"compressor/calculations.html", "compressor/running-gear.html",
-		"compressor/pressure-parts.html", "vacuum-table/build.html", "air-motor.html"} {
+	for _, pageName := range pagesToCheck {
 		if err := chromedp.Do(ctx, chromedp.Navigate(base+pageName), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
 			t.Fatalf("%s: %v", pageName, err)
 		}
