@@ -269,3 +269,83 @@ func TestA11yRulesCatchProblems(t *testing.T) {
 		}
 	}
 }
+
+// phoneOverflowScript opens every details box (the formula traces are the
+// widest content) and returns how far the page is wider than the viewport,
+// with the widest calc tables that stick out of the page body.
+const phoneOverflowScript = `(() => {
+  document.querySelectorAll("details").forEach(d => d.open = true);
+  const vw = document.documentElement.clientWidth;
+  const out = {viewport: vw, page: document.documentElement.scrollWidth, tables: 0, wide: []};
+  const main = document.querySelector(".sg-body") || document.body;
+  const body = main.getBoundingClientRect();
+  for (const t of document.querySelectorAll(".sg-calc table")) {
+    out.tables++;
+    const r = t.getBoundingClientRect();
+    if (r.right > body.right + 0.5) {
+      let clipped = false;
+      for (let p = t.parentElement; p && !p.classList.contains("sg-body"); p = p.parentElement) {
+        const b = p.getBoundingClientRect();
+        if (getComputedStyle(p).overflowX !== "visible" && b.right <= body.right + 0.5) { clipped = true; break; }
+      }
+      if (!clipped) out.wide.push(t.className + " in " + t.closest(".sg-calc").id + " ends at " + Math.round(r.right) + " px");
+    }
+  }
+  return out;
+})()`
+
+// TestBrowserPhoneWidth loads the demo pages with calculation tables at a
+// phone's width (390 px): wide tables scroll inside their own box, the
+// page itself never scrolls sideways.
+func TestBrowserPhoneWidth(t *testing.T) {
+	ctx, problems := browser(t)
+	base := previewDemo(t, filepath.Join("..", ".."))
+	type overflow struct {
+		Viewport float64  `json:"viewport"`
+		Page     float64  `json:"page"`
+		Tables   int      `json:"tables"`
+		Wide     []string `json:"wide"`
+	}
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 900)); err != nil {
+		t.Fatal(err)
+	}
+	// Every page of the demo, so that a new one is checked too.
+	var pagesToCheck []string
+	content := filepath.Join("..", "..", "content")
+	err := filepath.WalkDir(content, func(p string, d os.DirEntry, err error) error {
+		if err == nil && !d.IsDir() && strings.HasSuffix(p, ".md") {
+			rel, _ := filepath.Rel(content, p)
+			pagesToCheck = append(pagesToCheck, strings.TrimSuffix(filepath.ToSlash(rel), ".md")+".html")
+		}
+		return err
+	})
+	if err != nil || len(pagesToCheck) < 10 {
+		t.Fatalf("demo pages: %v (%d found)", err, len(pagesToCheck))
+	}
+	tables := 0
+	for _, pageName := range pagesToCheck {
+		if err := chromedp.Do(ctx, chromedp.Navigate(base+pageName), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
+			t.Fatalf("%s: %v", pageName, err)
+		}
+		o, err := chromedp.Run(ctx, chromedp.Evaluate[overflow](phoneOverflowScript))
+		if err != nil {
+			t.Fatalf("%s: %v", pageName, err)
+		}
+		if o.Viewport != 390 {
+			t.Fatalf("%s: viewport is %v px wide, want 390", pageName, o.Viewport)
+		}
+		tables += o.Tables
+		if o.Page > o.Viewport {
+			t.Errorf("%s: the page is %v px wide on a %v px screen", pageName, o.Page, o.Viewport)
+		}
+		for _, w := range o.Wide {
+			t.Errorf("%s: table sticks out of the page body: %s", pageName, w)
+		}
+	}
+	if tables == 0 {
+		t.Fatal("no calc tables found on the demo pages")
+	}
+	for _, p := range problems() {
+		t.Errorf("%s", p)
+	}
+}

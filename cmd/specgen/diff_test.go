@@ -6,6 +6,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 )
@@ -160,5 +161,110 @@ func TestDiffResultsFilesAndJSON(t *testing.T) {
 	code = run([]string{"diff", "-C", dir, "nonexistent.json"}, &stdout, &stderr)
 	if code != exitBadInput {
 		t.Errorf("diff against a missing file outside git: exit %d", code)
+	}
+}
+
+// TestDiffAbsoluteScales: a percentage of a temperature or a pressure is
+// only meaningful on an absolute scale; the diff says which scale it used.
+func TestDiffAbsoluteScales(t *testing.T) {
+	dir := t.TempDir()
+	build := func(name, clearance, pressure string) string {
+		site := filepath.Join(dir, name)
+		page := strings.NewReplacer(`clearance_ratio = 0.05`, "clearance_ratio = "+clearance,
+			`discharge_pressure = "6 bar"`, `discharge_pressure = "`+pressure+`"`).Replace(stagePage("low", "28 mm"))
+		if err := os.MkdirAll(filepath.Join(site, "content"), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(filepath.Join(site, "content", "index.md"), []byte(page), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var out, errb bytes.Buffer
+		if code := run([]string{"build", "-C", site}, &out, &errb); code != exitOK {
+			t.Fatalf("build: %s", errb.String())
+		}
+		return filepath.Join(site, "dist", "results.json")
+	}
+	a, b := build("a", "0.05", "6 bar"), build("b", "0.04", "7 bar")
+	var stdout, stderr bytes.Buffer
+	if code := run([]string{"diff", a, b}, &stdout, &stderr); code != exitOK {
+		t.Fatalf("exit %d: %s", code, stderr.String())
+	}
+	out := stdout.String()
+	for _, want := range []string{
+		// T2 = 293.15 K · (p2/1.01325 bar(a))^(0.3/1.3): 458.1 K (185 °C) at 7.01325 bar(a), 472.4 K (199 °C)
+		// at 8.01325 bar(a); (8.01325/7.01325)^(0.3/1.3) − 1 = +3.12 % of kelvin, where °C would give +7.7 %.
+		"| discharge_temperature | 185 °C | 199 °C | +3.12 % (kelvin) |",
+		// Dead head p1·((1 + c)/c)^1.3: (26/21)^1.3 − 1 = +32.0 % absolute, where gauge would give +32.7 %.
+		"| max_pressure | 52.0 bar(g) | 69.0 bar(g) | +32 % (absolute) |",
+		"(absolute) is the change of the absolute pressure, not of the gauge reading",
+		"(kelvin) is the change of the temperature in kelvin, not in °C or °F",
+		// A plain ratio carries no mark: 7.91/6.92 (8.01325/7.01325 − 1 = +14.3 %).
+		"| pressure_ratio | 6.92 | 7.91 | +14.3 % |\n",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("diff lacks %q:\n%s", want, out)
+		}
+	}
+
+	stdout.Reset()
+	if code := run([]string{"diff", "-format", "json", a, b}, &stdout, &stderr); code != exitOK {
+		t.Fatalf("exit %d: %s", code, stderr.String())
+	}
+	var got struct {
+		Changed []struct {
+			Results []struct {
+				Name     string `json:"name"`
+				Absolute bool   `json:"absolute"`
+				Unit     string `json:"unit"`
+			} `json:"results"`
+		} `json:"changed"`
+	}
+	if err := json.Unmarshal(stdout.Bytes(), &got); err != nil || len(got.Changed) != 1 {
+		t.Fatalf("diff = %s (%v)", stdout.String(), err)
+	}
+	want := map[string]string{"discharge_temperature": "K", "max_pressure": "Pa(a)"}
+	for _, r := range got.Changed[0].Results {
+		if unit, marked := want[r.Name]; r.Absolute != marked || marked && r.Unit != unit {
+			t.Errorf("%s: absolute %v, unit %q; want absolute %v, unit %q", r.Name, r.Absolute, r.Unit, marked, unit)
+		}
+	}
+}
+
+// TestDiffBadResultsFiles: a file that is not a results.json is refused
+// with what is wrong in JSON's words, never Go's type names.
+func TestDiffBadResultsFiles(t *testing.T) {
+	dir := t.TempDir()
+	good := filepath.Join(dir, "good.json")
+	if err := os.WriteFile(good, []byte(`{"version":1,"blocks":[]}`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	goName := regexp.MustCompile(`Go (value|struct)|\bsite\.|\b(float|u?int)(32|64)\b|interface \{\}`)
+	cases := []struct{ name, text, want string }{
+		{"empty", ``, "bad.json: not a specgen results.json: the file is empty"},
+		{"cut short", `{"version":1`, "the file ends in the middle of its JSON"},
+		{"array", `[]`, "the file holds a JSON array; results.json holds an object"},
+		{"no version", `{}`, "it has no version; specgen build writes one as dist/results.json"},
+		{"later version", `{"version":2,"blocks":[]}`, "results.json version 2; this specgen reads version 1"},
+		{"wrong type", `{"version":1,"blocks":[{"id":"x","kind":5}]}`, "blocks.kind: a JSON number where a string belongs"},
+		{"wrong value type", `{"version":1,"blocks":[{"id":"x","results":{"a":{"value":"1"}}}]}`, "blocks.results.value: a JSON string where a number belongs"},
+		{"no id", `{"version":1,"blocks":[{"kind":"tank"}]}`, "block 1 of its list has no id"},
+		{"unknown field", `{"version":1,"blocks":[],"extra":1}`, `unknown field "extra"`},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			bad := filepath.Join(dir, "bad.json")
+			if err := os.WriteFile(bad, []byte(c.text), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			var stdout, stderr bytes.Buffer
+			code := run([]string{"diff", bad, good}, &stdout, &stderr)
+			msg := stderr.String()
+			if code != exitBadInput || !strings.Contains(msg, c.want) {
+				t.Errorf("exit %d, message %q; want exit %d and %q", code, msg, exitBadInput, c.want)
+			}
+			if m := goName.FindString(msg); m != "" {
+				t.Errorf("message names a Go type (%q): %s", m, msg)
+			}
+		})
 	}
 }

@@ -62,6 +62,14 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 	return ast.WalkSkipChildren, nil
 }
 
+// Each calc table sits in its own box that scrolls sideways, so that a
+// wide one (a long formula, a long result name) on a phone does not make
+// the whole page scroll.
+const (
+	scrollOpen  = `<div class="sg-calc-scroll">`
+	scrollClose = "</div>\n"
+)
+
 // BlockAnchor is the id of a block's section in its page.
 func BlockAnchor(id string) string { return "calc-" + id }
 
@@ -125,7 +133,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 }
 
 func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
-	_, _ = w.WriteString(`<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th></tr></thead><tbody>` + "\n")
+	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th></tr></thead><tbody>` + "\n")
 	link := func(id, text string) string {
 		if href, ok := links[id]; ok {
 			return `<a href="` + esc(href) + `">` + text + `</a>`
@@ -172,11 +180,11 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 		}
 		_, _ = w.WriteString(`<tr><th scope="row"><code>` + esc(in.Name) + `</code></th><td class="sg-num">` + value + note + "</td></tr>\n")
 	}
-	_, _ = w.WriteString("</tbody></table>\n")
+	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
 
 func writeResults(w util.BufWriter, e *calc.Evaluated) {
-	_, _ = w.WriteString(`<table class="sg-calc-out"><caption>Results</caption><thead><tr><th scope="col">Result</th><th scope="col">Value</th><th scope="col">Working</th></tr></thead><tbody>` + "\n")
+	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-out"><caption>Results</caption><thead><tr><th scope="col">Result</th><th scope="col">Value</th><th scope="col">Working</th></tr></thead><tbody>` + "\n")
 	shown := map[string]bool{}
 	for _, o := range e.Block.Show.Outputs {
 		shown[o.Name] = true
@@ -223,7 +231,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		}
 		_, _ = w.WriteString("</td></tr>\n")
 	}
-	_, _ = w.WriteString("</tbody></table>\n")
+	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
 
 // writeTable writes one of a block's extra tables, two columns.
@@ -235,7 +243,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		}
 		return esc(a.Label) + " (" + esc(unit) + ")"
 	}
-	_, _ = w.WriteString(`<table class="sg-calc-extra"><caption>` + esc(t.Title) + `</caption><thead><tr><th scope="col">` +
+	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-extra"><caption>` + esc(t.Title) + `</caption><thead><tr><th scope="col">` +
 		head(t.X) + `</th><th scope="col">` + head(t.Y) + "</th></tr></thead><tbody>\n")
 	for i := range t.XS {
 		x, errX := units.FromSI(t.XS[i], t.X.Dim, t.X.Unit, e.Ambient)
@@ -245,7 +253,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		}
 		_, _ = w.WriteString(`<tr><td class="sg-num">` + units.Format(x, e.SigFigs()) + `</td><td class="sg-num">` + units.Format(y, e.SigFigs()) + "</td></tr>\n")
 	}
-	_, _ = w.WriteString("</tbody></table>\n")
+	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
 
 // pressurePair shows an absolute pressure both gauge and absolute, in the

@@ -386,7 +386,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	var buf bytes.Buffer
 	if err := tpl.Execute(&buf, data); err != nil {
-		return nil, &Error{File: TemplatesDir + "/" + tpl.Name(), Msg: "while laying out " + p.File + ": " + err.Error()}
+		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}
 	out[p.Out] = buf.Bytes()
 	return out, nil

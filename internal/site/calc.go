@@ -12,6 +12,7 @@ import (
 
 	"specgen/internal/calc"
 	"specgen/internal/render"
+	"specgen/internal/units"
 )
 
 // valueRef is an inline value of a page, as written, with its file line.
@@ -131,6 +132,9 @@ func (s *Site) evaluate() error {
 	s.Calc = set
 	var errs ErrorList
 	for _, p := range s.Pages {
+		for _, b := range p.blocks {
+			errs = append(errs, s.checkShown(b)...)
+		}
 		for _, n := range p.charts {
 			if err := s.checkChartName(p, n); err != nil {
 				errs = append(errs, err)
@@ -320,12 +324,19 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
 		if sug := calc.Suggest(ref.Result, names); sug != "" {
 			msg += fmt.Sprintf("; did you mean %q?", sug)
 		} else {
-			msg += "; results: " + strings.Join(names, ", ")
+			msg += "; results: " + listOrNone(names)
 		}
 		return fail("%s", msg)
 	}
 	shown, err := e.Format(ref.Result, ref.Unit)
 	if err != nil {
+		var ue *units.Error
+		if _, dim, _, _ := e.Quantity(ref.Result); errors.As(err, &ue) && ue.Suggest == "" && strings.Contains(err.Error(), "unknown unit") {
+			// Say which units would do, as a wrong-dimension unit does.
+			if ex := dim.Examples(); ex != "" {
+				return fail("%v; %s is %s: %s", err, ref.Result, withArticle(dim.String()), ex)
+			}
+		}
 		return fail("%v", err)
 	}
 	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
@@ -372,7 +383,7 @@ func (s *Site) refHint(p *Page, ref valueRef) string {
 		result = calc.Suggest(result, names)
 	}
 	if result == "" {
-		return fmt.Sprintf("block %s (%s) has results %s", e.Block.ID, e.Block.Kind.Name, strings.Join(names, ", "))
+		return fmt.Sprintf("block %s (%s) has results %s", e.Block.ID, e.Block.Kind.Name, listOrNone(names))
 	}
 	sug := "=[" + e.Block.ID + "." + result
 	if _, err := e.Format(result, ref.Unit); ref.Unit != "" && err == nil {
@@ -392,6 +403,37 @@ func blocksWith(name string, list []*calc.Evaluated) []*calc.Evaluated {
 	return out
 }
 
+// checkShown checks that every result a block's [show] outputs names was
+// computed: a kind declares some results only for some inputs (a tank's
+// hoop_stress needs its wall), and the table would silently leave it out.
+func (s *Site) checkShown(b *calc.Block) ErrorList {
+	e, ok := s.Calc.Lookup(b.ID)
+	if !ok || e.Block != b {
+		return nil // a duplicate id, reported by the evaluation
+	}
+	var errs ErrorList
+	for _, o := range b.Show.Outputs {
+		if _, found := e.Result(o.Name); found {
+			continue
+		}
+		written := o.Name
+		if o.Unit != "" {
+			written += " " + o.Unit
+		}
+		msg := fmt.Sprintf("%q: block %s computes no %s with its inputs", written, b.ID, o.Name)
+		if spec, declared := b.Kind.ResultSpec(o.Name); declared && spec.Meaning != "" {
+			msg += " (" + spec.Meaning + ")"
+		}
+		names := make([]string, len(e.Results))
+		for i, r := range e.Results {
+			names[i] = r.Name
+		}
+		msg += "; it computes " + listOrNone(names)
+		errs = append(errs, &Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs", Msg: msg})
+	}
+	return errs
+}
+
 // checkChartName checks that a line of a chart fence names a block and
 // one of its kind's charts.
 func (s *Site) checkChartName(p *Page, n chartName) *Error {
@@ -400,7 +442,7 @@ func (s *Site) checkChartName(p *Page, n chartName) *Error {
 	}
 	e, ok := s.Calc.Lookup(n.Block)
 	switch {
-	case n.Chart == "":
+	case n.Chart == "" || n.Block == "":
 		return fail("write block.chart, such as bellows-lp.pv")
 	case !ok:
 		msg := fmt.Sprintf("there is no block %q in the site", n.Block)
@@ -476,4 +518,20 @@ func (s *Site) chartDrawn() {
 // relativeURL is the link from output page from to output page to.
 func relativeURL(from, to string) string {
 	return strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to)
+}
+
+// listOrNone joins names for a message, or says "none".
+func listOrNone(names []string) string {
+	if len(names) == 0 {
+		return "none"
+	}
+	return strings.Join(names, ", ")
+}
+
+// withArticle puts "a" or "an" before a noun.
+func withArticle(noun string) string {
+	if noun != "" && strings.ContainsRune("aeiou", rune(noun[0])) {
+		return "an " + noun
+	}
+	return "a " + noun
 }

@@ -5,11 +5,13 @@ import (
 	"fmt"
 	"io/fs"
 	"maps"
+	"math"
 	"os"
 	"path/filepath"
 	"regexp"
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -78,9 +80,9 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 		if _, set := lines[key]; !set {
 			continue
 		}
-		if f.value < 1 || f.value > 100 {
+		if !(f.value >= 1 && f.value <= 100) { // NaN too
 			errs = append(errs, &Error{File: ConfigFile, Line: lines[key],
-				Msg: fmt.Sprintf("%s: %v is out of range; allowed: 1 to 100 (a factor below 1 accepts failure)", key, f.value)})
+				Msg: fmt.Sprintf("%s: %s is out of range; allowed: 1 to 100 (a factor below 1 accepts failure)", key, numberWords(f.value))})
 			continue
 		}
 		for _, d := range f.dst {
@@ -127,10 +129,19 @@ func LoadConfig(root string) (Config, error) {
 	}
 	lines := calc.KeyLines(text)
 	var errs ErrorList
+	// A plain value for materials decodes as no materials at all. (A table
+	// made by [materials.x] alone has no type of its own.)
+	if t := md.Type("materials"); t != "" && t != "Hash" {
+		errs = append(errs, &Error{File: ConfigFile, Line: lines["materials"],
+			Msg: fmt.Sprintf("materials: %s is not allowed here; write a table per material: a line [materials.NAME] and its keys below it", tomlKindWord(t))})
+	}
 	for _, k := range md.Undecoded() {
 		key := k.String()
 		msg := fmt.Sprintf("unknown key %q; allowed: %s", key, strings.Join(configKeys, ", "))
-		if s := calc.Suggest(key, configKeys); s != "" {
+		// The table a key is in is no typo of the key: "markdown.nope" is
+		// not "markdown".
+		candidates := slices.DeleteFunc(slices.Clone(configKeys), func(c string) bool { return strings.HasPrefix(key, c+".") })
+		if s := calc.Suggest(key, candidates); s != "" {
 			msg = fmt.Sprintf("unknown key %q; did you mean %q? (allowed: %s)", key, s, strings.Join(configKeys, ", "))
 		}
 		errs = append(errs, &Error{File: ConfigFile, Line: lines[key], Msg: msg})
@@ -150,4 +161,38 @@ func LoadConfig(root string) (Config, error) {
 		return cfg, errs
 	}
 	return cfg, nil
+}
+
+// numberWords writes a number for a message; NaN and infinities as the
+// TOML words for them, never Go's.
+func numberWords(v float64) string {
+	switch {
+	case math.IsNaN(v):
+		return "nan (not a number)"
+	case math.IsInf(v, 1):
+		return "inf (infinite)"
+	case math.IsInf(v, -1):
+		return "-inf (infinite)"
+	}
+	return strconv.FormatFloat(v, 'g', -1, 64)
+}
+
+// tomlKindWord names a TOML value type (toml.MetaData.Type) in a writer's
+// words.
+func tomlKindWord(t string) string {
+	switch t {
+	case "Integer":
+		return "a whole number"
+	case "Float":
+		return "a number"
+	case "String":
+		return "a quoted string"
+	case "Bool":
+		return "true or false"
+	case "Array", "ArrayHash":
+		return "a list"
+	case "Datetime", "DatetimeLocal", "DateLocal", "TimeLocal":
+		return "a date or time"
+	}
+	return "this value"
 }

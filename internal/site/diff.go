@@ -54,8 +54,26 @@ type ValueChange struct {
 	Before string   `json:"before"` // as shown: text or display
 	After  string   `json:"after"`
 	Change *float64 `json:"relative_change,omitempty"` // (after − before)/|before| of the SI values (pressures absolute)
-	// Absolute marks a pressure, whose change is on absolute values.
+	// Absolute marks a change taken on an absolute scale, which a gauge
+	// or Celsius reading does not share: Unit says which.
 	Absolute bool `json:"absolute,omitempty"`
+	// Unit is the SI unit of a result's values, "Pa(a)" or "K" for the
+	// absolute scales.
+	Unit string `json:"unit,omitempty"`
+}
+
+// absoluteScale is the Markdown mark of a relative change taken on an
+// absolute scale, by the results.json unit; "" for other units.
+func absoluteScale(unit string) string {
+	switch unit {
+	case "Pa(a)":
+		return "absolute"
+	case "K":
+		// Every temperature result is absolute; a percentage of °C would
+		// depend on where the scale puts its zero.
+		return "kelvin"
+	}
+	return ""
 }
 
 // ClaimChange is a claim whose verdict changed, or that came or went.
@@ -193,7 +211,8 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 		vc := ValueChange{Name: name, Before: textOr(x.Display, inA), After: textOr(y.Display, inB)}
 		if inA && inB {
 			vc.Change = relativeChange(x, y)
-			vc.Absolute = x.Unit == "Pa(a)"
+			vc.Unit = y.Unit
+			vc.Absolute = x.Unit == y.Unit && absoluteScale(y.Unit) != ""
 		}
 		bd.Results = append(bd.Results, vc)
 	}
@@ -348,15 +367,27 @@ func (d *Diff) WriteMarkdown(w io.Writer) {
 		}
 		if len(b.Results) > 0 {
 			fmt.Fprintln(w, "\n| result | before | after | change |\n|---|---|---|---:|")
+			marks := map[string]bool{}
 			for _, c := range b.Results {
 				change := ""
 				if c.Change != nil {
 					change = fmt.Sprintf("%+.3g %%", *c.Change*100)
 					if c.Absolute {
-						change += " (absolute)"
+						change += " (" + absoluteScale(c.Unit) + ")"
+						marks[absoluteScale(c.Unit)] = true
 					}
 				}
 				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", mdCell(c.Name), mdCell(c.Before), mdCell(c.After), change)
+			}
+			var notes []string
+			if marks["absolute"] {
+				notes = append(notes, "(absolute) is the change of the absolute pressure, not of the gauge reading")
+			}
+			if marks["kelvin"] {
+				notes = append(notes, "(kelvin) is the change of the temperature in kelvin, not in °C or °F")
+			}
+			if len(notes) > 0 {
+				fmt.Fprintf(w, "\n%s.\n", upperFirst(strings.Join(notes, "; ")))
 			}
 		}
 		if len(b.Claims) > 0 {

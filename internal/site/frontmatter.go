@@ -97,6 +97,9 @@ func tomlError(file string, base int, text string, err error, what string) error
 			line = strings.Count(text[:s], "\n") + 1
 		}
 		msg := pe.Message
+		if m := outOfRange.FindStringSubmatch(msg); m != nil {
+			msg = m[1] + " is too large; " + rangeWords(m[2])
+		}
 		if pe.LastKey != "" && !strings.Contains(msg, pe.LastKey) {
 			msg = pe.LastKey + ": " + msg
 		}
@@ -107,7 +110,28 @@ func tomlError(file string, base int, text string, err error, what string) error
 		return &Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write %s",
 			what, m[2], tomlTypeWord(m[3]), tomlTypeWord(m[4]))}
 	}
+	if m := tableMismatch.FindStringSubmatch(err.Error()); m != nil {
+		line, _ := strconv.Atoi(m[1])
+		return &Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write a table: a line [%s] and its keys below it",
+			what, m[2], tomlTypeWord(m[3]), m[2])}
+	}
 	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
+}
+
+// tableMismatch matches the TOML decoder's report of a plain value where
+// a table belongs; its Go type names are no use to a writer.
+var tableMismatch = regexp.MustCompile(`^toml: line (\d+) \(last key "([^"]*)"\): type mismatch for [^:]+: expected table but found (.+)$`)
+
+// outOfRange matches the TOML parser's report of a number too large for
+// its Go type.
+var outOfRange = regexp.MustCompile(`^(.+) is out of range for (u?int\d*|float\d*)$`)
+
+// rangeWords says what numbers a Go number type holds, in a writer's words.
+func rangeWords(goType string) string {
+	if strings.HasPrefix(goType, "float") {
+		return "a number is at most about 1.8e308"
+	}
+	return "a whole number is at most 9223372036854775807"
 }
 
 // typeMismatch matches the TOML decoder's report of a value of the wrong
@@ -123,7 +147,7 @@ func tomlTypeWord(goType string) string {
 		return "a number"
 	case goType == "string":
 		return "a quoted string"
-	case goType == "bool":
+	case goType == "bool", goType == "boolean":
 		return "true or false"
 	case strings.HasPrefix(goType, "[]"), goType == "slice", goType == "array":
 		return "a list"

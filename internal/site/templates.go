@@ -7,9 +7,13 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"reflect"
+	"regexp"
 	"sort"
+	"strconv"
 	"strings"
 
+	"specgen/internal/render"
 	"specgen/templates"
 )
 
@@ -69,7 +73,7 @@ func loadLayouts(root string) (*layouts, error) {
 			l.assets[strings.TrimPrefix(name, "assets/")] = files[name]
 		case path.Ext(name) == ".html" && !strings.Contains(name, "/"):
 			if _, err := l.set.New(name).Parse(string(files[name])); err != nil {
-				return nil, &Error{File: TemplatesDir + "/" + name, Msg: "template: " + strings.TrimPrefix(err.Error(), "template: ")}
+				return nil, templateError(err, name, "")
 			}
 			if !strings.HasPrefix(name, "_") {
 				l.names = append(l.names, strings.TrimSuffix(name, ".html"))
@@ -92,4 +96,46 @@ func (l *layouts) lookup(name string) (*template.Template, error) {
 		return nil, fmt.Errorf("template %q does not exist; allowed: %s", name, strings.Join(l.names, ", "))
 	}
 	return t, nil
+}
+
+// templatePlace matches where text/template and html/template place an
+// error: "template: page.html:12:3: ..." or "html/template:page.html:12: ...".
+var templatePlace = regexp.MustCompile(`^(?:html/)?template: ?([^:\s]+\.html):(\d+):(?:\d+:)? ?(.*)$`)
+
+// noField matches a template's use of a field its data lacks.
+var noField = regexp.MustCompile(`can't evaluate field (\w+) in type \*?([\w.]+)`)
+
+// templateData are the types a template reaches, by their Go names, so
+// that a missing field is reported with the fields there are.
+var templateData = map[string]reflect.Type{}
+
+func init() {
+	for _, v := range []any{PageData{}, SiteData{}, PageInfo{}, NavItem{}, Link{}, Revision{}, render.Heading{}} {
+		t := reflect.TypeOf(v)
+		templateData[t.String()] = t
+	}
+}
+
+// templateError places a template's parse or execution error on the
+// template file and line it names, and words a missing field with the
+// fields there are instead of a Go type name.
+func templateError(err error, name, prefix string) *Error {
+	msg := err.Error()
+	e := &Error{File: TemplatesDir + "/" + name}
+	if m := templatePlace.FindStringSubmatch(msg); m != nil {
+		e.File = TemplatesDir + "/" + m[1]
+		e.Line, _ = strconv.Atoi(m[2])
+		msg = m[3]
+	}
+	if m := noField.FindStringSubmatch(msg); m != nil {
+		if t, ok := templateData[m[2]]; ok {
+			fields := make([]string, t.NumField())
+			for i := range fields {
+				fields[i] = "." + t.Field(i).Name
+			}
+			msg = strings.Replace(msg, m[0], fmt.Sprintf("there is no field .%s here; the fields are %s", m[1], strings.Join(fields, ", ")), 1)
+		}
+	}
+	e.Msg = prefix + "template: " + msg
+	return e
 }
