@@ -698,11 +698,39 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {
-			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs (" + b.Kind.resultMeaning(c.Result) + ")"}}
+			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
 		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
 	}
+	if err := checkShownComputed(e); err != nil {
+		return nil, err
+	}
 	return e, nil
+}
+
+// checkShownComputed checks that every result [show] outputs names was
+// computed: a kind declares some results only for some inputs (a tank's
+// hoop_stress needs its wall), and the table would silently leave it out.
+func checkShownComputed(e *Evaluated) Errors {
+	b := e.Block
+	var errs Errors
+	for _, o := range b.Show.Outputs {
+		if _, found := e.Result(o.Name); found {
+			continue
+		}
+		written := o.Name
+		if o.Unit != "" {
+			written += " " + o.Unit
+		}
+		names := make([]string, len(e.Results))
+		for i, r := range e.Results {
+			names[i] = r.Name
+		}
+		errs = append(errs, &Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+			Msg: fmt.Sprintf("%q: block %s computes no %s with its inputs%s; it computes %s",
+				written, b.ID, o.Name, meaningAside(b.Kind.resultMeaning(o.Name)), strings.Join(names, ", "))})
+	}
+	return errs
 }
 
 // describeRange words an input's allowed range in the unit the user wrote;
@@ -806,4 +834,12 @@ func defaultApplies(spec InputSpec, b *Block) bool {
 	}
 	_, given := b.Values[spec.DefaultWith]
 	return given
+}
+
+// meaningAside puts a result's meaning in brackets, or nothing without one.
+func meaningAside(meaning string) string {
+	if meaning == "" {
+		return ""
+	}
+	return " (" + meaning + ")"
 }

@@ -132,9 +132,6 @@ func (s *Site) evaluate() error {
 	s.Calc = set
 	var errs ErrorList
 	for _, p := range s.Pages {
-		for _, b := range p.blocks {
-			errs = append(errs, s.checkShown(b)...)
-		}
 		for _, n := range p.charts {
 			if err := s.checkChartName(p, n); err != nil {
 				errs = append(errs, err)
@@ -401,37 +398,6 @@ func blocksWith(name string, list []*calc.Evaluated) []*calc.Evaluated {
 		}
 	}
 	return out
-}
-
-// checkShown checks that every result a block's [show] outputs names was
-// computed: a kind declares some results only for some inputs (a tank's
-// hoop_stress needs its wall), and the table would silently leave it out.
-func (s *Site) checkShown(b *calc.Block) ErrorList {
-	e, ok := s.Calc.Lookup(b.ID)
-	if !ok || e.Block != b {
-		return nil // a duplicate id, reported by the evaluation
-	}
-	var errs ErrorList
-	for _, o := range b.Show.Outputs {
-		if _, found := e.Result(o.Name); found {
-			continue
-		}
-		written := o.Name
-		if o.Unit != "" {
-			written += " " + o.Unit
-		}
-		msg := fmt.Sprintf("%q: block %s computes no %s with its inputs", written, b.ID, o.Name)
-		if spec, declared := b.Kind.ResultSpec(o.Name); declared && spec.Meaning != "" {
-			msg += " (" + spec.Meaning + ")"
-		}
-		names := make([]string, len(e.Results))
-		for i, r := range e.Results {
-			names[i] = r.Name
-		}
-		msg += "; it computes " + listOrNone(names)
-		errs = append(errs, &Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs", Msg: msg})
-	}
-	return errs
 }
 
 // checkChartName checks that a line of a chart fence names a block and
