@@ -136,11 +136,15 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 			}
 		}
 		if !isBase {
+			var missing []string
 			for _, required := range []string{"class", "tensile_strength", "elastic_modulus", "density", "service_temperature"} {
 				if _, ok := row[required]; !ok {
-					errs = append(errs, &Error{File: file, Line: lines["materials."+name] + lines[name], Key: "materials." + name,
-						Msg: "a new material needs " + required + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
+					missing = append(missing, required)
 				}
+			}
+			if len(missing) > 0 {
+				errs = append(errs, &Error{File: file, Line: lines["materials."+name] + lines[name], Key: "materials." + name,
+					Msg: "a new material needs " + strings.Join(missing, ", ") + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
 			}
 		}
 		if mat.YieldStrength > mat.TensileStrength && mat.TensileStrength > 0 {

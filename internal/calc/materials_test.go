@@ -184,6 +184,8 @@ func TestParseMaterialsErrors(t *testing.T) {
 			[]string{"materials.petg.class", `"ceramic" is not a class; allowed: plastic, metal`}},
 		{"missing key", "[pom]\nclass = \"plastic\"\ntensile_strength = \"65 MPa\"\ndensity = \"1.41 g/cm3\"\nservice_temperature = \"90 degC\"\n",
 			[]string{"line 1: materials.pom", "a new material needs elastic_modulus"}},
+		{"missing keys, one message", "[pom]\nclass = \"plastic\"\n",
+			[]string{"line 1: materials.pom: a new material needs tensile_strength, elastic_modulus, density, service_temperature (keys:"}},
 		{"wrong dimension", "[petg]\nyield_strength = \"40 mm\"\n",
 			[]string{"materials.petg.yield_strength", "mm"}},
 		{"negative strength", "[petg]\nyield_strength = \"-40 MPa\"\n",
