@@ -430,14 +430,13 @@ func (s *Site) checkChartName(p *Page, n chartName) *Error {
 // into the nodes of doc, and adds their data files,
 // "<page>.<block>.<chart>.csv" beside the page, to out.
 func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) error {
-	base := strings.TrimSuffix(p.Out, ".html")
 	draw := func(id, chart, prefix string, line int) (*render.DrawnChart, error) {
 		e, _ := s.Calc.Lookup(id)
 		c, err := e.Chart(chart)
 		if err != nil {
 			return nil, &Error{File: p.File, Line: line, Msg: err.Error()}
 		}
-		csvName := base + "." + id + "." + chart + ".csv"
+		csvName := chartDataName(p, id, chart)
 		d, err := render.DrawChart(c, prefix+id+"-"+chart, path.Base(csvName))
 		if err != nil {
 			return nil, &Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
@@ -472,6 +471,26 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 		}
 	}
 	return nil
+}
+
+// chartDataName is the output path of the data file of block id's chart
+// drawn on page p.
+func chartDataName(p *Page, id, chart string) string {
+	return strings.TrimSuffix(p.Out, ".html") + "." + id + "." + chart + ".csv"
+}
+
+// chartDataNames lists the data files the charts of page p will write.
+func chartDataNames(p *Page) []string {
+	var names []string
+	for _, b := range p.blocks {
+		for _, chart := range b.Show.Charts {
+			names = append(names, chartDataName(p, b.ID, chart))
+		}
+	}
+	for _, n := range p.charts {
+		names = append(names, chartDataName(p, n.Block, n.Chart))
+	}
+	return names
 }
 
 // chartDrawn counts a chart for the progress display.

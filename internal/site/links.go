@@ -16,7 +16,8 @@ import (
 // the site, or at an anchor its page lacks: a broken link is found when
 // the site is built, not by its readers.
 func (s *Site) checkLinks(static map[string]bool) ErrorList {
-	// What the build writes besides pages and static/ can be linked too.
+	// What the build writes besides pages and static/ can be linked too:
+	// results.json, the assets and the charts' data files.
 	static = maps.Clone(static)
 	static["results.json"], static["assets/syntax.css"] = true, true
 	for name := range s.layouts.assets {
@@ -25,6 +26,9 @@ func (s *Site) checkLinks(static map[string]bool) ErrorList {
 	pages := map[string]*Page{}
 	for _, p := range s.Pages {
 		pages[p.Out] = p
+		for _, name := range chartDataNames(p) {
+			static[name] = true
+		}
 	}
 	var errs ErrorList
 	for _, p := range s.Pages {
