@@ -124,8 +124,10 @@ func (e *Evaluated) show(si float64, dim units.Dimension, unit string) string {
 }
 
 // unitFor is the unit of dimension dim that the block's writer chose: of a
-// [show] output, else of an input written in the block, else fallback. A
-// block written in psi and degF gets its cautions in psi and degF.
+// [show] output, else of an input written in the block, else fallback (its
+// customary counterpart in a customary block, which may leave a temperature
+// at its default). A block written in psi and degF gets its cautions in psi
+// and degF.
 func (e *Evaluated) unitFor(dim units.Dimension, fallback string) string {
 	for _, o := range e.Block.Show.Outputs {
 		if spec, ok := e.Block.Kind.result(o.Name); ok && o.Unit != "" && spec.Dim == dim {
@@ -139,6 +141,9 @@ func (e *Evaluated) unitFor(dim units.Dimension, fallback string) string {
 		if q, err := units.Parse(in.Text, dim); err == nil && q.Unit.Symbol != "" {
 			return q.Unit.Symbol
 		}
+	}
+	if e.customary {
+		return units.CustomaryFor(fallback)
 	}
 	return fallback
 }
