@@ -3,6 +3,7 @@ package calc
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"specgen/internal/units"
@@ -148,6 +149,12 @@ func readFlywheelInput(in *Inputs) (flywheelInput, error) {
 	f.depth = in.Value("rim_depth")
 	var ids []string
 	for k, src := range f.sources {
+		// A block on the crank twice is a copied line: it would silently
+		// double the machine.
+		if contains(ids, src.ID) {
+			return f, &InputError{Key: "source", Message: fmt.Sprintf(
+				"names block %q twice; list each block on the crankshaft once (identical cylinders of one stage are its cylinders input)", src.ID)}
+		}
 		ids = append(ids, src.ID)
 		torque, ok := sourceTorque(src)
 		speed := src.Inputs["speed"]
@@ -159,8 +166,20 @@ func readFlywheelInput(in *Inputs) (flywheelInput, error) {
 			f.torque.Y = append([]float64(nil), torque.Y...)
 		case math.Abs(speed-f.omega) > 1e-9*f.omega:
 			return f, &InputError{Key: "source", Message: fmt.Sprintf("blocks %s and %s turn at different speeds; blocks on one crankshaft turn together", f.sources[0].ID, src.ID)}
-		case len(torque.Y) != len(f.torque.Y) || (len(torque.Y)-1)%len(f.sources) != 0:
+		case len(torque.Y) != len(f.torque.Y):
 			return f, &InputError{Key: "source", Message: fmt.Sprintf("the torque curves of %s and %s cannot be phased on one crank", f.sources[0].ID, src.ID)}
+		case (len(torque.Y)-1)%len(f.sources) != 0:
+			// Each block's phase must fall on a sample of the curves.
+			m := len(torque.Y) - 1
+			var fit []string
+			for n := 1; n <= 12; n++ {
+				if m%n == 0 {
+					fit = append(fit, strconv.Itoa(n))
+				}
+			}
+			return f, &InputError{Key: "source", Message: fmt.Sprintf(
+				"%d blocks cannot be spaced evenly on the revolution's %d torque samples; allowed: %s blocks (a number that divides %d)",
+				len(f.sources), m, strings.Join(fit, ", "), m)}
 		default:
 			// Block k reaches top dead centre 360°·k/n later: its torque at
 			// crank angle θ is its own at θ − 360°·k/n.

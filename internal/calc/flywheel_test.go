@@ -1,6 +1,8 @@
 package calc
 
 import (
+	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -197,6 +199,8 @@ func TestFlywheelInputErrors(t *testing.T) {
 		{map[string]any{"shape": "rim", "rim_depth": "60 mm", "speed_fluctuation": 0.5}, "rim_depth", []string{"no bore", "disc"}},
 		{map[string]any{"shape": "hoop"}, "shape", []string{"not known", "disc, rim"}},
 		{map[string]any{"speed_fluctuation": 0}, "speed_fluctuation", []string{"out of range"}},
+		{map[string]any{"source": []string{"low", "low"}}, "source", []string{`names block "low" twice`, "cylinders"}},
+		{map[string]any{"source": []string{"low", "low", "low", "low", "low", "low", "low"}}, "source", []string{`names block "low" twice`}},
 	}
 	for _, c := range cases {
 		wantInputError(t, c.changes, c.key, c.says, flywheelSite)
@@ -308,5 +312,34 @@ func TestFlywheelTurningMomentDiagram(t *testing.T) {
 	// 0.002986, so the inertia that gives exactly 0.003 is 0.5 % below 0.81.
 	if rel := math.Abs(got["inertia"]/(36*0.15*0.15) - 1); rel > 0.01 {
 		t.Errorf("inertia = %.5g kg m², want 0.81 kg m² within 1 %% (relative error %.2g)", got["inertia"], rel)
+	}
+}
+
+// TestFlywheelSevenSources checks that a count of blocks whose phases do
+// not fall on the torque samples is refused with the counts that do.
+func TestFlywheelSevenSources(t *testing.T) {
+	site := flywheelSite(nil)
+	var ids []string
+	var blocks []map[string]any
+	for i := range 7 {
+		src := map[string]any{}
+		for k, v := range site[0] {
+			src[k] = v
+		}
+		src["id"] = fmt.Sprintf("s%d", i)
+		ids = append(ids, src["id"].(string))
+		blocks = append(blocks, src)
+	}
+	site[1]["source"] = ids
+	blocks = append(blocks, site[1])
+	_, err := evaluateBlocks(t, blocks)
+	var list Errors
+	if !errors.As(err, &list) || len(list) != 1 || list[0].Key != "source" {
+		t.Fatalf("seven sources: got %v, want one error on source", err)
+	}
+	for _, want := range []string{"7 blocks", "allowed: 1, 2, 3, 4, 5, 6, 8, 9, 10, 12"} {
+		if !strings.Contains(list[0].Msg, want) {
+			t.Errorf("message %q lacks %q", list[0].Msg, want)
+		}
 	}
 }
