@@ -140,7 +140,7 @@ Torque
   The cylinder pressure p(θ) follows re-expansion, suction, compression and
   delivery over 0..360° from TDC. The gas load torque on the crank, by virtual
   work, is T(θ) = −(p(θ) − p_amb)·A·dx/dθ (positive when the crank drives the
-  piston), summed over the cylinders and sampled every 0.05° of crank angle or
+  piston), summed over the cylinders and sampled every 0.1° of crank angle or
   finer. T_m = W/2π; peak_torque is the largest summed load torque;
   energy_fluctuation is the max − min of ∫(T_m − T(θ))dθ over a revolution,
   the energy a flywheel must absorb. With a reciprocating mass m per

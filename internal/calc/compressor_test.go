@@ -521,3 +521,20 @@ func TestNoDeliveryDischargeTemperature(t *testing.T) {
 		t.Errorf("discharge_temperature = %.6g K, want %.6g K", got.Value, want)
 	}
 }
+
+// TestCompressorDocSampling keeps the write-up's crank-angle step and the
+// curves' step the ones the model uses.
+func TestCompressorDocSampling(t *testing.T) {
+	for _, want := range []string{
+		"sampled every " + show(360.0/cycleSteps, "") + "° of crank angle",
+	} {
+		if !strings.Contains(strings.Join(strings.Fields(compressorDoc), " "), want) {
+			t.Errorf("compressor doc lacks %q", want)
+		}
+	}
+	for _, want := range []string{"(" + show(360.0/curvePoints, "") + "° steps)"} {
+		if !strings.Contains(flywheelDoc, want) {
+			t.Errorf("flywheel doc lacks %q", want)
+		}
+	}
+}
