@@ -224,7 +224,7 @@ func readBoltsInput(in *Inputs) (boltsInput, error) {
 	if b.gauge <= 0 {
 		return b, &InputError{Key: "pressure", Message: fmt.Sprintf(
 			"%s is not above ambient (%s); the bolts carry a head load only when the pressure under the head is above ambient",
-			show(in.Value("pressure")/1e5, "bar(a)"), show(in.Ambient/1e5, "bar(a)"))}
+			traceIn(in.Customary(), "bar(a)")(in.Value("pressure")), traceIn(in.Customary(), "bar(a)")(in.Ambient))}
 	}
 	b.diameter = in.Value("pressure_diameter")
 	b.nut, err = in.Env().Materials.Lookup(in.NameOf("nut_material"))
@@ -237,14 +237,14 @@ func readBoltsInput(in *Inputs) (boltsInput, error) {
 	case in.Given("nut_material"):
 		return b, &InputError{Key: "engagement_length", Message: fmt.Sprintf(
 			"missing: with nut_material = %q give the length of full thread engaged (a length, e.g. \"%s\" for 1.5 × d)",
-			in.NameOf("nut_material"), show(1.5*t.D*1e3, "mm"))}
+			in.NameOf("nut_material"), traceIn(in.Customary(), "mm")(1.5*t.D))}
 	default:
 		b.engagement, b.defaultLe = defaultNutHeight*t.D, true
 	}
 	if b.engagement < t.Pitch*(1-1e-9) {
 		return b, &InputError{Key: "engagement_length", Message: fmt.Sprintf(
 			"%s is less than one pitch of %s (%s); engage at least one full thread, and 1 × d or more in practice",
-			show(b.engagement*1e3, "mm"), t.Name, show(t.Pitch*1e3, "mm"))}
+			traceIn(in.Customary(), "mm")(b.engagement), t.Name, traceIn(in.Customary(), "mm")(t.Pitch))}
 	}
 	return b, nil
 }

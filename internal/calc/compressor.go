@@ -199,16 +199,19 @@ func readCylinder(in *Inputs) (compressorInput, error) {
 	default:
 		return c, &InputError{Key: "stroke", Message: "missing: give stroke or crank_radius (a length, e.g. \"32 mm\")"}
 	}
+	// Messages in the units the block is written in.
+	cust := in.Customary()
+	mm, speed := traceIn(cust, "mm"), traceIn(cust, "m/s")
 	if cm := 4 * c.crankRadius * c.omega / (2 * math.Pi); cm > maxMeanPistonSpeed {
 		return c, &InputError{Key: "speed", Message: fmt.Sprintf(
 			"at %s a %s stroke gives a mean piston speed of %s, beyond any piston machine; allowed: up to %s (%s with this stroke)",
-			show(c.omega*60/(2*math.Pi), "rpm"), show(2*c.crankRadius*1e3, "mm"), show(cm, "m/s"), show(maxMeanPistonSpeed, "m/s"),
+			show(c.omega*60/(2*math.Pi), "rpm"), mm(2*c.crankRadius), speed(cm), speed(maxMeanPistonSpeed),
 			show(maxMeanPistonSpeed*60/(4*c.crankRadius), "rpm"))}
 	}
 	if c.rod <= c.crankRadius*(1+minRodExcess) {
 		return c, &InputError{Key: "rod_length", Message: fmt.Sprintf(
 			"rod length %s must exceed the crank radius %s (half the stroke)",
-			show(c.rod*1e3, "mm"), show(c.crankRadius*1e3, "mm"))}
+			mm(c.rod), mm(c.crankRadius))}
 	}
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	switch {
@@ -221,7 +224,7 @@ func readCylinder(in *Inputs) (compressorInput, error) {
 		if c.clearanceRatio < minClearanceRatio {
 			return c, &InputError{Key: "clearance_volume", Message: fmt.Sprintf(
 				"clearance volume %s is less than a millionth of the swept volume %s; for negligible clearance use clearance_ratio = %g",
-				show(c.clearanceVolume*1e9, "mm³"), show(swept*1e6, "cm³"), minClearanceRatio)}
+				traceIn(cust, "mm3")(c.clearanceVolume), traceIn(cust, "cm3")(swept), minClearanceRatio)}
 		}
 	case in.Has("clearance_ratio"):
 		c.clearanceRatio = in.Value("clearance_ratio")
@@ -249,9 +252,9 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 		c.p1 = in.Value("inlet_pressure")
 	}
 	if c.p2 <= c.p1 {
+		bara := traceIn(in.Customary(), "bar(a)")
 		return c, &InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
-			"discharge pressure %s must be above the inlet pressure %s",
-			show(c.p2/1e5, "bar(a)"), show(c.p1/1e5, "bar(a)"))}
+			"discharge pressure %s must be above the inlet pressure %s", bara(c.p2), bara(c.p1))}
 	}
 	return c, nil
 }

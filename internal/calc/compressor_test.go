@@ -538,3 +538,81 @@ func TestCompressorDocSampling(t *testing.T) {
 		}
 	}
 }
+
+// TestCustomaryInputErrors checks that a block written in US customary
+// units is told of its mistakes in them: 1 in = 25.4 mm, 1 psi =
+// 6894.757 Pa, 1 atm = 14.696 psia, t/°F = 1.8·T/K − 459.67 (NIST SP 811
+// App. B, from memory); each figure below is worked by hand from them.
+func TestCustomaryInputErrors(t *testing.T) {
+	cyl := "bore = \"2 in\"\nstroke = \"1.5 in\"\nclearance_volume = \"0.3 in3\"\n"
+	cases := []struct {
+		name, src string
+		wants     []string
+	}{
+		// (100 + 14.696) and (120 + 14.696) psia.
+		{"inlet above discharge", `kind = "compressor"` + "\n" + cyl + `rod_length = "3.5 in"
+speed = "1725 rpm"
+discharge_pressure = "100 psi"
+inlet_pressure = "120 psi"`, []string{"discharge pressure 114.7 psia must be above the inlet pressure 134.7 psia"}},
+		// Crank radius 0.75 in.
+		{"short rod", `kind = "compressor"` + "\n" + cyl + `rod_length = "0.7 in"
+speed = "1725 rpm"
+discharge_pressure = "100 psi"`, []string{"rod length 0.7 in must exceed the crank radius 0.75 in"}},
+		// 2 · 1.5 in · 40000/60 rev/s = 2000 in/s = 166.7 ft/s; 40 m/s = 131.2 ft/s.
+		{"fast piston", `kind = "compressor"` + "\n" + cyl + `rod_length = "3.5 in"
+speed = "40000 rpm"
+discharge_pressure = "100 psi"`, []string{"a 1.5 in stroke gives a mean piston speed of 166.7 ft/s", "up to 131.2 ft/s"}},
+		{"motor supply", `kind = "motor"` + "\n" + cyl + `rod_length = "3.5 in"
+speed = "600 rpm"
+supply_pressure = "-2 psi"
+cutoff = 0.5`, []string{"supply pressure 12.7 psia must be above ambient 14.7 psia"}},
+		// T1 = 293.15 K, r = (29.392/14.696)^(1/2) = 1.41421, T = 293.15·1.41421^(0.3/1.3)
+		// = 293.15·1.083263 = 317.56 K = 111.9 °F.
+		{"intercooler", `kind = "multistage"
+stages = 2
+discharge_pressure = "14.696 psi"
+inlet_temperature = "68 degF"
+intercooled_temperature = "150 degF"`, []string{"150 °F is above the 111.9 °F"}},
+		{"tube vacuum", `kind = "tube"
+inner_diameter = "2 in"
+wall_thickness = "0.1 in"
+pressure = "-5 psi"
+material = "s235"`, []string{"-5 psi(g) is not above ambient"}},
+		// The wall must be thinner than ri = 1 in.
+		{"tube thick", `kind = "tube"
+inner_diameter = "2 in"
+wall_thickness = "1.2 in"
+pressure = "50 psi"
+material = "s235"`, []string{"wall thickness 1.2 in must be less than the inner radius 1 in"}},
+		{"vacuum start", `kind = "vacuum"` + "\n" + cyl + `rod_length = "3.5 in"
+speed = "1725 rpm"
+vessel_volume = "5 gal"
+target_pressure = "1 psia"
+start_pressure = "16 psia"`, []string{"start pressure 16 psia is above ambient 14.7 psia"}},
+		// M8 pitch 1.25 mm = 0.04921 in.
+		{"bolt engagement", `kind = "bolts"
+thread = "M8"
+count = 4
+property_class = "8.8"
+pressure = "100 psi"
+pressure_diameter = "3 in"
+nut_material = "s235"
+engagement_length = "0.03 in"`, []string{"0.03 in is less than one pitch of M8 (0.04921 in)"}},
+	}
+	for _, c := range cases {
+		b, err := ParseBlock("content/shop.md", 5, "id = \"x\"\n"+c.src+"\n")
+		if err != nil {
+			t.Fatalf("%s: %v", c.name, err)
+		}
+		_, err = Evaluate([]*Block{b}, Options{})
+		if err == nil {
+			t.Errorf("%s: no error", c.name)
+			continue
+		}
+		for _, w := range c.wants {
+			if !strings.Contains(err.Error(), w) {
+				t.Errorf("%s: %q lacks %q", c.name, err, w)
+			}
+		}
+	}
+}

@@ -121,9 +121,10 @@ func readMotorInput(in *Inputs) (motorInput, error) {
 	m := motorInput{supply: in.Value("supply_pressure"),
 		cutoff: in.Value("cutoff"), n: in.Value("polytropic_index")}
 	if m.supply <= in.Ambient {
+		bara := traceIn(in.Customary(), "bar(a)")
 		return m, &InputError{Key: "supply_pressure", Message: fmt.Sprintf(
 			"supply pressure %s must be above ambient %s: the air must push the piston out",
-			show(m.supply/1e5, "bar(a)"), show(in.Ambient/1e5, "bar(a)"))}
+			bara(m.supply), bara(in.Ambient))}
 	}
 	g, err := readCylinder(in)
 	g.p2 = m.supply
@@ -207,7 +208,7 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 	if !(w1 > 0) {
 		return nil, &InputError{Key: "cutoff", Message: fmt.Sprintf(
 			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
-			show((c.ps-c.pa)/1e5, "bar(g)"), show(in.Value("cutoff"), ""), show(w1, "J"))}
+			traceIn(in.Customary(), "bar")(c.ps-c.pa)+"(g)", show(in.Value("cutoff"), ""), show(w1, "J"))}
 	}
 	ts := in.Value("supply_temperature")
 	steps := crankSteps(g.cylinders)

@@ -119,7 +119,7 @@ func readMultistageInput(in *Inputs) (multistageInput, error) {
 		if hot := dischargeTemperature(m.t1, m.ratio(), m.n); m.tic > hot {
 			return m, &InputError{Key: "intercooled_temperature", Message: fmt.Sprintf(
 				"%s is above the %s at which air leaves the first stage: an intercooler cools the air; allowed: up to %s",
-				show(m.tic-273.15, "°C"), show(hot-273.15, "°C"), show(hot-273.15, "°C"))}
+				traceIn(cust, "degC")(m.tic), traceIn(cust, "degC")(hot), traceIn(cust, "degC")(hot))}
 		}
 	}
 	supply := in.LinkOf("supply")

@@ -114,7 +114,7 @@ type tubeInput struct {
 func readTubeInput(in *Inputs) (tubeInput, error) {
 	c := tubeInput{ri: in.Value("inner_diameter") / 2, ambient: in.Ambient,
 		p: in.Value("pressure") - in.Ambient, closed: in.NameOf("closed_ends") != "false"}
-	mm := func(v float64) string { return show(v*1e3, "mm") }
+	mm := traceIn(in.Customary(), "mm")
 	wallKey := "wall_thickness"
 	switch {
 	case in.Has("outer_diameter") && in.Has("wall_thickness"):
@@ -141,7 +141,7 @@ func readTubeInput(in *Inputs) (tubeInput, error) {
 	if c.p <= 0 {
 		return c, &InputError{Key: "pressure", Message: fmt.Sprintf(
 			"%s is not above ambient; the tube model takes internal pressure only (a wall under vacuum or external pressure can buckle, which it does not cover)",
-			show(c.p/1e5, "bar(g)"))}
+			traceIn(in.Customary(), "bar")(c.p)+"(g)")}
 	}
 	name := in.NameOf("material")
 	if name == "" {

@@ -113,7 +113,7 @@ func readVacuumInput(in *Inputs) (vacuumInput, vacuumPump, error) {
 	if in.Has("start_pressure") {
 		v.start = in.Value("start_pressure")
 	}
-	mbar := func(p float64) string { return show(p/100, "mbar(a)") }
+	mbar := traceIn(in.Customary(), "mbar(a)")
 	if v.start > v.ambient {
 		return v, vacuumPump{}, &InputError{Key: "start_pressure", Message: fmt.Sprintf(
 			"start pressure %s is above ambient %s: the pump starts at or below the atmosphere it discharges to",
