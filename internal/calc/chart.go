@@ -128,6 +128,7 @@ func tankChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	if !ok {
 		return nil, fmt.Errorf("the fill chart needs a supply: name the compressor that fills the tank")
 	}
+	gauge := chartIn(in.Customary(), "bar")
 	unit := "s"
 	if end := fill.X[len(fill.X)-1]; end > 180 {
 		unit = "min"
@@ -135,7 +136,7 @@ func tankChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	return &Chart{
 		Title: "Tank pressure while filling",
 		Desc: fmt.Sprintf("The receiver's gauge pressure over time as the supply fills it from %s to %s; the delivery falls as the pressure rises, so the curve flattens.",
-			units.Format((fill.Y[0]-in.Ambient)/1e5, 3)+" bar", units.Format((fill.Y[len(fill.Y)-1]-in.Ambient)/1e5, 3)+" bar"),
+			gauge(fill.Y[0]-in.Ambient), gauge(fill.Y[len(fill.Y)-1]-in.Ambient)),
 		X: Axis{Label: "Time", Dim: units.Time, Unit: unit},
 		Panels: []Panel{{
 			Y:      Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: "bar"},

@@ -20,11 +20,11 @@ func compressorChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	}
 	switch name {
 	case "pv":
-		return pvChart(c, out)
+		return pvChart(c, out, in.Customary())
 	case "torque":
 		return torqueChart(c, out), nil
 	case "delivery":
-		return deliveryChart(c), nil
+		return deliveryChart(c, in.Customary()), nil
 	case "temperature":
 		return temperatureChart(c, in), nil
 	case "kinematics":
@@ -33,7 +33,8 @@ func compressorChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	return nil, fmt.Errorf("no chart %q", name)
 }
 
-func pvChart(c compressorInput, out *Outcome) (*Chart, error) {
+func pvChart(c compressorInput, out *Outcome, customary bool) (*Chart, error) {
+	barA := chartIn(customary, "bar(a)")
 	pv, ok := out.curve("pv")
 	iso, ok2 := out.curve("isothermal")
 	if !ok || !ok2 {
@@ -99,7 +100,8 @@ func pressureSweep(c compressorInput) []float64 {
 	return out
 }
 
-func deliveryChart(c compressorInput) *Chart {
+func deliveryChart(c compressorInput, customary bool) *Chart {
+	barA := chartIn(customary, "bar(a)")
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	z := float64(c.cylinders)
 	revs := c.omega / (2 * math.Pi)
@@ -145,7 +147,7 @@ func temperatureChart(c compressorInput, in *Inputs) *Chart {
 		if m, err := in.Env().Materials.Lookup(name); err == nil {
 			label := fmt.Sprintf("%s limit (%s)", key[:len(key)-len("_material")], m.Label)
 			p.Marks = append(p.Marks, Mark{Value: m.TemperatureLimit(), Label: label})
-			desc += fmt.Sprintf("; a horizontal line marks the %s at %s", label, units.Format(m.TemperatureLimit()-273.15, 3)+" °C")
+			desc += fmt.Sprintf("; a horizontal line marks the %s at %s", label, chartIn(in.Customary(), "degC")(m.TemperatureLimit()))
 		}
 	}
 	return &Chart{Title: "Discharge temperature over discharge pressure", Desc: desc + ".",
@@ -176,4 +178,17 @@ func kinematicsChart(c compressorInput) *Chart {
 	}
 }
 
-func barA(p float64) string { return units.Format(p/1e5, 3) + " bar(a)" }
+// chartIn formats an SI value for a chart's description at 3 significant
+// figures in unit, or in its US customary counterpart when customary, as
+// the chart's axes are.
+func chartIn(customary bool, unit string) func(float64) string {
+	if customary {
+		unit = units.CustomaryFor(unit)
+	}
+	u, err := units.LookupUnit(unit)
+	if err != nil {
+		return func(si float64) string { return units.Format(si, 3) + " " + unit }
+	}
+	pretty := units.Pretty(u.Symbol)
+	return func(si float64) string { return units.Format((si-u.Offset)/u.Factor, 3) + " " + pretty }
+}

@@ -616,3 +616,50 @@ engagement_length = "0.03 in"`, []string{"0.03 in is less than one pitch of M8 (
 		}
 	}
 }
+
+// TestCustomaryChartDescriptions checks that the description of every
+// chart of a block written in US customary units speaks its units, as the
+// chart's axes do. 100 psig = 114.7 psia (1 atm = 14.696 psi, NIST SP 811
+// App. B, from memory).
+func TestCustomaryChartDescriptions(t *testing.T) {
+	cyl := "bore = \"2 in\"\nstroke = \"1.5 in\"\nrod_length = \"3.5 in\"\nclearance_volume = \"0.3 in3\"\nspeed = \"1725 rpm\"\n"
+	blocks := []string{
+		"id = \"c\"\nkind = \"compressor\"\n" + cyl + "discharge_pressure = \"100 psi\"\ninlet_temperature = \"68 degF\"\nhead_material = \"aluminium-6061-t6\"\n",
+		"id = \"m\"\nkind = \"motor\"\n" + cyl + "supply_pressure = \"90 psi\"\ncutoff = 0.4\nsupply_temperature = \"68 degF\"\n",
+		"id = \"v\"\nkind = \"vacuum\"\n" + cyl + "vessel_volume = \"5 gal\"\ntarget_pressure = \"2 psia\"\n",
+		"id = \"s\"\nkind = \"multistage\"\nstages = 2\ndischarge_pressure = \"175 psi\"\ninlet_temperature = \"68 degF\"\n",
+		"id = \"t\"\nkind = \"tank\"\nvolume = \"20 gal\"\npressure = \"100 psi\"\nsupply = \"c\"\n",
+	}
+	var parsed []*Block
+	for i, src := range blocks {
+		b, err := ParseBlock("content/shop.md", 20*i, src)
+		if err != nil {
+			t.Fatal(err)
+		}
+		parsed = append(parsed, b)
+	}
+	set, err := Evaluate(parsed, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range set.Blocks {
+		if !e.Customary() {
+			t.Fatalf("block %s is not taken as customary", e.Block.ID)
+		}
+		for _, name := range e.Block.Kind.Charts {
+			c, err := e.Chart(name)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, metric := range []string{"bar", "°C", "Pa"} {
+				if strings.Contains(c.Desc, metric) {
+					t.Errorf("%s chart %s says %q: %s", e.Block.ID, name, metric, c.Desc)
+				}
+			}
+		}
+	}
+	c, _ := set.Lookup("c")
+	if pv, _ := c.Chart("pv"); !strings.Contains(pv.Desc, "delivered at 115 psia") {
+		t.Errorf("pv chart: %s", pv.Desc)
+	}
+}

@@ -289,6 +289,7 @@ func motorChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 	}
 	c := newMotorCycle(m)
 	pe := c.ps * math.Pow(c.v1/c.v2, c.n)
+	barA := chartIn(in.Customary(), "bar(a)")
 	cycle := Series{Name: "indicator cycle", X: pv.X, Y: pv.Y, Labels: []PointLabel{
 		{X: (c.v0 + c.v1) / 2, Y: c.ps, Text: "admission"},
 		{X: (c.v1 + c.v2) / 2, Y: c.ps * math.Pow(2*c.v1/(c.v1+c.v2), c.n), Text: "expansion"},

@@ -261,7 +261,7 @@ func multistageChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 		x := math.Pow(all, float64(i)/float64(stagePoints*m.stages))
 		single.X, single.Y = append(single.X, m.p1*x), append(single.Y, dischargeTemperature(m.t1, x, m.n))
 	}
-	degC := func(t float64) string { return units.Format(t-273.15, 3) + " °C" }
+	degC, barA := chartIn(in.Customary(), "degC"), chartIn(in.Customary(), "bar(a)")
 	var ps []string
 	for _, mk := range marks {
 		ps = append(ps, barA(mk.Value))

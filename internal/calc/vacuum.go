@@ -189,6 +189,7 @@ func vacuumChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 		return nil, err
 	}
 	pu := pump.ultimate()
+	mbar := traceIn(in.Customary(), "mbar(a)")
 	down := Series{Name: "pump-down"}
 	for i := range pumpdownIntervals + 1 {
 		// Equal steps in ln p from the start to the target.
@@ -221,7 +222,7 @@ func vacuumChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 		Desc: fmt.Sprintf("The vessel pressure, on a logarithmic scale, falls from %s to the target %s in %s %s (solid), "+
 			"then, pumping on (dashed), ever more slowly towards the ultimate pressure %s (horizontal line), where the cylinder's "+
 			"clearance gas re-expands to fill the whole stroke and no more air is drawn in.",
-			show(v.start/100, "mbar(a)"), show(v.target/100, "mbar(a)"), units.Format(shown, 3), word, show(pu/100, "mbar(a)")),
+			mbar(v.start), mbar(v.target), units.Format(shown, 3), word, mbar(pu)),
 		X: Axis{Label: "Time", Dim: units.Time, Unit: unit},
 		Panels: []Panel{{
 			Y:      Axis{Label: "Vessel pressure", Dim: units.Pressure, Unit: "mbar(a)", Log: true},
