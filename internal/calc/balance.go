@@ -51,6 +51,8 @@ S. S. Rattan, Theory of Machines, balancing of reciprocating masses)
   F_rec(θ) ≈ m_rec·R·ω²·(cos θ + (R/L)·cos 2θ) along the cylinder axis
   primary_force   = m_rec·R·ω²
   secondary_force = m_rec·R·ω²·(R/L)
+  The exact second harmonic is m_rec·R·ω²·(λ + λ³/4 + ...), λ = R/L; above
+  λ = 0.45 (rods shorter than 2.2 cranks) the trace carries a NOTE.
 The counterweight, opposite the crank pin at radius r_cw, balances all of
 the rotating mass and the fraction f of the reciprocating mass:
   m_cw = (m_rot + f·m_rec)·R / r_cw
@@ -112,11 +114,26 @@ func evaluateBalance(in *Inputs) (*Outcome, error) {
 			"m_cw = (m_rot + f·m_rec) · R / r_cw", "= (" + kg(mRot) + " + " + num(frac) + " · " + kg(mRec) + ") · " + mm(r) + " / " + mm(rcw)}},
 		{Name: "primary_force", Value: prim, Dim: units.Force, Trace: Trace{"F1 = m_rec · R · ω²", "= " + primed}},
 		{Name: "secondary_force", Value: prim * r / rod, Dim: units.Force, Trace: Trace{
-			"F2 = m_rec · R · ω² · R/L", "= " + force(prim) + " · " + mm(r) + " / " + mm(rod)}},
+			"F2 = m_rec · R · ω² · R/L", "= " + force(prim) + " · " + mm(r) + " / " + mm(rod) + shortRodNote(r/rod)}},
 		{Name: "residual_primary_axial", Value: (1 - frac) * prim, Dim: units.Force, Trace: Trace{
 			"F_ax = (1 − f) · m_rec · R · ω²", "= (1 − " + num(frac) + ") · " + force(prim)}},
 		{Name: "residual_primary_transverse", Value: frac * prim, Dim: units.Force, Trace: Trace{
 			"F_tr = f · m_rec · R · ω²", "= " + num(frac) + " · " + force(prim)}},
 	}
 	return &Outcome{Results: res}, nil
+}
+
+// shortRodLimit is the crank-to-rod ratio λ = R/L above which the series
+// to second order, F2 = m·R·ω²·λ, understates the exact second harmonic,
+// m·R·ω²·(λ + λ³/4 + ...), by more than λ²/4 = 5 %.
+const shortRodLimit = 0.45
+
+// shortRodNote warns, in the secondary force's trace, that a short rod
+// makes the second-order series poor.
+func shortRodNote(lambda float64) string {
+	if lambda <= shortRodLimit {
+		return ""
+	}
+	return fmt.Sprintf(" (NOTE: R/L = %s: for so short a rod this second-order figure is about %s %% below the exact secondary force, "+
+		"and the fourth and higher harmonics, left out, grow too)", show(lambda, ""), show(100*lambda*lambda/4, ""))
 }
