@@ -53,3 +53,14 @@ func TestValveRelief(t *testing.T) {
 		}
 	}
 }
+
+// TestValveDocNamesWorkingPressures keeps the write-up's list of the parts
+// whose working pressure the relief-below-target rule checks complete.
+func TestValveDocNamesWorkingPressures(t *testing.T) {
+	doc := strings.Join(strings.Fields(valveDoc), " ")
+	for kind, w := range workingPressureKey {
+		if !strings.Contains(doc, "a "+kind+"'s "+w.name) {
+			t.Errorf("valve doc does not say it checks a %s's %s", kind, w.name)
+		}
+	}
+}
