@@ -303,9 +303,10 @@ func fillResult(t tankInput) Result {
 		below = fmt.Sprintf("; below p1 at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", show(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
 	}
 	if s.n == 1 {
+		cw := show(s.c, "")
 		r.Trace = Trace{"t = V/(c·V̇d) · ln((1 + c − c·p0/p1)/(1 + c − c·p2/p1)) (n = 1, isothermal tank at inlet temperature)",
-			fmt.Sprintf("= %s/(%s · %s) · ln((1 + c − c·%s/%s)/(1 + c − c·%s/%s)); %s%s",
-				litres, show(s.c, ""), rate, bara(math.Max(t.start, s.p1)), bara(s.p1), bara(t.target), bara(s.p1), supply, below)}
+			fmt.Sprintf("= %s/(%s · %s) · ln((1 + %s − %s·%s/%s)/(1 + %s − %s·%s/%s)); %s%s",
+				litres, cw, rate, cw, cw, bara(math.Max(t.start, s.p1)), bara(s.p1), cw, cw, bara(t.target), bara(s.p1), supply, below)}
 		return r
 	}
 	r.Trace = Trace{"t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)",

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -450,5 +452,38 @@ func TestTankClosedEndsOnlyWithWall(t *testing.T) {
 		if listed != c.want {
 			t.Errorf("%v: closed_ends listed %v, want %v", c.changes, listed, c.want)
 		}
+	}
+}
+
+// TestIsothermalFillTraceReproduces reads the numbers of the closed-form
+// fill time's trace (n = 1) back and works the formula with them, as a
+// reviewer would by hand: they must give the result to the trace's four
+// figures.
+func TestIsothermalFillTraceReproduces(t *testing.T) {
+	comp := map[string]any{"id": "c", "kind": "compressor", "bore": "50 mm", "stroke": "40 mm", "rod_length": "100 mm",
+		"clearance_volume": "3 cm3", "speed": "1450 rpm", "discharge_pressure": "8 bar", "polytropic_index": 1}
+	tank := map[string]any{"id": "tk", "kind": "tank", "volume": "50 L", "pressure": "8 bar", "start_pressure": "2 bar", "supply": "c"}
+	set, err := evaluateBlocks(t, []map[string]any{comp, tank})
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("tk")
+	r, _ := e.Result("fill_time")
+	sub, _, _ := strings.Cut(r.Trace.Substituted, ";")
+	re := regexp.MustCompile(`[0-9]+(\.[0-9]+)?`)
+	var v []float64
+	for _, s := range re.FindAllString(sub, -1) {
+		x, _ := strconv.ParseFloat(s, 64)
+		v = append(v, x)
+	}
+	// V (L), c, V̇d (L/min), 1, c, c, p0, p1, 1, c, c, p2, p1 (bar(a)).
+	if len(v) != 13 {
+		t.Fatalf("trace %q: %d numbers, want 13", sub, len(v))
+	}
+	vol, c, rate := v[0], v[1], v[2]
+	x0, x2 := v[6]/v[7], v[11]/v[12]
+	minutes := vol / (c * rate) * math.Log((v[3]+v[4]-v[5]*x0)/(v[8]+v[9]-v[10]*x2))
+	if got := minutes * 60; math.Abs(got-r.Value) > 2e-3*r.Value {
+		t.Errorf("trace %q works out to %.5g s, result %.5g s", sub, got, r.Value)
 	}
 }
