@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"regexp"
 	"strconv"
 	"strings"
 	"unicode"
@@ -29,12 +30,16 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	if text == "" {
 		return Quantity{}, newError(text, ": empty; expected "+want.article()+" ("+want.Examples()+")")
 	}
-	numText, rest := splitNumber(text)
+	// U+2212 is the minus sign of typeset text (ISO 80000-1); no unit holds it.
+	numText, rest := splitNumber(strings.ReplaceAll(text, "\u2212", "-"))
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text, want))
 	}
 	if len(rest) > 1 && rest[0] == ',' && isDigit(rest[1]) {
 		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
+	}
+	if groupSeparator.MatchString(rest) {
+		return Quantity{}, newError(text, ": a digit group separator inside the number; write it without one (\"1000 mm\", not \"1 000 mm\")")
 	}
 	v, err := strconv.ParseFloat(numText, 64)
 	if errors.Is(err, strconv.ErrRange) {
@@ -71,8 +76,13 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	case want == Pressure && u.Ref == Absolute && value < 0:
 		return Quantity{}, newError(text, ": an absolute pressure cannot be negative")
 	}
-	return Quantity{Value: value, Dim: want, Unit: u, Text: text}, nil
+	return Quantity{Value: value, Dim: want, Unit: u, Text: text, Number: numText}, nil
 }
+
+// groupSeparator matches what follows the number when it was written with
+// its digits grouped in threes by a space, thin space, apostrophe or
+// underscore ("1 000", "1'000"), which would otherwise read as a unit.
+var groupSeparator = regexp.MustCompile(`^[\s\p{Zs}'’_][0-9]{3}([^0-9]|$)`)
 
 // splitNumber splits s into a leading decimal number (sign, digits with at
 // most one point, optional exponent) and the rest. The number is "" when s
