@@ -278,12 +278,46 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	r.OK = c.holds(v)
 	computed := strings.TrimSpace(units.Format(v, c.figuresToShow(v, sig, r.OK)) + " " + units.Pretty(c.Unit))
 	r.Shown = computed
-	if r.OK {
+	absolute, absOK := c.readAbsolute(si, dim, ambient)
+	switch {
+	case absolute != "" && absOK != r.OK && si < ambient && c.Value > 0:
+		// A vacuum claimed in a plain unit: "<= 5 mbar" holds as gauge for
+		// any vacuum, and is surely meant absolute. Neither reading is safe.
+		r.OK = false
+		g, _ := FormatValue(si, dim, c.Unit+"(g)", ambient, sig)
+		a, _ := FormatValue(si, dim, absolute, ambient, sig)
+		r.Message = fmt.Sprintf("%s: claim %q fails: the result is below ambient pressure (%s, %s), where a plain %s reads gauge but is often meant absolute, and the claim holds one way only; write %s or %s(g)",
+			c.Result, c.Text, a, g, c.Unit, absolute, c.Unit)
+	case r.OK:
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
-	} else {
+	case absOK:
+		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s (a plain %s reads gauge; read as %s the claim would hold)",
+			c.Result, c.Text, c.band(sig), computed, c.Unit, absolute)
+	default:
 		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
 	}
 	return r
+}
+
+// readAbsolute is, for a pressure claimed in a plain (gauge) unit that has
+// an absolute form, that form ("bar(a)") and whether the claim would hold
+// read in it; "" otherwise.
+func (c Claim) readAbsolute(si float64, dim units.Dimension, ambient float64) (string, bool) {
+	if dim != units.Pressure {
+		return "", false
+	}
+	if u, err := units.LookupUnit(c.Unit); err != nil || u.Ref != units.Unmarked {
+		return "", false
+	}
+	abs, err := units.LookupUnit(c.Unit + "(a)")
+	if err != nil {
+		return "", false
+	}
+	v, err := units.FromSI(si, dim, abs.Symbol, ambient)
+	if err != nil {
+		return "", false
+	}
+	return abs.Symbol, c.holds(v)
 }
 
 // band words what an "about" claim allows, " (holds from 1179.5 to
