@@ -38,6 +38,9 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	if len(rest) > 1 && rest[0] == ',' && isDigit(rest[1]) {
 		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
 	}
+	if powerOfTen.MatchString(rest) {
+		return Quantity{}, newError(text, ": write a power of ten with e, as in \"2.5e-3 m3\" for 2.5 × 10⁻³ m3")
+	}
 	if groupSeparator.MatchString(rest) {
 		return Quantity{}, newError(text, ": a digit group separator inside the number; write it without one (\"1000 mm\", not \"1 000 mm\")")
 	}
@@ -78,6 +81,10 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	}
 	return Quantity{Value: value, Dim: want, Unit: u, Text: text, Number: numText}, nil
 }
+
+// powerOfTen matches what follows the number when it was written in
+// scientific notation by hand: "× 10³", "x10^-3", "·10⁻⁶", "*10**3".
+var powerOfTen = regexp.MustCompile(`^[\s\p{Zs}]*[×xX*·⋅][\s\p{Zs}]*10[\s\p{Zs}]*(\^|\*\*|[⁺⁻⁰¹²³⁴⁵⁶⁷⁸⁹])`)
 
 // groupSeparator matches what follows the number when it was written with
 // its digits grouped in threes by a space, thin space, apostrophe or
