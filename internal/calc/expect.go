@@ -8,6 +8,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"specgen/internal/units"
 )
@@ -465,7 +466,11 @@ func (b *Block) decodeShow(v any) Errors {
 				b.Show.Charts = append(b.Show.Charts, s)
 				continue
 			}
-			name, unit, _ := strings.Cut(strings.TrimSpace(s), " ")
+			// Any space sets the unit apart: a tab or a no-break space too.
+			name, unit := strings.TrimSpace(s), ""
+			if i := strings.IndexFunc(name, unicode.IsSpace); i >= 0 {
+				name, unit = name[:i], name[i:]
+			}
 			spec, found := b.Kind.result(name)
 			if !found {
 				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
