@@ -45,6 +45,17 @@ var claimOps = []struct {
 	op     ClaimOp
 }{{">=", OpAtLeast}, {"≥", OpAtLeast}, {"<=", OpAtMost}, {"≤", OpAtMost}, {">", OpAbove}, {"<", OpBelow}}
 
+// claimMistakes are signs that claims are written with elsewhere, and what
+// to write instead.
+var claimMistakes = []struct{ prefix, why string }{
+	{"=>", `starts with "=>"; write ">="`}, {"=<", `starts with "=<"; write "<="`},
+	{"> =", `starts with "> ="; write ">=" without a space`}, {"< =", `starts with "< ="; write "<=" without a space`},
+	{"≧", `starts with "≧"; write ">=" or "≥"`}, {"≦", `starts with "≦"; write "<=" or "≤"`},
+	{"≈", "starts with ≈; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+	{"~", "starts with ~; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+	{"=", "starts with =; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+}
+
 // tolSplit finds the ± of a claim.
 var tolSplit = regexp.MustCompile(`\s*(±|\+/-|\+-)\s*`)
 
@@ -63,6 +74,11 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	s := strings.TrimSpace(text)
 	bad := func(why string) (Claim, error) {
 		return c, fmt.Errorf("%q %s; a claim reads like %s", text, why, claimForms)
+	}
+	for _, m := range claimMistakes {
+		if strings.HasPrefix(s, m.prefix) {
+			return bad(m.why)
+		}
 	}
 	for _, o := range claimOps {
 		if strings.HasPrefix(s, o.prefix) {

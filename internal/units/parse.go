@@ -52,6 +52,9 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	}
 
 	unitText := strings.TrimSpace(rest)
+	if want == Dimensionless && ratioOfOne.MatchString(unitText) {
+		return Quantity{}, newError(text, ": a ratio is a plain number; write \""+numText+"\" for "+numText+":1")
+	}
 	if unitText == "" && want != Dimensionless {
 		return Quantity{}, newError(text, ": "+want.article()+" needs a unit ("+want.Examples()+")")
 	}
@@ -85,6 +88,9 @@ func Parse(s string, want Dimension) (Quantity, error) {
 // powerOfTen matches what follows the number when it was written in
 // scientific notation by hand: "× 10³", "x10^-3", "·10⁻⁶", "*10**3".
 var powerOfTen = regexp.MustCompile(`^[\s\p{Zs}]*[×xX*·⋅][\s\p{Zs}]*10[\s\p{Zs}]*(\^|\*\*|[⁺⁻⁰¹²³⁴⁵⁶⁷⁸⁹])`)
+
+// ratioOfOne matches the ":1" of a ratio written "7:1".
+var ratioOfOne = regexp.MustCompile(`^:[\s\p{Zs}]*1(\.0*)?$`)
 
 // groupSeparator matches what follows the number when it was written with
 // its digits grouped in threes by a space, thin space, apostrophe or
