@@ -411,6 +411,10 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 		line := b.lineOf(key)
 		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
+		if _, isInput := b.Kind.input(name); !found && isInput {
+			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
+			continue
+		}
 		if !found {
 			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
 			if s := Suggest(name, b.Kind.resultNames()); s != "" {
