@@ -20,6 +20,7 @@ type claimRow struct {
 	Ambient float64
 	OK      *bool `toml:"ok"`
 	Error   string
+	Message string // a substring of the check's message
 	Note    string
 }
 
@@ -89,6 +90,9 @@ func TestClaimReference(t *testing.T) {
 			}
 			if !strings.Contains(r.Message, verdict) {
 				t.Errorf("%s: message %q does not say it %s", name, r.Message, verdict)
+			}
+			if !strings.Contains(r.Message, row.Message) {
+				t.Errorf("%s: message %q lacks %q", name, r.Message, row.Message)
 			}
 		}
 	}

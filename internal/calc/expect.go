@@ -8,6 +8,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"specgen/internal/units"
 )
@@ -44,10 +45,28 @@ var claimOps = []struct {
 	op     ClaimOp
 }{{">=", OpAtLeast}, {"≥", OpAtLeast}, {"<=", OpAtMost}, {"≤", OpAtMost}, {">", OpAbove}, {"<", OpBelow}}
 
-// claimNumber splits "22.5 cm3" off the front of a claim.
+// claimMistakes are signs that claims are written with elsewhere, and what
+// to write instead.
+var claimMistakes = []struct{ prefix, why string }{
+	{"=>", `starts with "=>"; write ">="`}, {"=<", `starts with "=<"; write "<="`},
+	{"> =", `starts with "> ="; write ">=" without a space`}, {"< =", `starts with "< ="; write "<=" without a space`},
+	{"≧", `starts with "≧"; write ">=" or "≥"`}, {"≦", `starts with "≦"; write "<=" or "≤"`},
+	{"≈", "starts with ≈; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+	{"~", "starts with ~; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+	{"=", "starts with =; a bare value already means about: \"20 cm3\" holds from 19.5 to 20.5 cm3"},
+}
+
+// tolSplit finds the ± of a claim.
 var tolSplit = regexp.MustCompile(`\s*(±|\+/-|\+-)\s*`)
 
-const claimForms = `"22.5 cm3 ± 2%", "22.5 cm3 ± 0.5 cm3", "20 cm3" (to the precision written), ">= 15 L/min", "<= 120 degC"`
+// rangeSplit finds the "to" or en dash between the ends of a range.
+var rangeSplit = regexp.MustCompile(`\s+to\s+|\s*–\s*`)
+
+// looksLikeRange matches "20-25 cm3" and "20..25 cm3": ranges written with a
+// hyphen (which reads as a minus sign) or two dots.
+var looksLikeRange = regexp.MustCompile(`^[+-]?[0-9.]+(?:[eE][+-]?[0-9]+)?\s*(?:-|\.\.)\s*[+-]?[0-9]`)
+
+const claimForms = `"22.5 cm3 ± 2%", "22.5 cm3 ± 0.5 cm3", "20 cm3" (to the precision written), "20 to 25 cm3", ">= 15 L/min", "<= 120 degC"`
 
 // ParseClaim reads a claim about a result of dimension dim.
 func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
@@ -56,12 +75,32 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	bad := func(why string) (Claim, error) {
 		return c, fmt.Errorf("%q %s; a claim reads like %s", text, why, claimForms)
 	}
+	for _, m := range claimMistakes {
+		if strings.HasPrefix(s, m.prefix) {
+			return bad(m.why)
+		}
+	}
 	for _, o := range claimOps {
 		if strings.HasPrefix(s, o.prefix) {
 			c.Op = o.op
 			s = strings.TrimSpace(s[len(o.prefix):])
 			break
 		}
+	}
+	// "(22.5 ± 0.5) cm3": the unit after the parenthesis is the claim's.
+	if inner, unit, ok := parenthesized(s); ok {
+		if c.Op != OpAbout || !tolSplit.MatchString(inner) {
+			return bad("has parentheses; they only group a value and its tolerance, as in \"(22.5 ± 0.5) cm3\"")
+		}
+		loc := tolSplit.FindStringIndex(inner)
+		main, tol := strings.TrimSpace(inner[:loc[0]]), strings.TrimSpace(inner[loc[1]:])
+		if _, isPlain := plainNumber(main); !isPlain || unit == "" {
+			return bad("puts a unit inside the parentheses; write \"(22.5 ± 0.5) cm3\", the unit after them")
+		}
+		if _, isPlain := plainNumber(tol); !isPlain && !strings.HasSuffix(tol, "%") {
+			return bad("puts a unit inside the parentheses; write \"(22.5 ± 0.5) cm3\", the unit after them")
+		}
+		s = main + " " + unit + " ± " + tol
 	}
 	main, tol := s, ""
 	if loc := tolSplit.FindStringIndex(s); loc != nil {
@@ -76,24 +115,42 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	if main == "" {
 		return bad("has no value")
 	}
+	if c.Op == OpAbout && tol == "" {
+		if loc := rangeSplit.FindStringIndex(main); loc != nil {
+			return c.parseRange(main[:loc[0]], main[loc[1]:], dim)
+		}
+		if looksLikeRange.MatchString(main) {
+			return bad("looks like a range; write its ends with \"to\", as in \"20 to 25 cm3\"")
+		}
+	}
+	// "22.5 ± 0.5 cm3": the tolerance's unit serves the bare value too.
+	if _, isPlain := plainNumber(main); isPlain && tol != "" && dim != units.Dimensionless {
+		if tq, err := units.Parse(tol, tolDimension(dim)); err == nil && tq.Unit.Symbol != "" {
+			main, tol = main+" "+tq.Unit.Symbol, tq.Number
+		}
+	}
 	q, err := units.Parse(main, dim)
 	if err != nil {
 		return c, fmt.Errorf("%s; a claim reads like %s", err.Error(), claimForms)
 	}
 	c.Unit = q.Unit.Symbol
-	num, _ := splitClaimNumber(main)
-	c.Value, _ = strconv.ParseFloat(num, 64)
+	c.Value, _ = strconv.ParseFloat(q.Number, 64)
 	switch {
 	case tol == "" && c.Op == OpAbout:
-		c.Tolerance = halfLastDigit(num)
+		c.Tolerance = halfLastDigit(q.Number)
 		if math.IsInf(c.Tolerance, 0) {
 			return bad("has an exponent too large to tell its precision; write the number with a smaller exponent and a tolerance")
 		}
-	case strings.HasSuffix(tol, "%") && q.Unit.Offset != 0:
+	case strings.HasSuffix(tol, "%") && q.Unit.Offset != 0 && dim == units.Temperature:
 		return bad("takes a percentage of a temperature on a scale with an offset, which has no meaning (1 % of 20 °C is not 1 % of the temperature); give the tolerance in degrees, e.g. \"± 5 degC\", or claim in K")
+	case strings.HasSuffix(tol, "%") && c.Unit == "%":
+		// "85 % ± 2 %" reads as 83..87 % and as 83.3..86.7 %.
+		pct := strings.TrimSpace(strings.TrimSuffix(tol, "%"))
+		return bad(fmt.Sprintf("gives a percentage a tolerance in %%, which reads two ways; write \"%s %% ± %s\" for ± %s percentage points, or \"%s ± %s%%\" for ± %s %% of the value",
+			q.Number, pct, pct, strconv.FormatFloat(c.Value/100, 'g', -1, 64), pct, pct))
 	case strings.HasSuffix(tol, "%"):
-		f, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(tol, "%")), 64)
-		if err != nil || f < 0 || math.IsInf(f, 0) || math.IsNaN(f) {
+		f, ok := plainNumber(strings.TrimSpace(strings.TrimSuffix(tol, "%")))
+		if !ok || f < 0 {
 			return bad("has a tolerance that is not a percentage")
 		}
 		if f >= 100 {
@@ -101,8 +158,8 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 		}
 		c.RelTol = f / 100
 	case tol != "":
-		f, err := strconv.ParseFloat(tol, 64)
-		if err != nil {
+		f, ok := plainNumber(tol)
+		if !ok {
 			// A tolerance with its own unit: convert to the claim's unit.
 			tq, terr := units.Parse(tol, differenceOf(dim))
 			if terr != nil {
@@ -122,6 +179,74 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	return c, nil
 }
 
+// parseRange reads a range claim "20 to 25 cm3" (or "20 cm3 to 25 cm3") as
+// the band between its ends, both included.
+func (c Claim) parseRange(lo, hi string, dim units.Dimension) (Claim, error) {
+	lo, hi = strings.TrimSpace(lo), strings.TrimSpace(hi)
+	fail := func(why string) (Claim, error) {
+		return c, fmt.Errorf("%q %s; a claim reads like %s", c.Text, why, claimForms)
+	}
+	if lo == "" || hi == "" {
+		return fail("is a range without two ends")
+	}
+	hq, err := units.Parse(hi, dim)
+	if err != nil {
+		return c, fmt.Errorf("upper end of the range: %s; a claim reads like %s", err.Error(), claimForms)
+	}
+	if _, isPlain := plainNumber(lo); isPlain && hq.Unit.Symbol != "" {
+		lo += " " + hq.Unit.Symbol
+	}
+	lq, err := units.Parse(lo, dim)
+	if err != nil {
+		return c, fmt.Errorf("lower end of the range: %s; a claim reads like %s", err.Error(), claimForms)
+	}
+	if lq.Unit.Symbol != hq.Unit.Symbol {
+		return fail(fmt.Sprintf("gives the ends of the range different units (%s, %s); write both in one unit, as in \"20 to 25 cm3\"",
+			lq.Unit.Symbol, hq.Unit.Symbol))
+	}
+	a, _ := strconv.ParseFloat(lq.Number, 64)
+	b, _ := strconv.ParseFloat(hq.Number, 64)
+	half := b/2 - a/2 // halves first: no overflow near the largest float
+	if !(half > 0) || math.IsInf(half, 0) {
+		return fail("is a range whose lower end is not below its upper end; write the lower end first")
+	}
+	c.Unit, c.Value, c.Tolerance = hq.Unit.Symbol, a+half, half
+	return c, nil
+}
+
+// parenthesized splits "(22.5 ± 0.5) cm3" into what the parentheses hold
+// and the unit after them.
+func parenthesized(s string) (inner, unit string, ok bool) {
+	if !strings.HasPrefix(s, "(") {
+		return "", "", false
+	}
+	end := strings.IndexByte(s, ')')
+	if end < 0 {
+		return "", "", false
+	}
+	return strings.TrimSpace(s[1:end]), strings.TrimSpace(s[end+1:]), true
+}
+
+// plainNumber reads s as a number without unit, in the syntax quantities
+// use (no hexadecimal, digit separators, "Inf" or "NaN").
+func plainNumber(s string) (float64, bool) {
+	q, err := units.Parse(s, units.Dimensionless)
+	if err != nil || q.Unit.Symbol != "" {
+		return 0, false
+	}
+	return q.Value, true
+}
+
+// tolDimension is the dimension a tolerance is read in when its unit also
+// serves the value ("6 ± 0.1 bar(a)", "120 ± 2 degC"): the value's own,
+// but a temperature tolerance is not checked against absolute zero.
+func tolDimension(dim units.Dimension) units.Dimension {
+	if dim == units.Temperature {
+		return units.TemperatureDifference
+	}
+	return dim
+}
+
 // differenceOf is the dimension of a difference of dim: a tolerance on a
 // temperature is a temperature difference; on a pressure, a stress-like
 // difference that is neither gauge nor absolute.
@@ -133,18 +258,6 @@ func differenceOf(dim units.Dimension) units.Dimension {
 		return units.Stress
 	}
 	return dim
-}
-
-// splitClaimNumber returns the leading number text of a claim value.
-func splitClaimNumber(s string) (string, string) {
-	i := 0
-	for i < len(s) && strings.ContainsRune("+-0123456789.eE", rune(s[i])) {
-		if (s[i] == 'e' || s[i] == 'E') && (i+1 >= len(s) || !strings.ContainsRune("+-0123456789", rune(s[i+1]))) {
-			break
-		}
-		i++
-	}
-	return s[:i], s[i:]
 }
 
 // halfLastDigit is half a unit in the last written digit: "20" → 0.5,
@@ -182,12 +295,46 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	r.OK = c.holds(v)
 	computed := strings.TrimSpace(units.Format(v, c.figuresToShow(v, sig, r.OK)) + " " + units.Pretty(c.Unit))
 	r.Shown = computed
-	if r.OK {
+	absolute, absOK := c.readAbsolute(si, dim, ambient)
+	switch {
+	case absolute != "" && absOK != r.OK && si < ambient && c.Value > 0:
+		// A vacuum claimed in a plain unit: "<= 5 mbar" holds as gauge for
+		// any vacuum, and is surely meant absolute. Neither reading is safe.
+		r.OK = false
+		g, _ := FormatValue(si, dim, c.Unit+"(g)", ambient, sig)
+		a, _ := FormatValue(si, dim, absolute, ambient, sig)
+		r.Message = fmt.Sprintf("%s: claim %q fails: the result is below ambient pressure (%s, %s), where a plain %s reads gauge but is often meant absolute, and the claim holds one way only; write %s or %s(g)",
+			c.Result, c.Text, a, g, c.Unit, absolute, c.Unit)
+	case r.OK:
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
-	} else {
+	case absOK:
+		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s (a plain %s reads gauge; read as %s the claim would hold)",
+			c.Result, c.Text, c.band(sig), computed, c.Unit, absolute)
+	default:
 		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
 	}
 	return r
+}
+
+// readAbsolute is, for a pressure claimed in a plain (gauge) unit that has
+// an absolute form, that form ("bar(a)") and whether the claim would hold
+// read in it; "" otherwise.
+func (c Claim) readAbsolute(si float64, dim units.Dimension, ambient float64) (string, bool) {
+	if dim != units.Pressure {
+		return "", false
+	}
+	if u, err := units.LookupUnit(c.Unit); err != nil || u.Ref != units.Unmarked {
+		return "", false
+	}
+	abs, err := units.LookupUnit(c.Unit + "(a)")
+	if err != nil {
+		return "", false
+	}
+	v, err := units.FromSI(si, dim, abs.Symbol, ambient)
+	if err != nil {
+		return "", false
+	}
+	return abs.Symbol, c.holds(v)
 }
 
 // band words what an "about" claim allows, " (holds from 1179.5 to
@@ -264,6 +411,10 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 		line := b.lineOf(key)
 		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
+		if _, isInput := b.Kind.input(name); !found && isInput {
+			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
+			continue
+		}
 		if !found {
 			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
 			if s := Suggest(name, b.Kind.resultNames()); s != "" {
@@ -335,7 +486,11 @@ func (b *Block) decodeShow(v any) Errors {
 				b.Show.Charts = append(b.Show.Charts, s)
 				continue
 			}
-			name, unit, _ := strings.Cut(strings.TrimSpace(s), " ")
+			// Any space sets the unit apart: a tab or a no-break space too.
+			name, unit := strings.TrimSpace(s), ""
+			if i := strings.IndexFunc(name, unicode.IsSpace); i >= 0 {
+				name, unit = name[:i], name[i:]
+			}
 			spec, found := b.Kind.result(name)
 			if !found {
 				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))

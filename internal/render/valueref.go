@@ -5,6 +5,7 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/parser"
@@ -47,9 +48,10 @@ func (n *ValueRef) Dump(source []byte, level int) {
 const ValueRefForms = "=[block.result] or =[block.result unit]"
 
 // valueRefPattern matches a well-formed reference: a block id, a dot, a
-// result name and an optional unit after white space. Result names may
-// hold capitals here so that the site can say which result was meant.
-var valueRefPattern = regexp.MustCompile(`^=\[\s*([a-z0-9][a-z0-9_-]*)\.([A-Za-z0-9_]+)(?:\s+([^\]\n]*?))?\s*\]$`)
+// result name and an optional unit after white space (a no-break or thin
+// space too, as editors and typesetting put before a unit). Result names
+// may hold capitals here so that the site can say which result was meant.
+var valueRefPattern = regexp.MustCompile(`^=\[[\s\p{Zs}]*([a-z0-9][a-z0-9_-]*)\.([A-Za-z0-9_]+)(?:[\s\p{Zs}]+([^\]\n]*?))?[\s\p{Zs}]*\]$`)
 
 var (
 	blockIDPattern    = regexp.MustCompile(`^[a-z0-9][a-z0-9_-]*$`)
@@ -122,10 +124,12 @@ func diagnoseRef(n *ValueRef, inner string) string {
 func guessRef(n *ValueRef, inner string) (head, sep string) {
 	inner = strings.TrimSpace(inner)
 	head, unit := inner, ""
-	if i := strings.IndexAny(inner, " \t"); i >= 0 {
-		head, unit = inner[:i], strings.TrimSpace(inner[i+1:])
-	} else if i := strings.IndexAny(inner, ",;:"); i >= 0 {
-		head, unit, sep = inner[:i], strings.TrimSpace(inner[i+1:]), inner[i:i+1]
+	if i := strings.IndexFunc(inner, unicode.IsSpace); i >= 0 {
+		head, unit = inner[:i], strings.TrimSpace(inner[i:])
+	}
+	// "=[a.b,cm3]" and "=[a.b, cm3]": a punctuation mark set the unit apart.
+	if i := strings.IndexAny(head, ",;:"); i >= 0 {
+		head, unit, sep = head[:i], strings.TrimSpace(head[i+1:]+" "+unit), head[i:i+1]
 	}
 	parts := strings.Split(head, ".")
 	n.Block = strings.ToLower(parts[0])

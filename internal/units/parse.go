@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"regexp"
 	"strconv"
 	"strings"
 	"unicode"
@@ -29,12 +30,19 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	if text == "" {
 		return Quantity{}, newError(text, ": empty; expected "+want.article()+" ("+want.Examples()+")")
 	}
-	numText, rest := splitNumber(text)
+	// U+2212 is the minus sign of typeset text (ISO 80000-1); no unit holds it.
+	numText, rest := splitNumber(strings.ReplaceAll(text, "\u2212", "-"))
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text, want))
 	}
 	if len(rest) > 1 && rest[0] == ',' && isDigit(rest[1]) {
 		return Quantity{}, newError(text, ": comma in a number; use a decimal point and no thousands separator")
+	}
+	if powerOfTen.MatchString(rest) {
+		return Quantity{}, newError(text, ": write a power of ten with e, as in \"2.5e-3 m3\" for 2.5 × 10⁻³ m3")
+	}
+	if groupSeparator.MatchString(rest) {
+		return Quantity{}, newError(text, ": a digit group separator inside the number; write it without one (\"1000 mm\", not \"1 000 mm\")")
 	}
 	v, err := strconv.ParseFloat(numText, 64)
 	if errors.Is(err, strconv.ErrRange) {
@@ -44,6 +52,9 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	}
 
 	unitText := strings.TrimSpace(rest)
+	if want == Dimensionless && ratioOfOne.MatchString(unitText) {
+		return Quantity{}, newError(text, ": a ratio is a plain number; write \""+numText+"\" for "+numText+":1")
+	}
 	if unitText == "" && want != Dimensionless {
 		return Quantity{}, newError(text, ": "+want.article()+" needs a unit ("+want.Examples()+")")
 	}
@@ -71,8 +82,20 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	case want == Pressure && u.Ref == Absolute && value < 0:
 		return Quantity{}, newError(text, ": an absolute pressure cannot be negative")
 	}
-	return Quantity{Value: value, Dim: want, Unit: u, Text: text}, nil
+	return Quantity{Value: value, Dim: want, Unit: u, Text: text, Number: numText}, nil
 }
+
+// powerOfTen matches what follows the number when it was written in
+// scientific notation by hand: "× 10³", "x10^-3", "·10⁻⁶", "*10**3".
+var powerOfTen = regexp.MustCompile(`^[\s\p{Zs}]*[×xX*·⋅][\s\p{Zs}]*10[\s\p{Zs}]*(\^|\*\*|[⁺⁻⁰¹²³⁴⁵⁶⁷⁸⁹])`)
+
+// ratioOfOne matches the ":1" of a ratio written "7:1".
+var ratioOfOne = regexp.MustCompile(`^:[\s\p{Zs}]*1(\.0*)?$`)
+
+// groupSeparator matches what follows the number when it was written with
+// its digits grouped in threes by a space, thin space, apostrophe or
+// underscore ("1 000", "1'000"), which would otherwise read as a unit.
+var groupSeparator = regexp.MustCompile(`^[\s\p{Zs}'’_][0-9]{3}([^0-9]|$)`)
 
 // splitNumber splits s into a leading decimal number (sign, digits with at
 // most one point, optional exponent) and the rest. The number is "" when s

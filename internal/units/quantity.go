@@ -8,6 +8,9 @@ type Quantity struct {
 	Dim   Dimension // the dimension it was read as
 	Unit  Unit      // the unit written
 	Text  string    // the original text, trimmed
+	// Number is the number as written, in ASCII ("22.5", "-1e3"), for
+	// callers that need its written precision.
+	Number string
 }
 
 // Absolute returns the absolute value of a pressure, adding the ambient

@@ -54,7 +54,12 @@ func suggest(key string, accept func(Unit) bool) string {
 // Unicode's squared unit symbols are spelled out.
 var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h",
 	"㎤": "cm3", "㎣": "mm3", "㎥": "m3", "㎜": "mm", "㎝": "cm", "㎞": "km", "㎏": "kg", "㎎": "mg",
-	"㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L"}
+	"㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L", "㎛": "um",
+	// Trade spellings whose nearest spelling by letters is another
+	// quantity or a factor off: "l/m" is not "L/s", "kp" not "kN".
+	"lpm": "L/min", "LPM": "L/min", "l/m": "L/min", "L/m": "L/min", "kp": "kgf",
+	"ft lb": "lbf ft", "lb ft": "lbf ft", "in lb": "lbf in", "lb in": "lbf in",
+	"inch": "in", "inches": "in", "degrees": "deg", "kelvin": "K", "Kelvin": "K", "percent": "%"}
 
 // EditDistance is the Levenshtein distance between a and b, counted in
 // runes. specgen uses it for "did you mean" everywhere.

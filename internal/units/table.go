@@ -107,7 +107,8 @@ var unitTable = joinDefs(
 		{Unit{Symbol: "degF", Dim: Temperature, Factor: rankine, Offset: fahrenh0}, []string{"deg F"}},
 		def("degR", Temperature, rankine, "deg R"),
 
-		def("rpm", RotationalSpeed, revolution/60, "r/min", "rev/min", "RPM"),
+		// min⁻¹ is the rotational speed of European nameplates (DIN 1301).
+		def("rpm", RotationalSpeed, revolution/60, "r/min", "rev/min", "RPM", "1/min", "min 1"),
 		def("rev/s", RotationalSpeed, revolution, "r/s"),
 		def("rad/s", RotationalSpeed, 1),
 
@@ -123,7 +124,7 @@ var unitTable = joinDefs(
 		def("N mm", Torque, 1e-3, "Nmm"),
 		def("kN m", Torque, 1e3, "kNm"),
 		def("lbf in", Torque, poundF*inch, "in lbf"),
-		def("lbf ft", Torque, poundF*foot),
+		def("lbf ft", Torque, poundF*foot, "ft lbf"),
 
 		def("W", Power, 1),
 		def("kW", Power, 1e3),
@@ -156,6 +157,7 @@ var unitTable = joinDefs(
 
 		def("mm/s", Velocity, 1e-3),
 		def("m/s", Velocity, 1),
+		def("m/min", Velocity, 1.0/60),
 		def("ft/min", Velocity, foot/60, "fpm"),
 		def("ft/s", Velocity, foot),
 

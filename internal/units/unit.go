@@ -83,5 +83,8 @@ var unicodeSpelling = strings.NewReplacer(
 	"²", "2", "³", "3", "^", "",
 	"µ", "u", "μ", "u",
 	"°C", "degC", "℃", "degC", "°F", "degF", "℉", "degF", "°R", "degR", "°", "deg",
+	// Look-alikes of the degree sign that a keyboard or font may give.
+	"ºC", "degC", "ºF", "degF", "º", "deg", "˚C", "degC", "˚F", "degF", "˚", "deg",
+	"⁻¹", " 1",
 	"·", " ", "⋅", " ", "*", " ", "-", " ",
 )
