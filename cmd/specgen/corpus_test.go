@@ -5,6 +5,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -16,7 +17,8 @@ import (
 //	# what the case is about
 //	exit 2
 //	want <a substring of the messages>   (any number of lines)
-//	args <command line, default: build>  (optional)
+//	args <command line, default: build>  (optional; run in the site root,
+//	                                      which -C names unless args do)
 //	crlf                                 (optional: files get \r\n line ends)
 //	-- path/in/site --
 //	file content; \xHH (two hex digits) stands for that byte
@@ -110,7 +112,13 @@ func TestBadInputCorpus(t *testing.T) {
 					t.Fatal(err)
 				}
 			}
-			args := append(append([]string{}, c.args...), "-C", root)
+			// Run from the site root, so that args may name its files
+			// (-C notes.txt, -out ../x) as a user in that folder would.
+			t.Chdir(root)
+			args := append([]string{}, c.args...)
+			if !slices.Contains(args, "-C") {
+				args = append(args, "-C", root)
+			}
 			var stdout, stderr bytes.Buffer
 			code := run(args, &stdout, &stderr)
 			msg := stderr.String()

@@ -67,6 +67,9 @@ type Site struct {
 
 // Load reads a site root: configuration, templates and every page.
 func Load(root string) (*Site, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	root, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err
@@ -128,6 +131,9 @@ func Load(root string) (*Site, error) {
 // nothing the build reads has changed since the last build into the same
 // folder, and that output is as it was left, nothing is redone.
 func Build(root string, opts Options) (*Summary, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	root, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err

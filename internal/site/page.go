@@ -65,7 +65,7 @@ func findPages(root string) ([]string, error) {
 	dir := filepath.Join(root, ContentDir)
 	info, err := os.Stat(dir)
 	if err != nil || !info.IsDir() {
-		return nil, &Error{File: ContentDir, Msg: "no content/ folder here; a site root holds content/ with Markdown pages (use -C to point at the site root)"}
+		return nil, &Error{Msg: fmt.Sprintf("no content/ folder in %s; a site root holds content/ with Markdown pages (use -C to point at the site root)", root)}
 	}
 	var rels []string
 	err = filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {

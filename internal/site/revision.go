@@ -18,6 +18,9 @@ import (
 // temporary copy taken with git archive: the user's tree and index are
 // never touched.
 func ResultsAt(root, rev string) (*ResultsFile, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	abs, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err
