@@ -79,6 +79,14 @@ func findPages(root string) ([]string, error) {
 			}
 			return nil
 		}
+		// WalkDir does not follow a linked folder; its pages would be
+		// missing from the site without a word.
+		if d.Type()&fs.ModeSymlink != 0 && !strings.EqualFold(filepath.Ext(name), ".md") {
+			if info, err := os.Stat(p); err == nil && info.IsDir() {
+				rel, _ := filepath.Rel(dir, p)
+				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link to a folder, which specgen does not follow (its pages would be left out); move or copy the folder into content/"}
+			}
+		}
 		if !d.IsDir() && strings.EqualFold(filepath.Ext(name), ".md") {
 			rel, err := filepath.Rel(dir, p)
 			if err != nil {

@@ -359,6 +359,20 @@ func TestContentSymlinkRefused(t *testing.T) {
 	}
 }
 
+// TestContentFolderSymlinkRefused: a linked folder in content/ (here a
+// loop back to the site root) stops the build with its name instead of
+// its pages being left out without a word.
+func TestContentFolderSymlinkRefused(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if err := os.Symlink("..", filepath.Join(root, "content", "loop")); err != nil {
+		t.Skip("no symbolic links here:", err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !strings.Contains(err.Error(), "content/loop: is a symbolic link to a folder") {
+		t.Fatalf("want the linked folder refused, got %v", err)
+	}
+}
+
 // TestSiteWithoutHomePage: with no content/index.md the site title links
 // to the first page, and every link still resolves.
 func TestSiteWithoutHomePage(t *testing.T) {
