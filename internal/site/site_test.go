@@ -385,6 +385,26 @@ func TestSiteWithoutHomePage(t *testing.T) {
 	checkLinks(t, readTree(t, filepath.Join(root, DefaultOut)))
 }
 
+// TestFolderWithoutIndexLinked: a folder without index.md is closed in the
+// navigation of pages outside it, so its name links to its first page;
+// otherwise its pages could not be reached from there.
+func TestFolderWithoutIndexLinked(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	writeFile(t, filepath.Join(root, "content", "notes", "b.md"), "# Bravo\n")
+	writeFile(t, filepath.Join(root, "content", "notes", "a.md"), "# Alpha\n")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	home, err := os.ReadFile(filepath.Join(root, DefaultOut, "index.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := `<a href="notes/a.html">Notes</a>`; !strings.Contains(string(home), want) {
+		t.Errorf("index.html lacks %s in its navigation:\n%s", want, home)
+	}
+}
+
 // TestStandardCautionFitsThePage: a page whose only pressure calculation is
 // a vacuum one gets the vacuum wording; one with compressed air the other;
 // both say that local codes and licensed practice govern.
