@@ -12,8 +12,8 @@ import (
 func runCalc(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("calc", "calc [-sig N] FILE.toml", stderr)
 	sig := fs.Int("sig", 3, "significant figures of the values shown (2 to 8)")
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	if fs.NArg() != 1 {
 		fmt.Fprintln(stderr, "specgen calc: give one TOML file holding one calculation block")
@@ -54,9 +54,9 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 }
 
 func runExplain(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("explain", "explain [KIND]", stderr)
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	fs := newFlags("explain", "explain [KIND|materials|cautions]", stderr)
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	switch fs.NArg() {
 	case 0:

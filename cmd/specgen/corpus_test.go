@@ -158,6 +158,13 @@ func TestUsage(t *testing.T) {
 		{[]string{"build", "-nosuchflag"}, exitBadInput, "flag provided but not defined"},
 		{[]string{"build", "stray"}, exitBadInput, `unexpected argument "stray"`},
 		{[]string{"version"}, exitOK, "specgen "},
+		{[]string{"help", "help"}, exitOK, "Usage: specgen help [COMMAND]"},
+		{[]string{"help", "diff"}, exitOK, "BASE and HEAD"},
+		{[]string{"help", "init"}, exitOK, "Usage: specgen init DIR"},
+		{[]string{"help", "calc"}, exitOK, "-sig"},
+		{[]string{"explain", "-h"}, exitOK, "Usage: specgen explain [KIND|materials|cautions]"},
+		{[]string{"diff"}, exitBadInput, "specgen diff: give BASE"},
+		{[]string{"diff", "a", "b", "c"}, exitBadInput, `unexpected argument "c"`},
 	}
 	for _, c := range cases {
 		var stdout, stderr bytes.Buffer
@@ -165,5 +172,14 @@ func TestUsage(t *testing.T) {
 		if code != c.code || !strings.Contains(stdout.String()+stderr.String(), c.want) {
 			t.Errorf("specgen %v: exit %d, output %q; want exit %d and %q", c.args, code, stdout.String()+stderr.String(), c.code, c.want)
 		}
+	}
+}
+
+// TestUsageWithoutOptions: a command with no options shows no empty
+// "Options:" heading.
+func TestUsageWithoutOptions(t *testing.T) {
+	var stdout, stderr bytes.Buffer
+	if code := run([]string{"help", "version"}, &stdout, &stderr); code != exitOK || strings.Contains(stdout.String(), "Options:") {
+		t.Errorf("exit %d, output %q", code, stdout.String())
 	}
 }
