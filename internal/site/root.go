@@ -1,6 +1,7 @@
 package site
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"io/fs"
@@ -11,7 +12,8 @@ import (
 // is a file, before anything looks for files below it and reports a
 // confusing path such as "afile/dist: not a directory".
 func CheckRoot(root string) error {
-	info, err := os.Stat(root)
+	// An empty -C means the current folder, as filepath.Abs takes it.
+	info, err := os.Stat(cmp.Or(root, "."))
 	switch {
 	case errors.Is(err, fs.ErrNotExist):
 		return &Error{Msg: fmt.Sprintf("site root %s: no such folder; -C names the folder that holds content/", root)}

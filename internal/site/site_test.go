@@ -430,3 +430,14 @@ func TestStandardCautionFitsThePage(t *testing.T) {
 		}
 	}
 }
+
+// TestEmptyRootIsCurrentFolder: -C "" builds the current folder, as it did
+// before the root was checked, rather than "site root : no such folder".
+func TestEmptyRootIsCurrentFolder(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	t.Chdir(root)
+	if _, err := Build("", Options{}); err != nil {
+		t.Fatal(err)
+	}
+}
