@@ -247,27 +247,40 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	for name, data := range s.layouts.assets {
 		fixed["assets/"+name] = data
 	}
-	for name, data := range static {
-		fixed[name] = data
-	}
-	taken := map[string]bool{"results.json": true}
+	names := newOutputNames()
+	names.take("results.json", "specgen's own results.json")
 	for _, name := range slices.Sorted(maps.Keys(fixed)) {
-		if taken[name] {
-			return &Error{File: StaticDir + "/" + name, Msg: "this name is specgen's own output; rename the file"}
-		}
-		taken[name] = true
+		names.take(name, "specgen's own "+name)
 		if err := put(name, bytesOf(fixed[name])); err != nil {
 			return err
 		}
 	}
-	var mu sync.Mutex
-	claim := func(p *Page, name string) error {
-		mu.Lock()
-		defer mu.Unlock()
-		if taken[name] {
-			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with a file of the same name in static/, the assets or another page", name)}
+	for _, name := range slices.Sorted(maps.Keys(static)) {
+		if other, ok := names.take(name, StaticDir+"/"+name); !ok {
+			return &Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
 		}
-		taken[name] = true
+		if err := put(name, bytesOf(static[name])); err != nil {
+			return err
+		}
+	}
+	// Pages take their names in order before rendering in parallel, so
+	// that which of two clashing files is blamed never depends on timing.
+	var clashes ErrorList
+	for _, p := range s.Pages {
+		if other, ok := names.take(p.Out, p.File); !ok {
+			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
+		}
+	}
+	if err := clashes.Sorted(); err != nil {
+		return err
+	}
+	claim := func(p *Page, name string) error {
+		if name == p.Out {
+			return nil
+		}
+		if other, ok := names.take(name, p.File); !ok {
+			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
+		}
 		return nil
 	}
 	errs := make([]error, len(s.Pages))
