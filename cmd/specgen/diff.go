@@ -52,6 +52,15 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 	}
 	d := site.Compare(base, head)
 	d.Base, d.Head = fs.Arg(0), headName
+	for _, side := range []struct {
+		name string
+		f    *site.ResultsFile
+		verb string
+	}{{d.Base, base, "added"}, {d.Head, head, "removed"}} {
+		if side.f.NoSite {
+			d.Notes = append(d.Notes, fmt.Sprintf("There is no site at %s (no content/ folder in %s), so every block counts as %s.", side.name, *dir, side.verb))
+		}
+	}
 	if *format == "json" {
 		if err := d.WriteJSON(stdout); err != nil {
 			return report(stderr, err)

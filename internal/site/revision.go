@@ -59,6 +59,11 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	if untarErr != nil {
 		return nil, untarErr
 	}
+	// A revision from before the site existed has no blocks, so a pull
+	// request that adds the documentation shows every block as added.
+	if info, err := os.Stat(filepath.Join(tmp, rel, ContentDir)); err != nil || !info.IsDir() {
+		return &ResultsFile{Version: ResultsVersion, NoSite: true}, nil
+	}
 	s, err := Load(filepath.Join(tmp, rel))
 	if err != nil {
 		var list ErrorList
