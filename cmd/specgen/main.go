@@ -3,12 +3,15 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
 	"runtime/debug"
+	"syscall"
 
 	"specgen/internal/site"
 )
@@ -151,7 +154,11 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
-	opts := site.Options{Out: *out, Strict: *strict}
+	// Ctrl-C or a CI job's SIGTERM removes the unfinished output instead
+	// of leaving a hidden half-built folder beside it.
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	opts := site.Options{Out: *out, Strict: *strict, Context: ctx}
 	var prog *progress
 	if !*quiet {
 		prog = newProgress(stderr)

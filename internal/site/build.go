@@ -3,6 +3,8 @@ package site
 import (
 	"bytes"
 	"cmp"
+	"context"
+	"errors"
 	"fmt"
 	"html/template"
 	"io"
@@ -34,7 +36,13 @@ type Options struct {
 	// count of total. It may be called from several
 	// goroutines at once.
 	Progress func(stage string, done, total int)
+	// Context, when set, stops the build once it is done (Ctrl-C): the
+	// unfinished output is removed and the previous one stays as it was.
+	Context context.Context
 }
+
+// ErrInterrupted is returned by a build whose Context was done.
+var ErrInterrupted = errors.New("build interrupted; nothing written, the previous output is as it was")
 
 // Summary tells what a build did.
 type Summary struct {
@@ -193,7 +201,16 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	if err != nil {
 		return nil, err
 	}
-	err = s.emit(st.create, opts.Progress)
+	put := st.create
+	if ctx := opts.Context; ctx != nil {
+		put = func(name string, write func(io.Writer) error) error {
+			if ctx.Err() != nil {
+				return ErrInterrupted
+			}
+			return st.create(name, write)
+		}
+	}
+	err = s.emit(put, opts.Progress)
 	if err != nil {
 		st.abandon()
 		return nil, err

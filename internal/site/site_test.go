@@ -2,8 +2,10 @@ package site
 
 import (
 	"bytes"
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"flag"
 	"io/fs"
 	"maps"
@@ -439,5 +441,30 @@ func TestEmptyRootIsCurrentFolder(t *testing.T) {
 	t.Chdir(root)
 	if _, err := Build("", Options{}); err != nil {
 		t.Fatal(err)
+	}
+}
+
+// TestInterruptedBuildLeavesNothing: a build stopped part way (Ctrl-C)
+// removes its unfinished output folder and leaves the previous output as
+// it was.
+func TestInterruptedBuildLeavesNothing(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(root, DefaultOut)
+	before := treeHash(t, out)
+	writeFile(t, filepath.Join(root, "content", "new.md"), "# New page\n")
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, err := Build(root, Options{Context: ctx})
+	if !errors.Is(err, ErrInterrupted) {
+		t.Fatalf("want ErrInterrupted, got %v", err)
+	}
+	if left, _ := filepath.Glob(filepath.Join(root, ".dist.building-*")); len(left) > 0 {
+		t.Errorf("the interrupted build left %v", left)
+	}
+	if treeHash(t, out) != before {
+		t.Error("the interrupted build changed the previous output")
 	}
 }
