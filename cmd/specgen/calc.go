@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
+	"strings"
 
 	"specgen/internal/calc"
 	"specgen/internal/render"
@@ -25,6 +27,12 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		return exitBadInput
 	}
 	file := fs.Arg(0)
+	// A page parses as TOML (a heading is a comment) and would only be
+	// told that it lacks an id.
+	if strings.EqualFold(filepath.Ext(file), ".md") {
+		fmt.Fprintf(stderr, "specgen calc: %s is a Markdown page; calc reads one block's TOML (the lines inside a calc fence) from its own file. To evaluate the blocks of pages, run specgen check\n", file)
+		return exitBadInput
+	}
 	src, err := os.ReadFile(file)
 	if err != nil {
 		fmt.Fprintln(stderr, "specgen calc:", err)

@@ -183,3 +183,17 @@ func TestUsageWithoutOptions(t *testing.T) {
 		t.Errorf("exit %d, output %q", code, stdout.String())
 	}
 }
+
+// TestCalcOfPage: calc given a page says to use check, rather than that
+// the "block" has no id (a Markdown heading is a TOML comment).
+func TestCalcOfPage(t *testing.T) {
+	page := filepath.Join(t.TempDir(), "stage.md")
+	if err := os.WriteFile(page, []byte("# Stage\n\nText.\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var stdout, stderr bytes.Buffer
+	code := run([]string{"calc", page}, &stdout, &stderr)
+	if code != exitBadInput || !strings.Contains(stderr.String(), "is a Markdown page") || !strings.Contains(stderr.String(), "specgen check") {
+		t.Errorf("exit %d, stderr %q", code, stderr.String())
+	}
+}
