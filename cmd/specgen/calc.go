@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
+	"strings"
 
 	"specgen/internal/calc"
 	"specgen/internal/render"
@@ -12,8 +14,8 @@ import (
 func runCalc(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("calc", "calc [-sig N] FILE.toml", stderr)
 	sig := fs.Int("sig", 3, "significant figures of the values shown (2 to 8)")
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	if fs.NArg() != 1 {
 		fmt.Fprintln(stderr, "specgen calc: give one TOML file holding one calculation block")
@@ -25,6 +27,12 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		return exitBadInput
 	}
 	file := fs.Arg(0)
+	// A page parses as TOML (a heading is a comment) and would only be
+	// told that it lacks an id.
+	if strings.EqualFold(filepath.Ext(file), ".md") {
+		fmt.Fprintf(stderr, "specgen calc: %s is a Markdown page; calc reads one block's TOML (the lines inside a calc fence) from its own file. To evaluate the blocks of pages, run specgen check\n", file)
+		return exitBadInput
+	}
 	src, err := os.ReadFile(file)
 	if err != nil {
 		fmt.Fprintln(stderr, "specgen calc:", err)
@@ -54,9 +62,9 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 }
 
 func runExplain(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("explain", "explain [KIND]", stderr)
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	fs := newFlags("explain", "explain [KIND|materials|cautions]", stderr)
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	switch fs.NArg() {
 	case 0:

@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 
@@ -15,6 +16,39 @@ type checkReport struct {
 	Tally    site.Tally     `json:"tally"`
 	Problems []site.Problem `json:"problems"` // failed claims and unacknowledged DANGER cautions
 	Notices  []site.Problem `json:"notices"`  // the other cautions, which do not fail a check
+	// Errors are bad input (exit 2): the site could not be evaluated, so
+	// the tally is empty. A tool reading stdout gets JSON either way.
+	Errors []inputError `json:"errors"`
+}
+
+// inputError is one bad-input message of check -format json.
+type inputError struct {
+	File    string `json:"file"` // relative to the site root; "" when no file is to blame
+	Line    int    `json:"line"` // 0 when the whole file is meant
+	Message string `json:"message"`
+}
+
+// inputErrors lists err's messages for JSON, or nil when err is not bad
+// input.
+func inputErrors(err error) []inputError {
+	var list site.ErrorList
+	var one *site.Error
+	switch {
+	case errors.As(err, &list):
+	case errors.As(err, &one):
+		list = site.ErrorList{one}
+	default:
+		return nil
+	}
+	out := make([]inputError, len(list))
+	for i, e := range list {
+		msg := e.Msg
+		if e.Key != "" {
+			msg = e.Key + ": " + msg
+		}
+		out[i] = inputError{File: e.File, Line: e.Line, Message: msg}
+	}
+	return out
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
@@ -30,20 +64,21 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	}
 	s, err := site.Load(*dir)
 	if err != nil {
+		if errs := inputErrors(err); *format == "json" && errs != nil {
+			writeJSON(stdout, checkReport{Version: 1, Problems: []site.Problem{}, Notices: []site.Problem{}, Errors: errs})
+		}
 		return report(stderr, err)
 	}
 	problems, notices := s.Problems(), s.Notices()
 	tally := s.Tally()
 	if *format == "json" {
-		enc := json.NewEncoder(stdout)
-		enc.SetIndent("", "  ")
 		if problems == nil {
 			problems = []site.Problem{}
 		}
 		if notices == nil {
 			notices = []site.Problem{}
 		}
-		if err := enc.Encode(checkReport{Version: 1, OK: len(problems) == 0, Tally: tally, Problems: problems, Notices: notices}); err != nil {
+		if err := writeJSON(stdout, checkReport{Version: 1, OK: len(problems) == 0, Tally: tally, Problems: problems, Notices: notices, Errors: []inputError{}}); err != nil {
 			return report(stderr, err)
 		}
 	} else {
@@ -57,6 +92,12 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		return exitFailed
 	}
 	return exitOK
+}
+
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(v)
 }
 
 // count writes "1 block", "2 blocks".

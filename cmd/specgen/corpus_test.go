@@ -5,6 +5,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -16,7 +17,8 @@ import (
 //	# what the case is about
 //	exit 2
 //	want <a substring of the messages>   (any number of lines)
-//	args <command line, default: build>  (optional)
+//	args <command line, default: build>  (optional; run in the site root,
+//	                                      which -C names unless args do)
 //	crlf                                 (optional: files get \r\n line ends)
 //	-- path/in/site --
 //	file content; \xHH (two hex digits) stands for that byte
@@ -110,7 +112,13 @@ func TestBadInputCorpus(t *testing.T) {
 					t.Fatal(err)
 				}
 			}
-			args := append(append([]string{}, c.args...), "-C", root)
+			// Run from the site root, so that args may name its files
+			// (-C notes.txt, -out ../x) as a user in that folder would.
+			t.Chdir(root)
+			args := append([]string{}, c.args...)
+			if !slices.Contains(args, "-C") {
+				args = append(args, "-C", root)
+			}
 			var stdout, stderr bytes.Buffer
 			code := run(args, &stdout, &stderr)
 			msg := stderr.String()
@@ -150,6 +158,13 @@ func TestUsage(t *testing.T) {
 		{[]string{"build", "-nosuchflag"}, exitBadInput, "flag provided but not defined"},
 		{[]string{"build", "stray"}, exitBadInput, `unexpected argument "stray"`},
 		{[]string{"version"}, exitOK, "specgen "},
+		{[]string{"help", "help"}, exitOK, "Usage: specgen help [COMMAND]"},
+		{[]string{"help", "diff"}, exitOK, "BASE and HEAD"},
+		{[]string{"help", "init"}, exitOK, "Usage: specgen init DIR"},
+		{[]string{"help", "calc"}, exitOK, "-sig"},
+		{[]string{"explain", "-h"}, exitOK, "Usage: specgen explain [KIND|materials|cautions]"},
+		{[]string{"diff"}, exitBadInput, "specgen diff: give BASE"},
+		{[]string{"diff", "a", "b", "c"}, exitBadInput, `unexpected argument "c"`},
 	}
 	for _, c := range cases {
 		var stdout, stderr bytes.Buffer
@@ -157,5 +172,28 @@ func TestUsage(t *testing.T) {
 		if code != c.code || !strings.Contains(stdout.String()+stderr.String(), c.want) {
 			t.Errorf("specgen %v: exit %d, output %q; want exit %d and %q", c.args, code, stdout.String()+stderr.String(), c.code, c.want)
 		}
+	}
+}
+
+// TestUsageWithoutOptions: a command with no options shows no empty
+// "Options:" heading.
+func TestUsageWithoutOptions(t *testing.T) {
+	var stdout, stderr bytes.Buffer
+	if code := run([]string{"help", "version"}, &stdout, &stderr); code != exitOK || strings.Contains(stdout.String(), "Options:") {
+		t.Errorf("exit %d, output %q", code, stdout.String())
+	}
+}
+
+// TestCalcOfPage: calc given a page says to use check, rather than that
+// the "block" has no id (a Markdown heading is a TOML comment).
+func TestCalcOfPage(t *testing.T) {
+	page := filepath.Join(t.TempDir(), "stage.md")
+	if err := os.WriteFile(page, []byte("# Stage\n\nText.\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var stdout, stderr bytes.Buffer
+	code := run([]string{"calc", page}, &stdout, &stderr)
+	if code != exitBadInput || !strings.Contains(stderr.String(), "is a Markdown page") || !strings.Contains(stderr.String(), "specgen check") {
+		t.Errorf("exit %d, stderr %q", code, stderr.String())
 	}
 }

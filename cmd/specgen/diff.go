@@ -19,14 +19,19 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(fs.Output(), "Exit status 1 when a claim newly fails or a DANGER caution newly appears.\n\nOptions:")
 		fs.PrintDefaults()
 	}
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	if *format != "markdown" && *format != "json" {
 		fmt.Fprintf(stderr, "specgen diff: -format %q is not allowed; allowed: markdown, json\n", *format)
 		return exitBadInput
 	}
 	if fs.NArg() < 1 || fs.NArg() > 2 {
+		if fs.NArg() == 0 {
+			fmt.Fprintln(stderr, "specgen diff: give BASE, a git revision or a results.json file (and HEAD to compare it with, else the working tree)")
+		} else {
+			fmt.Fprintf(stderr, "specgen diff: unexpected argument %q; give BASE and at most HEAD\n", fs.Arg(2))
+		}
 		fs.Usage()
 		return exitBadInput
 	}
@@ -47,6 +52,15 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 	}
 	d := site.Compare(base, head)
 	d.Base, d.Head = fs.Arg(0), headName
+	for _, side := range []struct {
+		name string
+		f    *site.ResultsFile
+		verb string
+	}{{d.Base, base, "added"}, {d.Head, head, "removed"}} {
+		if side.f.NoSite {
+			d.Notes = append(d.Notes, fmt.Sprintf("There is no site at %s (no content/ folder in %s), so every block counts as %s.", side.name, *dir, side.verb))
+		}
+	}
 	if *format == "json" {
 		if err := d.WriteJSON(stdout); err != nil {
 			return report(stderr, err)
@@ -73,8 +87,8 @@ func resultsFor(dir, arg string) (*site.ResultsFile, error) {
 
 func runInit(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("init", "init DIR", stderr)
-	if err := fs.Parse(args); err != nil {
-		return exitBadInput
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	if fs.NArg() != 1 {
 		fmt.Fprintln(stderr, "specgen init: give the folder for the new site, e.g. specgen init docs")

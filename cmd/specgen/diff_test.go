@@ -114,6 +114,27 @@ func TestDiffRevisions(t *testing.T) {
 	}
 }
 
+// TestDiffRevisionWithoutSite: the pull request that adds the
+// documentation compares against a revision without content/; every block
+// is added (a failing claim among them still fails), not "does not build".
+func TestDiffRevisionWithoutSite(t *testing.T) {
+	root, commit := gitSite(t)
+	commit(map[string]string{"README": "no docs yet\n"}, "before the docs")
+	commit(map[string]string{"content/index.md": stagePage("low", "30 mm")}, "docs")
+	var stdout, stderr bytes.Buffer
+	code := run([]string{"diff", "-C", root, "HEAD~1", "HEAD"}, &stdout, &stderr)
+	out := stdout.String() + stderr.String()
+	// The page claims 19.7 cm³ ± 2 %; a 30 mm bore gives 22.6 cm³, so the claim fails.
+	if code != exitFailed {
+		t.Errorf("exit %d, want 1 (a newly failing claim):\n%s", code, out)
+	}
+	for _, w := range []string{"no content/ folder in", "every block counts as added", "- Added `low`"} {
+		if !strings.Contains(out, w) {
+			t.Errorf("output lacks %q:\n%s", w, out)
+		}
+	}
+}
+
 func TestDiffResultsFilesAndJSON(t *testing.T) {
 	dir := t.TempDir()
 	write := func(name, bore string) string {

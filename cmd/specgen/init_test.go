@@ -36,3 +36,36 @@ func TestInitBuildsCleanly(t *testing.T) {
 		t.Errorf("init into a non-empty folder: exit %d, %q", code, errb.String())
 	}
 }
+
+// TestInitNeverWritesOverFiles: an empty folder name once wrote the new
+// site into the current folder, over its content/index.md and specgen.toml;
+// a file is refused by name.
+func TestInitNeverWritesOverFiles(t *testing.T) {
+	cwd := t.TempDir()
+	t.Chdir(cwd)
+	mine := filepath.Join("content", "index.md")
+	if err := os.MkdirAll("content", 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(mine, []byte("# My own page\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile("notes.txt", []byte("mine\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct{ arg, want string }{
+		{"", "the folder name is empty"},
+		{"notes.txt", "notes.txt is a file"},
+	} {
+		var out, errb bytes.Buffer
+		if code := run([]string{"init", c.arg}, &out, &errb); code != exitBadInput || !strings.Contains(errb.String(), c.want) {
+			t.Errorf("init %q: exit %d, stderr %q; want exit 2 and %q", c.arg, code, errb.String(), c.want)
+		}
+	}
+	if b, _ := os.ReadFile(mine); string(b) != "# My own page\n" {
+		t.Errorf("content/index.md was written over: %q", b)
+	}
+	if _, err := os.Stat("specgen.toml"); err == nil {
+		t.Error("init wrote specgen.toml into the current folder")
+	}
+}

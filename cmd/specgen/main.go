@@ -3,12 +3,15 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
 	"runtime/debug"
+	"syscall"
 
 	"specgen/internal/site"
 )
@@ -92,8 +95,13 @@ func newFlags(name, synopsis string, stderr io.Writer) *flag.FlagSet {
 	fs := flag.NewFlagSet(name, flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	fs.Usage = func() {
-		fmt.Fprintf(fs.Output(), "Usage: specgen %s\n\nOptions:\n", synopsis)
-		fs.PrintDefaults()
+		fmt.Fprintf(fs.Output(), "Usage: specgen %s\n", synopsis)
+		any := false
+		fs.VisitAll(func(*flag.Flag) { any = true })
+		if any {
+			fmt.Fprintln(fs.Output(), "\nOptions:")
+			fs.PrintDefaults()
+		}
 	}
 	return fs
 }
@@ -101,15 +109,25 @@ func newFlags(name, synopsis string, stderr io.Writer) *flag.FlagSet {
 // parseFlags parses args and rejects stray arguments. It returns the exit
 // status to use when parsing did not succeed, or -1.
 func parseFlags(fs *flag.FlagSet, args []string) int {
-	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return exitOK
-		}
-		return exitBadInput
+	if code := parseOnly(fs, args); code >= 0 {
+		return code
 	}
 	if fs.NArg() > 0 {
 		fmt.Fprintf(fs.Output(), "specgen %s: unexpected argument %q\n", fs.Name(), fs.Arg(0))
 		fs.Usage()
+		return exitBadInput
+	}
+	return -1
+}
+
+// parseOnly parses the flags of a command that takes arguments too. It
+// returns the exit status when parsing ended the command (-h asks for
+// help: exit 0), or -1.
+func parseOnly(fs *flag.FlagSet, args []string) int {
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			return exitOK
+		}
 		return exitBadInput
 	}
 	return -1
@@ -136,7 +154,11 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
-	opts := site.Options{Out: *out, Strict: *strict}
+	// Ctrl-C or a CI job's SIGTERM removes the unfinished output instead
+	// of leaving a hidden half-built folder beside it.
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	opts := site.Options{Out: *out, Strict: *strict, Context: ctx}
 	var prog *progress
 	if !*quiet {
 		prog = newProgress(stderr)
@@ -209,8 +231,12 @@ func runHelp(args []string, stdout, stderr io.Writer) int {
 		usage(stdout)
 		return exitOK
 	}
+	if args[0] == "help" {
+		fmt.Fprintln(stdout, "Usage: specgen help [COMMAND]\n\nLists the commands, or shows one command's options.")
+		return exitOK
+	}
 	for _, c := range commands() {
-		if c.name == args[0] && c.name != "help" {
+		if c.name == args[0] {
 			return c.run([]string{"-h"}, stdout, stdout)
 		}
 	}

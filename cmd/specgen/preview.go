@@ -23,6 +23,9 @@ func runPreview(args []string, stdout, stderr io.Writer) int {
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
+	if err := site.CheckRoot(*dir); err != nil {
+		return report(stderr, err)
+	}
 	if err := site.CheckPreviewAddr(*addr, *public); err != nil {
 		return report(stderr, err)
 	}

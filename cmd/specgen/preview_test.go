@@ -167,3 +167,13 @@ func TestPreviewNeverServesHalfPages(t *testing.T) {
 	<-writer
 	t.Logf("%d whole pages fetched while the page changed", fetched)
 }
+
+// TestPreviewRootMissing: preview of a folder that does not exist stops
+// with exit 2 and says so, instead of serving an error page forever.
+func TestPreviewRootMissing(t *testing.T) {
+	missing := filepath.Join(t.TempDir(), "docs")
+	code, _, stderr := runWithin(t, time.Minute, "preview", "-C", missing, "-addr", "127.0.0.1:0")
+	if code != exitBadInput || !strings.Contains(stderr, "site root "+missing+": no such folder") {
+		t.Errorf("exit %d, stderr %q; want exit 2 and the missing folder named", code, stderr)
+	}
+}

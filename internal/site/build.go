@@ -3,6 +3,8 @@ package site
 import (
 	"bytes"
 	"cmp"
+	"context"
+	"errors"
 	"fmt"
 	"html/template"
 	"io"
@@ -34,7 +36,13 @@ type Options struct {
 	// count of total. It may be called from several
 	// goroutines at once.
 	Progress func(stage string, done, total int)
+	// Context, when set, stops the build once it is done (Ctrl-C): the
+	// unfinished output is removed and the previous one stays as it was.
+	Context context.Context
 }
+
+// ErrInterrupted is returned by a build whose Context was done.
+var ErrInterrupted = errors.New("build interrupted; nothing written, the previous output is as it was")
 
 // Summary tells what a build did.
 type Summary struct {
@@ -67,6 +75,9 @@ type Site struct {
 
 // Load reads a site root: configuration, templates and every page.
 func Load(root string) (*Site, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	root, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err
@@ -128,6 +139,9 @@ func Load(root string) (*Site, error) {
 // nothing the build reads has changed since the last build into the same
 // folder, and that output is as it was left, nothing is redone.
 func Build(root string, opts Options) (*Summary, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	root, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err
@@ -187,7 +201,16 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	if err != nil {
 		return nil, err
 	}
-	err = s.emit(st.create, opts.Progress)
+	put := st.create
+	if ctx := opts.Context; ctx != nil {
+		put = func(name string, write func(io.Writer) error) error {
+			if ctx.Err() != nil {
+				return ErrInterrupted
+			}
+			return st.create(name, write)
+		}
+	}
+	err = s.emit(put, opts.Progress)
 	if err != nil {
 		st.abandon()
 		return nil, err
@@ -241,27 +264,40 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	for name, data := range s.layouts.assets {
 		fixed["assets/"+name] = data
 	}
-	for name, data := range static {
-		fixed[name] = data
-	}
-	taken := map[string]bool{"results.json": true}
+	names := newOutputNames()
+	names.take("results.json", "specgen's own results.json")
 	for _, name := range slices.Sorted(maps.Keys(fixed)) {
-		if taken[name] {
-			return &Error{File: StaticDir + "/" + name, Msg: "this name is specgen's own output; rename the file"}
-		}
-		taken[name] = true
+		names.take(name, "specgen's own "+name)
 		if err := put(name, bytesOf(fixed[name])); err != nil {
 			return err
 		}
 	}
-	var mu sync.Mutex
-	claim := func(p *Page, name string) error {
-		mu.Lock()
-		defer mu.Unlock()
-		if taken[name] {
-			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with a file of the same name in static/, the assets or another page", name)}
+	for _, name := range slices.Sorted(maps.Keys(static)) {
+		if other, ok := names.take(name, StaticDir+"/"+name); !ok {
+			return &Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
 		}
-		taken[name] = true
+		if err := put(name, bytesOf(static[name])); err != nil {
+			return err
+		}
+	}
+	// Pages take their names in order before rendering in parallel, so
+	// that which of two clashing files is blamed never depends on timing.
+	var clashes ErrorList
+	for _, p := range s.Pages {
+		if other, ok := names.take(p.Out, p.File); !ok {
+			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
+		}
+	}
+	if err := clashes.Sorted(); err != nil {
+		return err
+	}
+	claim := func(p *Page, name string) error {
+		if name == p.Out {
+			return nil
+		}
+		if other, ok := names.take(name, p.File); !ok {
+			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
+		}
 		return nil
 	}
 	errs := make([]error, len(s.Pages))

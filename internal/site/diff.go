@@ -23,6 +23,9 @@ type Diff struct {
 	// NewDangers counts DANGER cautions that appeared unacknowledged.
 	NewlyFailing int `json:"newly_failing"`
 	NewDangers   int `json:"new_dangers"`
+	// Notes say what the reader must know to read the diff, such as a
+	// revision without the site.
+	Notes []string `json:"notes,omitempty"`
 }
 
 // BlockBrief names a block.
@@ -320,6 +323,9 @@ func unionKeys[V any](a, b map[string]V) []string {
 // paste as a pull-request comment.
 func (d *Diff) WriteMarkdown(w io.Writer) {
 	fmt.Fprintf(w, "### Calculation changes: `%s` → `%s`\n\n", mdCode(d.Base), mdCode(d.Head))
+	for _, n := range d.Notes {
+		fmt.Fprintf(w, "> %s\n\n", n)
+	}
 	if d.Empty() {
 		fmt.Fprintln(w, "No calculation changed.")
 		return

@@ -15,6 +15,14 @@ import (
 // example page with a compressor block, a claim and a chart. It refuses a
 // dir that exists and is not empty.
 func Init(dir string) ([]string, error) {
+	if dir == "" {
+		// ReadDir("") fails as "not exist", and the files would land in
+		// the current folder, over whatever is there.
+		return nil, &Error{Msg: "specgen init: the folder name is empty; give the folder for the new site, e.g. specgen init docs"}
+	}
+	if info, err := os.Stat(dir); err == nil && !info.IsDir() {
+		return nil, &Error{Msg: fmt.Sprintf("%s is a file; specgen init writes a new site into an empty or new folder", dir)}
+	}
 	entries, err := os.ReadDir(dir)
 	switch {
 	case errors.Is(err, fs.ErrNotExist):
@@ -38,7 +46,17 @@ func Init(dir string) ([]string, error) {
 			return err
 		}
 		written = append(written, rel)
-		return os.WriteFile(target, data, 0o644)
+		// O_EXCL: never write over a file, even one that appeared since
+		// the folder was found empty.
+		f, err := os.OpenFile(target, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
+		if err != nil {
+			return err
+		}
+		_, err = f.Write(data)
+		if cerr := f.Close(); err == nil {
+			err = cerr
+		}
+		return err
 	})
 	return written, err
 }

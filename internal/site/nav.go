@@ -87,7 +87,7 @@ func buildNav(pages []*Page) (*navNode, []*Page) {
 // NavItem is one entry of the navigation as a template sees it.
 type NavItem struct {
 	Title    string
-	URL      string // relative to the current page; "" for a folder without an index page
+	URL      string // relative to the current page; for a folder without an index page, its first page
 	Current  bool   // the page being rendered
 	Open     bool   // the current page lies inside this folder
 	Folder   bool
@@ -112,6 +112,10 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 			if c.Page != nil {
 				it.URL = rootPrefix + c.Page.Out
 				it.Current = c.Page == p
+			} else if first := firstPage(c); first != nil {
+				// A folder without index.md is closed on other pages;
+				// without a link its pages could not be reached.
+				it.URL = rootPrefix + first.Out
 			}
 			if it.Folder {
 				it.Open = p.Dir() == c.Dir || strings.HasPrefix(p.Dir(), c.Dir+"/")
@@ -129,6 +133,19 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 		top = append([]NavItem{home}, top...)
 	}
 	return top
+}
+
+// firstPage is the first page of a folder in reading order.
+func firstPage(n *navNode) *Page {
+	if n.Page != nil {
+		return n.Page
+	}
+	for _, c := range n.Children {
+		if p := firstPage(c); p != nil {
+			return p
+		}
+	}
+	return nil
 }
 
 // breadcrumbsFor lists the folders above p, from the home page down.

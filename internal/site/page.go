@@ -65,7 +65,7 @@ func findPages(root string) ([]string, error) {
 	dir := filepath.Join(root, ContentDir)
 	info, err := os.Stat(dir)
 	if err != nil || !info.IsDir() {
-		return nil, &Error{File: ContentDir, Msg: "no content/ folder here; a site root holds content/ with Markdown pages (use -C to point at the site root)"}
+		return nil, &Error{Msg: fmt.Sprintf("no content/ folder in %s; a site root holds content/ with Markdown pages (use -C to point at the site root)", root)}
 	}
 	var rels []string
 	err = filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
@@ -78,6 +78,14 @@ func findPages(root string) ([]string, error) {
 				return filepath.SkipDir
 			}
 			return nil
+		}
+		// WalkDir does not follow a linked folder; its pages would be
+		// missing from the site without a word.
+		if d.Type()&fs.ModeSymlink != 0 && !strings.EqualFold(filepath.Ext(name), ".md") {
+			if info, err := os.Stat(p); err == nil && info.IsDir() {
+				rel, _ := filepath.Rel(dir, p)
+				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link to a folder, which specgen does not follow (its pages would be left out); move or copy the folder into content/"}
+			}
 		}
 		if !d.IsDir() && strings.EqualFold(filepath.Ext(name), ".md") {
 			rel, err := filepath.Rel(dir, p)

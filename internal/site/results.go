@@ -18,6 +18,9 @@ const ResultsVersion = 1
 type ResultsFile struct {
 	Version int           `json:"version"`
 	Blocks  []ResultBlock `json:"blocks"`
+	// NoSite is set by ResultsAt for a revision without the site's
+	// content/ (before the documentation was added): no blocks.
+	NoSite bool `json:"-"`
 }
 
 // ResultBlock is one block in results.json.

@@ -18,6 +18,9 @@ import (
 // temporary copy taken with git archive: the user's tree and index are
 // never touched.
 func ResultsAt(root, rev string) (*ResultsFile, error) {
+	if err := CheckRoot(root); err != nil {
+		return nil, err
+	}
 	abs, err := filepath.Abs(root)
 	if err != nil {
 		return nil, err
@@ -55,6 +58,11 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	}
 	if untarErr != nil {
 		return nil, untarErr
+	}
+	// A revision from before the site existed has no blocks, so a pull
+	// request that adds the documentation shows every block as added.
+	if info, err := os.Stat(filepath.Join(tmp, rel, ContentDir)); err != nil || !info.IsDir() {
+		return &ResultsFile{Version: ResultsVersion, NoSite: true}, nil
 	}
 	s, err := Load(filepath.Join(tmp, rel))
 	if err != nil {

@@ -2,8 +2,10 @@ package site
 
 import (
 	"bytes"
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"flag"
 	"io/fs"
 	"maps"
@@ -359,6 +361,20 @@ func TestContentSymlinkRefused(t *testing.T) {
 	}
 }
 
+// TestContentFolderSymlinkRefused: a linked folder in content/ (here a
+// loop back to the site root) stops the build with its name instead of
+// its pages being left out without a word.
+func TestContentFolderSymlinkRefused(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if err := os.Symlink("..", filepath.Join(root, "content", "loop")); err != nil {
+		t.Skip("no symbolic links here:", err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !strings.Contains(err.Error(), "content/loop: is a symbolic link to a folder") {
+		t.Fatalf("want the linked folder refused, got %v", err)
+	}
+}
+
 // TestSiteWithoutHomePage: with no content/index.md the site title links
 // to the first page, and every link still resolves.
 func TestSiteWithoutHomePage(t *testing.T) {
@@ -369,6 +385,26 @@ func TestSiteWithoutHomePage(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkLinks(t, readTree(t, filepath.Join(root, DefaultOut)))
+}
+
+// TestFolderWithoutIndexLinked: a folder without index.md is closed in the
+// navigation of pages outside it, so its name links to its first page;
+// otherwise its pages could not be reached from there.
+func TestFolderWithoutIndexLinked(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	writeFile(t, filepath.Join(root, "content", "notes", "b.md"), "# Bravo\n")
+	writeFile(t, filepath.Join(root, "content", "notes", "a.md"), "# Alpha\n")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	home, err := os.ReadFile(filepath.Join(root, DefaultOut, "index.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := `<a href="notes/a.html">Notes</a>`; !strings.Contains(string(home), want) {
+		t.Errorf("index.html lacks %s in its navigation:\n%s", want, home)
+	}
 }
 
 // TestStandardCautionFitsThePage: a page whose only pressure calculation is
@@ -394,5 +430,41 @@ func TestStandardCautionFitsThePage(t *testing.T) {
 		if !strings.Contains(html, want) || !strings.Contains(html, "licensed practice govern") {
 			t.Errorf("%s: standard caution lacks %q or the deference to local codes", page, want)
 		}
+	}
+}
+
+// TestEmptyRootIsCurrentFolder: -C "" builds the current folder, as it did
+// before the root was checked, rather than "site root : no such folder".
+func TestEmptyRootIsCurrentFolder(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	t.Chdir(root)
+	if _, err := Build("", Options{}); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// TestInterruptedBuildLeavesNothing: a build stopped part way (Ctrl-C)
+// removes its unfinished output folder and leaves the previous output as
+// it was.
+func TestInterruptedBuildLeavesNothing(t *testing.T) {
+	root := buildCopy(t, "basic")
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(root, DefaultOut)
+	before := treeHash(t, out)
+	writeFile(t, filepath.Join(root, "content", "new.md"), "# New page\n")
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, err := Build(root, Options{Context: ctx})
+	if !errors.Is(err, ErrInterrupted) {
+		t.Fatalf("want ErrInterrupted, got %v", err)
+	}
+	if left, _ := filepath.Glob(filepath.Join(root, ".dist.building-*")); len(left) > 0 {
+		t.Errorf("the interrupted build left %v", left)
+	}
+	if treeHash(t, out) != before {
+		t.Error("the interrupted build changed the previous output")
 	}
 }
