@@ -293,7 +293,7 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		return r
 	}
 	r.OK = c.holds(v)
-	computed := strings.TrimSpace(units.Format(v, c.figuresToShow(v, sig, r.OK)) + " " + units.Pretty(c.Unit))
+	computed := withUnit(units.Format(v, c.figuresToShow(v, sig, r.OK)), c.Unit)
 	r.Shown = computed
 	absolute, absOK := c.readAbsolute(si, dim, ambient)
 	switch {
@@ -337,6 +337,19 @@ func (c Claim) readAbsolute(si float64, dim units.Dimension, ambient float64) (s
 	return abs.Symbol, c.holds(v)
 }
 
+// withUnit writes a number with a unit symbol as tables show it: "20.0 cm³",
+// "0.850", and an angle's degree sign without a space, "90.0°".
+func withUnit(num, unit string) string {
+	switch p := units.Pretty(unit); p {
+	case "":
+		return num
+	case "°":
+		return num + p
+	default:
+		return num + " " + p
+	}
+}
+
 // band words what an "about" claim allows, " (holds from 1179.5 to
 // 1180.5 N)", so that a failure shows why a near value fails; other claims
 // say it themselves.
@@ -355,7 +368,7 @@ func (c Claim) band(sig int) string {
 		}
 		return mant
 	}
-	return fmt.Sprintf(" (it holds from %s to %s %s)", bound(c.Value-tol), bound(c.Value+tol), units.Pretty(c.Unit))
+	return fmt.Sprintf(" (it holds from %s to %s)", bound(c.Value-tol), withUnit(bound(c.Value+tol), c.Unit))
 }
 
 // holds reports whether v, in the claim's unit, satisfies the claim.
