@@ -393,12 +393,14 @@ func (c Claim) holds(v float64) bool {
 
 // figuresToShow is how many significant figures make a computed value
 // show its verdict: a failed claim must not print a rounded value that
-// looks as if it held ("20.5" against "20 cm3" when it is 20.51).
+// looks as if it held ("20.5" against "20 cm3" when it is 20.51), nor a
+// claim that holds on its edge one that looks outside ("2.01" against
+// "2 ± 0.005" when it is 2.005).
 func (c Claim) figuresToShow(v float64, sig int, ok bool) int {
 	figs := max(sig, 3)
-	for !ok && figs < 8 {
+	for figs < 8 {
 		shown, err := strconv.ParseFloat(units.Format(v, figs), 64)
-		if err != nil || !c.holds(shown) {
+		if err != nil || c.holds(shown) == ok {
 			break
 		}
 		figs++
