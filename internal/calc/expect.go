@@ -186,6 +186,9 @@ func (c Claim) parseRange(lo, hi string, dim units.Dimension) (Claim, error) {
 	fail := func(why string) (Claim, error) {
 		return c, fmt.Errorf("%q %s; a claim reads like %s", c.Text, why, claimForms)
 	}
+	if lo == "" && hi != "" {
+		return fail("starts with a dash, which joins the ends of a range; write a minus sign as - or −")
+	}
 	if lo == "" || hi == "" {
 		return fail("is a range without two ends")
 	}
