@@ -186,6 +186,9 @@ func (c Claim) parseRange(lo, hi string, dim units.Dimension) (Claim, error) {
 	fail := func(why string) (Claim, error) {
 		return c, fmt.Errorf("%q %s; a claim reads like %s", c.Text, why, claimForms)
 	}
+	if lo == "" && hi != "" {
+		return fail("starts with a dash, which joins the ends of a range; write a minus sign as - or −")
+	}
 	if lo == "" || hi == "" {
 		return fail("is a range without two ends")
 	}
@@ -293,7 +296,7 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		return r
 	}
 	r.OK = c.holds(v)
-	computed := strings.TrimSpace(units.Format(v, c.figuresToShow(v, sig, r.OK)) + " " + units.Pretty(c.Unit))
+	computed := withUnit(units.Format(v, c.figuresToShow(v, sig, r.OK)), c.Unit)
 	r.Shown = computed
 	absolute, absOK := c.readAbsolute(si, dim, ambient)
 	switch {
@@ -337,6 +340,19 @@ func (c Claim) readAbsolute(si float64, dim units.Dimension, ambient float64) (s
 	return abs.Symbol, c.holds(v)
 }
 
+// withUnit writes a number with a unit symbol as tables show it: "20.0 cm³",
+// "0.850", and an angle's degree sign without a space, "90.0°".
+func withUnit(num, unit string) string {
+	switch p := units.Pretty(unit); p {
+	case "":
+		return num
+	case "°":
+		return num + p
+	default:
+		return num + " " + p
+	}
+}
+
 // band words what an "about" claim allows, " (holds from 1179.5 to
 // 1180.5 N)", so that a failure shows why a near value fails; other claims
 // say it themselves.
@@ -355,7 +371,7 @@ func (c Claim) band(sig int) string {
 		}
 		return mant
 	}
-	return fmt.Sprintf(" (it holds from %s to %s %s)", bound(c.Value-tol), bound(c.Value+tol), units.Pretty(c.Unit))
+	return fmt.Sprintf(" (it holds from %s to %s)", bound(c.Value-tol), withUnit(bound(c.Value+tol), c.Unit))
 }
 
 // holds reports whether v, in the claim's unit, satisfies the claim.
@@ -380,12 +396,14 @@ func (c Claim) holds(v float64) bool {
 
 // figuresToShow is how many significant figures make a computed value
 // show its verdict: a failed claim must not print a rounded value that
-// looks as if it held ("20.5" against "20 cm3" when it is 20.51).
+// looks as if it held ("20.5" against "20 cm3" when it is 20.51), nor a
+// claim that holds on its edge one that looks outside ("2.01" against
+// "2 ± 0.005" when it is 2.005).
 func (c Claim) figuresToShow(v float64, sig int, ok bool) int {
 	figs := max(sig, 3)
-	for !ok && figs < 8 {
+	for figs < 8 {
 		shown, err := strconv.ParseFloat(units.Format(v, figs), 64)
-		if err != nil || !c.holds(shown) {
+		if err != nil || c.holds(shown) == ok {
 			break
 		}
 		figs++

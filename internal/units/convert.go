@@ -31,6 +31,11 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 	if !finite(si) {
 		return 0, newError(unit, ": the value to show is not a finite number")
 	}
+	// Likewise a temperature at a scale's zero: 32 degF is 273.15000000000003 K,
+	// which is 0 degC, not "5.68e-14 degC".
+	if !difference && u.Offset != 0 && math.Abs(si-u.Offset) <= 1e-12*u.Offset {
+		si = u.Offset
+	}
 	v := u.fromSI(si, difference)
 	if !finite(v) {
 		return 0, newError(unit, ": the value is out of range in this unit")

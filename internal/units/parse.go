@@ -146,6 +146,8 @@ func notNumber(text string, want Dimension) string {
 	}
 	r, _ := utf8.DecodeRuneInString(t)
 	switch {
+	case strings.ContainsRune("–—‐‑‒﹣－", r):
+		return fmt.Sprintf(": not a number; it starts with %q, a dash: write a minus sign as - or −", r)
 	case unicode.IsDigit(r) || unicode.Is(unicode.No, r):
 		return fmt.Sprintf(": not a number; %q is not one of the digits 0-9 (write numbers with ASCII digits)", r)
 	case r >= utf8.RuneSelf && !unicode.IsLetter(r):

@@ -24,6 +24,14 @@ func suggest(key string, accept func(Unit) bool) string {
 			}
 		}
 	}
+	// "bar abs", "psi (gauge)": the reference spelled out.
+	for _, w := range markWords {
+		if base, found := strings.CutSuffix(key, w.word); found {
+			if u, known := unitIndex[base+w.mark]; known && ok(indexEntry{base + w.mark, u}) {
+				return base + w.mark
+			}
+		}
+	}
 	for _, e := range unitSpellings {
 		if ok(e) && strings.EqualFold(e.key, key) {
 			return e.key
@@ -47,6 +55,13 @@ func suggest(key string, accept func(Unit) bool) string {
 		}
 	}
 	return best
+}
+
+// markWords are a pressure's reference spelled out after the unit, as
+// normalized keys, with the mark meant.
+var markWords = []struct{ word, mark string }{
+	{" abs", "(a)"}, {" absolute", "(a)"}, {"(abs)", "(a)"}, {"(absolute)", "(a)"},
+	{" gauge", "(g)"}, {" gage", "(g)"}, {"(gauge)", "(g)"}, {"(gage)", "(g)"},
 }
 
 // hints are near misses that edit distance gets wrong: "C" is closer to
