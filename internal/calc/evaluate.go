@@ -750,7 +750,7 @@ func describeRange(spec InputSpec, unit string, ambient float64, sig int) string
 		if err != nil {
 			return units.Format(v, sig)
 		}
-		return s
+		return trimBound(s)
 	}
 	r := spec.Range
 	var parts []string
@@ -842,4 +842,18 @@ func meaningAside(meaning string) string {
 		return ""
 	}
 	return " (" + meaning + ")"
+}
+
+// trimBound drops the trailing zeros significant figures add to a range's
+// bound ("0.0000100 bar(a)" is "0.00001 bar(a)"): a bound is exact.
+func trimBound(s string) string {
+	num, unit, _ := strings.Cut(s, " ")
+	if !strings.Contains(num, ".") || strings.ContainsAny(num, "eE") {
+		return s
+	}
+	num = strings.TrimSuffix(strings.TrimRight(num, "0"), ".")
+	if unit == "" {
+		return num
+	}
+	return num + " " + unit
 }
