@@ -152,8 +152,11 @@ func evaluateVacuum(in *Inputs) (*Outcome, error) {
 	mbar, lpm, mm, cm3 := traceIn(cust, "mbar(a)"), traceIn(cust, "L/min"), traceIn(cust, "mm"), traceIn(cust, "cm3")
 	num := func(x float64) string { return show(x, "") }
 	speed := func(p float64) Trace {
+		// Near the ultimate pressure η_v is a small difference: more figures.
+		sig := figuresFor(1, pump.efficiency(p))
+		pa := traceInSig(cust, "mbar(a)", sig)
 		return Trace{"S = V̇d · η_v, η_v = 1 − c·((p_a/p)^(1/n) − 1)",
-			fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), num(pump.c), mbar(v.ambient), mbar(p), num(pump.n))}
+			fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), showSig(pump.c, "", sig), pa(v.ambient), pa(p), num(pump.n))}
 	}
 	res := []Result{
 		{Name: "displacement_rate", Value: pump.rate, Dim: units.VolumeFlow, Trace: Trace{
