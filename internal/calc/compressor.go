@@ -300,15 +300,17 @@ func showSig(v float64, unit string, sig int) string {
 
 // figuresFor is how many significant figures the terms of a trace need so
 // that a result that is their small difference still comes out to
-// traceFigures: 4, plus the digits lost to cancellation (the rounded log10
-// of term over result). Without them a reviewer working the trace of a low
+// traceFigures: 4, plus the digits lost to cancellation (about log10 of
+// term over result). Without them a reviewer working the trace of a low
 // pressure ratio or a near dead-head by hand gets a different answer.
 func figuresFor(term, result float64) int {
 	ratio := math.Abs(term / result)
 	if !(ratio > 1) || math.IsInf(ratio, 0) {
 		return traceFigures
 	}
-	return traceFigures + min(int(math.Round(math.Log10(ratio))), 8)
+	// Each term rounded to traceFigures is off by up to about 5e-4 of
+	// itself; the difference, by that times ratio.
+	return traceFigures + max(0, min(int(math.Ceil(math.Log10(0.7*ratio))), 8))
 }
 
 // polytropicWork returns the work to compress a volume v drawn in at p1

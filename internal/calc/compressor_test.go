@@ -753,3 +753,68 @@ func TestTracesWorkOutNearCancellation(t *testing.T) {
 		t.Errorf("motor work trace %q: %d numbers", m.Trace.Substituted, len(v))
 	}
 }
+
+// TestTracesWorkOutNearCancellationOtherKinds does the same for the other
+// kinds' small differences: the stored energy of a receiver just above
+// ambient, the specific work of a pressure ratio near 1, the Lamé stresses
+// of a thin wall (ro² − ri²), and a pump-down over a small drop.
+func TestTracesWorkOutNearCancellationOtherKinds(t *testing.T) {
+	srcs := []string{
+		"id = \"rx\"\nkind = \"tank\"\nvolume = \"50 L\"\npressure = \"0.0537 bar\"\n",
+		"id = \"st\"\nkind = \"multistage\"\nstages = 2\ndischarge_pressure = \"0.0537 bar\"\n",
+		"id = \"wall\"\nkind = \"tube\"\ninner_diameter = \"50 mm\"\nwall_thickness = \"0.123 mm\"\npressure = \"0.5 bar\"\nmaterial = \"s235\"\n",
+		"id = \"pot\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\nclearance_volume = \"3.9 cm3\"\n" +
+			"speed = \"1440 rpm\"\nvessel_volume = \"10 L\"\nstart_pressure = \"987.6 mbar(a)\"\ntarget_pressure = \"973.21 mbar(a)\"\n",
+	}
+	var blocks []*Block
+	for i, s := range srcs {
+		b, err := ParseBlock("content/x.md", 20*i, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+	}
+	set, err := Evaluate(blocks, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		id, result string
+		numbers    int
+		work       func(v []float64) float64
+	}{
+		// E = p · V / 0.4 · [1 − (p_a / p)^(0.4/1.4)]: bar(a), L.
+		{"rx", "stored_energy", 8, func(v []float64) float64 {
+			return v[0] * 1e5 * v[1] * 1e-3 / v[2] * (v[3] - math.Pow(v[4]/v[5], v[6]/v[7]))
+		}},
+		// w = N · n/(n−1) · R · T1 · (r^((n−1)/n) − 1): J/(kg K), K.
+		{"st", "specific_work", 9, func(v []float64) float64 {
+			return v[0] * v[1] / v[2] * v[3] * v[4] * (math.Pow(v[5], v[6]/v[7]) - v[8])
+		}},
+		// σ_θ = p · (ro² + ri²) / (ro² − ri²): bar, mm.
+		{"wall", "hoop_stress", 5, func(v []float64) float64 {
+			return v[0] * 1e5 * (v[1]*v[1] + v[2]*v[2]) / (v[3]*v[3] - v[4]*v[4])
+		}},
+		// t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η0/η)]: L, L/min.
+		{"pot", "pumpdown_time", 9, func(v []float64) float64 {
+			return v[0] * 1e-3 / (v[1] / 6e4 * (v[2] + v[3])) * (math.Log(v[4]/v[5]) + v[6]*math.Log(v[7]/v[8]))
+		}},
+	}
+	for _, c := range cases {
+		e, _ := set.Lookup(c.id)
+		r, ok := e.Result(c.result)
+		if !ok {
+			t.Fatalf("%s has no %s", c.id, c.result)
+		}
+		v := traceNumbers(t, r)
+		if len(v) != c.numbers {
+			t.Errorf("%s.%s: trace %q has %d numbers, want %d", c.id, c.result, r.Trace.Substituted, len(v), c.numbers)
+			continue
+		}
+		got := c.work(v)
+		t.Logf("%s.%s: %q works out to %.6g, result %.6g", c.id, c.result, r.Trace.Substituted, got, r.Value)
+		if math.Abs(got-r.Value) > 1e-3*math.Abs(r.Value) {
+			t.Errorf("%s.%s: trace %q works out to %.6g, result %.6g", c.id, c.result, r.Trace.Substituted, got, r.Value)
+		}
+	}
+}

@@ -390,7 +390,9 @@ func storedEnergyResult(t tankInput) Result {
 	p, pa, v := t.target, t.ambient, t.volume
 	e := -p * v / (airGamma - 1) * math.Expm1(k*math.Log(pa/p))
 	iso := p * v * math.Log(p/pa)
-	bara, litres := traceIn(t.customary, "bar(a)"), traceIn(t.customary, "L")
+	// Near ambient, 1 − (p_a/p)^k is a small difference: more figures.
+	bara := traceInSig(t.customary, "bar(a)", figuresFor(p, p-pa))
+	litres := traceIn(t.customary, "L")
 	return Result{Name: "stored_energy", Value: e, Dim: units.Energy, Trace: Trace{
 		"E = p·V/(γ−1) · [1 − (p_a/p)^((γ−1)/γ)], γ = 1.4 (isentropic expansion to ambient, as ASME PCC-2 Art. 501 for pneumatic tests)",
 		fmt.Sprintf("= %s · %s / 0.4 · [1 − (%s / %s)^(0.4/1.4)]; isothermal for comparison: p·V·ln(p/p_a) = %s",
