@@ -172,7 +172,11 @@ func hotDischarge(s *Set) []raised {
 			case t2.Value > limit:
 				out = append(out, raised{e, CautionNote{Level: Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
 			case t2.Value > limit-hotMargin:
-				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within 10 K of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+				margin := "10 K"
+				if e.unitFor(units.Temperature, "degC") == "degF" {
+					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
+				}
+				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
 			}
 		}
 	}
