@@ -52,7 +52,7 @@ var rules = []Rule{
 	{ID: "low-safety-factor", Level: Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", check: lowSafetyFactor},
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
-	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it in protects: every compressor needs a relief valve", check: reliefUnnamed},
+	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", check: reliefUnnamed},
 	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", check: reliefBelowTarget},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
@@ -172,7 +172,11 @@ func hotDischarge(s *Set) []raised {
 			case t2.Value > limit:
 				out = append(out, raised{e, CautionNote{Level: Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
 			case t2.Value > limit-hotMargin:
-				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within 10 K of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+				margin := "10 K"
+				if e.unitFor(units.Temperature, "degC") == "degF" {
+					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
+				}
+				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
 			}
 		}
 	}
@@ -336,9 +340,17 @@ func reliefUnnamed(s *Set) []raised {
 		if !ok || c.Block.Kind.Name != "compressor" || ve.Value <= 0 {
 			continue
 		}
+		// A relief on the receiver the compressor fills (the usual place)
+		// relieves the compressor too, as the no-relief rule counts it.
 		named := false
 		for _, v := range s.Blocks {
-			named = named || (v.Block.Kind.Name == "valve" && v.links(c.Block.ID))
+			if v.Block.Kind.Name != "valve" {
+				continue
+			}
+			named = named || v.links(c.Block.ID)
+			for _, p := range s.Blocks {
+				named = named || (p != v && v.links(p.Block.ID) && p.links(c.Block.ID))
+			}
 		}
 		if named {
 			continue

@@ -263,21 +263,32 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 // of the unit table, or in its US customary counterpart when customary.
 // Only for units read from zero (lengths, volumes, absolute pressures).
 func traceIn(customary bool, unit string) func(float64) string {
+	return traceInSig(customary, unit, traceFigures)
+}
+
+// traceInSig is traceIn at sig significant figures.
+func traceInSig(customary bool, unit string, sig int) func(float64) string {
 	if customary {
 		unit = units.CustomaryFor(unit)
 	}
 	u, err := units.LookupUnit(unit)
 	if err != nil {
-		return func(si float64) string { return show(si, unit) }
+		return func(si float64) string { return showSig(si, unit, sig) }
 	}
 	pretty := units.Pretty(u.Symbol)
-	return func(si float64) string { return show((si-u.Offset)/u.Factor, pretty) }
+	return func(si float64) string { return showSig((si-u.Offset)/u.Factor, pretty, sig) }
 }
+
+// traceFigures is the number of significant figures of a trace's numbers.
+const traceFigures = 4
 
 // show formats a value already scaled to unit at 4 significant figures,
 // without trailing zeros after the decimal point ("28 mm", "1.013 bar(a)").
-func show(v float64, unit string) string {
-	s := units.Format(v, 4)
+func show(v float64, unit string) string { return showSig(v, unit, traceFigures) }
+
+// showSig is show at sig significant figures.
+func showSig(v float64, unit string, sig int) string {
+	s := units.Format(v, sig)
 	if strings.Contains(s, ".") && !strings.Contains(s, "e") {
 		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
 	}
@@ -285,6 +296,21 @@ func show(v float64, unit string) string {
 		return s
 	}
 	return s + " " + unit
+}
+
+// figuresFor is how many significant figures the terms of a trace need so
+// that a result that is their small difference still comes out to
+// traceFigures: 4, plus the digits lost to cancellation (about log10 of
+// term over result). Without them a reviewer working the trace of a low
+// pressure ratio or a near dead-head by hand gets a different answer.
+func figuresFor(term, result float64) int {
+	ratio := math.Abs(term / result)
+	if !(ratio > 1) || math.IsInf(ratio, 0) {
+		return traceFigures
+	}
+	// Each term rounded to traceFigures is off by up to about 5e-4 of
+	// itself; the difference, by that times ratio.
+	return traceFigures + max(0, min(int(math.Ceil(math.Log10(0.7*ratio))), 8))
 }
 
 // polytropicWork returns the work to compress a volume v drawn in at p1
@@ -351,6 +377,17 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 	num := func(v float64) string { return show(v, "") }
 	rps := show(revs, "rev/s")
 	nWord := num(c.n)
+	// Enough figures that the differences in the traces (r − 1 at a low
+	// ratio, 1 − c·(...) near dead-head, p − p_amb) work out by hand.
+	rSig := figuresFor(r, r-1)
+	ratio := showSig(r, "", rSig)
+	veSig := max(rSig, figuresFor(1, ve))
+	atTop := cyc.top-c.ambient >= c.ambient-c.p1
+	forceSig := figuresFor(cyc.top, cyc.top-c.ambient)
+	if !atTop {
+		forceSig = figuresFor(c.ambient, c.ambient-c.p1)
+	}
+	forceBar := traceInSig(cust, "bar(a)", forceSig)
 
 	res := []Result{
 		{Name: "piston_area", Value: area, Dim: units.Area, Trace: Trace{
@@ -367,23 +404,23 @@ func evaluateCompressor(in *Inputs) (*Outcome, error) {
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: Trace{
 			"r = p2 / p1", "= " + bara(c.p2) + " / " + bara(c.p1)}},
 		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: Trace{
-			"η_v = 1 − c·(r^(1/n) − 1)", "= 1 − " + num(c.clearanceRatio) + "·(" + num(r) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
+			"η_v = 1 − c·(r^(1/n) − 1)", "= 1 − " + showSig(c.clearanceRatio, "", veSig) + "·(" + showSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
 		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: Trace{
 			"FAD = η_v · V̇_d", "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: Trace{
 			"p_max = p1 · CR^n", "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
 		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
-			Trace: peakForceTrace(delivers, cyc.top-c.ambient >= c.ambient-c.p1, bara(cyc.top), bara(c.p1), bara(c.ambient), mm2(area))},
+			Trace: peakForceTrace(delivers, atTop, forceBar(cyc.top), forceBar(c.p1), forceBar(c.ambient), mm2(area))},
 		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: Trace{
 			"c_m = 2 · s · N", "= 2 · " + mm(stroke) + " · " + rps}},
 		{Name: "max_rod_angle", Value: math.Asin(c.crankRadius / c.rod), Dim: units.Angle, Trace: Trace{
 			"φ_max = asin(R / L)", "= asin(" + mm(c.crankRadius) + " / " + mm(c.rod) + ")"}},
-		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: workTrace(num(z), bara(c.p1), cm3(vi), num(r), c.n)},
+		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: workTrace(num(z), bara(c.p1), cm3(vi), ratio, c.n)},
 		{Name: "indicated_power", Value: power, Dim: units.Power, Trace: Trace{
 			"P_i = W · N", "= " + show(work, "J") + " · " + rps}},
 		{Name: "isothermal_power", Value: isoPower, Dim: units.Power, Trace: Trace{
-			"P_iso = z · p1 · Vi · ln r · N", "= " + num(z) + " · " + bara(c.p1) + " · " + cm3(vi) + " · ln " + num(r) + " · " + rps}},
+			"P_iso = z · p1 · Vi · ln r · N", "= " + num(z) + " · " + bara(c.p1) + " · " + cm3(vi) + " · ln " + ratio + " · " + rps}},
 		{Name: "shaft_power", Value: power / c.etaMech, Dim: units.Power, Trace: Trace{
 			"P_s = P_i / η_m", "= " + watts(power) + " / " + num(c.etaMech)}},
 		{Name: "mean_torque", Value: meanTorque, Dim: units.Torque, Trace: Trace{

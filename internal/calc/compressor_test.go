@@ -6,6 +6,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -661,5 +663,158 @@ func TestCustomaryChartDescriptions(t *testing.T) {
 	c, _ := set.Lookup("c")
 	if pv, _ := c.Chart("pv"); !strings.Contains(pv.Desc, "delivered at 115 psia") {
 		t.Errorf("pv chart: %s", pv.Desc)
+	}
+}
+
+// traceNumbers returns the numbers of a trace's substituted working, in
+// order, up to its first ";" (what follows is commentary).
+func traceNumbers(t *testing.T, r Result) []float64 {
+	t.Helper()
+	sub, _, _ := strings.Cut(r.Trace.Substituted, ";")
+	var v []float64
+	for _, s := range regexp.MustCompile(`[0-9]+(\.[0-9]+)?`).FindAllString(sub, -1) {
+		x, _ := strconv.ParseFloat(s, 64)
+		v = append(v, x)
+	}
+	return v
+}
+
+// TestTracesWorkOutNearCancellation works, from the numbers the traces
+// show, results that are a small difference of larger terms: the work of a
+// pressure ratio of 1.012345, a piston force 0.012345 bar above ambient,
+// a pumping speed near the ultimate pressure, an air motor's net work near
+// zero. Shown at 4 figures each, the terms would give them 1 to 3 % off;
+// the traces must carry the figures that bring them within 0.1 %.
+func TestTracesWorkOutNearCancellation(t *testing.T) {
+	cyl := "bore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\nspeed = \"600 rpm\"\n"
+	srcs := []string{
+		"id = \"blower\"\nkind = \"compressor\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
+			"clearance_ratio = 0.05\ninlet_pressure = \"1 bar(a)\"\ndischarge_pressure = \"1.012345 bar(a)\"\n",
+		"id = \"pump\"\nkind = \"vacuum\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
+			"clearance_volume = \"3.9 cm3\"\nvessel_volume = \"10 L\"\ntarget_pressure = \"19 mbar(a)\"\n",
+		"id = \"air\"\nkind = \"motor\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
+			"clearance_ratio = 0.05\nsupply_pressure = \"2 bar(a)\"\ncutoff = 0.17\npolytropic_index = 1\n",
+	}
+	var blocks []*Block
+	for i, s := range srcs {
+		b, err := ParseBlock("content/x.md", 20*i, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+	}
+	set, err := Evaluate(blocks, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	result := func(id, name string) Result {
+		e, _ := set.Lookup(id)
+		r, ok := e.Result(name)
+		if !ok {
+			t.Fatalf("%s has no %s", id, name)
+		}
+		return r
+	}
+	check := func(r Result, got float64) {
+		t.Helper()
+		t.Logf("%s: %q works out to %.6g, result %.6g", r.Name, r.Trace.Substituted, got, r.Value)
+		if math.Abs(got-r.Value) > 1e-3*math.Abs(r.Value) {
+			t.Errorf("%s: trace %q works out to %.6g, result %.6g", r.Name, r.Trace.Substituted, got, r.Value)
+		}
+	}
+	// W = z · n/(n−1) · p1 · Vi · (r^((n−1)/n) − 1): bar(a), cm³.
+	w := result("blower", "indicated_work")
+	if v := traceNumbers(t, w); len(v) == 9 {
+		check(w, v[0]*v[1]/v[2]*v[3]*1e5*v[4]*1e-6*(math.Pow(v[5], v[6]/v[7])-v[8]))
+	} else {
+		t.Errorf("work trace %q: %d numbers", w.Trace.Substituted, len(v))
+	}
+	// F = (p2 − p_amb) · A: bar(a), mm².
+	f := result("blower", "peak_piston_force")
+	if v := traceNumbers(t, f); len(v) == 3 {
+		check(f, (v[0]-v[1])*1e5*v[2]*1e-6)
+	} else {
+		t.Errorf("force trace %q: %d numbers", f.Trace.Substituted, len(v))
+	}
+	// S = V̇d · (1 − c·((p_a/p)^(1/n) − 1)): L/min, mbar(a); c = 3.9 cm³ /
+	// 78.54 cm³ = 0.049656 and the ultimate pressure is 1000 mbar(a) ·
+	// (c/(1 + c))^1.3 = 18.94 mbar(a).
+	s := result("pump", "target_pumping_speed")
+	if v := traceNumbers(t, s); len(v) == 8 {
+		check(s, v[0]/6e4*(v[1]-v[2]*(math.Pow(v[3]/v[4], v[5]/v[6])-v[7])))
+	} else {
+		t.Errorf("speed trace %q: %d numbers", s.Trace.Substituted, len(v))
+	}
+	// W = z · (p_s · (V1 − Vc) + expansion − p_a · Vs): bar(a), cm³, J.
+	m := result("air", "indicated_work")
+	if v := traceNumbers(t, m); len(v) == 6 {
+		check(m, v[0]*(v[1]*1e5*v[2]*1e-6+v[3]-v[4]*1e5*v[5]*1e-6))
+	} else {
+		t.Errorf("motor work trace %q: %d numbers", m.Trace.Substituted, len(v))
+	}
+}
+
+// TestTracesWorkOutNearCancellationOtherKinds does the same for the other
+// kinds' small differences: the stored energy of a receiver just above
+// ambient, the specific work of a pressure ratio near 1, the Lamé stresses
+// of a thin wall (ro² − ri²), and a pump-down over a small drop.
+func TestTracesWorkOutNearCancellationOtherKinds(t *testing.T) {
+	srcs := []string{
+		"id = \"rx\"\nkind = \"tank\"\nvolume = \"50 L\"\npressure = \"0.0537 bar\"\n",
+		"id = \"st\"\nkind = \"multistage\"\nstages = 2\ndischarge_pressure = \"0.0537 bar\"\n",
+		"id = \"wall\"\nkind = \"tube\"\ninner_diameter = \"50 mm\"\nwall_thickness = \"0.123 mm\"\npressure = \"0.5 bar\"\nmaterial = \"s235\"\n",
+		"id = \"pot\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\nclearance_volume = \"3.9 cm3\"\n" +
+			"speed = \"1440 rpm\"\nvessel_volume = \"10 L\"\nstart_pressure = \"987.6 mbar(a)\"\ntarget_pressure = \"973.21 mbar(a)\"\n",
+	}
+	var blocks []*Block
+	for i, s := range srcs {
+		b, err := ParseBlock("content/x.md", 20*i, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+	}
+	set, err := Evaluate(blocks, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		id, result string
+		numbers    int
+		work       func(v []float64) float64
+	}{
+		// E = p · V / 0.4 · [1 − (p_a / p)^(0.4/1.4)]: bar(a), L.
+		{"rx", "stored_energy", 8, func(v []float64) float64 {
+			return v[0] * 1e5 * v[1] * 1e-3 / v[2] * (v[3] - math.Pow(v[4]/v[5], v[6]/v[7]))
+		}},
+		// w = N · n/(n−1) · R · T1 · (r^((n−1)/n) − 1): J/(kg K), K.
+		{"st", "specific_work", 9, func(v []float64) float64 {
+			return v[0] * v[1] / v[2] * v[3] * v[4] * (math.Pow(v[5], v[6]/v[7]) - v[8])
+		}},
+		// σ_θ = p · (ro² + ri²) / (ro² − ri²): bar, mm.
+		{"wall", "hoop_stress", 5, func(v []float64) float64 {
+			return v[0] * 1e5 * (v[1]*v[1] + v[2]*v[2]) / (v[3]*v[3] - v[4]*v[4])
+		}},
+		// t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η0/η)]: L, L/min.
+		{"pot", "pumpdown_time", 9, func(v []float64) float64 {
+			return v[0] * 1e-3 / (v[1] / 6e4 * (v[2] + v[3])) * (math.Log(v[4]/v[5]) + v[6]*math.Log(v[7]/v[8]))
+		}},
+	}
+	for _, c := range cases {
+		e, _ := set.Lookup(c.id)
+		r, ok := e.Result(c.result)
+		if !ok {
+			t.Fatalf("%s has no %s", c.id, c.result)
+		}
+		v := traceNumbers(t, r)
+		if len(v) != c.numbers {
+			t.Errorf("%s.%s: trace %q has %d numbers, want %d", c.id, c.result, r.Trace.Substituted, len(v), c.numbers)
+			continue
+		}
+		got := c.work(v)
+		t.Logf("%s.%s: %q works out to %.6g, result %.6g", c.id, c.result, r.Trace.Substituted, got, r.Value)
+		if math.Abs(got-r.Value) > 1e-3*math.Abs(r.Value) {
+			t.Errorf("%s.%s: trace %q works out to %.6g, result %.6g", c.id, c.result, r.Trace.Substituted, got, r.Value)
+		}
 	}
 }

@@ -217,6 +217,10 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 
 	cust := in.Customary()
 	mm, cm3, bara := traceIn(cust, "mm"), traceIn(cust, "cm3"), traceIn(cust, "bar(a)")
+	// The net work is a difference of the admission and expansion work and
+	// the exhaust work: enough figures that it works out by hand.
+	wSig := figuresFor(c.ps*(c.v1-c.v0)+expand, w1)
+	wBar, wCm3 := traceInSig(cust, "bar(a)", wSig), traceInSig(cust, "cm3", wSig)
 	num := func(v float64) string { return show(v, "") }
 	rps := show(revs, "rev/s")
 	expandTrace := "p_s·V1/(n−1)·(1 − (V1/V2)^(n−1))"
@@ -233,7 +237,7 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 			"T_e = T_s · (p_e/p_s)^((n−1)/n)", "= " + show(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
 		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: Trace{
 			"W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)",
-			"= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1-c.v0) + " + " + show(expand, "J") + " − " + bara(c.pa) + " · " + cm3(swept) + ")"}},
+			"= " + num(z) + " · (" + wBar(c.ps) + " · " + wCm3(c.v1-c.v0) + " + " + showSig(expand, "J", wSig) + " − " + wBar(c.pa) + " · " + wCm3(swept) + ")"}},
 		{Name: "indicated_power", Value: work * revs, Dim: units.Power, Trace: Trace{
 			"P_i = W · N", "= " + show(work, "J") + " · " + rps}},
 		{Name: "mean_torque", Value: work / (2 * math.Pi), Dim: units.Torque, Trace: Trace{

@@ -180,6 +180,8 @@ func evaluateMultistage(in *Inputs) (*Outcome, error) {
 	num := func(x float64) string { return show(x, "") }
 	kelvin := func(t float64) string { return show(t, "K") }
 	nw, nm1 := num(m.n), num(m.n-1)
+	// A ratio near 1 needs more figures for r^k − 1 and ln r to work out.
+	rs, rAlls := showSig(r, "", figuresFor(r, r-1)), showSig(rAll, "", figuresFor(rAll, rAll-1))
 	res := []Result{{Name: "stage_pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: Trace{
 		"r = (p2/p1)^(1/N)", fmt.Sprintf("= (%s / %s)^(1/%d)", bara(m.p2), bara(m.p1), m.stages)}}}
 	for k := 1; k < m.stages; k++ {
@@ -195,19 +197,19 @@ func evaluateMultistage(in *Inputs) (*Outcome, error) {
 	switch {
 	case m.n == 1:
 		wTrace = Trace{"w = R · (T1 + (N−1)·T_ic) · ln r (n = 1), R = 287.05 J/(kg K)",
-			fmt.Sprintf("= 287.05 J/(kg K) · (%s + %d·%s) · ln %s", kelvin(m.t1), m.stages-1, kelvin(m.tic), num(r))}
+			fmt.Sprintf("= 287.05 J/(kg K) · (%s + %d·%s) · ln %s", kelvin(m.t1), m.stages-1, kelvin(m.tic), rs)}
 		w1Trace = Trace{"w_1 = R · T1 · ln(p2/p1) (n = 1), R = 287.05 J/(kg K)",
-			fmt.Sprintf("= 287.05 J/(kg K) · %s · ln %s", kelvin(m.t1), num(rAll))}
+			fmt.Sprintf("= 287.05 J/(kg K) · %s · ln %s", kelvin(m.t1), rAlls)}
 	case m.tic == m.t1:
 		wTrace = Trace{"w = N · n/(n−1) · R · T1 · (r^((n−1)/n) − 1), R = 287.05 J/(kg K) (perfect intercooling)",
-			fmt.Sprintf("= %d · %s/%s · 287.05 J/(kg K) · %s · (%s^(%s/%s) − 1)", m.stages, nw, nm1, kelvin(m.t1), num(r), nm1, nw)}
+			fmt.Sprintf("= %d · %s/%s · 287.05 J/(kg K) · %s · (%s^(%s/%s) − 1)", m.stages, nw, nm1, kelvin(m.t1), rs, nm1, nw)}
 	default:
 		wTrace = Trace{"w = n/(n−1) · R · (T1 + (N−1)·T_ic) · (r^((n−1)/n) − 1), R = 287.05 J/(kg K)",
-			fmt.Sprintf("= %s/%s · 287.05 J/(kg K) · (%s + %d·%s) · (%s^(%s/%s) − 1)", nw, nm1, kelvin(m.t1), m.stages-1, kelvin(m.tic), num(r), nm1, nw)}
+			fmt.Sprintf("= %s/%s · 287.05 J/(kg K) · (%s + %d·%s) · (%s^(%s/%s) − 1)", nw, nm1, kelvin(m.t1), m.stages-1, kelvin(m.tic), rs, nm1, nw)}
 	}
 	if m.n != 1 {
 		w1Trace = Trace{"w_1 = n/(n−1) · R · T1 · ((p2/p1)^((n−1)/n) − 1), R = 287.05 J/(kg K)",
-			fmt.Sprintf("= %s/%s · 287.05 J/(kg K) · %s · (%s^(%s/%s) − 1)", nw, nm1, kelvin(m.t1), num(rAll), nm1, nw)}
+			fmt.Sprintf("= %s/%s · 287.05 J/(kg K) · %s · (%s^(%s/%s) − 1)", nw, nm1, kelvin(m.t1), rAlls, nm1, nw)}
 	}
 	res = append(res,
 		Result{Name: "discharge_temperature", Value: dischargeTemperature(hottest, r, m.n), Dim: units.Temperature, Trace: tTrace},

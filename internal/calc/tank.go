@@ -298,16 +298,24 @@ func fillResult(t tankInput) Result {
 	supply := fmt.Sprintf("supply %s: V̇d = %s, c = %s, n = %s, p1 = %s, p_max = %s",
 		s.id, rate, show(s.c, ""), show(s.n, ""), bara(s.p1), bara(s.pMax))
 	r := Result{Name: "fill_time", Value: s.fillTime(t.volume, t.start, t.target), Dim: units.Time}
+	if s.n == 1 {
+		// The closed form runs from p1 up; below p1 the cylinder delivers
+		// its full displacement, a term of its own.
+		cw := show(s.c, "")
+		lo, hi := math.Max(t.start, s.p1), math.Max(t.target, s.p1)
+		formula := "t = V/(c·V̇d) · ln((1 + c − c·p0/p1)/(1 + c − c·p2/p1))"
+		sub := fmt.Sprintf("= %s/(%s · %s) · ln((1 + %s − %s·%s/%s)/(1 + %s − %s·%s/%s))",
+			litres, cw, rate, cw, cw, bara(lo), bara(s.p1), cw, cw, bara(hi), bara(s.p1))
+		if t.start < s.p1 {
+			formula += " + V·(p1 − p0)/(p1·V̇d) below p1, at full displacement"
+			sub += fmt.Sprintf(" + %s·(%s − %s)/(%s · %s)", litres, bara(math.Min(t.target, s.p1)), bara(t.start), bara(s.p1), rate)
+		}
+		r.Trace = Trace{formula + " (n = 1, isothermal tank at inlet temperature)", sub + "; " + supply}
+		return r
+	}
 	below := ""
 	if t.start < s.p1 {
-		below = fmt.Sprintf("; below p1 at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", show(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
-	}
-	if s.n == 1 {
-		cw := show(s.c, "")
-		r.Trace = Trace{"t = V/(c·V̇d) · ln((1 + c − c·p0/p1)/(1 + c − c·p2/p1)) (n = 1, isothermal tank at inlet temperature)",
-			fmt.Sprintf("= %s/(%s · %s) · ln((1 + %s − %s·%s/%s)/(1 + %s − %s·%s/%s)); %s%s",
-				litres, cw, rate, cw, cw, bara(math.Max(t.start, s.p1)), bara(s.p1), cw, cw, bara(t.target), bara(s.p1), supply, below)}
-		return r
+		below = fmt.Sprintf("; of which below p1, at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", show(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
 	}
 	r.Trace = Trace{"t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)",
 		fmt.Sprintf("= ∫ %s dp / (%s · FAD(p)) from %s to %s; %s%s",
@@ -382,7 +390,9 @@ func storedEnergyResult(t tankInput) Result {
 	p, pa, v := t.target, t.ambient, t.volume
 	e := -p * v / (airGamma - 1) * math.Expm1(k*math.Log(pa/p))
 	iso := p * v * math.Log(p/pa)
-	bara, litres := traceIn(t.customary, "bar(a)"), traceIn(t.customary, "L")
+	// Near ambient, 1 − (p_a/p)^k is a small difference: more figures.
+	bara := traceInSig(t.customary, "bar(a)", figuresFor(p, p-pa))
+	litres := traceIn(t.customary, "L")
 	return Result{Name: "stored_energy", Value: e, Dim: units.Energy, Trace: Trace{
 		"E = p·V/(γ−1) · [1 − (p_a/p)^((γ−1)/γ)], γ = 1.4 (isentropic expansion to ambient, as ASME PCC-2 Art. 501 for pneumatic tests)",
 		fmt.Sprintf("= %s · %s / 0.4 · [1 − (%s / %s)^(0.4/1.4)]; isothermal for comparison: p·V·ln(p/p_a) = %s",

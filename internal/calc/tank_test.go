@@ -458,32 +458,43 @@ func TestTankClosedEndsOnlyWithWall(t *testing.T) {
 // TestIsothermalFillTraceReproduces reads the numbers of the closed-form
 // fill time's trace (n = 1) back and works the formula with them, as a
 // reviewer would by hand: they must give the result to the trace's four
-// figures.
+// figures. Fills from above the supply's inlet pressure, from below it,
+// and wholly below it (a booster's inlet above the target).
 func TestIsothermalFillTraceReproduces(t *testing.T) {
-	comp := map[string]any{"id": "c", "kind": "compressor", "bore": "50 mm", "stroke": "40 mm", "rod_length": "100 mm",
-		"clearance_volume": "3 cm3", "speed": "1450 rpm", "discharge_pressure": "8 bar", "polytropic_index": 1}
-	tank := map[string]any{"id": "tk", "kind": "tank", "volume": "50 L", "pressure": "8 bar", "start_pressure": "2 bar", "supply": "c"}
-	set, err := evaluateBlocks(t, []map[string]any{comp, tank})
-	if err != nil {
-		t.Fatal(err)
-	}
-	e, _ := set.Lookup("tk")
-	r, _ := e.Result("fill_time")
-	sub, _, _ := strings.Cut(r.Trace.Substituted, ";")
-	re := regexp.MustCompile(`[0-9]+(\.[0-9]+)?`)
-	var v []float64
-	for _, s := range re.FindAllString(sub, -1) {
-		x, _ := strconv.ParseFloat(s, 64)
-		v = append(v, x)
-	}
-	// V (L), c, V̇d (L/min), 1, c, c, p0, p1, 1, c, c, p2, p1 (bar(a)).
-	if len(v) != 13 {
-		t.Fatalf("trace %q: %d numbers, want 13", sub, len(v))
-	}
-	vol, c, rate := v[0], v[1], v[2]
-	x0, x2 := v[6]/v[7], v[11]/v[12]
-	minutes := vol / (c * rate) * math.Log((v[3]+v[4]-v[5]*x0)/(v[8]+v[9]-v[10]*x2))
-	if got := minutes * 60; math.Abs(got-r.Value) > 2e-3*r.Value {
-		t.Errorf("trace %q works out to %.5g s, result %.5g s", sub, got, r.Value)
+	for _, c := range []struct{ start, inlet, target string }{
+		{"2 bar", "", "8 bar"},
+		{"0.2 bar(a)", "", "8 bar"},
+		{"0 bar", "12 bar(a)", "8 bar"},
+	} {
+		comp := map[string]any{"id": "c", "kind": "compressor", "bore": "50 mm", "stroke": "40 mm", "rod_length": "100 mm",
+			"clearance_volume": "3 cm3", "speed": "1450 rpm", "discharge_pressure": "20 bar", "polytropic_index": 1}
+		if c.inlet != "" {
+			comp["inlet_pressure"] = c.inlet
+		}
+		tank := map[string]any{"id": "tk", "kind": "tank", "volume": "50 L", "pressure": c.target, "start_pressure": c.start, "supply": "c"}
+		set, err := evaluateBlocks(t, []map[string]any{comp, tank})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("tk")
+		r, _ := e.Result("fill_time")
+		sub, _, _ := strings.Cut(r.Trace.Substituted, ";")
+		var v []float64
+		for _, s := range regexp.MustCompile(`[0-9]+(\.[0-9]+)?`).FindAllString(sub, -1) {
+			x, _ := strconv.ParseFloat(s, 64)
+			v = append(v, x)
+		}
+		// V (L), c, V̇d (L/min), 1, c, c, p0, p1, 1, c, c, p2, p1 (bar(a)),
+		// then below p1: V, the top of that part, p0, p1, V̇d.
+		if len(v) != 13 && len(v) != 18 {
+			t.Fatalf("start %s: trace %q has %d numbers, want 13 or 18", c.start, sub, len(v))
+		}
+		minutes := v[0] / (v[1] * v[2]) * math.Log((v[3]+v[4]-v[5]*v[6]/v[7])/(v[8]+v[9]-v[10]*v[11]/v[12]))
+		if len(v) == 18 {
+			minutes += v[13] * (v[14] - v[15]) / (v[16] * v[17])
+		}
+		if got := minutes * 60; math.Abs(got-r.Value) > 2e-3*r.Value {
+			t.Errorf("start %s: trace %q works out to %.5g s, result %.5g s", c.start, sub, got, r.Value)
+		}
 	}
 }

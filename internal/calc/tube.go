@@ -177,6 +177,9 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 
 	cust := in.Customary()
 	mm, mpa, bar := traceIn(cust, "mm"), traceIn(cust, "MPa"), traceIn(cust, "bar")
+	// ro² − ri² of a thin wall is a small difference: its diameters and
+	// radii get the figures it needs to work out by hand.
+	dm := traceInSig(cust, "mm", figuresFor(c.ro, c.t))
 	num := func(v float64) string { return show(v, "") }
 
 	thinTrace := Trace{"σ_θ,thin = p · Di / (2 · t)", "= " + bar(c.p) + " · " + mm(di) + " / (2 · " + mm(c.t) + ")"}
@@ -184,7 +187,7 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 		thinTrace.Substituted += fmt.Sprintf(" (NOTE: t/Di = %s > %s, a thick wall: this is %s %% below the Lamé bore stress; use hoop_stress)",
 			num(ratio), num(thinWallLimit), show(100*(1-thin/hoop), ""))
 	}
-	axialTrace := Trace{"σ_a = p · Di² / (Do² − Di²) (closed ends)", "= " + bar(c.p) + " · (" + mm(di) + ")² / ((" + mm(do) + ")² − (" + mm(di) + ")²)"}
+	axialTrace := Trace{"σ_a = p · Di² / (Do² − Di²) (closed ends)", "= " + bar(c.p) + " · (" + dm(di) + ")² / ((" + dm(do) + ")² − (" + dm(di) + ")²)"}
 	if !c.closed {
 		axialTrace = Trace{"σ_a = 0 (open ends: the end load is carried elsewhere)", "= 0 MPa"}
 	}
@@ -194,7 +197,7 @@ func evaluateTube(in *Inputs) (*Outcome, error) {
 	res := []Result{
 		{Name: "hoop_stress", Value: hoop, Dim: units.Stress, Trace: Trace{
 			"σ_θ = p · (ro² + ri²) / (ro² − ri²) (Lamé, at the bore)",
-			"= " + bar(c.p) + " · ((" + mm(c.ro) + ")² + (" + mm(c.ri) + ")²) / ((" + mm(c.ro) + ")² − (" + mm(c.ri) + ")²)"}},
+			"= " + bar(c.p) + " · ((" + dm(c.ro) + ")² + (" + dm(c.ri) + ")²) / ((" + dm(c.ro) + ")² − (" + dm(c.ri) + ")²)"}},
 		{Name: "hoop_stress_thin", Value: thin, Dim: units.Stress, Trace: thinTrace},
 		{Name: "axial_stress", Value: axial, Dim: units.Stress, Trace: axialTrace},
 		{Name: "radial_stress", Value: radial, Dim: units.Stress, Trace: Trace{"σ_r = −p (at the bore)", "= −" + bar(c.p)}},

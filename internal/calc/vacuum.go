@@ -152,8 +152,11 @@ func evaluateVacuum(in *Inputs) (*Outcome, error) {
 	mbar, lpm, mm, cm3 := traceIn(cust, "mbar(a)"), traceIn(cust, "L/min"), traceIn(cust, "mm"), traceIn(cust, "cm3")
 	num := func(x float64) string { return show(x, "") }
 	speed := func(p float64) Trace {
+		// Near the ultimate pressure η_v is a small difference: more figures.
+		sig := figuresFor(1, pump.efficiency(p))
+		pa := traceInSig(cust, "mbar(a)", sig)
 		return Trace{"S = V̇d · η_v, η_v = 1 − c·((p_a/p)^(1/n) − 1)",
-			fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), num(pump.c), mbar(v.ambient), mbar(p), num(pump.n))}
+			fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), showSig(pump.c, "", sig), pa(v.ambient), pa(p), num(pump.n))}
 	}
 	res := []Result{
 		{Name: "displacement_rate", Value: pump.rate, Dim: units.VolumeFlow, Trace: Trace{
@@ -164,12 +167,21 @@ func evaluateVacuum(in *Inputs) (*Outcome, error) {
 			"p_u = p_a · (c/(1 + c))^n", fmt.Sprintf("= %s · (%s/(1 + %s))^%s", mbar(v.ambient), num(pump.c), num(pump.c), num(pump.n))}},
 		{Name: "pumping_speed", Value: pump.rate * pump.efficiency(v.start), Dim: units.VolumeFlow, Trace: speed(v.start)},
 		{Name: "target_pumping_speed", Value: pump.rate * pump.efficiency(v.target), Dim: units.VolumeFlow, Trace: speed(v.target)},
-		{Name: "pumpdown_time", Value: pump.time(v.volume, v.start, v.target), Dim: units.Time, Trace: Trace{
-			"t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η_v(p0)/η_v(p))] (isothermal vessel, no leaks)",
-			fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", traceIn(cust, "L")(v.volume), lpm(pump.rate), num(pump.c),
-				mbar(v.start), mbar(v.target), num(pump.n), num(pump.efficiency(v.start)), num(pump.efficiency(v.target)))}},
+		{Name: "pumpdown_time", Value: pump.time(v.volume, v.start, v.target), Dim: units.Time, Trace: pumpdownTrace(v, pump, cust)},
 	}
 	return &Outcome{Results: res}, nil
+}
+
+// pumpdownTrace shows the pump-down time. A target close to the start
+// makes both logarithms small: their arguments get the figures they need
+// to work out by hand.
+func pumpdownTrace(v vacuumInput, pump vacuumPump, cust bool) Trace {
+	e0, e := pump.efficiency(v.start), pump.efficiency(v.target)
+	mbar := traceInSig(cust, "mbar(a)", figuresFor(v.start, v.start-v.target))
+	eSig := figuresFor(e0, e0-e)
+	return Trace{"t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η_v(p0)/η_v(p))] (isothermal vessel, no leaks)",
+		fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", traceIn(cust, "L")(v.volume), traceIn(cust, "L/min")(pump.rate),
+			show(pump.c, ""), mbar(v.start), mbar(v.target), show(pump.n, ""), showSig(e0, "", eSig), showSig(e, "", eSig))}
 }
 
 // pumpdownIntervals is the number of intervals of each line of the
