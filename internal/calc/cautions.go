@@ -28,6 +28,11 @@ const (
 	// hotMargin: a discharge within this of a part's temperature limit is a
 	// WARNING (the figure; thermocouple and model error are of this order).
 	hotMargin = 10.0 // K
+	// hotAir: above this even oil made for air compressors chars in the
+	// discharge line, where the deposits can ignite (from memory: DIN 51506
+	// rates its VDL compressor oils for final compression temperatures up
+	// to 220 °C).
+	hotAir = 493.15 // K, 220 °C
 	// dangerFactor: below this safety factor a part is a DANGER whatever the
 	// site's minimum (common practice: no margin left for flaws or fatigue).
 	dangerFactor = 1.5
@@ -48,6 +53,7 @@ const (
 // rules is every caution rule, in the order they are applied.
 var rules = []Rule{
 	{ID: "no-delivery", Level: Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
+	{ID: "hot-air", Level: Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of: charred oil in the discharge line, burns", check: hotAirRule},
 	{ID: "hot-discharge", Level: Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", check: hotDischarge},
 	{ID: "low-safety-factor", Level: Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", check: lowSafetyFactor},
 	{ID: "above-allowable", Level: Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", check: aboveAllowable},
@@ -179,6 +185,26 @@ func hotDischarge(s *Set) []raised {
 				out = append(out, raised{e, CautionNote{Level: Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
 			}
 		}
+	}
+	return out
+}
+
+func hotAirRule(s *Set) []raised {
+	var out []raised
+	// A block whose head or valve material is already too hot says more.
+	named := map[*Evaluated]bool{}
+	for _, r := range hotDischarge(s) {
+		named[r.block] = true
+	}
+	for _, e := range s.Blocks {
+		t2, ok := e.Result("discharge_temperature")
+		if !ok || t2.Value <= hotAir || named[e] {
+			continue
+		}
+		out = append(out, raised{e, CautionNote{Level: Caution, Message: fmt.Sprintf(
+			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
+				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
+			e.show(t2.Value, units.Temperature, "degC"), e.show(hotAir, units.Temperature, "degC"))}})
 	}
 	return out
 }
