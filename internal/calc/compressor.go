@@ -252,9 +252,9 @@ func readCompressorInput(in *Inputs) (compressorInput, error) {
 		c.p1 = in.Value("inlet_pressure")
 	}
 	if c.p2 <= c.p1 {
-		bara := traceIn(in.Customary(), "bar(a)")
+		pair := func(p float64) string { return gaugeAndAbsolute(p, in.Ambient, in.Customary()) }
 		return c, &InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
-			"discharge pressure %s must be above the inlet pressure %s", bara(c.p2), bara(c.p1))}
+			"discharge pressure %s must be above the inlet pressure %s", pair(c.p2), pair(c.p1))}
 	}
 	return c, nil
 }

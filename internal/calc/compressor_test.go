@@ -555,7 +555,7 @@ func TestCustomaryInputErrors(t *testing.T) {
 		{"inlet above discharge", `kind = "compressor"` + "\n" + cyl + `rod_length = "3.5 in"
 speed = "1725 rpm"
 discharge_pressure = "100 psi"
-inlet_pressure = "120 psi"`, []string{"discharge pressure 114.7 psia must be above the inlet pressure 134.7 psia"}},
+inlet_pressure = "120 psi"`, []string{"discharge pressure 100 psig (114.7 psia) must be above the inlet pressure 120 psig (134.7 psia)"}},
 		// Crank radius 0.75 in.
 		{"short rod", `kind = "compressor"` + "\n" + cyl + `rod_length = "0.7 in"
 speed = "1725 rpm"
@@ -567,7 +567,7 @@ discharge_pressure = "100 psi"`, []string{"a 1.5 in stroke gives a mean piston s
 		{"motor supply", `kind = "motor"` + "\n" + cyl + `rod_length = "3.5 in"
 speed = "600 rpm"
 supply_pressure = "-2 psi"
-cutoff = 0.5`, []string{"supply pressure 12.7 psia must be above ambient 14.7 psia"}},
+cutoff = 0.5`, []string{"supply pressure -2 psig (12.7 psia) must be above ambient 14.7 psia"}},
 		// T1 = 293.15 K, r = (29.392/14.696)^(1/2) = 1.41421, T = 293.15·1.41421^(0.3/1.3)
 		// = 293.15·1.083263 = 317.56 K = 111.9 °F.
 		{"intercooler", `kind = "multistage"

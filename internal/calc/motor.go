@@ -121,10 +121,9 @@ func readMotorInput(in *Inputs) (motorInput, error) {
 	m := motorInput{supply: in.Value("supply_pressure"),
 		cutoff: in.Value("cutoff"), n: in.Value("polytropic_index")}
 	if m.supply <= in.Ambient {
-		bara := traceIn(in.Customary(), "bar(a)")
 		return m, &InputError{Key: "supply_pressure", Message: fmt.Sprintf(
 			"supply pressure %s must be above ambient %s: the air must push the piston out",
-			bara(m.supply), bara(in.Ambient))}
+			gaugeAndAbsolute(m.supply, in.Ambient, in.Customary()), traceIn(in.Customary(), "bar(a)")(in.Ambient))}
 	}
 	g, err := readCylinder(in)
 	g.p2 = m.supply

@@ -2,6 +2,7 @@ package calc
 
 import (
 	"fmt"
+	"strings"
 	"math"
 
 	"gonum.org/v1/gonum/integrate/quad"
@@ -204,9 +205,14 @@ type tankInput struct {
 }
 
 // gaugeAndAbsolute shows an absolute pressure p the way blocks are written,
-// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))".
+// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))",
+// "100 psig (114.7 psia)".
 func gaugeAndAbsolute(p, ambient float64, customary bool) string {
-	return traceIn(customary, "bar")(p-ambient) + "(g) (" + traceIn(customary, "bar(a)")(p) + ")"
+	gauge := traceIn(customary, "bar")(p-ambient) + "(g)"
+	if customary {
+		gauge = strings.TrimSuffix(gauge, "(g)") + "g" // psig, as the trade writes it
+	}
+	return gauge + " (" + traceIn(customary, "bar(a)")(p) + ")"
 }
 
 // readTankInput applies the checks that single-input ranges cannot.
