@@ -2,8 +2,8 @@ package calc
 
 import (
 	"fmt"
-	"strings"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
