@@ -444,7 +444,7 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 			return nil, &Error{File: p.File, Line: line, Msg: err.Error()}
 		}
 		csvName := chartDataName(p, id, chart)
-		d, err := render.DrawChart(c, prefix+id+"-"+chart, path.Base(csvName))
+		d, err := render.DrawChart(c, prefix+id+"-"+chart, href(path.Base(csvName)))
 		if err != nil {
 			return nil, &Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
 		}
@@ -509,7 +509,7 @@ func (s *Site) chartDrawn() {
 
 // relativeURL is the link from output page from to output page to.
 func relativeURL(from, to string) string {
-	return strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to)
+	return href(strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to))
 }
 
 // listOrNone joins names for a message, or says "none".
