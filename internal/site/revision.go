@@ -25,6 +25,9 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	if err != nil {
 		return nil, err
 	}
+	if _, err := exec.LookPath("git"); err != nil {
+		return nil, &Error{Msg: "git is not installed (or not on PATH), so revisions cannot be compared; install git, or give two results.json files instead"}
+	}
 	top, err := git(abs, "rev-parse", "--show-toplevel")
 	if err != nil {
 		return nil, &Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
