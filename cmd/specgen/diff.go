@@ -81,6 +81,9 @@ func resultsFor(dir, arg string) (*site.ResultsFile, error) {
 		if _, err := os.Stat(arg); err == nil {
 			return site.ReadResults(arg)
 		}
+		if !site.IsRevision(dir, arg) {
+			return nil, &site.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
+		}
 	}
 	return site.ResultsAt(dir, arg)
 }

@@ -79,6 +79,13 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	return &f, nil
 }
 
+// IsRevision reports whether rev names a commit of the repository that
+// holds root.
+func IsRevision(root, rev string) bool {
+	_, err := git(root, "rev-parse", "--verify", "--quiet", rev+"^{commit}")
+	return err == nil
+}
+
 // ResultsOf evaluates the site at root as it is on disk.
 func ResultsOf(root string) (*ResultsFile, error) {
 	s, err := Load(root)
