@@ -92,6 +92,11 @@ func findPages(root string) ([]string, error) {
 			if err != nil {
 				return err
 			}
+			// Only index.md becomes index.html, the page a web server
+			// shows for its folder; INDEX.MD would not be found there.
+			if strings.EqualFold(name, "index.md") && name != "index.md" {
+				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "rename it index.md, in lower case: a folder's own page is index.md, written as index.html, the page web servers show for the folder"}
+			}
 			if d.Type()&fs.ModeSymlink != 0 {
 				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link; content/ holds plain files only, so nothing outside the site root is published by accident"}
 			}
