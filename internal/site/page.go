@@ -92,6 +92,9 @@ func findPages(root string) ([]string, error) {
 			if err != nil {
 				return err
 			}
+			if !utf8.ValidString(rel) {
+				return &Error{File: ContentDir + "/" + strings.ToValidUTF8(filepath.ToSlash(rel), "\uFFFD"), Msg: "the file name is not UTF-8 text (written in another encoding); rename the file, or its links and title would be garbled"}
+			}
 			// Only index.md becomes index.html, the page a web server
 			// shows for its folder; INDEX.MD would not be found there.
 			if strings.EqualFold(name, "index.md") && name != "index.md" {

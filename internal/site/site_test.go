@@ -523,3 +523,18 @@ func TestOddFileNamesLinked(t *testing.T) {
 		t.Errorf("only %d links checked; the test proves little", seen)
 	}
 }
+
+// TestFileNameNotUTF8: a page whose file name is in another encoding
+// (Latin-1 "café") is refused by name; it was published with a garbled
+// title and a link only some servers would match.
+func TestFileNameNotUTF8(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	if err := os.WriteFile(filepath.Join(root, "content", "caf\xe9.md"), []byte("# Cafe\n"), 0o644); err != nil {
+		t.Skip("this file system refuses the name:", err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !strings.Contains(err.Error(), "content/caf\uFFFD.md: the file name is not UTF-8 text") {
+		t.Fatalf("want the name refused, got %v", err)
+	}
+}
