@@ -349,3 +349,42 @@ func TestBrowserPhoneWidth(t *testing.T) {
 		t.Errorf("%s", p)
 	}
 }
+
+// TestBrowserLongWords: a long unbroken word, web address or code span in
+// prose, a heading, a table or the navigation wraps; the page never
+// scrolls sideways, at a desk's width or a phone's.
+func TestBrowserLongWords(t *testing.T) {
+	ctx, problems := browser(t)
+	long := strings.Repeat("x", 180)
+	root := writeSite(t, map[string]string{
+		"content/index.md": "# Home " + long + "\n\nA word: " + long + "\n\nhttps://example.invalid/" + long + "\n\n`code " + long + "`\n\n" +
+			"- item " + long + "\n\n| a | b |\n|---|---|\n| " + long + " | " + long + " |\n",
+		"content/" + strings.Repeat("y", 120) + ".md": "# " + strings.Repeat("y", 120) + "\n",
+	})
+	base := previewDemo(t, root)
+	for _, width := range []int64{1300, 390} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(width, 900)); err != nil {
+			t.Fatal(err)
+		}
+		if err := chromedp.Do(ctx, chromedp.Navigate(base+"index.html"), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
+			t.Fatal(err)
+		}
+		type size struct {
+			Viewport float64 `json:"viewport"`
+			Page     float64 `json:"page"`
+		}
+		s, err := chromedp.Run(ctx, chromedp.Evaluate[size](`({viewport: document.documentElement.clientWidth, page: document.documentElement.scrollWidth})`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if s.Viewport != float64(width) {
+			t.Fatalf("viewport is %v px wide, want %d", s.Viewport, width)
+		}
+		if s.Page > s.Viewport {
+			t.Errorf("at %d px the page is %v px wide: a long word does not wrap", width, s.Page)
+		}
+	}
+	for _, p := range problems() {
+		t.Errorf("%s", p)
+	}
+}

@@ -14,10 +14,11 @@ import (
 func runCalc(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("calc", "calc [-sig N] FILE.toml", stderr)
 	sig := fs.Int("sig", 3, "significant figures of the values shown (2 to 8)")
-	if code := parseOnly(fs, args); code >= 0 {
+	pos, code := parseOnly(fs, args)
+	if code >= 0 {
 		return code
 	}
-	if fs.NArg() != 1 {
+	if len(pos) != 1 {
 		fmt.Fprintln(stderr, "specgen calc: give one TOML file holding one calculation block")
 		fs.Usage()
 		return exitBadInput
@@ -26,7 +27,7 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "specgen calc: -sig %d is out of range; allowed: 2 to 8\n", *sig)
 		return exitBadInput
 	}
-	file := fs.Arg(0)
+	file := pos[0]
 	// A page parses as TOML (a heading is a comment) and would only be
 	// told that it lacks an id.
 	if strings.EqualFold(filepath.Ext(file), ".md") {
@@ -63,15 +64,16 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 
 func runExplain(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("explain", "explain [KIND|materials|cautions]", stderr)
-	if code := parseOnly(fs, args); code >= 0 {
+	pos, code := parseOnly(fs, args)
+	if code >= 0 {
 		return code
 	}
-	switch fs.NArg() {
+	switch len(pos) {
 	case 0:
 		calc.ExplainKinds(stdout)
 		return exitOK
 	case 1:
-		switch fs.Arg(0) {
+		switch pos[0] {
 		case "cautions":
 			calc.ExplainCautions(stdout)
 			return exitOK
@@ -79,10 +81,10 @@ func runExplain(args []string, stdout, stderr io.Writer) int {
 			calc.ExplainMaterials(stdout, calc.DefaultEnv())
 			return exitOK
 		}
-		k, ok := calc.LookupKind(fs.Arg(0))
+		k, ok := calc.LookupKind(pos[0])
 		if !ok {
-			msg := fmt.Sprintf("specgen explain: unknown kind %q", fs.Arg(0))
-			if s := calc.Suggest(fs.Arg(0), calc.KindNames()); s != "" {
+			msg := fmt.Sprintf("specgen explain: unknown kind %q", pos[0])
+			if s := calc.Suggest(pos[0], calc.KindNames()); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			fmt.Fprintln(stderr, msg)

@@ -19,31 +19,32 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(fs.Output(), "Exit status 1 when a claim newly fails or a DANGER caution newly appears.\n\nOptions:")
 		fs.PrintDefaults()
 	}
-	if code := parseOnly(fs, args); code >= 0 {
+	pos, code := parseOnly(fs, args)
+	if code >= 0 {
 		return code
 	}
 	if *format != "markdown" && *format != "json" {
 		fmt.Fprintf(stderr, "specgen diff: -format %q is not allowed; allowed: markdown, json\n", *format)
 		return exitBadInput
 	}
-	if fs.NArg() < 1 || fs.NArg() > 2 {
-		if fs.NArg() == 0 {
+	if len(pos) < 1 || len(pos) > 2 {
+		if len(pos) == 0 {
 			fmt.Fprintln(stderr, "specgen diff: give BASE, a git revision or a results.json file (and HEAD to compare it with, else the working tree)")
 		} else {
-			fmt.Fprintf(stderr, "specgen diff: unexpected argument %q; give BASE and at most HEAD\n", fs.Arg(2))
+			fmt.Fprintf(stderr, "specgen diff: unexpected argument %q; give BASE and at most HEAD\n", pos[2])
 		}
 		fs.Usage()
 		return exitBadInput
 	}
-	base, err := resultsFor(*dir, fs.Arg(0))
+	base, err := resultsFor(*dir, pos[0])
 	if err != nil {
 		return report(stderr, err)
 	}
 	headName := "working tree"
 	var head *site.ResultsFile
-	if fs.NArg() == 2 {
-		headName = fs.Arg(1)
-		head, err = resultsFor(*dir, fs.Arg(1))
+	if len(pos) == 2 {
+		headName = pos[1]
+		head, err = resultsFor(*dir, pos[1])
 	} else {
 		head, err = site.ResultsOf(*dir)
 	}
@@ -51,7 +52,7 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 		return report(stderr, err)
 	}
 	d := site.Compare(base, head)
-	d.Base, d.Head = fs.Arg(0), headName
+	d.Base, d.Head = pos[0], headName
 	for _, side := range []struct {
 		name string
 		f    *site.ResultsFile
@@ -81,26 +82,30 @@ func resultsFor(dir, arg string) (*site.ResultsFile, error) {
 		if _, err := os.Stat(arg); err == nil {
 			return site.ReadResults(arg)
 		}
+		if !site.IsRevision(dir, arg) {
+			return nil, &site.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
+		}
 	}
 	return site.ResultsAt(dir, arg)
 }
 
 func runInit(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("init", "init DIR", stderr)
-	if code := parseOnly(fs, args); code >= 0 {
+	pos, code := parseOnly(fs, args)
+	if code >= 0 {
 		return code
 	}
-	if fs.NArg() != 1 {
+	if len(pos) != 1 {
 		fmt.Fprintln(stderr, "specgen init: give the folder for the new site, e.g. specgen init docs")
 		return exitBadInput
 	}
-	files, err := site.Init(fs.Arg(0))
+	files, err := site.Init(pos[0])
 	if err != nil {
 		return report(stderr, err)
 	}
 	for _, f := range files {
 		fmt.Fprintf(stdout, "wrote %s\n", f)
 	}
-	fmt.Fprintf(stdout, "next: specgen build -C %s, then open %s\n", fs.Arg(0), fs.Arg(0)+"/dist/index.html")
+	fmt.Fprintf(stdout, "next: specgen build -C %s, then open %s\n", pos[0], pos[0]+"/dist/index.html")
 	return exitOK
 }

@@ -135,6 +135,19 @@ func TestDiffRevisionWithoutSite(t *testing.T) {
 	}
 }
 
+// TestDiffWithoutGit: on a machine without git, diff of revisions says
+// git is missing, not that the folder is outside a repository.
+func TestDiffWithoutGit(t *testing.T) {
+	root, commit := gitSite(t)
+	commit(map[string]string{"content/index.md": stagePage("low", "28 mm")}, "first")
+	t.Setenv("PATH", t.TempDir())
+	var stdout, stderr bytes.Buffer
+	code := run([]string{"diff", "-C", root, "HEAD"}, &stdout, &stderr)
+	if code != exitBadInput || !strings.Contains(stderr.String(), "git is not installed") {
+		t.Errorf("exit %d, stderr %q", code, stderr.String())
+	}
+}
+
 func TestDiffResultsFilesAndJSON(t *testing.T) {
 	dir := t.TempDir()
 	write := func(name, bore string) string {

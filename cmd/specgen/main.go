@@ -10,6 +10,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"path/filepath"
 	"runtime/debug"
 	"syscall"
 
@@ -109,28 +110,45 @@ func newFlags(name, synopsis string, stderr io.Writer) *flag.FlagSet {
 // parseFlags parses args and rejects stray arguments. It returns the exit
 // status to use when parsing did not succeed, or -1.
 func parseFlags(fs *flag.FlagSet, args []string) int {
-	if code := parseOnly(fs, args); code >= 0 {
+	pos, code := parseOnly(fs, args)
+	if code >= 0 {
 		return code
 	}
-	if fs.NArg() > 0 {
-		fmt.Fprintf(fs.Output(), "specgen %s: unexpected argument %q\n", fs.Name(), fs.Arg(0))
+	if len(pos) > 0 {
+		hint := ""
+		if info, err := os.Stat(filepath.Join(pos[0], "content")); err == nil && info.IsDir() && fs.Lookup("C") != nil {
+			hint = fmt.Sprintf("; name the site root with -C: specgen %s -C %s", fs.Name(), pos[0])
+		}
+		fmt.Fprintf(fs.Output(), "specgen %s: unexpected argument %q%s\n", fs.Name(), pos[0], hint)
 		fs.Usage()
 		return exitBadInput
 	}
 	return -1
 }
 
-// parseOnly parses the flags of a command that takes arguments too. It
-// returns the exit status when parsing ended the command (-h asks for
-// help: exit 0), or -1.
-func parseOnly(fs *flag.FlagSet, args []string) int {
-	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return exitOK
+// parseOnly parses the flags of a command that takes arguments too, and
+// returns the arguments. Options may follow them ("diff main -C docs"),
+// unless after "--". The status is the exit status when parsing ended the
+// command (-h asks for help: exit 0), or -1.
+func parseOnly(fs *flag.FlagSet, args []string) ([]string, int) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			if errors.Is(err, flag.ErrHelp) {
+				return nil, exitOK
+			}
+			return nil, exitBadInput
 		}
-		return exitBadInput
+		rest := fs.Args()
+		if len(rest) == 0 {
+			return pos, -1
+		}
+		if i := len(args) - len(rest); i > 0 && args[i-1] == "--" {
+			return append(pos, rest...), -1
+		}
+		pos = append(pos, rest[0])
+		args = rest[1:]
 	}
-	return -1
 }
 
 // report prints an error and returns exit status 2. Input errors already

@@ -388,7 +388,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: rootPrefix + s.home(), Revision: s.revision},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.home()), Revision: s.revision},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),
@@ -410,10 +410,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 			continue
 		}
 		if i > 0 {
-			data.Prev = &Link{Title: s.reading[i-1].Title, URL: rootPrefix + s.reading[i-1].Out}
+			data.Prev = &Link{Title: s.reading[i-1].Title, URL: href(rootPrefix + s.reading[i-1].Out)}
 		}
 		if i+1 < len(s.reading) {
-			data.Next = &Link{Title: s.reading[i+1].Title, URL: rootPrefix + s.reading[i+1].Out}
+			data.Next = &Link{Title: s.reading[i+1].Title, URL: href(rootPrefix + s.reading[i+1].Out)}
 		}
 	}
 	tpl, err := s.layouts.lookup(p.Front.Template)

@@ -42,6 +42,13 @@ func readDoc(p *Page, doc *render.Document) error {
 				Msg: "the calc block opened here is never closed; end it with a line holding only the fence (```)"})
 			continue
 		}
+		// A fence line inside means this block was left open and a later
+		// fence closed it; TOML would only complain about a backquote.
+		if i, fence := openingFenceIn(n.Source); fence != "" {
+			errs = append(errs, &Error{File: p.File, Line: n.FenceLine + doc.LineOffset + 1 + i,
+				Msg: fmt.Sprintf("%q inside the calc block opened at line %d: that block is not closed; end it with a line holding only the fence (```) before this one", fence, n.FenceLine+doc.LineOffset)})
+			continue
+		}
 		b, err := calc.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, fromCalc(err)...)
@@ -437,7 +444,7 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 			return nil, &Error{File: p.File, Line: line, Msg: err.Error()}
 		}
 		csvName := chartDataName(p, id, chart)
-		d, err := render.DrawChart(c, prefix+id+"-"+chart, path.Base(csvName))
+		d, err := render.DrawChart(c, prefix+id+"-"+chart, href(path.Base(csvName)))
 		if err != nil {
 			return nil, &Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
 		}
@@ -502,7 +509,7 @@ func (s *Site) chartDrawn() {
 
 // relativeURL is the link from output page from to output page to.
 func relativeURL(from, to string) string {
-	return strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to)
+	return href(strings.Repeat("../", strings.Count(from, "/")) + path.Clean(to))
 }
 
 // listOrNone joins names for a message, or says "none".
@@ -519,4 +526,16 @@ func withArticle(noun string) string {
 		return "an " + noun
 	}
 	return "a " + noun
+}
+
+// openingFenceIn finds a line of a calc block's source that opens a fence
+// ("```chart", "~~~"), with its index.
+func openingFenceIn(src string) (int, string) {
+	for i, line := range strings.Split(src, "\n") {
+		t := strings.TrimSpace(line)
+		if strings.HasPrefix(t, "```") || strings.HasPrefix(t, "~~~") {
+			return i, t
+		}
+	}
+	return 0, ""
 }

@@ -35,6 +35,9 @@ func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset i
 	src = bytes.TrimPrefix(src, []byte(byteOrderMark))
 	first, rest, _ := bytes.Cut(src, []byte("\n"))
 	if strings.TrimRight(string(first), "\r \t") != fence {
+		if k := colonHeader(first, rest); k != "" {
+			return nil, nil, 0, &Error{File: file, Line: 1, Msg: fmt.Sprintf(`the page opens with "---" lines of "key: value" (%s:); they would show as a heading. Front matter is TOML between "+++" lines: %s = ...`, k, k)}
+		}
 		return nil, src, 0, nil
 	}
 	line := 1
@@ -52,6 +55,35 @@ func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset i
 		}
 	}
 	return nil, nil, 0, &Error{File: file, Line: 1, Msg: `front matter opened with "+++" is never closed; end it with a line holding only "+++"`}
+}
+
+// colonKey is a "key: value" line of a header in another syntax.
+var colonKey = regexp.MustCompile(`^([a-z_]+):(\s|$)`)
+
+// colonHeader returns the first key when the page opens with a "---" line,
+// then only "key: value" lines, then "---": a header specgen does not read,
+// which Markdown turns into a rule and a heading.
+func colonHeader(first, rest []byte) string {
+	if strings.TrimRight(string(first), "\r \t") != "---" {
+		return ""
+	}
+	key := ""
+	for _, l := range strings.Split(string(rest), "\n") {
+		l = strings.TrimRight(l, "\r \t")
+		if l == "---" {
+			return key
+		}
+		m := colonKey.FindStringSubmatch(l)
+		switch {
+		case m != nil && key == "":
+			key = m[1]
+		case m == nil && key == "":
+			return ""
+		case m == nil && !strings.HasPrefix(l, " ") && !strings.HasPrefix(l, "-"):
+			return ""
+		}
+	}
+	return ""
 }
 
 // parseFrontMatter decodes a page's front matter strictly: unknown keys and

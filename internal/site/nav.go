@@ -110,12 +110,12 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 		for _, c := range n.Children {
 			it := NavItem{Title: c.title(), Folder: c.isFolder()}
 			if c.Page != nil {
-				it.URL = rootPrefix + c.Page.Out
+				it.URL = href(rootPrefix + c.Page.Out)
 				it.Current = c.Page == p
 			} else if first := firstPage(c); first != nil {
 				// A folder without index.md is closed on other pages;
 				// without a link its pages could not be reached.
-				it.URL = rootPrefix + first.Out
+				it.URL = href(rootPrefix + first.Out)
 			}
 			if it.Folder {
 				it.Open = p.Dir() == c.Dir || strings.HasPrefix(p.Dir(), c.Dir+"/")
@@ -129,7 +129,7 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 	}
 	top := items(root)
 	if root.Page != nil {
-		home := NavItem{Title: root.Page.Title, URL: rootPrefix + root.Page.Out, Current: root.Page == p}
+		home := NavItem{Title: root.Page.Title, URL: href(rootPrefix + root.Page.Out), Current: root.Page == p}
 		top = append([]NavItem{home}, top...)
 	}
 	return top
@@ -152,7 +152,7 @@ func firstPage(n *navNode) *Page {
 func breadcrumbsFor(root *navNode, p *Page, rootPrefix string) []Link {
 	var crumbs []Link
 	if root.Page != nil && root.Page != p {
-		crumbs = append(crumbs, Link{Title: root.Page.Title, URL: rootPrefix + root.Page.Out})
+		crumbs = append(crumbs, Link{Title: root.Page.Title, URL: href(rootPrefix + root.Page.Out)})
 	}
 	dir := ""
 	for _, part := range strings.Split(p.Dir(), "/") {
@@ -170,7 +170,7 @@ func breadcrumbsFor(root *navNode, p *Page, rootPrefix string) []Link {
 		}
 		l := Link{Title: n.title()}
 		if n.Page != nil {
-			l.URL = rootPrefix + n.Page.Out
+			l.URL = href(rootPrefix + n.Page.Out)
 		}
 		crumbs = append(crumbs, l)
 	}

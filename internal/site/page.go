@@ -92,6 +92,14 @@ func findPages(root string) ([]string, error) {
 			if err != nil {
 				return err
 			}
+			if !utf8.ValidString(rel) {
+				return &Error{File: ContentDir + "/" + strings.ToValidUTF8(filepath.ToSlash(rel), "\uFFFD"), Msg: "the file name is not UTF-8 text (written in another encoding); rename the file, or its links and title would be garbled"}
+			}
+			// Only index.md becomes index.html, the page a web server
+			// shows for its folder; INDEX.MD would not be found there.
+			if strings.EqualFold(name, "index.md") && name != "index.md" {
+				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "rename it index.md, in lower case: a folder's own page is index.md, written as index.html, the page web servers show for the folder"}
+			}
 			if d.Type()&fs.ModeSymlink != 0 {
 				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link; content/ holds plain files only, so nothing outside the site root is published by accident"}
 			}

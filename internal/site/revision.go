@@ -25,6 +25,9 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	if err != nil {
 		return nil, err
 	}
+	if _, err := exec.LookPath("git"); err != nil {
+		return nil, &Error{Msg: "git is not installed (or not on PATH), so revisions cannot be compared; install git, or give two results.json files instead"}
+	}
 	top, err := git(abs, "rev-parse", "--show-toplevel")
 	if err != nil {
 		return nil, &Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
@@ -74,6 +77,13 @@ func ResultsAt(root, rev string) (*ResultsFile, error) {
 	}
 	f := s.Results()
 	return &f, nil
+}
+
+// IsRevision reports whether rev names a commit of the repository that
+// holds root.
+func IsRevision(root, rev string) bool {
+	_, err := git(root, "rev-parse", "--verify", "--quiet", rev+"^{commit}")
+	return err == nil
 }
 
 // ResultsOf evaluates the site at root as it is on disk.

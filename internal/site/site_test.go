@@ -7,8 +7,10 @@ import (
 	"encoding/hex"
 	"errors"
 	"flag"
+	"html"
 	"io/fs"
 	"maps"
+	"net/url"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -466,5 +468,73 @@ func TestInterruptedBuildLeavesNothing(t *testing.T) {
 	}
 	if treeHash(t, out) != before {
 		t.Error("the interrupted build changed the previous output")
+	}
+}
+
+// TestOddFileNamesLinked: pages whose names hold a colon, "?", "#", "%" or
+// a space are reached by every link specgen writes, resolved as a browser
+// does ("what?.html" unescaped would ask for "what" with a query, and
+// "a:b.html" reads as a URL scheme, which html/template blanks).
+func TestOddFileNamesLinked(t *testing.T) {
+	root := t.TempDir()
+	names := []string{"index.md", "a:b.md", "what?.md", "c#.md", "100%.md", "sub dir/x:y.md"}
+	block := "```calc\nid = \"low\"\nkind = \"compressor\"\nbore = \"32 mm\"\nstroke = \"28 mm\"\nrod_length = \"70 mm\"\n" +
+		"clearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n[show]\ncharts = [\"pv\"]\n```\n"
+	for _, n := range names {
+		text := "# Page " + n + "\n\nDelivery =[low.free_air_delivery L/min].\n"
+		if n == "what?.md" {
+			text += "\n" + block
+		}
+		writeFile(t, filepath.Join(root, "content", filepath.FromSlash(n)), text)
+	}
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	files := readTree(t, filepath.Join(root, DefaultOut))
+	ref := regexp.MustCompile(`(?:href|src)="([^"]*)"`)
+	seen := 0
+	for name, data := range files {
+		if !strings.HasSuffix(name, ".html") {
+			continue
+		}
+		base := &url.URL{Scheme: "file", Path: "/site/" + name}
+		for _, m := range ref.FindAllStringSubmatch(string(data), -1) {
+			link, err := url.Parse(html.UnescapeString(m[1]))
+			if strings.Contains(m[1], "ZgotmplZ") {
+				t.Errorf("%s: html/template blanked a link as unsafe: %q", name, m[1])
+			}
+			if err != nil {
+				t.Errorf("%s: link %q: %v", name, m[1], err)
+				continue
+			}
+			target := base.ResolveReference(link)
+			if target.Scheme != "file" {
+				t.Errorf("%s: link %q reads as a %s: URL", name, m[1], target.Scheme)
+				continue
+			}
+			rel := strings.TrimPrefix(target.Path, "/site/")
+			if _, ok := files[rel]; !ok {
+				t.Errorf("%s: link %q reaches %q, which is not in the output", name, m[1], rel)
+			}
+			seen++
+		}
+	}
+	if seen < 50 {
+		t.Errorf("only %d links checked; the test proves little", seen)
+	}
+}
+
+// TestFileNameNotUTF8: a page whose file name is in another encoding
+// (Latin-1 "café") is refused by name; it was published with a garbled
+// title and a link only some servers would match.
+func TestFileNameNotUTF8(t *testing.T) {
+	root := t.TempDir()
+	writeFile(t, filepath.Join(root, "content", "index.md"), "# Home\n")
+	if err := os.WriteFile(filepath.Join(root, "content", "caf\xe9.md"), []byte("# Cafe\n"), 0o644); err != nil {
+		t.Skip("this file system refuses the name:", err)
+	}
+	_, err := Build(root, Options{})
+	if err == nil || !strings.Contains(err.Error(), "content/caf\uFFFD.md: the file name is not UTF-8 text") {
+		t.Fatalf("want the name refused, got %v", err)
 	}
 }
