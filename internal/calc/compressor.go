@@ -282,6 +282,23 @@ func traceInSig(customary bool, unit string, sig int) func(float64) string {
 // traceFigures is the number of significant figures of a trace's numbers.
 const traceFigures = 4
 
+// gaugeText shows a gauge pressure (a difference from ambient, Pa) in the
+// block's units with the trade's gauge mark: "7 bar(g)", "100 psig".
+func gaugeText(gauge float64, customary bool) string {
+	s := traceIn(customary, "bar")(gauge)
+	if customary {
+		return s + "g"
+	}
+	return s + "(g)"
+}
+
+// gaugeAndAbsolute shows an absolute pressure p the way blocks are written,
+// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))",
+// "100 psig (114.7 psia)".
+func gaugeAndAbsolute(p, ambient float64, customary bool) string {
+	return gaugeText(p-ambient, customary) + " (" + traceIn(customary, "bar(a)")(p) + ")"
+}
+
 // show formats a value already scaled to unit at 4 significant figures,
 // without trailing zeros after the decimal point ("28 mm", "1.013 bar(a)").
 func show(v float64, unit string) string { return showSig(v, unit, traceFigures) }

@@ -579,7 +579,7 @@ intercooled_temperature = "150 degF"`, []string{"150 °F is above the 111.9 °F"
 inner_diameter = "2 in"
 wall_thickness = "0.1 in"
 pressure = "-5 psi"
-material = "s235"`, []string{"-5 psi(g) is not above ambient"}},
+material = "s235"`, []string{"-5 psig is not above ambient"}},
 		// The wall must be thinner than ri = 1 in.
 		{"tube thick", `kind = "tube"
 inner_diameter = "2 in"
@@ -632,18 +632,7 @@ func TestCustomaryChartDescriptions(t *testing.T) {
 		"id = \"s\"\nkind = \"multistage\"\nstages = 2\ndischarge_pressure = \"175 psi\"\ninlet_temperature = \"68 degF\"\n",
 		"id = \"t\"\nkind = \"tank\"\nvolume = \"20 gal\"\npressure = \"100 psi\"\nsupply = \"c\"\n",
 	}
-	var parsed []*Block
-	for i, src := range blocks {
-		b, err := ParseBlock("content/shop.md", 20*i, src)
-		if err != nil {
-			t.Fatal(err)
-		}
-		parsed = append(parsed, b)
-	}
-	set, err := Evaluate(parsed, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	set := evaluateSources(t, "content/shop.md", blocks)
 	for _, e := range set.Blocks {
 		if !e.Customary() {
 			t.Fatalf("block %s is not taken as customary", e.Block.ID)
@@ -695,18 +684,7 @@ func TestTracesWorkOutNearCancellation(t *testing.T) {
 		"id = \"air\"\nkind = \"motor\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
 			"clearance_ratio = 0.05\nsupply_pressure = \"2 bar(a)\"\ncutoff = 0.17\npolytropic_index = 1\n",
 	}
-	var blocks []*Block
-	for i, s := range srcs {
-		b, err := ParseBlock("content/x.md", 20*i, s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		blocks = append(blocks, b)
-	}
-	set, err := Evaluate(blocks, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	set := evaluateSources(t, "content/x.md", srcs)
 	result := func(id, name string) Result {
 		e, _ := set.Lookup(id)
 		r, ok := e.Result(name)
@@ -766,18 +744,7 @@ func TestTracesWorkOutNearCancellationOtherKinds(t *testing.T) {
 		"id = \"pot\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\nclearance_volume = \"3.9 cm3\"\n" +
 			"speed = \"1440 rpm\"\nvessel_volume = \"10 L\"\nstart_pressure = \"987.6 mbar(a)\"\ntarget_pressure = \"973.21 mbar(a)\"\n",
 	}
-	var blocks []*Block
-	for i, s := range srcs {
-		b, err := ParseBlock("content/x.md", 20*i, s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		blocks = append(blocks, b)
-	}
-	set, err := Evaluate(blocks, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	set := evaluateSources(t, "content/x.md", srcs)
 	cases := []struct {
 		id, result string
 		numbers    int

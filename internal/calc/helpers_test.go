@@ -37,3 +37,22 @@ func NewInputs(ambient float64, values map[string]float64) *Inputs {
 	}
 	return in
 }
+
+// evaluateSources parses each TOML source as a block of file, 20 lines
+// apart, and evaluates them together.
+func evaluateSources(t *testing.T, file string, srcs []string) *Set {
+	t.Helper()
+	var blocks []*Block
+	for i, src := range srcs {
+		b, err := ParseBlock(file, 20*i, src)
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+	}
+	set, err := Evaluate(blocks, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return set
+}

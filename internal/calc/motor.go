@@ -207,7 +207,7 @@ func evaluateMotor(in *Inputs) (*Outcome, error) {
 	if !(w1 > 0) {
 		return nil, &InputError{Key: "cutoff", Message: fmt.Sprintf(
 			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
-			traceIn(in.Customary(), "bar")(c.ps-c.pa)+"(g)", show(in.Value("cutoff"), ""), show(w1, "J"))}
+			gaugeText(c.ps-c.pa, in.Customary()), show(in.Value("cutoff"), ""), show(w1, "J"))}
 	}
 	ts := in.Value("supply_temperature")
 	steps := crankSteps(g.cylinders)

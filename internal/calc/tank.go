@@ -3,7 +3,6 @@ package calc
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
@@ -202,17 +201,6 @@ type tankInput struct {
 	volume, target, start, ambient float64
 	supply                         *supplyModel
 	customary                      bool // the block is written in US customary units
-}
-
-// gaugeAndAbsolute shows an absolute pressure p the way blocks are written,
-// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))",
-// "100 psig (114.7 psia)".
-func gaugeAndAbsolute(p, ambient float64, customary bool) string {
-	gauge := traceIn(customary, "bar")(p-ambient) + "(g)"
-	if customary {
-		gauge = strings.TrimSuffix(gauge, "(g)") + "g" // psig, as the trade writes it
-	}
-	return gauge + " (" + traceIn(customary, "bar(a)")(p) + ")"
 }
 
 // readTankInput applies the checks that single-input ranges cannot.

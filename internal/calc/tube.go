@@ -141,7 +141,7 @@ func readTubeInput(in *Inputs) (tubeInput, error) {
 	if c.p <= 0 {
 		return c, &InputError{Key: "pressure", Message: fmt.Sprintf(
 			"%s is not above ambient; the tube model takes internal pressure only (a wall under vacuum or external pressure can buckle, which it does not cover)",
-			traceIn(in.Customary(), "bar")(c.p)+"(g)")}
+			gaugeText(c.p, in.Customary()))}
 	}
 	name := in.NameOf("material")
 	if name == "" {
