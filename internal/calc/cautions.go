@@ -60,6 +60,7 @@ var rules = []Rule{
 	{ID: "no-relief", Level: Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", check: noRelief},
 	{ID: "relief-unnamed", Level: Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", check: reliefUnnamed},
 	{ID: "relief-below-target", Level: Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", check: reliefBelowTarget},
+	{ID: "fill-above-rating", Level: Caution, Summary: "a tank filled above the discharge pressure its supply's block is computed at: the stage's forces, temperature and power run above what its block shows", check: fillAboveRating},
 	{ID: "stored-energy", Level: Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", check: storedEnergy},
 	{ID: "printed-pressure-part", Level: Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", check: printedPart},
 	{ID: "fast-flywheel", Level: Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", check: fastFlywheel},
@@ -427,6 +428,32 @@ func reliefBelowTarget(s *Set) []raised {
 				v.Block.ID, p.show(opens, units.Pressure, "bar"), working.name, p.show(target, units.Pressure, "bar"), p.Block.ID,
 				p.Block.ID, p.show(target, units.Pressure, "bar"), working.name)}})
 		}
+	}
+	return out
+}
+
+func fillAboveRating(s *Set) []raised {
+	var out []raised
+	for _, t := range s.Blocks {
+		if t.Block.Kind.Name != "tank" || t.in == nil || !t.in.Has("pressure") {
+			continue
+		}
+		l := t.in.LinkOf("supply")
+		if l == nil {
+			continue
+		}
+		c, ok := s.Lookup(l.ID)
+		if !ok || c.in == nil || !c.in.Has("discharge_pressure") {
+			continue
+		}
+		target, rated := t.in.Value("pressure"), c.in.Value("discharge_pressure")
+		if target <= rated {
+			continue
+		}
+		out = append(out, raised{t, CautionNote{Level: Caution, Message: fmt.Sprintf(
+			"%s is filled to %s, above the discharge pressure %s that its supply %s is computed at. Near the end of the fill the stage runs beyond its block: its piston force, head load, discharge temperature and power are higher than %s shows. "+
+				"Compute the supply at the receiver's cut-out pressure, or fill to the pressure it is computed at: pressure = \"=%s.discharge_pressure\".",
+			t.Block.ID, t.show(target, units.Pressure, "bar"), t.show(rated, units.Pressure, "bar"), c.Block.ID, c.Block.ID, c.Block.ID)}})
 	}
 	return out
 }
