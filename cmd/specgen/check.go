@@ -97,6 +97,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 func writeJSON(w io.Writer, v any) error {
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false) // messages hold "<=" and "->": keep them readable
 	return enc.Encode(v)
 }
 

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"slices"
+	"strings"
 	"testing"
 	"time"
 )
@@ -34,5 +35,21 @@ func TestCheckJSONShape(t *testing.T) {
 		if want := []string{"errors", "notices", "ok", "problems", "tally", "version"}; !slices.Equal(keys, want) {
 			t.Errorf("exit %d: keys %v, want %v", code, keys, want)
 		}
+	}
+}
+
+// A failed claim's message keeps its "<=" as written: JSON for people and
+// tools alike, not "\u003c=".
+func TestCheckJSONKeepsSigns(t *testing.T) {
+	page := "# Stage\n\n```calc\nid = \"low\"\nkind = \"compressor\"\nbore = \"32 mm\"\nstroke = \"28 mm\"\n" +
+		"rod_length = \"70 mm\"\nclearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n" +
+		"[expect]\nswept_volume = \"<= 10 cm3\"\n```\n"
+	root := writeSite(t, map[string]string{"content/index.md": page})
+	code, stdout, stderr := runWithin(t, time.Minute, "check", "-C", root, "-format", "json")
+	if code != exitFailed {
+		t.Fatalf("exit %d, want %d:\n%s", code, exitFailed, stderr)
+	}
+	if strings.Contains(stdout, `\u003c`) || !strings.Contains(stdout, `<= 10 cm3`) {
+		t.Errorf("the claim is not kept as written:\n%s", stdout)
 	}
 }

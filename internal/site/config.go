@@ -120,6 +120,9 @@ func LoadConfig(root string) (Config, error) {
 		return cfg, nil
 	}
 	if err != nil {
+		if info, statErr := os.Stat(filepath.Join(root, ConfigFile)); statErr == nil && info.IsDir() {
+			return cfg, &Error{File: ConfigFile, Msg: "is a folder; the site settings are a TOML file of that name (or leave it out for the defaults)"}
+		}
 		return cfg, err
 	}
 	text := string(src)

@@ -424,6 +424,7 @@ func (d *Diff) WriteJSON(w io.Writer) error {
 	var buf bytes.Buffer
 	enc := json.NewEncoder(&buf)
 	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false) // claims hold "<=": keep them readable
 	err := enc.Encode(struct {
 		Base string `json:"base"`
 		Head string `json:"head"`

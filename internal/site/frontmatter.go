@@ -202,7 +202,7 @@ const (
 // checkPageLimits refuses a page that is too large or nests too deeply.
 func checkPageLimits(file string, src []byte) error {
 	if len(src) > MaxPageBytes {
-		return &Error{File: file, Line: 1, Msg: fmt.Sprintf("the page is %d bytes; allowed: up to %d bytes (%d MiB); split it into several pages", len(src), MaxPageBytes, MaxPageBytes>>20)}
+		return &Error{File: file, Line: 1, Msg: fmt.Sprintf("the page is %.1f MiB; allowed: up to %d MiB; split it into several pages", float64(len(src))/(1<<20), MaxPageBytes>>20)}
 	}
 	line := 1
 	for rest := src; len(rest) > 0; line++ {
