@@ -93,7 +93,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		p.Y.Tick.Marker = niceTicks{}
 		if panel.Y.Log {
 			p.Y.Scale = plot.LogScale{}
-			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+			p.Y.Tick.Marker = decadeTicks{}
 		}
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
@@ -275,6 +275,65 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 		ticks = append(ticks, t)
 	}
 	return ticks
+}
+
+// decadeTicks marks a log axis at each power of ten, with minor ticks at 2
+// to 9 times it. Each decade is math.Pow10 itself: gonum's log ticker
+// multiplies its way down and printed 9.999999999999999e-06. Past a
+// thousandth or ten thousand the labels are powers (10⁻⁶), and beyond
+// eight decades every other one is labelled, so that they stay apart.
+type decadeTicks struct{}
+
+func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(lo > 0) || !(hi >= lo) || math.IsInf(hi, 0) {
+		return nil
+	}
+	kLo := int(math.Floor(math.Log10(lo) + 1e-9))
+	kHi := int(math.Ceil(math.Log10(hi) - 1e-9))
+	// The decades drawn, which carry the labels.
+	first := int(math.Ceil(math.Log10(lo) - 1e-9))
+	last := int(math.Floor(math.Log10(hi) + 1e-9))
+	every := 1 + (last-first)/8
+	powers := first < -3 || last > 4
+	var ticks []plot.Tick
+	for k := kLo; k <= kHi; k++ {
+		for m := 1; m <= 9; m++ {
+			v := float64(m) * math.Pow10(k)
+			if v < lo*(1-1e-9) || v > hi*(1+1e-9) {
+				continue
+			}
+			t := plot.Tick{Value: v}
+			switch {
+			case m != 1:
+			case (k-first)%every != 0:
+				t.Label = " " // a major tick, unlabelled
+			default:
+				t.Label = decadeLabel(k, powers)
+			}
+			ticks = append(ticks, t)
+		}
+	}
+	return ticks
+}
+
+// decadeLabel writes 10^k as "0.001" or "1000", or with powers as "10⁻⁶";
+// 1 and 10 stay plain either way.
+func decadeLabel(k int, powers bool) string {
+	if !powers || k == 0 || k == 1 {
+		return strconv.FormatFloat(math.Pow10(k), 'f', -1, 64)
+	}
+	const sup = "⁰¹²³⁴⁵⁶⁷⁸⁹"
+	digits := []rune(sup)
+	var b strings.Builder
+	b.WriteString("10")
+	if k < 0 {
+		b.WriteString("⁻")
+		k = -k
+	}
+	for _, d := range strconv.Itoa(k) {
+		b.WriteRune(digits[d-'0'])
+	}
+	return b.String()
 }
 
 // degreeTicks marks crank angles every 90° with minor ticks every 30°.

@@ -3,6 +3,7 @@ package render
 import (
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -59,6 +60,46 @@ func TestDrawChartRefusesDegenerateRanges(t *testing.T) {
 		}
 		if !strings.Contains(err.Error(), "range to draw") {
 			t.Errorf("y %v: error %q does not say why", ys, err)
+		}
+	}
+}
+
+// Every chart's tick and point labels read as plain figures: no
+// scientific notation, no float noise such as 9.999999999999999e-06.
+func TestChartLabelsReadable(t *testing.T) {
+	text := regexp.MustCompile(`<text[^>]*>([^<]*)</text>`)
+	bad := regexp.MustCompile(`\de[-+]?\d|99999|00001`)
+	for _, c := range chartCases(t) {
+		html := c.draw(t).HTML
+		for _, m := range text.FindAllStringSubmatch(html, -1) {
+			if bad.MatchString(m[1]) {
+				t.Errorf("%s: label %q", c.Name, m[1])
+			}
+		}
+	}
+}
+
+func TestDecadeTicks(t *testing.T) {
+	labels := func(lo, hi float64) []string {
+		var out []string
+		for _, tk := range (decadeTicks{}).Ticks(lo, hi) {
+			if tk.Label != "" {
+				out = append(out, tk.Label)
+			}
+		}
+		return out
+	}
+	for _, c := range []struct {
+		lo, hi float64
+		want   string
+	}{
+		{0.5, 1200, "1 10 100 1000"},
+		{2e-4, 900, "0.001 0.01 0.1 1 10 100"},
+		{1.6e-7, 14.7, "10⁻⁶ 10⁻⁵ 10⁻⁴ 10⁻³ 10⁻² 10⁻¹ 1 10"},
+		{3e-12, 2000, "10⁻¹¹   10⁻⁹   10⁻⁷   10⁻⁵   10⁻³   10⁻¹   10   10³"},
+	} {
+		if got := strings.Join(labels(c.lo, c.hi), " "); got != c.want {
+			t.Errorf("%g to %g: %q, want %q", c.lo, c.hi, got, c.want)
 		}
 	}
 }
