@@ -99,6 +99,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
 		grid.Vertical.Width, grid.Horizontal.Width = 0.5, 0.5
 		p.Add(grid)
+		words := &labelLayer{}
 		yMin, yMax := math.Inf(1), math.Inf(-1)
 		for j, s := range panel.Series {
 			x, err := xs(s.X)
@@ -129,7 +130,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
 			p.Add(plainLine{line})
-			if err := addLabels(p, s.Labels, c, panel); err != nil {
+			if err := addLabels(words, s.Labels, c, panel); err != nil {
 				return nil, err
 			}
 		}
@@ -139,9 +140,12 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			p.Y.Min = 0
 		}
 		for _, m := range panel.Marks {
-			if err := addMark(p, m, c, panel, yMin, yMax); err != nil {
+			if err := addMark(p, words, m, c, panel, yMin, yMax); err != nil {
 				return nil, err
 			}
+		}
+		if len(words.sets) > 0 {
+			p.Add(words)
 		}
 		plots[i] = []*plot.Plot{p}
 	}
@@ -397,7 +401,7 @@ func thin(pts plotter.XYs) plotter.XYs {
 	return out
 }
 
-func addLabels(p *plot.Plot, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel) error {
+func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel) error {
 	if len(labels) == 0 {
 		return nil
 	}
@@ -439,13 +443,13 @@ func addLabels(p *plot.Plot, labels []calc.PointLabel, c *calc.Chart, panel calc
 		if below {
 			lab.Offset = vg.Point{X: 4, Y: -labelFont - 4}
 		}
-		p.Add(lab)
+		words.sets = append(words.sets, lab)
 	}
 	return nil
 }
 
 // addMark draws a reference line with its label.
-func addMark(p *plot.Plot, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, yMax float64) error {
+func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, yMax float64) error {
 	var pts plotter.XYs
 	var at plotter.XY
 	if m.Vertical {
@@ -484,7 +488,7 @@ func addMark(p *plot.Plot, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, y
 	lab.TextStyle[0].Font.Size = labelFont
 	lab.TextStyle[0].Handler = chartText
 	lab.Offset = vg.Point{X: 3, Y: 3}
-	p.Add(lab)
+	words.sets = append(words.sets, lab)
 	return nil
 }
 
@@ -538,4 +542,68 @@ func chartCSV(c *calc.Chart) ([]byte, error) {
 	}
 	w.Flush()
 	return buf.Bytes(), w.Error()
+}
+
+// labelLayer draws a panel's words (process names, mark labels) after its
+// lines, moving a word that would overlap one already drawn a line
+// towards the middle of the panel: close stages, or two limits at one
+// temperature, printed over each other.
+type labelLayer struct{ sets []*plotter.Labels }
+
+func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	mid := (c.Min.Y + c.Max.Y) / 2
+	var placed []vg.Rectangle
+	for _, set := range l.sets {
+		for i, word := range set.Labels {
+			pt := vg.Point{X: trX(set.XYs[i].X), Y: trY(set.XYs[i].Y)}
+			if !c.Contains(pt) {
+				continue
+			}
+			pt = pt.Add(set.Offset)
+			box := set.TextStyle[i].Rectangle(word)
+			step := box.Max.Y - box.Min.Y + 1
+			if pt.Y > mid {
+				step = -step
+			}
+			at := pt
+			for _, k := range []vg.Length{0, 1, 2, 3, 4, -1, -2} {
+				try := vg.Point{X: pt.X, Y: pt.Y + k*step}
+				if !overlapsAny(box.Add(try), placed) {
+					at = try
+					break
+				}
+			}
+			placed = append(placed, box.Add(at))
+			c.FillText(set.TextStyle[i], at, word)
+		}
+	}
+}
+
+func overlapsAny(r vg.Rectangle, rs []vg.Rectangle) bool {
+	for _, o := range rs {
+		if r.Min.X < o.Max.X && o.Min.X < r.Max.X && r.Min.Y < o.Max.Y && o.Min.Y < r.Max.Y {
+			return true
+		}
+	}
+	return false
+}
+
+func (l *labelLayer) DataRange() (xmin, xmax, ymin, ymax float64) {
+	xmin, ymin = math.Inf(1), math.Inf(1)
+	xmax, ymax = math.Inf(-1), math.Inf(-1)
+	for _, set := range l.sets {
+		a, b, c, d := set.DataRange()
+		xmin, xmax = math.Min(xmin, a), math.Max(xmax, b)
+		ymin, ymax = math.Min(ymin, c), math.Max(ymax, d)
+	}
+	return xmin, xmax, ymin, ymax
+}
+
+func (l *labelLayer) GlyphBoxes(p *plot.Plot) []plot.GlyphBox {
+	var out []plot.GlyphBox
+	for _, set := range l.sets {
+		out = append(out, set.GlyphBoxes(p)...)
+	}
+	return out
 }

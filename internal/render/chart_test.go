@@ -4,6 +4,11 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"strconv"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/vg"
 	"strings"
 	"testing"
 
@@ -100,6 +105,32 @@ func TestDecadeTicks(t *testing.T) {
 	} {
 		if got := strings.Join(labels(c.lo, c.hi), " "); got != c.want {
 			t.Errorf("%g to %g: %q, want %q", c.lo, c.hi, got, c.want)
+		}
+	}
+}
+
+// No two words of a chart overlap: tick labels, axis titles, process
+// names and mark labels, measured as gonum/plot lays them out.
+func TestChartWordsApart(t *testing.T) {
+	text := regexp.MustCompile(`<text x="([^"]+)" y="([^"]+)" font-size="([^"]+)">([^<]*)</text>`)
+	type box struct {
+		word                   string
+		minX, maxX, minY, maxY float64
+	}
+	for _, c := range chartCases(t) {
+		var boxes []box
+		for _, m := range text.FindAllStringSubmatch(c.draw(t).HTML, -1) {
+			x, _ := strconv.ParseFloat(m[1], 64)
+			y, _ := strconv.ParseFloat(m[2], 64)
+			size, _ := strconv.ParseFloat(m[3], 64)
+			w, h, d := chartText.Box(m[4], font.From(plot.DefaultFont, vg.Length(size)))
+			b := box{m[4], x, x + float64(w), y - float64(h-d), y + float64(d)}
+			for _, o := range boxes {
+				if b.minX < o.maxX && o.minX < b.maxX && b.minY < o.maxY && o.minY < b.maxY {
+					t.Errorf("%s: %q overlaps %q", c.Name, b.word, o.word)
+				}
+			}
+			boxes = append(boxes, b)
 		}
 	}
 }
