@@ -274,7 +274,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 			if math.Abs(v) < step*1e-9 {
 				v = 0
 			}
-			t.Label = strconv.FormatFloat(v, 'f', decimals, 64)
+			t.Label = groupDigits(strconv.FormatFloat(v, 'f', decimals, 64))
 		}
 		ticks = append(ticks, t)
 	}
@@ -324,7 +324,7 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 // 1 and 10 stay plain either way.
 func decadeLabel(k int, powers bool) string {
 	if !powers || k == 0 || k == 1 {
-		return strconv.FormatFloat(math.Pow10(k), 'f', -1, 64)
+		return groupDigits(strconv.FormatFloat(math.Pow10(k), 'f', -1, 64))
 	}
 	const sup = "⁰¹²³⁴⁵⁶⁷⁸⁹"
 	digits := []rune(sup)
@@ -338,6 +338,27 @@ func decadeLabel(k int, powers bool) string {
 		b.WriteRune(digits[d-'0'])
 	}
 	return b.String()
+}
+
+// groupDigits splits a whole number of five or more digits into groups
+// of three with no-break spaces (ISO 80000-1), so that 8000000 reads as
+// 8 000 000. Four digits stay together, as the standard allows.
+func groupDigits(s string) string {
+	sign := ""
+	if strings.HasPrefix(s, "-") {
+		sign, s = "-", s[1:]
+	}
+	if len(s) < 5 || strings.ContainsAny(s, ".e") {
+		return sign + s
+	}
+	var b strings.Builder
+	for i, d := range s {
+		if i > 0 && (len(s)-i)%3 == 0 {
+			b.WriteRune('\u00a0')
+		}
+		b.WriteRune(d)
+	}
+	return sign + b.String()
 }
 
 // degreeTicks marks crank angles every 90° with minor ticks every 30°.

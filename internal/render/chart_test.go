@@ -70,10 +70,11 @@ func TestDrawChartRefusesDegenerateRanges(t *testing.T) {
 }
 
 // Every chart's tick and point labels read as plain figures: no
-// scientific notation, no float noise such as 9.999999999999999e-06.
+// scientific notation, no float noise such as 9.999999999999999e-06, no
+// long runs of digits such as 8000000.
 func TestChartLabelsReadable(t *testing.T) {
 	text := regexp.MustCompile(`<text[^>]*>([^<]*)</text>`)
-	bad := regexp.MustCompile(`\de[-+]?\d|99999|00001`)
+	bad := regexp.MustCompile(`\de[-+]?\d|99999|00001|\d{5}`)
 	for _, c := range chartCases(t) {
 		html := c.draw(t).HTML
 		for _, m := range text.FindAllStringSubmatch(html, -1) {
@@ -131,6 +132,17 @@ func TestChartWordsApart(t *testing.T) {
 				}
 			}
 			boxes = append(boxes, b)
+		}
+	}
+}
+
+func TestGroupDigits(t *testing.T) {
+	for in, want := range map[string]string{
+		"0": "0", "2500": "2500", "10000": "10\u00a0000", "-1500000": "-1\u00a0500\u00a0000",
+		"123456": "123\u00a0456", "0.0015": "0.0015",
+	} {
+		if got := groupDigits(in); got != want {
+			t.Errorf("groupDigits(%q) = %q, want %q", in, got, want)
 		}
 	}
 }
