@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"html"
 	"math"
+	"regexp"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
@@ -163,6 +164,9 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 			}
 			value = strings.Join(parts, ", ")
 		}
+		if len(in.Links) == 0 {
+			value = keepWithUnit(value)
+		}
 		note := ""
 		if in.Label != "" {
 			value += ` <span class="sg-note">` + esc(in.Label) + `</span>`
@@ -221,7 +225,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
 			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
 		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + esc(value) + `</td><td>`)
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(value)) + `</td><td>`)
 		if r.Trace.Formula != "" {
 			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
@@ -349,7 +353,7 @@ func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
 	word := c.Level.String()
 	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
 		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
-		`<div class="sg-caution-body"><p class="sg-caution-text">` + esc(c.Message) + `</p>`)
+		`<div class="sg-caution-body"><p class="sg-caution-text">` + keepWithUnit(esc(c.Message)) + `</p>`)
 	if c.Acknowledged != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(c.Acknowledged) + `</p>`)
 	}
@@ -373,3 +377,10 @@ func StandardCautionHTML(message string) string {
 }
 
 func esc(s string) string { return html.EscapeString(s) }
+
+var numberSpace = regexp.MustCompile(`(\d) (\S)`)
+
+// keepWithUnit joins a number to the word after it with a no-break space,
+// so that a narrow column or caution box does not put "415" on one line
+// and "°C" on the next.
+func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\u00a0$2") }

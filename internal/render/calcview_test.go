@@ -56,8 +56,10 @@ func TestCalcBlockHTML(t *testing.T) {
 		// π/4 · 28² · 32 mm³ = 19 704 mm³ (by hand): the failed claim shows the truth.
 		`<span class="sg-claim-mark">FAILS</span> <code>swept_volume</code> claimed <q>79 cm3</q>, computed <strong>19.7 cm³</strong>`,
 		`<span class="sg-claim-mark">holds</span> <code>free_air_delivery</code>`,
-		// 6 bar gauge on 1 atm: 7.01325 bar absolute.
-		`6.00 bar(g) · 7.01 bar(a)`,
+		// 6 bar gauge on 1 atm: 7.01325 bar absolute. Each figure keeps
+		// its unit on its line; the pair may break at the dot.
+		"<td class=\"sg-num\">6.00\u00a0bar(g) · 7.01\u00a0bar(a)",
+		"<td class=\"sg-num\">32\u00a0mm",
 		`<span class="sg-note">default</span>`,
 		`<details class="sg-trace"><summary>working</summary>`,
 		`<tr class="sg-shown"><th scope="row"><code>free_air_delivery</code>`,
@@ -172,7 +174,7 @@ discharge_pressure = "116 psi"
 	w := bufio.NewWriter(&buf)
 	writeInputs(w, e, nil)
 	_ = w.Flush()
-	for _, want := range []string{"68.0 °F", "116 psig · 131 psia"} {
+	for _, want := range []string{"68.0\u00a0°F", "116\u00a0psig · 131\u00a0psia"} {
 		if !strings.Contains(buf.String(), want) {
 			t.Errorf("inputs lack %q:\n%s", want, buf.String())
 		}
@@ -212,5 +214,30 @@ material = "Nylon"
 	WriteText(&text, e)
 	if want := "Nylon PA12 (printed, SLS or FDM); written “Nylon”"; !strings.Contains(text.String(), want) {
 		t.Errorf("text form lacks %q:\n%s", want, text.String())
+	}
+}
+
+// A caution's figures keep their units on their line in a narrow box.
+func TestCautionKeepsUnits(t *testing.T) {
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	WriteCaution(w, calc.CautionNote{Level: calc.Danger, Message: "discharge temperature 415 °C against 60.0 °C, block 3"}, "")
+	_ = w.Flush()
+	if want := "415\u00a0°C against 60.0\u00a0°C, block 3"; !strings.Contains(buf.String(), want) {
+		t.Errorf("caution lacks %q:\n%s", want, buf.String())
+	}
+}
+
+// The site-wide list keeps figures with their units as the boxes do.
+func TestCautionListKeepsUnits(t *testing.T) {
+	n := &CautionList{Items: []CautionItem{{CautionNote: calc.CautionNote{Level: calc.Warning, Message: "rated 60.0 °C"}, Block: "a", Href: "#a"}}}
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	if _, err := (&calcRenderer{}).renderCautionList(w, nil, n, true); err != nil {
+		t.Fatal(err)
+	}
+	_ = w.Flush()
+	if !strings.Contains(buf.String(), "rated 60.0\u00a0°C") {
+		t.Errorf("caution list lacks the joined figure:\n%s", buf.String())
 	}
 }

@@ -62,7 +62,7 @@ func (r *calcRenderer) renderCautionList(w util.BufWriter, source []byte, node a
 		if title == "" {
 			title = it.Block
 		}
-		what := esc(it.Message)
+		what := keepWithUnit(esc(it.Message))
 		if it.Acknowledged != "" {
 			what += ` <span class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(it.Acknowledged) + `</span>`
 		}
