@@ -182,7 +182,7 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 			id, _, _ := strings.Cut(ref, ".")
 			note = ` <span class="sg-note">from ` + link(id, `<code>`+esc(ref)+`</code>`) + `</span>`
 		}
-		_, _ = w.WriteString(`<tr><th scope="row"><code>` + esc(in.Name) + `</code></th><td class="sg-num">` + value + note + "</td></tr>\n")
+		_, _ = w.WriteString(`<tr><th scope="row"><code>` + breakable(in.Name) + `</code></th><td class="sg-num">` + value + note + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
@@ -225,7 +225,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
 			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
 		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + esc(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(value)) + `</td><td>`)
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(value)) + `</td><td>`)
 		if r.Trace.Formula != "" {
 			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
@@ -384,3 +384,7 @@ var numberSpace = regexp.MustCompile(`(\d) (\S)`)
 // so that a narrow column or caution box does not put "415" on one line
 // and "°C" on the next.
 func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\u00a0$2") }
+
+// breakable lets a long result or input name wrap after its underscores
+// in a narrow column (discharge_<wbr>temperature), not at any letter.
+func breakable(name string) string { return strings.ReplaceAll(esc(name), "_", "_<wbr>") }

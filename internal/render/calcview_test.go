@@ -62,7 +62,9 @@ func TestCalcBlockHTML(t *testing.T) {
 		"<td class=\"sg-num\">32\u00a0mm",
 		`<span class="sg-note">default</span>`,
 		`<details class="sg-trace"><summary>working</summary>`,
-		`<tr class="sg-shown"><th scope="row"><code>free_air_delivery</code>`,
+		// Names wrap after an underscore, not inside a word.
+		`<tr class="sg-shown"><th scope="row"><code>free_<wbr>air_<wbr>delivery</code>`,
+		`<th scope="row"><code>rod_<wbr>length</code>`,
 		`psig · `,
 	} {
 		if !strings.Contains(out, want) {
@@ -70,7 +72,7 @@ func TestCalcBlockHTML(t *testing.T) {
 		}
 	}
 	// [show] outputs come first, in their order.
-	if strings.Index(out, "<code>free_air_delivery</code>") > strings.Index(out, "<code>piston_area</code>") {
+	if strings.Index(out, "<code>free_<wbr>air_<wbr>delivery</code>") > strings.Index(out, "<code>piston_<wbr>area</code>") {
 		t.Error("shown outputs are not listed first")
 	}
 }
