@@ -37,7 +37,7 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkSkipChildren, nil
 	}
 	name := esc(n.Block + "." + n.Result)
-	text := esc(n.Shown)
+	text := esc(groupFigures(n.Shown))
 	if n.Shown == "" {
 		// Only reachable when a page is rendered without evaluation.
 		text = "=[" + name + "]"
@@ -225,7 +225,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
 			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
 		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(value)) + `</td><td>`)
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
 		if r.Trace.Formula != "" {
 			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
@@ -388,3 +388,20 @@ func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\
 // breakable lets a long result or input name wrap after its underscores
 // in a narrow column (discharge_<wbr>temperature), not at any letter.
 func breakable(name string) string { return strings.ReplaceAll(esc(name), "_", "_<wbr>") }
+
+var figure = regexp.MustCompile(`[-\w.]*\d[\w.]*`)
+
+// groupFigures groups the digits of the whole numbers of five or more
+// digits in a shown value (6 140 000 W) as the chart ticks do; a decimal
+// fraction or a word with digits in it (an id) is left as it is.
+func groupFigures(s string) string {
+	return figure.ReplaceAllStringFunc(s, func(f string) string {
+		digits := strings.TrimPrefix(f, "-")
+		for _, r := range digits {
+			if r < '0' || r > '9' {
+				return f
+			}
+		}
+		return groupDigits(f)
+	})
+}

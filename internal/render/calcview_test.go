@@ -243,3 +243,57 @@ func TestCautionListKeepsUnits(t *testing.T) {
 		t.Errorf("caution list lacks the joined figure:\n%s", buf.String())
 	}
 }
+
+func TestGroupFigures(t *testing.T) {
+	for in, want := range map[string]string{
+		"6140000 W":                 "6\u00a0140\u00a0000 W",
+		"1510000 L/min":             "1\u00a0510\u00a0000 L/min",
+		"2500 W":                    "2500 W",
+		"0.0000161 mbar(a)":         "0.0000161 mbar(a)",
+		"-1013.25 mbar(g)":          "-1013.25 mbar(g)",
+		"12345.6 N":                 "12345.6 N",
+		"4330 psig · 143000 psia":   "4330 psig · 143\u00a0000 psia",
+		"tank-20000 holds -25000 J": "tank-20000 holds -25\u00a0000 J",
+	} {
+		if got := groupFigures(in); got != want {
+			t.Errorf("groupFigures(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+// A large result's figure is grouped in the table as on the chart.
+func TestLargeResultGrouped(t *testing.T) {
+	src := `id = "big"
+kind = "compressor"
+bore = "400 mm"
+stroke = "500 mm"
+rod_length = "1200 mm"
+clearance_ratio = 0.04
+speed = "2000 rpm"
+cylinders = 12
+discharge_pressure = "40 bar"
+`
+	e := evaluated(t, src)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	writeResults(w, e)
+	_ = w.Flush()
+	// 12 · π/4 · (0.4 m)² · 0.5 m = 0.754 m³ per revolution, 2000 rpm: 1 510 000 L/min.
+	if want := "<td class=\"sg-num\">1\u00a0510\u00a0000\u00a0L/min</td>"; !strings.Contains(buf.String(), want) {
+		t.Errorf("results lack %q", want)
+	}
+}
+
+func TestValueRefGrouped(t *testing.T) {
+	md := New()
+	doc := md.Parse([]byte("It takes =[big.shaft_power W].\n"), 0)
+	refs := doc.ValueRefs()
+	refs[0].Shown, refs[0].Href = "6140000 W", "#calc-big"
+	html, err := md.Render(doc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := ">6\u00a0140\u00a0000 W</a>"; !strings.Contains(string(html), want) {
+		t.Errorf("got %s", html)
+	}
+}
