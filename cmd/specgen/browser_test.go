@@ -185,6 +185,19 @@ func TestBrowserDemo(t *testing.T) {
 		}
 	}
 
+	// Chart words carry a halo of the chart's own background, so that a
+	// curve or grid line under a label does not strike through it.
+	halo, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`Array.from(document.querySelectorAll("svg.sg-chart-svg text")).filter(t => {
+		const s = getComputedStyle(t), bg = getComputedStyle(t.closest(".sg-chart")).backgroundColor;
+		return !s.paintOrder.startsWith("stroke") || s.stroke !== bg || parseFloat(s.strokeWidth) < 2;
+	}).map(t => t.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(halo) > 0 {
+		t.Errorf("chart words without a halo of the background: %q", halo)
+	}
+
 	// The formula trace expands.
 	if err := chromedp.Do(ctx, chromedp.Click(css(`.sg-trace summary`))); err != nil {
 		t.Fatal(err)
