@@ -354,6 +354,17 @@ func TestBrowserPhoneWidth(t *testing.T) {
 		for _, w := range o.Wide {
 			t.Errorf("%s: table sticks out of the page body: %s", pageName, w)
 		}
+		// What a caution says is read at the width of the page.
+		narrow, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`Array.from(document.querySelectorAll(".sg-caution-list td:last-child")).filter(td => {
+			const r = td.getBoundingClientRect(), body = document.querySelector(".sg-body").getBoundingClientRect();
+			return r.width < body.width * 0.8 || r.right > body.right + 0.5;
+		}).map(td => td.textContent.slice(0, 40))`))
+		if err != nil {
+			t.Fatalf("%s: %v", pageName, err)
+		}
+		for _, n := range narrow {
+			t.Errorf("%s: a caution in the list is squeezed or cut off: %q", pageName, n)
+		}
 	}
 	if tables == 0 {
 		t.Fatal("no calc tables found on the demo pages")
