@@ -63,7 +63,10 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 }
 
 func runExplain(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("explain", "explain [KIND|materials|cautions]", stderr)
+	fs := newFlags("explain", "explain [KIND|materials|cautions]\n\n"+
+		"With no argument, lists the kinds of calculation block. With a kind, prints its model, assumptions and\n"+
+		"limits, its inputs with defaults and allowed ranges, its results and charts. 'materials' lists the\n"+
+		"built-in materials with their sources; 'cautions' lists the caution rules.", stderr)
 	pos, code := parseOnly(fs, args)
 	if code >= 0 {
 		return code

@@ -52,7 +52,9 @@ func inputErrors(err error) []inputError {
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("check", "check [-C dir] [-format text|json]", stderr)
+	fs := newFlags("check", "check [-C dir] [-format text|json]\n\n"+
+		"Evaluates every calculation block and claim and lists failed claims and cautions, writing nothing.\n"+
+		"Exit status: 0 all is well, 1 a claim fails or a DANGER caution is not acknowledged, 2 bad input.", stderr)
 	dir := fs.String("C", ".", "site root: the folder holding content/")
 	format := fs.String("format", "text", "output format: text or json")
 	if code := parseFlags(fs, args); code >= 0 {

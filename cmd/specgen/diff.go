@@ -90,7 +90,9 @@ func resultsFor(dir, arg string) (*site.ResultsFile, error) {
 }
 
 func runInit(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("init", "init DIR", stderr)
+	fs := newFlags("init", "init DIR\n\n"+
+		"Writes specgen.toml and content/ with a home page and an example page (a compressor block, its relief\n"+
+		"valve, claims and a chart) into DIR, an empty or new folder. Then: specgen build -C DIR.", stderr)
 	pos, code := parseOnly(fs, args)
 	if code >= 0 {
 		return code

@@ -88,6 +88,8 @@ func usage(w io.Writer) {
 	for _, c := range commands() {
 		fmt.Fprintf(w, "  %-9s %s\n", c.name, c.summary)
 	}
+	fmt.Fprintln(w, "\nExit status: 0 all is well, 1 a claim fails or a DANGER caution is not acknowledged (check, build -strict;")
+	fmt.Fprintln(w, "diff: newly), 2 bad input.")
 	fmt.Fprintln(w, "\nRun 'specgen help COMMAND' for a command's options.")
 }
 
@@ -164,7 +166,10 @@ func report(stderr io.Writer, err error) int {
 }
 
 func runBuild(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("build", "build [-C dir] [-out dir] [-strict] [-quiet]", stderr)
+	fs := newFlags("build", "build [-C dir] [-out dir] [-strict] [-quiet]\n\n"+
+		"Builds the site into the output folder. A failed claim is marked on its page and listed, and the site is\n"+
+		"still written (exit 0); with -strict, a failed claim or an unacknowledged DANGER caution writes nothing\n"+
+		"and exits 1. Bad input: exit 2.", stderr)
 	dir := fs.String("C", ".", "site root: the folder holding content/")
 	out := fs.String("out", site.DefaultOut, "output folder, relative to the site root")
 	strict := fs.Bool("strict", false, "fail like check, writing nothing, when a claim fails or a DANGER caution is raised")

@@ -43,7 +43,9 @@ Assumptions
 - Constant crank speed. Gravity and gas forces are left out: gas forces act
   on the piston and the cylinder head alike and do not shake the frame.
 - One cylinder. Several cylinders on one crank cancel or add their forces
-  by their arrangement, which the source block does not give.
+  by their arrangement, which the source block does not give: a source
+  with cylinders above 1 is refused. Two stages on opposed throws of one
+  crank take one balance block each.
 
 Forces (the slider-crank acceleration to second order in R/L; e.g.
 J. E. Shigley and J. J. Uicker, Theory of Machines and Mechanisms, balancing;

@@ -56,6 +56,10 @@ func ExplainMaterials(w io.Writer, env *Env) {
 			units.Format(m.TemperatureLimit()-273.15, 3), units.Format(env.Safety.MinimumFor(m), 2), m.Source)
 	}
 	_ = tw.Flush()
+	fmt.Fprintln(w, "\nservice limit: the continuous-use temperature (common practice), or the heat deflection temperature when lower,")
+	fmt.Fprintln(w, "that the hot-discharge caution holds discharge temperatures against; minimum factor: the site's minimum safety")
+	fmt.Fprintln(w, "factor for the material's class (specgen.toml [safety]); a dash under yield: no yield point, so safety factors")
+	fmt.Fprintln(w, "use the tensile strength.")
 	fmt.Fprintln(w, "\nOther names a block may use (case, spaces and underscores do not matter):")
 	for _, name := range env.Materials.Names() {
 		if m, _ := env.Materials.Lookup(name); len(m.Aliases) > 0 {

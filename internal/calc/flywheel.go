@@ -18,7 +18,7 @@ var flywheelKind = Kind{
 	Inputs: []InputSpec{
 		{Name: "source", Type: LinkList, LinkKinds: []string{"compressor", "motor"}, Meaning: "the compressor or motor block whose crankshaft the flywheel is on, or a list of the blocks on one crankshaft, taken evenly phased in the order listed"},
 		{Name: "speed_fluctuation", Dim: units.Dimensionless, Range: Between(1e-4, 0.5),
-			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for compressors)"},
+			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for belt-driven compressors: common practice)"},
 		{Name: "density", Dim: units.Density, Optional: true, Range: Between(minSolidDensity, 1e5), Meaning: "density of the flywheel material; give density or material"},
 		{Name: "material", Type: Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
 		{Name: "thickness", Dim: units.Length, Range: Between(minPartSize, 10), Meaning: "axial thickness of the disc, or axial width of the rim"},

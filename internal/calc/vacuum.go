@@ -34,9 +34,10 @@ var vacuumKind = Kind{
 
 const vacuumDoc = `The vacuum kind models a compressor cylinder (the compressor kind's geometry)
 used as a vacuum pump: it draws air from a closed vessel of volume V at the
-vessel pressure p and discharges it to the atmosphere at p_a. Pressures are
-absolute: plain "mbar", "bar", "kPa" and "psi" are gauge (read from ambient),
-so write a vacuum target as "20 mbar(a)", "2 kPa(a)" or "15 torr".
+vessel pressure p and discharges it to the atmosphere at p_a. Pressures in
+the formulas are absolute. In a block, plain "mbar", "bar", "kPa" and "psi"
+are gauge (read from ambient), so write a vacuum target as "20 mbar(a)",
+"2 kPa(a)" or "15 torr".
 
 Assumptions
 - The compressor kind's ideal cycle: ideal valves, the same polytropic index
