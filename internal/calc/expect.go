@@ -94,13 +94,14 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 		}
 		loc := tolSplit.FindStringIndex(inner)
 		main, tol := strings.TrimSpace(inner[:loc[0]]), strings.TrimSpace(inner[loc[1]:])
-		if _, isPlain := plainNumber(main); !isPlain || unit == "" {
+		if _, isPlain := plainNumber(main); !isPlain {
 			return bad("puts a unit inside the parentheses; write \"(22.5 ± 0.5) cm3\", the unit after them")
 		}
 		if _, isPlain := plainNumber(tol); !isPlain && !strings.HasSuffix(tol, "%") {
 			return bad("puts a unit inside the parentheses; write \"(22.5 ± 0.5) cm3\", the unit after them")
 		}
-		s = main + " " + unit + " ± " + tol
+		// Without a unit after them they group a plain number ("(0.04 ± 0.001)").
+		s = strings.TrimSpace(main+" "+unit) + " ± " + tol
 	}
 	main, tol := s, ""
 	if loc := tolSplit.FindStringIndex(s); loc != nil {
