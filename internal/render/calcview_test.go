@@ -297,3 +297,28 @@ func TestValueRefGrouped(t *testing.T) {
 		t.Errorf("got %s", html)
 	}
 }
+
+// A block's title is one level below the heading it stands under, so that
+// the outline never skips a level.
+func TestCalcTitleLevel(t *testing.T) {
+	fence := "```calc\n" + stageBlock + "```\n"
+	for _, c := range []struct{ md, want string }{
+		{fence, "<h2 class=\"sg-calc-title\""},
+		{"## Stage\n\n" + fence, "<h3 class=\"sg-calc-title\""},
+		{"## Stage\n\n### Low\n\nText.\n\n" + fence, "<h4 class=\"sg-calc-title\""},
+		{"### Low\n\n> " + strings.ReplaceAll(fence, "\n", "\n> ") + "\n", "<h4 class=\"sg-calc-title\""},
+	} {
+		md := New()
+		doc := md.Parse([]byte(c.md), 0)
+		for _, b := range doc.CalcBlocks() {
+			b.Eval = evaluated(t, stageBlock)
+		}
+		html, err := md.Render(doc)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(string(html), c.want) {
+			t.Errorf("%q: no %s in\n%.300s", c.md[:20], c.want, html)
+		}
+	}
+}
