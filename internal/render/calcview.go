@@ -248,7 +248,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		}
 		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
 		if r.Trace.Formula != "" {
-			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
+			_, _ = w.WriteString(`<details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
 				_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
 			}

@@ -61,7 +61,8 @@ func TestCalcBlockHTML(t *testing.T) {
 		"<td class=\"sg-num\">6.00\u00a0bar(g) · 7.01\u00a0bar(a)",
 		"<td class=\"sg-num\">32\u00a0mm",
 		`<span class="sg-note">default</span>`,
-		`<details class="sg-trace"><summary>working</summary>`,
+		// Each working is named for its result, not twenty "working"s in a row.
+		`<details class="sg-trace"><summary>working<span class="sg-sr"> for piston_area</span></summary>`,
 		// Names wrap after an underscore, not inside a word.
 		`<tr class="sg-shown"><th scope="row"><code>free_<wbr>air_<wbr>delivery</code>`,
 		`<th scope="row"><code>rod_<wbr>length</code>`,

@@ -180,7 +180,8 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	}
 	out.WriteString(`</span>`)
 	if csvHref != "" {
-		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)</a>`, esc(csvHref))
+		// The hidden words tell a list of the page's links which chart's data it is.
+		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
 	}
 	out.WriteString("</figcaption>\n</figure>\n")
 	data, err := chartCSV(c)
