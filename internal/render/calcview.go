@@ -276,7 +276,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		if errX != nil || errY != nil {
 			continue
 		}
-		_, _ = w.WriteString(`<tr><td class="sg-num">` + units.Format(x, e.SigFigs()) + `</td><td class="sg-num">` + units.Format(y, e.SigFigs()) + "</td></tr>\n")
+		_, _ = w.WriteString(`<tr><td class="sg-num">` + groupFigures(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + groupFigures(units.Format(y, e.SigFigs())) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }

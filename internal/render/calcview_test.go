@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"specgen/internal/calc"
+	"specgen/internal/units"
 )
 
 const stageBlock = `id = "low"
@@ -321,5 +322,19 @@ func TestCalcTitleLevel(t *testing.T) {
 		if !strings.Contains(string(html), c.want) {
 			t.Errorf("%q: no %s in\n%.300s", c.md[:20], c.want, html)
 		}
+	}
+}
+
+// An extra table's long figures are grouped as the results are.
+func TestExtraTableGrouped(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	writeTable(w, e, calc.Table{Title: "t",
+		X: calc.Axis{Label: "Time", Dim: units.Time, Unit: "s"}, Y: calc.Axis{Label: "Time", Dim: units.Time, Unit: "s"},
+		XS: []float64{127000}, YS: []float64{5}})
+	_ = w.Flush()
+	if want := "<td class=\"sg-num\">127\u00a0000</td>"; !strings.Contains(buf.String(), want) {
+		t.Errorf("table lacks %q:\n%s", want, buf.String())
 	}
 }
