@@ -1,6 +1,7 @@
 package render
 
 import (
+	"math"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -171,6 +172,23 @@ func TestChartDataLinkNamed(t *testing.T) {
 		}
 		if want := `data (CSV)<span class="sg-sr"> of ` + ch.Title + `</span></a>`; !strings.Contains(d.HTML, want) {
 			t.Errorf("%s: no %q", c.Name, want)
+		}
+	}
+}
+
+// A chart uses its height: the words over the top panel (a mark's label)
+// sit at its top edge, with no blank band above them. A log axis left
+// one a fifth of the chart high.
+func TestChartNoBlankTop(t *testing.T) {
+	text := regexp.MustCompile(`<text x="[^"]+" y="([^"]+)"`)
+	for _, c := range chartCases(t) {
+		top := math.Inf(1)
+		for _, m := range text.FindAllStringSubmatch(c.draw(t).HTML, -1) {
+			y, _ := strconv.ParseFloat(m[1], 64)
+			top = math.Min(top, y)
+		}
+		if top > 30 {
+			t.Errorf("%s: the first word is %g below the top of the chart", c.Name, top)
 		}
 	}
 }
