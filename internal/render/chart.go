@@ -324,6 +324,17 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 			ticks = append(ticks, t)
 		}
 	}
+	// Less than a decade and a half: one labelled decade gives no scale, so
+	// 2, 3 and 5 times each decade are labelled too.
+	if last <= first {
+		for i, t := range ticks {
+			k := int(math.Floor(math.Log10(t.Value) + 1e-9))
+			m := t.Value / math.Pow10(k)
+			if r := math.Round(m); math.Abs(m-r) < 1e-9 && (r == 2 || r == 3 || r == 5) {
+				ticks[i].Label = groupDigits(strconv.FormatFloat(t.Value, 'f', max(0, -k), 64))
+			}
+		}
+	}
 	return ticks
 }
 
