@@ -5,6 +5,7 @@ import (
 	"html"
 	"math"
 	"regexp"
+	"strconv"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
@@ -59,8 +60,23 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 		writeCode(w, "toml", n.Source)
 		return ast.WalkSkipChildren, nil
 	}
-	WriteCalcBlock(w, n.Eval, n.Source, n.Charts, n.Links)
+	writeCalcBlock(w, n.Eval, n.Source, n.Charts, n.Links, headingLevelAfter(n))
 	return ast.WalkSkipChildren, nil
+}
+
+// headingLevelAfter is the level a block's title takes where the block
+// stands: one below the heading before it (h2 straight under the page's
+// title), so that headings never skip a level for a screen reader's
+// outline.
+func headingLevelAfter(n ast.Node) int {
+	for at := n; at != nil; at = at.Parent() {
+		for p := at.PreviousSibling(); p != nil; p = p.PreviousSibling() {
+			if h, ok := p.(*ast.Heading); ok {
+				return min(h.Level+1, 6)
+			}
+		}
+	}
+	return 2
 }
 
 // Each calc table sits in its own box that scrolls sideways, so that a
@@ -78,6 +94,11 @@ func BlockAnchor(id string) string { return "calc-" + id }
 // working, claims, cautions and the block's source. links maps the ids of
 // blocks its inputs name or quote to their tables (nil for no links).
 func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart, links map[string]string) {
+	writeCalcBlock(w, e, source, charts, links, 3)
+}
+
+func writeCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart, links map[string]string, level int) {
+	h := "h" + strconv.Itoa(level)
 	b := e.Block
 	anchor := BlockAnchor(b.ID)
 	title := b.Title
@@ -94,7 +115,7 @@ func WriteCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 		state = "sg-calc-failed"
 	}
 	ws(`<section class="sg-calc `, state, `" id="`, esc(anchor), `" aria-labelledby="`, esc(anchor), `-title">`, "\n")
-	ws(`<header class="sg-calc-head"><h3 class="sg-calc-title" id="`, esc(anchor), `-title">`, esc(title), `</h3>`)
+	ws(`<header class="sg-calc-head"><`, h, ` class="sg-calc-title" id="`, esc(anchor), `-title">`, esc(title), `</`, h, `>`)
 	ws(`<p class="sg-calc-meta"><span>`, esc(b.Kind.Name), `</span> <code>`, esc(b.ID), `</code></p></header>`, "\n")
 
 	for _, c := range e.Cautions {
@@ -227,7 +248,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		}
 		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
 		if r.Trace.Formula != "" {
-			_, _ = w.WriteString(`<details class="sg-trace"><summary>working</summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
+			_, _ = w.WriteString(`<details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
 				_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
 			}
@@ -255,7 +276,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		if errX != nil || errY != nil {
 			continue
 		}
-		_, _ = w.WriteString(`<tr><td class="sg-num">` + units.Format(x, e.SigFigs()) + `</td><td class="sg-num">` + units.Format(y, e.SigFigs()) + "</td></tr>\n")
+		_, _ = w.WriteString(`<tr><td class="sg-num">` + groupFigures(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + groupFigures(units.Format(y, e.SigFigs())) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"specgen/internal/calc"
+	"specgen/internal/units"
 )
 
 const stageBlock = `id = "low"
@@ -61,7 +62,8 @@ func TestCalcBlockHTML(t *testing.T) {
 		"<td class=\"sg-num\">6.00\u00a0bar(g) · 7.01\u00a0bar(a)",
 		"<td class=\"sg-num\">32\u00a0mm",
 		`<span class="sg-note">default</span>`,
-		`<details class="sg-trace"><summary>working</summary>`,
+		// Each working is named for its result, not twenty "working"s in a row.
+		`<details class="sg-trace"><summary>working<span class="sg-sr"> for piston_area</span></summary>`,
 		// Names wrap after an underscore, not inside a word.
 		`<tr class="sg-shown"><th scope="row"><code>free_<wbr>air_<wbr>delivery</code>`,
 		`<th scope="row"><code>rod_<wbr>length</code>`,
@@ -295,5 +297,44 @@ func TestValueRefGrouped(t *testing.T) {
 	}
 	if want := ">6\u00a0140\u00a0000 W</a>"; !strings.Contains(string(html), want) {
 		t.Errorf("got %s", html)
+	}
+}
+
+// A block's title is one level below the heading it stands under, so that
+// the outline never skips a level.
+func TestCalcTitleLevel(t *testing.T) {
+	fence := "```calc\n" + stageBlock + "```\n"
+	for _, c := range []struct{ md, want string }{
+		{fence, "<h2 class=\"sg-calc-title\""},
+		{"## Stage\n\n" + fence, "<h3 class=\"sg-calc-title\""},
+		{"## Stage\n\n### Low\n\nText.\n\n" + fence, "<h4 class=\"sg-calc-title\""},
+		{"### Low\n\n> " + strings.ReplaceAll(fence, "\n", "\n> ") + "\n", "<h4 class=\"sg-calc-title\""},
+	} {
+		md := New()
+		doc := md.Parse([]byte(c.md), 0)
+		for _, b := range doc.CalcBlocks() {
+			b.Eval = evaluated(t, stageBlock)
+		}
+		html, err := md.Render(doc)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(string(html), c.want) {
+			t.Errorf("%q: no %s in\n%.300s", c.md[:20], c.want, html)
+		}
+	}
+}
+
+// An extra table's long figures are grouped as the results are.
+func TestExtraTableGrouped(t *testing.T) {
+	e := evaluated(t, stageBlock)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	writeTable(w, e, calc.Table{Title: "t",
+		X: calc.Axis{Label: "Time", Dim: units.Time, Unit: "s"}, Y: calc.Axis{Label: "Time", Dim: units.Time, Unit: "s"},
+		XS: []float64{127000}, YS: []float64{5}})
+	_ = w.Flush()
+	if want := "<td class=\"sg-num\">127\u00a0000</td>"; !strings.Contains(buf.String(), want) {
+		t.Errorf("table lacks %q:\n%s", want, buf.String())
 	}
 }

@@ -91,9 +91,12 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			p.X.Tick.Marker = unlabelled{xTicks}
 		}
 		p.Y.Tick.Marker = niceTicks{}
+		// A log panel plots log10 of its values on a linear axis, ticked
+		// as decades: gonum's log scale places the axis title's box at
+		// the log of the arithmetic middle and left a blank band above
+		// the plot.
 		if panel.Y.Log {
-			p.Y.Scale = plot.LogScale{}
-			p.Y.Tick.Marker = decadeTicks{}
+			p.Y.Tick.Marker = exponentTicks{}
 		}
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
@@ -115,8 +118,11 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			}
 			pts := make(plotter.XYs, len(x))
 			for k := range x {
-				if panel.Y.Log && y[k] <= 0 {
-					return nil, fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
+				if panel.Y.Log {
+					if y[k] <= 0 {
+						return nil, fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
+					}
+					y[k] = math.Log10(y[k])
 				}
 				pts[k] = plotter.XY{X: x[k], Y: y[k]}
 				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
@@ -180,7 +186,8 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	}
 	out.WriteString(`</span>`)
 	if csvHref != "" {
-		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)</a>`, esc(csvHref))
+		// The hidden words tell a list of the page's links which chart's data it is.
+		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
 	}
 	out.WriteString("</figcaption>\n</figure>\n")
 	data, err := chartCSV(c)
@@ -317,6 +324,29 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 			ticks = append(ticks, t)
 		}
 	}
+	// Less than a decade and a half: one labelled decade gives no scale, so
+	// 2, 3 and 5 times each decade are labelled too.
+	if last <= first {
+		for i, t := range ticks {
+			k := int(math.Floor(math.Log10(t.Value) + 1e-9))
+			m := t.Value / math.Pow10(k)
+			if r := math.Round(m); math.Abs(m-r) < 1e-9 && (r == 2 || r == 3 || r == 5) {
+				ticks[i].Label = groupDigits(strconv.FormatFloat(t.Value, 'f', max(0, -k), 64))
+			}
+		}
+	}
+	return ticks
+}
+
+// exponentTicks marks an axis of log10 values as decadeTicks marks the
+// values themselves.
+type exponentTicks struct{}
+
+func (exponentTicks) Ticks(lo, hi float64) []plot.Tick {
+	ticks := decadeTicks{}.Ticks(math.Pow(10, lo), math.Pow(10, hi))
+	for i := range ticks {
+		ticks[i].Value = math.Log10(ticks[i].Value)
+	}
 	return ticks
 }
 
@@ -436,6 +466,9 @@ func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel
 		if err != nil {
 			return err
 		}
+		if panel.Y.Log {
+			y[0] = math.Log10(y[0])
+		}
 		xy.XYs[i] = plotter.XY{X: x[0], Y: y[0]}
 		xy.Labels[i] = l.Text
 	}
@@ -484,6 +517,9 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 		y, err := toUnit([]float64{m.Value}, panel.Y, c.Ambient)
 		if err != nil {
 			return err
+		}
+		if panel.Y.Log {
+			y[0] = math.Log10(y[0])
 		}
 		lo, hi := p.X.Min, p.X.Max
 		if math.IsInf(lo, 0) || lo == hi {

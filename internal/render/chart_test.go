@@ -1,6 +1,7 @@
 package render
 
 import (
+	"math"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -100,6 +101,8 @@ func TestDecadeTicks(t *testing.T) {
 		want   string
 	}{
 		{0.5, 1200, "1 10 100 1000"},
+		{300, 1013, "300 500 1000"},
+		{0.12, 0.9, "0.2 0.3 0.5"},
 		{2e-4, 900, "0.001 0.01 0.1 1 10 100"},
 		{1.6e-7, 14.7, "10⁻⁶ 10⁻⁵ 10⁻⁴ 10⁻³ 10⁻² 10⁻¹ 1 10"},
 		{3e-12, 2000, "10⁻¹¹   10⁻⁹   10⁻⁷   10⁻⁵   10⁻³   10⁻¹   10   10³"},
@@ -143,6 +146,51 @@ func TestGroupDigits(t *testing.T) {
 	} {
 		if got := groupDigits(in); got != want {
 			t.Errorf("groupDigits(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+// The data link names its chart for a list of the page's links.
+func TestChartDataLinkNamed(t *testing.T) {
+	for _, c := range chartCases(t)[:1] {
+		var blocks []*calc.Block
+		b, err := calc.ParseBlock("x.md", 1, c.Blocks[0])
+		if err != nil {
+			t.Fatal(err)
+		}
+		blocks = append(blocks, b)
+		set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup(c.Block)
+		ch, err := e.Chart(c.Chart)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d, err := DrawChart(ch, "c", "x.csv")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if want := `data (CSV)<span class="sg-sr"> of ` + ch.Title + `</span></a>`; !strings.Contains(d.HTML, want) {
+			t.Errorf("%s: no %q", c.Name, want)
+		}
+	}
+}
+
+// A chart uses its height: the words over the top panel (a mark's label)
+// sit at its top edge, with no blank band above them. A log axis left
+// one a fifth of the chart high.
+func TestChartNoBlankTop(t *testing.T) {
+	text := regexp.MustCompile(`<text x="[^"]+" y="([^"]+)"`)
+	for _, c := range chartCases(t) {
+		top := math.Inf(1)
+		for _, m := range text.FindAllStringSubmatch(c.draw(t).HTML, -1) {
+			y, _ := strconv.ParseFloat(m[1], 64)
+			top = math.Min(top, y)
+		}
+		if top > 30 {
+			t.Errorf("%s: the first word is %g below the top of the chart", c.Name, top)
 		}
 	}
 }
