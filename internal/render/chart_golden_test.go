@@ -42,6 +42,15 @@ func chartCases(t testing.TB) []chartCase {
 }
 
 func (c chartCase) draw(t testing.TB) *DrawnChart {
+	d, err := DrawChart(c.chart(t), "chart-"+c.Name, c.Name+".csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
+}
+
+// chart evaluates the case's blocks and returns the chart it draws.
+func (c chartCase) chart(t testing.TB) *calc.Chart {
 	var blocks []*calc.Block
 	for i, src := range c.Blocks {
 		b, err := calc.ParseBlock("testdata/charts/"+c.Name+".toml", 100*i, src)
@@ -59,11 +68,7 @@ func (c chartCase) draw(t testing.TB) *DrawnChart {
 	if err != nil {
 		t.Fatal(err)
 	}
-	d, err := DrawChart(ch, "chart-"+c.Name, c.Name+".csv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return d
+	return ch
 }
 
 // TestGoldenCharts draws one chart of each type and compares the SVG

@@ -153,21 +153,7 @@ func TestGroupDigits(t *testing.T) {
 // The data link names its chart for a list of the page's links.
 func TestChartDataLinkNamed(t *testing.T) {
 	for _, c := range chartCases(t)[:1] {
-		var blocks []*calc.Block
-		b, err := calc.ParseBlock("x.md", 1, c.Blocks[0])
-		if err != nil {
-			t.Fatal(err)
-		}
-		blocks = append(blocks, b)
-		set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
-		if err != nil {
-			t.Fatal(err)
-		}
-		e, _ := set.Lookup(c.Block)
-		ch, err := e.Chart(c.Chart)
-		if err != nil {
-			t.Fatal(err)
-		}
+		ch := c.chart(t)
 		d, err := DrawChart(ch, "c", "x.csv")
 		if err != nil {
 			t.Fatal(err)
