@@ -129,10 +129,7 @@ func tankChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
 		return nil, fmt.Errorf("the fill chart needs a supply: name the compressor that fills the tank")
 	}
 	gauge := chartIn(in.Customary(), "bar")
-	unit := "s"
-	if end := fill.X[len(fill.X)-1]; end > 180 {
-		unit = "min"
-	}
+	unit := timeUnitFor(fill.X[len(fill.X)-1])
 	return &Chart{
 		Title: "Tank pressure while filling",
 		Desc: fmt.Sprintf("The receiver's gauge pressure over time as the supply fills it from %s to %s; the delivery falls as the pressure rises, so the curve flattens.",

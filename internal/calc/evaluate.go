@@ -140,12 +140,29 @@ func (e *Evaluated) DisplayUnit(name string) string {
 		}
 	}
 	if spec, ok := e.Block.Kind.result(name); ok {
+		if spec.Dim == units.Time {
+			if r, found := e.Result(name); found {
+				return timeUnitFor(r.Value)
+			}
+		}
 		if e.customary {
 			return units.CustomaryFor(spec.Unit)
 		}
 		return spec.Unit
 	}
 	return ""
+}
+
+// timeUnitFor is the unit a duration reads best in: seconds up to three
+// minutes, minutes up to three hours, then hours ("41 700 000 s" is 11 600 h).
+func timeUnitFor(seconds float64) string {
+	switch {
+	case seconds < 180:
+		return "s"
+	case seconds < 3*3600:
+		return "min"
+	}
+	return "h"
 }
 
 // Format shows a result in a unit ("" for its display unit) with the

@@ -359,9 +359,7 @@ func fillTable(t tankInput) Table {
 		elapsed += t.supply.fillTime(t.volume, prev, t.target)
 		c.XS, c.YS = append(c.XS, t.target), append(c.YS, elapsed)
 	}
-	if elapsed > 180 {
-		c.Y.Unit = "min"
-	}
+	c.Y.Unit = timeUnitFor(elapsed)
 	return c
 }
 

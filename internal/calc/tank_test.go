@@ -498,3 +498,32 @@ func TestIsothermalFillTraceReproduces(t *testing.T) {
 		}
 	}
 }
+
+// A fill time reads in the unit that suits its size, unless [show] names
+// one: seconds for a small receiver, minutes for a workshop one, hours for
+// a big tank on a small pump.
+func TestFillTimeUnitBySize(t *testing.T) {
+	for _, c := range []struct {
+		volume, want string
+	}{{"0.5 L", "s"}, {"20 L", "min"}, {"5000 L", "h"}} {
+		set, err := evaluateBlocks(t, benchSite(map[string]any{"volume": c.volume}))
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("rx")
+		r, _ := e.Result("fill_time")
+		if got := e.DisplayUnit("fill_time"); got != c.want {
+			t.Errorf("%s: fill time %.4g s shown in %s, want %s", c.volume, r.Value, got, c.want)
+		}
+		if len(e.Tables) != 1 || e.Tables[0].Y.Unit != c.want {
+			t.Errorf("%s: the fill table's times are not in %s: %+v", c.volume, c.want, e.Tables)
+		}
+	}
+	set, err := evaluateBlocks(t, benchSite(map[string]any{"volume": "5000 L", "show": map[string]any{"outputs": []string{"fill_time min"}}}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if e, _ := set.Lookup("rx"); e.DisplayUnit("fill_time") != "min" {
+		t.Errorf("[show] fill_time min shown in %s", e.DisplayUnit("fill_time"))
+	}
+}

@@ -222,10 +222,8 @@ func vacuumChart(name string, in *Inputs, _ *Outcome) (*Chart, error) {
 		more.X, more.Y = append(more.X, pump.time(v.volume, v.start, p)), append(more.Y, p)
 	}
 	t := down.X[len(down.X)-1]
-	unit, word := "s", "seconds"
-	if more.X[len(more.X)-1] > 600 {
-		unit, word = "min", "minutes"
-	}
+	unit := timeUnitFor(more.X[len(more.X)-1])
+	word := map[string]string{"s": "seconds", "min": "minutes", "h": "hours"}[unit]
 	shown, err := units.FromSI(t, units.Time, unit, v.ambient)
 	if err != nil {
 		return nil, err
