@@ -36,6 +36,7 @@ type Block struct {
 	// accepting them.
 	Acknowledge map[string]string
 	lines       map[string]int // TOML-relative line of each key
+	catalog     *Catalog
 }
 
 // Value is one input as the user wrote it.
@@ -90,8 +91,8 @@ var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]
 
 // ParseBlock decodes one calc block. file and fenceLine place it for error
 // messages: TOML line k is file line fenceLine+k.
-func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
-	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}}
+func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, error) {
+	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
 		return nil, Errors{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
 	}
@@ -110,7 +111,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	case raw["id"] == nil:
 		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
 	case !ok:
-		fail("id", "%s is not a string; write id = \"name\"", tomlText(raw["id"]))
+		fail("id", "%s is not a string; write id = \"name\"", TOMLText(raw["id"]))
 	case !idPattern.MatchString(id):
 		fail("id", "%q is not allowed; an id is lower-case letters, digits, '-' and '_', starting with a letter or digit", id)
 	}
@@ -119,15 +120,15 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	kindName, ok := raw["kind"].(string)
 	switch {
 	case raw["kind"] == nil:
-		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(KindNames(), ", ") + ")"})
+		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(c.KindNames(), ", ") + ")"})
 	case !ok:
-		fail("kind", "%s is not a string; one of %s", tomlText(raw["kind"]), strings.Join(KindNames(), ", "))
+		fail("kind", "%s is not a string; one of %s", TOMLText(raw["kind"]), strings.Join(c.KindNames(), ", "))
 	default:
-		k, found := LookupKind(kindName)
+		k, found := c.Kind(kindName)
 		if !found {
-			msg := fmt.Sprintf("unknown kind %q; allowed: %s", kindName, strings.Join(KindNames(), ", "))
-			if s := Suggest(kindName, KindNames()); s != "" {
-				msg = fmt.Sprintf("unknown kind %q; did you mean %q? (allowed: %s)", kindName, s, strings.Join(KindNames(), ", "))
+			msg := fmt.Sprintf("unknown kind %q; allowed: %s", kindName, strings.Join(c.KindNames(), ", "))
+			if s := Suggest(kindName, c.KindNames()); s != "" {
+				msg = fmt.Sprintf("unknown kind %q; did you mean %q? (allowed: %s)", kindName, s, strings.Join(c.KindNames(), ", "))
 			}
 			fail("kind", "%s", msg)
 		}
@@ -137,7 +138,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		if s, ok := t.(string); ok {
 			b.Title = s
 		} else {
-			fail("title", "%s is not a string", tomlText(t))
+			fail("title", "%s is not a string", TOMLText(t))
 		}
 	}
 	if len(errs) > 0 || b.Kind == nil {
@@ -167,7 +168,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 			errs = append(errs, b.decodeAcknowledge(v)...)
 			continue
 		}
-		if _, isInput := b.Kind.input(key); !isInput && key != "ambient_pressure" {
+		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" {
 			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))
 			if s := Suggest(key, allowed); s != "" {
 				msg = fmt.Sprintf("unknown key for kind %s; did you mean %q?", b.Kind.Name, s)
@@ -190,7 +191,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {
 			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
-				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, takes(in))})
+				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, b.takes(in))})
 		}
 	}
 	if err := errs.capped(MaxBlockErrors).Sorted(); err != nil {
@@ -217,7 +218,7 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
 	dim := units.Pressure
-	spec, isInput := b.Kind.input(key)
+	spec, isInput := b.Kind.Input(key)
 	if isInput {
 		dim = spec.Dim
 		switch spec.Type {
@@ -251,7 +252,7 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		}
 		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
 	}
-	return bad("%s is not a quantity; write a string such as \"32 mm\"", tomlText(v))
+	return bad("%s is not a quantity; write a string such as \"32 mm\"", TOMLText(v))
 }
 
 // decodeName reads a Name input: a string, a number written bare (a
@@ -270,7 +271,7 @@ func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
 	case bool:
 		return Value{Text: strconv.FormatBool(t), Line: line}, nil
 	}
-	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", tomlText(v))}
+	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", TOMLText(v))}
 }
 
 // decodeLinks reads a Link (one block id) or LinkList (an array of ids).
@@ -289,12 +290,12 @@ func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
 		for _, item := range t {
 			s, ok := item.(string)
 			if !ok {
-				return bad("%s is not a block id; write a list of strings such as [\"receiver\"]", tomlText(item))
+				return bad("%s is not a block id; write a list of strings such as [\"receiver\"]", TOMLText(item))
 			}
 			ids = append(ids, s)
 		}
 	default:
-		return bad("%s is not a block id; write the id of another block as a string", tomlText(v))
+		return bad("%s is not a block id; write the id of another block as a string", TOMLText(v))
 	}
 	for _, id := range ids {
 		if !idPattern.MatchString(id) {
@@ -316,12 +317,12 @@ func (b *Block) decodeAcknowledge(v any) Errors {
 	}
 	var errs Errors
 	b.Acknowledge = map[string]string{}
-	ids := RuleIDs()
+	ids := b.catalog.RuleIDs()
 	for _, rule := range slices.Sorted(maps.Keys(table)) {
 		key := "acknowledge." + rule
 		reason, isString := table[rule].(string)
 		switch {
-		case !knownRule(rule):
+		case !slices.Contains(ids, rule):
 			msg := fmt.Sprintf("unknown caution rule %q; rules: %s", rule, strings.Join(ids, ", "))
 			if s := Suggest(rule, ids); s != "" {
 				msg = fmt.Sprintf("unknown caution rule %q; did you mean %q?", rule, s)
@@ -373,8 +374,8 @@ func (b *Block) tomlError(err error) error {
 	return Errors{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
 }
 
-// tomlText shows a decoded TOML value as the user would have written it.
-func tomlText(v any) string {
+// TOMLText shows a decoded TOML value as the user would have written it.
+func TOMLText(v any) string {
 	switch t := v.(type) {
 	case string:
 		return strconv.Quote(t)
@@ -389,11 +390,11 @@ func tomlText(v any) string {
 }
 
 // takes says what an input takes, for messages.
-func takes(in InputSpec) string {
+func (b *Block) takes(in InputSpec) string {
 	switch in.Type {
 	case Name:
 		if in.Choices != nil {
-			return "one of " + strings.Join(in.Choices(DefaultEnv()), ", ")
+			return "one of " + strings.Join(in.Choices(b.catalog.env), ", ")
 		}
 		return "a name"
 	case Link:

@@ -15,8 +15,7 @@ import (
 
 // Options are the site-wide settings of an evaluation.
 type Options struct {
-	SigFigs int  // significant figures of displayed values (default 3)
-	Env     *Env // materials and safety settings (default DefaultEnv)
+	SigFigs int // significant figures of displayed values (default 3)
 	// Charted, when set, tells which blocks will have charts drawn; the
 	// curves of the others are dropped as soon as no block needs them, so
 	// that a big site does not hold them all. Nil keeps every curve.
@@ -80,7 +79,7 @@ type InputValue struct {
 
 // linked is the view of e that a block linking to it gets.
 func (e *Evaluated) linked() *Linked {
-	l := &Linked{ID: e.Block.ID, Kind: e.Block.Kind.Name, Ambient: e.Ambient,
+	l := &Linked{ID: e.Block.ID, Kind: e.Block.Kind.Name, Roles: e.Block.Kind.Roles, Ambient: e.Ambient,
 		Results: map[string]float64{}, Inputs: map[string]float64{}, Names: map[string]string{}, Curves: e.Curves}
 	for _, r := range e.Results {
 		l.Results[r.Name] = r.Value
@@ -113,6 +112,10 @@ func (e *Evaluated) Release() {
 	e.in = nil
 }
 
+// ModelInputs is what the model saw (nil once released), for the caution
+// rules.
+func (e *Evaluated) ModelInputs() *Inputs { return e.in }
+
 // SigFigs is the number of significant figures the block's values show.
 func (e *Evaluated) SigFigs() int { return e.sigFigs }
 
@@ -142,7 +145,7 @@ func (e *Evaluated) DisplayUnit(name string) string {
 	if spec, ok := e.Block.Kind.result(name); ok {
 		if spec.Dim == units.Time {
 			if r, found := e.Result(name); found {
-				return timeUnitFor(r.Value)
+				return TimeUnitFor(r.Value)
 			}
 		}
 		if e.customary {
@@ -153,9 +156,9 @@ func (e *Evaluated) DisplayUnit(name string) string {
 	return ""
 }
 
-// timeUnitFor is the unit a duration reads best in: seconds up to three
+// TimeUnitFor is the unit a duration reads best in: seconds up to three
 // minutes, minutes up to three hours, then hours ("41 700 000 s" is 11 600 h).
-func timeUnitFor(seconds float64) string {
+func TimeUnitFor(seconds float64) string {
 	switch {
 	case seconds < 180:
 		return "s"
@@ -236,15 +239,9 @@ func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, 
 
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order.
-func Evaluate(blocks []*Block, opts Options) (*Set, error) {
+func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if opts.SigFigs == 0 {
 		opts.SigFigs = 3
-	}
-	if opts.Env == nil {
-		if _, err := DefaultMaterials(); err != nil {
-			return nil, err
-		}
-		opts.Env = DefaultEnv()
 	}
 	set := &Set{byID: map[string]*Evaluated{}, opts: opts}
 	var errs Errors
@@ -263,7 +260,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	sort.Strings(ids)
 	for _, id := range ids {
-		errs = append(errs, checkRefs(byID[id], byID, ids)...)
+		errs = append(errs, c.checkRefs(byID[id], byID, ids)...)
 	}
 	if err := errs.Sorted(); err != nil {
 		return nil, err
@@ -301,7 +298,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			i := run[j]
 			b := level[i]
 			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
-			outs[i].e, outs[i].err = evaluateBlock(b, set, opts, want)
+			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want)
 			// Drop curves at once: a level can hold thousands of blocks.
 			if outs[i].err == nil && !want {
 				outs[i].e.Curves = nil
@@ -328,7 +325,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	for _, id := range ids {
 		set.Blocks = append(set.Blocks, set.byID[id])
 	}
-	applyRules(set)
+	c.applyRules(set)
 	return set, nil
 }
 
@@ -348,7 +345,7 @@ func dependsOnFailed(b *Block, failed map[string]bool) bool {
 func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
 	var out []string
 	for _, id := range ids {
-		if t := byID[id]; t != b && (len(in.LinkKinds) == 0 || contains(in.LinkKinds, t.Kind.Name)) {
+		if t := byID[id]; t != b && (in.LinkRoles == 0 || t.Kind.Roles&in.LinkRoles != 0) {
 			out = append(out, id)
 		}
 	}
@@ -357,13 +354,13 @@ func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string
 
 // checkRefs checks that every "=id.result" of b names a block and one of
 // its results, of the input's dimension.
-func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
+func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 	var errs Errors
 	for _, key := range sortedValueKeys(b) {
 		v := b.Values[key]
 		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		if len(v.Links) > 0 {
-			in, _ := b.Kind.input(key)
+			in, _ := b.Kind.Input(key)
 			for _, id := range v.Links {
 				target, ok := byID[id]
 				switch {
@@ -375,10 +372,10 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 					fail(msg)
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
-				case len(in.LinkKinds) > 0 && !contains(in.LinkKinds, target.Kind.Name):
-					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(in.LinkKinds, " or "))
-					if target.Kind.Name == "multistage" && contains(in.LinkKinds, "compressor") {
-						msg += " (a multistage block has no cylinders: name the compressor block of the stage that delivers)"
+				case in.LinkRoles != 0 && target.Kind.Roles&in.LinkRoles == 0:
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsWith(in.LinkRoles), " or "))
+					if target.Kind.LinkHint != "" {
+						msg += " (" + target.Kind.LinkHint + ")"
 					}
 					fail(msg)
 				}
@@ -402,7 +399,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			continue
 		}
 		spec, ok := target.Kind.result(v.RefResult)
-		if inSpec, isInput := target.Kind.input(v.RefResult); !ok && isInput {
+		if inSpec, isInput := target.Kind.Input(v.RefResult); !ok && isInput {
 			if inSpec.Type != Quantity {
 				fail(fmt.Sprintf("%q: %s is a %s input of block %s, not a quantity", v.Text, v.RefResult, "name or link", target.ID))
 				continue
@@ -417,7 +414,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			fail(msg)
 			continue
 		}
-		in, _ := b.Kind.input(key)
+		in, _ := b.Kind.Input(key)
 		if spec.Dim != in.Dim {
 			fail(fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(spec.Dim), key, dimPhrase(in.Dim)))
 		}
@@ -571,7 +568,7 @@ func refKeyTo(b *Block, id string) (string, int) {
 
 // evaluateBlock reads a block's inputs (references from set), runs its
 // model and checks its claims.
-func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
+func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
 	var errs Errors
 	fail := func(key string, line int, msg string) {
@@ -591,7 +588,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		}
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env, noCurves: !wantCurves}
+		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
@@ -606,8 +603,8 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			}
 			written := text
 			if spec.Choices != nil {
-				choices := spec.Choices(opts.Env)
-				if resolved, ok := resolveChoice(spec, opts.Env, text); ok {
+				choices := spec.Choices(c.env)
+				if resolved, ok := resolveChoice(spec, c.env, text); ok {
 					text = resolved
 				}
 				if !contains(choices, text) {
@@ -625,7 +622,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 				iv.Written = written
 			}
 			if spec.Label != nil {
-				iv.Label = spec.Label(opts.Env, text)
+				iv.Label = spec.Label(c.env, text)
 			}
 			e.Inputs = append(e.Inputs, iv)
 			continue
@@ -836,7 +833,7 @@ func givenInputs(in []InputValue) string {
 }
 
 // resolveChoice maps text to one of spec's choices through spec.Resolve.
-func resolveChoice(spec InputSpec, env *Env, text string) (string, bool) {
+func resolveChoice(spec InputSpec, env any, text string) (string, bool) {
 	if spec.Resolve == nil {
 		return "", false
 	}

@@ -430,7 +430,7 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 		line := b.lineOf(key)
 		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
-		if _, isInput := b.Kind.input(name); !found && isInput {
+		if _, isInput := b.Kind.Input(name); !found && isInput {
 			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
 			continue
 		}
@@ -444,7 +444,7 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 		}
 		text, isString := table[name].(string)
 		if !isString {
-			fail(fmt.Sprintf("%s is not a claim; write a string such as %s", tomlText(table[name]), claimForms))
+			fail(fmt.Sprintf("%s is not a claim; write a string such as %s", TOMLText(table[name]), claimForms))
 			continue
 		}
 		c, err := ParseClaim(name, text, spec.Dim)
@@ -480,13 +480,13 @@ func (b *Block) decodeShow(v any) Errors {
 			continue
 		}
 		if !isList {
-			fail(fmt.Sprintf("%s is not a list; write %s = [\"...\"]", tomlText(table[k]), k))
+			fail(fmt.Sprintf("%s is not a list; write %s = [\"...\"]", TOMLText(table[k]), k))
 			continue
 		}
 		for _, item := range list {
 			s, isString := item.(string)
 			if !isString {
-				fail(fmt.Sprintf("%s is not a string", tomlText(item)))
+				fail(fmt.Sprintf("%s is not a string", TOMLText(item)))
 				continue
 			}
 			if k == "charts" {

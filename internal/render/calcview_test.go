@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"specgen/internal/calc"
+	"specgen/internal/models"
 	"specgen/internal/units"
 )
 
@@ -31,11 +32,11 @@ outputs = ["free_air_delivery L/min", "max_pressure psi"]
 
 func evaluated(t testing.TB, src string) *calc.Evaluated {
 	t.Helper()
-	b, err := calc.ParseBlock("content/x.md", 10, src)
+	b, err := testCatalog(t).ParseBlock("content/x.md", 10, src)
 	if err != nil {
 		t.Fatal(err)
 	}
-	set, err := calc.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: 3})
+	set, err := testCatalog(t).Evaluate([]*calc.Block{b}, calc.Options{SigFigs: 3})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -337,4 +338,14 @@ func TestExtraTableGrouped(t *testing.T) {
 	if want := "<td class=\"sg-num\">127\u00a0000</td>"; !strings.Contains(buf.String(), want) {
 		t.Errorf("table lacks %q:\n%s", want, buf.String())
 	}
+}
+
+// testCatalog is every kind and caution rule with the built-in materials.
+func testCatalog(t testing.TB) *calc.Catalog {
+	t.Helper()
+	c, err := models.NewCatalog(nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
 }

@@ -16,6 +16,7 @@ import (
 	"sync/atomic"
 
 	"specgen/internal/calc"
+	"specgen/internal/models"
 	"specgen/internal/render"
 )
 
@@ -98,7 +99,7 @@ func Load(root string) (*Site, error) {
 	s.Pages = make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md)
+		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
 	})
 	if err := collect(errs); err != nil {
 		return nil, err
@@ -434,9 +435,9 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 	case !shows:
 		return ""
 	case vacuum:
-		return template.HTML(render.StandardCautionHTML(calc.StandardVacuumCaution))
+		return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
 	}
-	return template.HTML(render.StandardCautionHTML(calc.StandardCaution))
+	return template.HTML(render.StandardCautionHTML(models.StandardCaution))
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a

@@ -34,7 +34,7 @@ type chartName struct {
 // calculation blocks (decoded), its inline values and its chart fences.
 // The tree itself is not kept; it is parsed again when the page is
 // rendered, so that a big site is never held in memory whole.
-func readDoc(p *Page, doc *render.Document) error {
+func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 	var errs ErrorList
 	for _, n := range doc.CalcBlocks() {
 		if !n.Closed {
@@ -49,7 +49,7 @@ func readDoc(p *Page, doc *render.Document) error {
 				Msg: fmt.Sprintf("%q inside the calc block opened at line %d: that block is not closed; end it with a line holding only the fence (```) before this one", fence, n.FenceLine+doc.LineOffset)})
 			continue
 		}
-		b, err := calc.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
+		b, err := cat.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, fromCalc(err)...)
 			continue
@@ -131,7 +131,7 @@ func (s *Site) evaluate() error {
 			charted[n.Block] = true
 		}
 	}
-	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env,
+	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
 		Charted: func(id string) bool { return charted[id] }})
 	if err != nil {
 		return fromCalc(err).Sorted()
@@ -271,9 +271,9 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
 	allVacuum = true
 	for _, id := range s.blocksShown(p) {
-		if e, ok := s.Calc.Lookup(id); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
+		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
 			any = true
-			allVacuum = allVacuum && e.Block.Kind.Name == "vacuum"
+			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)
 		}
 	}
 	return any, any && allVacuum

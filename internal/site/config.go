@@ -17,6 +17,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"specgen/internal/calc"
+	"specgen/internal/models"
 )
 
 // ConfigFile is the optional site configuration at the site root.
@@ -30,9 +31,11 @@ type Config struct {
 	Markdown    MarkdownConfig `toml:"markdown"`
 	Safety      SafetyConfig   `toml:"safety"`
 	// Materials adds materials or overrides properties of built-in ones.
-	Materials map[string]calc.MaterialRow `toml:"materials"`
+	Materials map[string]models.MaterialRow `toml:"materials"`
 	// env is the calculation environment the settings make.
-	env *calc.Env
+	env *models.Env
+	// catalog is the models and rules, with env.
+	catalog *calc.Catalog
 }
 
 // SafetyConfig holds the site's minimum safety factors. MinimumFactor, when
@@ -55,17 +58,21 @@ var configKeys = []string{"description", "markdown", "markdown.raw_html", "mater
 // materialName is what a material added in specgen.toml may be called.
 var materialName = regexp.MustCompile(`^[a-z0-9][a-z0-9._-]*$`)
 
+// defaultCatalog is the models and rules with the built-in materials; a
+// failure is the build's own fault and shows in every test.
+var defaultCatalog, defaultCatalogErr = models.NewCatalog(nil)
+
 // DefaultConfig is the configuration of a site without specgen.toml.
 func DefaultConfig() Config {
-	return Config{Title: "Build documentation", SigFigs: 3, env: calc.DefaultEnv()}
+	return Config{Title: "Build documentation", SigFigs: 3, env: models.DefaultEnv(), catalog: defaultCatalog}
 }
 
 // makeEnv builds the calculation environment: built-in materials with the
 // site's additions, and the minimum safety factors.
-func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
+func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, ErrorList) {
 	var errs ErrorList
-	env := calc.DefaultEnv()
-	safety := calc.DefaultSafety
+	env := models.DefaultEnv()
+	safety := models.DefaultSafety
 	for _, f := range []struct {
 		key   string
 		value float64
@@ -99,7 +106,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 		}
 	}
 	if len(cfg.Materials) > 0 && !badName {
-		base, err := calc.DefaultMaterials()
+		base, err := models.DefaultMaterials()
 		if err != nil {
 			return env, append(errs, &Error{Msg: err.Error()})
 		}
@@ -115,6 +122,9 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 // LoadConfig reads root/specgen.toml if it exists.
 func LoadConfig(root string) (Config, error) {
 	cfg := DefaultConfig()
+	if defaultCatalogErr != nil {
+		return cfg, defaultCatalogErr
+	}
 	src, err := os.ReadFile(filepath.Join(root, ConfigFile))
 	if errors.Is(err, fs.ErrNotExist) {
 		return cfg, nil
@@ -159,6 +169,11 @@ func LoadConfig(root string) (Config, error) {
 	env, envErrs := cfg.makeEnv(lines)
 	errs = append(errs, envErrs...)
 	cfg.env = env
+	cat, err := models.NewCatalog(env)
+	if err != nil {
+		errs = append(errs, &Error{File: ConfigFile, Msg: err.Error()})
+	}
+	cfg.catalog = cat
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
 	if len(errs) > 0 {
 		return cfg, errs

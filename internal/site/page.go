@@ -118,7 +118,7 @@ func findPages(root string) ([]string, error) {
 }
 
 // loadPage reads and parses one page.
-func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
+func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
 	file := ContentDir + "/" + rel
 	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
 	if err != nil {
@@ -144,7 +144,7 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 		p.titleParts = append(p.titleParts, titlePart{Ref: refs})
 		refs++
 	}
-	if err := readDoc(p, doc); err != nil {
+	if err := readDoc(p, doc, cat); err != nil {
 		return nil, err
 	}
 	// Until the values are known, a reference in the title reads as written.
