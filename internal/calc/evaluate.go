@@ -10,6 +10,7 @@ import (
 	"strings"
 	"sync"
 
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -132,110 +133,6 @@ func (e *Evaluated) Failed() bool {
 // Customary reports whether the block is written wholly in US customary
 // units, and so shows its results in them.
 func (e *Evaluated) Customary() bool { return e.customary }
-
-// DisplayUnit is the unit a result shows in: the block's [show] choice,
-// else the kind's default, in US customary units when the block is written
-// in them.
-func (e *Evaluated) DisplayUnit(name string) string {
-	for _, o := range e.Block.Show.Outputs {
-		if o.Name == name && o.Unit != "" {
-			return o.Unit
-		}
-	}
-	if spec, ok := e.Block.Kind.result(name); ok {
-		if spec.Dim == units.Time {
-			if r, found := e.Result(name); found {
-				return TimeUnitFor(r.Value)
-			}
-		}
-		if e.customary {
-			return units.CustomaryFor(spec.Unit)
-		}
-		return spec.Unit
-	}
-	return ""
-}
-
-// TimeUnitFor is the unit a duration reads best in: seconds up to three
-// minutes, minutes up to three hours, then hours ("41 700 000 s" is 11 600 h).
-func TimeUnitFor(seconds float64) string {
-	switch {
-	case seconds < 180:
-		return "s"
-	case seconds < 3*3600:
-		return "min"
-	}
-	return "h"
-}
-
-// Format shows a result in a unit ("" for its display unit) with the
-// site's significant figures: "19.7 cm3".
-func (e *Evaluated) Format(name, unit string) (string, error) {
-	si, dim, shown, ok := e.Quantity(name)
-	if !ok {
-		return "", fmt.Errorf("block %s has no result or input %q", e.Block.ID, name)
-	}
-	if unit == "" {
-		unit = shown
-	}
-	return FormatValue(si, dim, unit, e.Ambient, e.sigFigs)
-}
-
-// Quantity returns a result, or else a quantity input, of the block: its
-// SI value, dimension and the unit it is shown in (the display unit of a
-// result, the unit an input was written in). Prose and other blocks may
-// quote both.
-func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit string, ok bool) {
-	if r, found := e.Result(name); found {
-		return r.Value, r.Dim, e.DisplayUnit(name), true
-	}
-	for _, in := range e.Inputs {
-		if in.Name == name && in.Type == Quantity {
-			unit := ""
-			if q, err := units.Parse(in.Text, in.Dim); err == nil {
-				unit = q.Unit.Symbol
-			} else if in.From != "" {
-				unit = unitFromShown(in.Text)
-			}
-			return in.Value, in.Dim, unit, true
-		}
-	}
-	return 0, 0, "", false
-}
-
-// unitFromShown is the unit of a formatted value such as "19.7 cm³".
-func unitFromShown(text string) string {
-	_, unit, _ := strings.Cut(text, " ")
-	if u, err := units.LookupUnit(unit); err == nil {
-		return u.Symbol
-	}
-	return ""
-}
-
-// FormatValue shows an SI value in unit with sig significant figures.
-func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, sig int) (string, error) {
-	if dim == units.Dimensionless && unit == "" {
-		return units.Format(si, sig), nil
-	}
-	if dim == units.Pressure {
-		unit = markedPressureUnit(si, unit, ambient)
-	}
-	v, err := units.FromSI(si, dim, unit, ambient)
-	if err != nil {
-		return "", err
-	}
-	u, err := units.LookupUnit(unit)
-	if err != nil {
-		return "", err
-	}
-	if u.Symbol == "" {
-		return units.Format(v, sig), nil
-	}
-	if pretty := units.Pretty(u.Symbol); pretty != "°" {
-		return units.Format(v, sig) + " " + pretty, nil
-	}
-	return units.Format(v, sig) + "°", nil
-}
 
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order.
@@ -450,37 +347,6 @@ func levels(order []*Block) [][]*Block {
 		out[d] = append(out[d], b)
 	}
 	return out
-}
-
-// absoluteUnit is the absolute form of a pressure unit: "bar" → "bar(a)".
-// markedPressureUnit gives an unmarked pressure unit ("bar") its mark, so
-// that a shown pressure never leaves the reader to guess: gauge at or above
-// ambient, absolute below it, where a gauge figure hides how good a vacuum
-// is ("-1000 mbar" for 9 mbar(a)).
-func markedPressureUnit(si float64, unit string, ambient float64) string {
-	u, err := units.LookupUnit(unit)
-	if err != nil || u.Ref != units.Unmarked {
-		return unit
-	}
-	mark := "(g)"
-	if si < ambient {
-		mark = "(a)"
-	}
-	if m, err := units.LookupUnit(u.Symbol + mark); err == nil {
-		return m.Symbol
-	}
-	return unit
-}
-
-func absoluteUnit(unit string) string {
-	u, err := units.LookupUnit(unit)
-	if err != nil || u.Ref == units.Absolute {
-		return unit
-	}
-	if a, err := units.LookupUnit(strings.TrimSuffix(u.Symbol, "(g)") + "(a)"); err == nil {
-		return a.Symbol
-	}
-	return "bar(a)"
 }
 
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
@@ -751,7 +617,7 @@ func checkShownComputed(e *Evaluated) Errors {
 // a pressure's range is on its absolute value, so it is worded absolute.
 func describeRange(spec InputSpec, unit string, ambient float64, sig int) string {
 	if spec.Dim == units.Pressure {
-		unit = absoluteUnit(unit)
+		unit = display.AbsoluteUnit(unit)
 	}
 	show := func(v float64) string {
 		if unit == "" || spec.Dim == units.Dimensionless {
@@ -760,7 +626,7 @@ func describeRange(spec InputSpec, unit string, ambient float64, sig int) string
 			}
 			return units.Format(v, sig)
 		}
-		s, err := FormatValue(v, spec.Dim, unit, ambient, sig)
+		s, err := display.Value(v, spec.Dim, unit, ambient, sig)
 		if err != nil {
 			return units.Format(v, sig)
 		}

@@ -10,6 +10,7 @@ import (
 	"strings"
 	"unicode"
 
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -305,8 +306,8 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		// A vacuum claimed in a plain unit: "<= 5 mbar" holds as gauge for
 		// any vacuum, and is surely meant absolute. Neither reading is safe.
 		r.OK = false
-		g, _ := FormatValue(si, dim, c.Unit+"(g)", ambient, sig)
-		a, _ := FormatValue(si, dim, absolute, ambient, sig)
+		g, _ := display.Value(si, dim, c.Unit+"(g)", ambient, sig)
+		a, _ := display.Value(si, dim, absolute, ambient, sig)
 		r.Message = fmt.Sprintf("%s: claim %q fails: the result is below ambient pressure (%s, %s), where a plain %s reads gauge but is often meant absolute, and the claim holds one way only; write %s or %s(g)",
 			c.Result, c.Text, a, g, c.Unit, absolute, c.Unit)
 	case r.OK:

@@ -80,7 +80,7 @@ const (
 	Quantity InputType = iota // "32 mm", a plain number, or "=id.result"
 	Name                      // a name from a list: a material, a thread size
 	Link                      // the id of another block: supply = "low"
-	LinkList                  // a list of block ids: protects = ["tank", "wall"]
+	LinkList                  // a list of block ids: protects = ["receiver", "wall"]
 )
 
 // InputSpec describes one input key of a kind.

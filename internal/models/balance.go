@@ -3,6 +3,7 @@ package models
 import (
 	"fmt"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -75,7 +76,7 @@ func evaluateBalance(in *calc.Inputs) (*calc.Outcome, error) {
 	if z := src.Inputs["cylinders"]; z > 1 {
 		return nil, &calc.InputError{Key: "source", Message: fmt.Sprintf(
 			"block %s has %s cylinders; balance models a single-cylinder crank (the forces of several cylinders depend on their arrangement)",
-			src.ID, show(z, ""))}
+			src.ID, display.Number(z, ""))}
 	}
 	r := src.Inputs["crank_radius"]
 	if s, ok := src.Inputs["stroke"]; ok {
@@ -105,11 +106,11 @@ func evaluateBalance(in *calc.Inputs) (*calc.Outcome, error) {
 		rcw    = in.Value("counterweight_radius")
 		prim   = mRec * r * omega * omega
 		cust   = in.Customary()
-		kg     = traceIn(cust, "kg")
-		mm     = traceIn(cust, "mm")
-		num    = func(v float64) string { return show(v, "") }
-		force  = traceIn(cust, "N")
-		rads   = show(omega, "rad/s")
+		kg     = display.TraceIn(cust, "kg")
+		mm     = display.TraceIn(cust, "mm")
+		num    = func(v float64) string { return display.Number(v, "") }
+		force  = display.TraceIn(cust, "N")
+		rads   = display.Number(omega, "rad/s")
 		primed = kg(mRec) + " · " + mm(r) + " · (" + rads + ")²"
 	)
 	res := []calc.Result{
@@ -134,5 +135,5 @@ func shortRodNote(lambda float64) string {
 		return ""
 	}
 	return fmt.Sprintf(" (NOTE: R/L = %s: for so short a rod this second-order figure is about %s %% below the exact secondary force, "+
-		"and the fourth and higher harmonics, left out, grow too)", show(lambda, ""), show(100*lambda*lambda/4, ""))
+		"and the fourth and higher harmonics, left out, grow too)", display.Number(lambda, ""), display.Number(100*lambda*lambda/4, ""))
 }

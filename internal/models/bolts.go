@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strings"
 
 	"specgen/internal/units"
@@ -89,13 +90,13 @@ func lookupClass(name string, d float64) (propertyClass, string, bool) {
 		}
 		switch {
 		case c.maxDia > 0:
-			return c, "d ≤ " + show(c.maxDia*1e3, "mm"), true
+			return c, "d ≤ " + display.Number(c.maxDia*1e3, "mm"), true
 		case c.big == nil:
 			return c, "", true
 		case d > c.bigFromDia*(1+1e-9):
-			return *c.big, "d > " + show(c.bigFromDia*1e3, "mm"), true
+			return *c.big, "d > " + display.Number(c.bigFromDia*1e3, "mm"), true
 		default:
-			return c, "d ≤ " + show(c.bigFromDia*1e3, "mm"), true
+			return c, "d ≤ " + display.Number(c.bigFromDia*1e3, "mm"), true
 		}
 	}
 	return propertyClass{}, "", false
@@ -214,7 +215,7 @@ func readBoltsInput(in *calc.Inputs) (boltsInput, error) {
 	if c.maxDia > 0 && t.D > c.maxDia*(1+1e-9) {
 		return b, &calc.InputError{Key: "property_class", Message: fmt.Sprintf(
 			"%q is made only up to %s diameter (ISO 898-1), and %s is %s; allowed for %s: %s",
-			c.name, show(c.maxDia*1e3, "mm"), t.Name, show(t.D*1e3, "mm"), t.Name, strings.Join(classesFor(t.D), ", "))}
+			c.name, display.Number(c.maxDia*1e3, "mm"), t.Name, display.Number(t.D*1e3, "mm"), t.Name, strings.Join(classesFor(t.D), ", "))}
 	}
 	b.class, b.classRange = c, dr
 	z := in.Value("count")
@@ -226,7 +227,7 @@ func readBoltsInput(in *calc.Inputs) (boltsInput, error) {
 	if b.gauge <= 0 {
 		return b, &calc.InputError{Key: "pressure", Message: fmt.Sprintf(
 			"%s is not above ambient (%s); the bolts carry a head load only when the pressure under the head is above ambient",
-			traceIn(in.Customary(), "bar(a)")(in.Value("pressure")), traceIn(in.Customary(), "bar(a)")(in.Ambient))}
+			display.TraceIn(in.Customary(), "bar(a)")(in.Value("pressure")), display.TraceIn(in.Customary(), "bar(a)")(in.Ambient))}
 	}
 	b.diameter = in.Value("pressure_diameter")
 	b.nut, err = envOf(in).Materials.Lookup(in.NameOf("nut_material"))
@@ -239,14 +240,14 @@ func readBoltsInput(in *calc.Inputs) (boltsInput, error) {
 	case in.Given("nut_material"):
 		return b, &calc.InputError{Key: "engagement_length", Message: fmt.Sprintf(
 			"missing: with nut_material = %q give the length of full thread engaged (a length, e.g. \"%s\" for 1.5 × d)",
-			in.NameOf("nut_material"), traceIn(in.Customary(), "mm")(1.5*t.D))}
+			in.NameOf("nut_material"), display.TraceIn(in.Customary(), "mm")(1.5*t.D))}
 	default:
 		b.engagement, b.defaultLe = defaultNutHeight*t.D, true
 	}
 	if b.engagement < t.Pitch*(1-1e-9) {
 		return b, &calc.InputError{Key: "engagement_length", Message: fmt.Sprintf(
 			"%s is less than one pitch of %s (%s); engage at least one full thread, and 1 × d or more in practice",
-			traceIn(in.Customary(), "mm")(b.engagement), t.Name, traceIn(in.Customary(), "mm")(t.Pitch))}
+			display.TraceIn(in.Customary(), "mm")(b.engagement), t.Name, display.TraceIn(in.Customary(), "mm")(t.Pitch))}
 	}
 	return b, nil
 }
@@ -268,8 +269,8 @@ func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 		tau    = shearOverTensile * b.nut.TensileStrength
 	)
 	cust := in.Customary()
-	mm, mm2, mpa := traceIn(cust, "mm"), traceIn(cust, "mm2"), traceIn(cust, "MPa")
-	newton, bar := traceIn(cust, "N"), traceIn(cust, "bar")
+	mm, mm2, mpa := display.TraceIn(cust, "mm"), display.TraceIn(cust, "mm2"), display.TraceIn(cust, "MPa")
+	newton, bar := display.TraceIn(cust, "N"), display.TraceIn(cust, "bar")
 	classNote := "class " + b.class.name
 	if b.classRange != "" {
 		classNote += ", " + b.classRange
@@ -280,12 +281,12 @@ func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 	}
 	res := []calc.Result{
 		{Name: "head_load", Value: load, Dim: units.Force, Trace: calc.Trace{Formula: "F = p_g · π/4 · D_p²", Substituted: "= " + bar(b.gauge) + " · π/4 · (" + mm(b.diameter) + ")²"}},
-		{Name: "load_per_bolt", Value: perOne, Dim: units.Force, Trace: calc.Trace{Formula: "F_b = F / z", Substituted: "= " + newton(load) + " / " + show(z, "")}},
+		{Name: "load_per_bolt", Value: perOne, Dim: units.Force, Trace: calc.Trace{Formula: "F_b = F / z", Substituted: "= " + newton(load) + " / " + display.Number(z, "")}},
 		{Name: "tensile_stress_area", Value: as, Dim: units.Area, Trace: calc.Trace{Formula: "A_s = π/4 · ((d2 + d3)/2)², d2 = d − 0.649519 · P, d3 = d − 1.226869 · P", Substituted: "= π/4 · ((" + mm(d2) + " + " + mm(d3) + ")/2)², " + t.Name + ": d = " + mm(t.D) + ", P = " + mm(t.Pitch)}},
 		{Name: "bolt_stress", Value: stress, Dim: units.Stress, Trace: calc.Trace{Formula: "σ = F_b / A_s", Substituted: "= " + newton(perOne) + " / " + mm2(as)}},
 		{Name: "safety_factor", Value: b.class.proof / stress, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "S = S_p / σ (S_p: proof strength, ISO 898-1)", Substituted: "= " + mpa(b.class.proof) + " (" + classNote + ") / " + mpa(stress)}},
 		{Name: "strip_safety_factor", Value: tau * shear / perOne, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "S_strip = 0.6 · R_m · A_t / F_b, A_t = π · d · L_e · (1/2 + 0.57735 · (d − d2)/P)", Substituted: "= 0.6 · " + mpa(b.nut.TensileStrength) + " (" + b.nut.Label + ") · " + mm2(shear) + " / " + newton(perOne) +
-			", A_t = π · " + mm(t.D) + " · " + mm(b.engagement) + leNote + " · " + show(t.internalToothFraction(), "")}},
+			", A_t = π · " + mm(t.D) + " · " + mm(b.engagement) + leNote + " · " + display.Number(t.internalToothFraction(), "")}},
 	}
 	return &calc.Outcome{Results: res}, nil
 }

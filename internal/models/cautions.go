@@ -69,41 +69,6 @@ func material(e *calc.Evaluated, key string) (Material, bool) {
 	return m, err == nil
 }
 
-// shown formats a value for a caution in the units the block's writer uses
-// (see unitFor), else in unit.
-func shown(e *calc.Evaluated, si float64, dim units.Dimension, unit string) string {
-	s, err := calc.FormatValue(si, dim, writerUnit(e, dim, unit), e.Ambient, e.SigFigs())
-	if err != nil {
-		return units.Format(si, e.SigFigs())
-	}
-	return s
-}
-
-// writerUnit is the unit of dimension dim that the block's writer chose: of a
-// [show] output, else of an input written in the block, else fallback (its
-// customary counterpart in a customary block, which may leave a temperature
-// at its default). A block written in psi and degF gets its cautions in psi
-// and degF.
-func writerUnit(e *calc.Evaluated, dim units.Dimension, fallback string) string {
-	for _, o := range e.Block.Show.Outputs {
-		if spec, ok := e.Block.Kind.ResultSpec(o.Name); ok && o.Unit != "" && spec.Dim == dim {
-			return o.Unit
-		}
-	}
-	for _, in := range e.Inputs {
-		if in.Default || in.From != "" || in.Dim != dim {
-			continue
-		}
-		if q, err := units.Parse(in.Text, dim); err == nil && q.Unit.Symbol != "" {
-			return q.Unit.Symbol
-		}
-	}
-	if e.Customary() {
-		return units.CustomaryFor(fallback)
-	}
-	return fallback
-}
-
 func hotDischarge(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
@@ -122,14 +87,14 @@ func hotDischarge(s *calc.Set) []calc.Raised {
 				what = "heat deflection temperature"
 			}
 			msg := fmt.Sprintf("discharge temperature %s against the %s %s of %s %s (%s)",
-				shown(e, t2.Value, units.Temperature, "degC"), strings.TrimSuffix(key, "_material"), what, m.Label,
-				shown(e, limit, units.Temperature, "degC"), "typical value: verify for your material")
+				e.Show(t2.Value, units.Temperature, "degC"), strings.TrimSuffix(key, "_material"), what, m.Label,
+				e.Show(limit, units.Temperature, "degC"), "typical value: verify for your material")
 			switch {
 			case t2.Value > limit:
 				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
 			case t2.Value > limit-hotMargin:
 				margin := "10 K"
-				if writerUnit(e, units.Temperature, "degC") == "degF" {
+				if e.WriterUnit(units.Temperature, "degC") == "degF" {
 					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
 				}
 				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
@@ -149,7 +114,7 @@ func hotAirRule(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
 			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
 				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
-			shown(e, t2.Value, units.Temperature, "degC"), shown(e, hotAir, units.Temperature, "degC"))}})
+			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
 	}
 	return out
 }
@@ -212,7 +177,7 @@ func aboveAllowable(s *calc.Set) []calc.Raised {
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
 			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
-			shown(e, p, units.Pressure, "bar"), why, shown(e, allow.Value, units.Pressure, "bar"))}})
+			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
 	}
 	return out
 }
@@ -279,14 +244,14 @@ func noRelief(s *calc.Set) []calc.Raised {
 				}
 				// Shown as the part's pressures are (gauge or absolute, its
 				// unit), so the three numbers compare at a glance.
-				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, shown(p, set.Value+v.Ambient, units.Pressure, "bar")))
+				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, p.Show(set.Value+v.Ambient, units.Pressure, "bar")))
 			}
 			if relieved {
 				continue
 			}
 			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
-				c.Block.ID, shown(c, dead.Value, units.Pressure, "bar"), shown(p, allow.Value, units.Pressure, "bar"), p.Block.ID,
-				shown(p, allow.Value, units.Pressure, "bar"), c.Block.ID)
+				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), p.Show(allow.Value, units.Pressure, "bar"), p.Block.ID,
+				p.Show(allow.Value, units.Pressure, "bar"), c.Block.ID)
 			if len(tooHigh) > 0 {
 				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
 			}
@@ -321,7 +286,7 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		}
 		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
-			c.Block.ID, shown(c, dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
 	}
 	return out
 }
@@ -355,8 +320,8 @@ func reliefBelowTarget(s *calc.Set) []calc.Raised {
 			}
 			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
 				"%s opens at %s, below the %s %s of %s, which it protects: %s never reaches it, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the allowable pressure of the parts it protects; or lower the %s.",
-				v.Block.ID, shown(p, opens, units.Pressure, "bar"), working.Name, shown(p, target, units.Pressure, "bar"), p.Block.ID,
-				p.Block.ID, shown(p, target, units.Pressure, "bar"), working.Name)}})
+				v.Block.ID, p.Show(opens, units.Pressure, "bar"), working.Name, p.Show(target, units.Pressure, "bar"), p.Block.ID,
+				p.Block.ID, p.Show(target, units.Pressure, "bar"), working.Name)}})
 		}
 	}
 	return out
@@ -388,7 +353,7 @@ func fillAboveRating(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: t, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
 			"%s is filled to %s, above the discharge pressure %s that its supply %s is computed at. Near the end of the fill the stage runs beyond its block: its piston force, head load, discharge temperature and power are higher than %s shows. "+
 				"Compute the supply at the receiver's cut-out pressure, or fill to the pressure it is computed at: pressure = \"=%s.discharge_pressure\".",
-			t.Block.ID, shown(t, target, units.Pressure, "bar"), shown(t, rated, units.Pressure, "bar"), c.Block.ID, c.Block.ID, c.Block.ID)}})
+			t.Block.ID, t.Show(target, units.Pressure, "bar"), t.Show(rated, units.Pressure, "bar"), c.Block.ID, c.Block.ID, c.Block.ID)}})
 	}
 	return out
 }
@@ -406,7 +371,7 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
 			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
-			shown(e, r.Value, units.Energy, "kJ"))}})
+			e.Show(r.Value, units.Energy, "kJ"))}})
 	}
 	return out
 }
@@ -453,7 +418,7 @@ func fastFlywheel(s *calc.Set) []calc.Raised {
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
 			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
-			shown(e, v.Value, units.Velocity, "m/s"), shown(e, fastRim, units.Velocity, "m/s"), why)}})
+			e.Show(v.Value, units.Velocity, "m/s"), e.Show(fastRim, units.Velocity, "m/s"), why)}})
 	}
 	return out
 }
@@ -467,7 +432,7 @@ func coldExhaust(s *calc.Set) []calc.Raised {
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
 			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
-			shown(e, t.Value, units.Temperature, "degC"))}})
+			e.Show(t.Value, units.Temperature, "degC"))}})
 	}
 	return out
 }

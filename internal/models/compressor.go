@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
-	"strings"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -19,24 +19,14 @@ var compressorKind = calc.Kind{
 	Roles:           calc.HoldsPressure | calc.Delivers | calc.Crank,
 	WorkingPressure: calc.WorkingPressure{Key: "discharge_pressure", Name: "discharge pressure"},
 	Raises:          []string{"no-delivery"},
-	Inputs: []calc.InputSpec{
-		{Name: "bore", Dim: units.Length, Range: calc.Between(1e-4, 10), Meaning: "cylinder bore (piston diameter), 0.1 mm to 10 m"},
-		{Name: "stroke", Dim: units.Length, Optional: true, Range: calc.Between(1e-4, 10), Meaning: "piston stroke, twice the crank radius, 0.1 mm to 10 m; give stroke or crank_radius"},
-		{Name: "crank_radius", Dim: units.Length, Optional: true, Range: calc.Between(5e-5, 5), Meaning: "crank throw, half the stroke, 0.05 mm to 5 m; give stroke or crank_radius"},
-		{Name: "rod_length", Dim: units.Length, Range: calc.Between(1e-4, 50), Meaning: "connecting rod length between centres, up to 50 m; must exceed the crank radius"},
-		{Name: "clearance_volume", Dim: units.Volume, Optional: true, Range: positiveUpTo(100), Meaning: "gas volume left in one cylinder at top dead centre; give clearance_volume or clearance_ratio"},
-		{Name: "clearance_ratio", Dim: units.Dimensionless, Optional: true, Range: calc.Between(minClearanceRatio, 100), Meaning: "clearance volume over swept volume, 1e-6 to 100; give clearance_volume or clearance_ratio"},
-		{Name: "cylinders", Dim: units.Dimensionless, Default: "1", Range: calc.Between(1, maxCylinders), Meaning: "number of identical cylinders on the crankshaft, evenly phased, 1 to 32"},
-		{Name: "speed", Dim: units.RotationalSpeed, Range: calc.Between(minCrankSpeed, 1e5), Meaning: "crankshaft speed, 1 rpm to 1e5 rad/s, and at most 40 m/s of mean piston speed"},
-		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
-		{Name: "inlet_pressure", Dim: units.Pressure, Optional: true, Range: calc.Between(1, 1e9), Meaning: "pressure in the cylinder during suction, 1 Pa(a) to 1 GPa; default: ambient"},
-		{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature at the inlet"},
-		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
-		{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: calc.Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
-		{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
-		{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
-		{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3), Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
-	},
+	Inputs: append(append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
+		"cylinders", "speed"),
+		calc.InputSpec{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
+	), append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency"),
+		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
+		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
+		cylinderInputs("reciprocating_mass")[0],
+	)...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
@@ -64,46 +54,6 @@ var compressorKind = calc.Kind{
 	Chart:    compressorChart,
 	Evaluate: evaluateCompressor,
 }
-
-// The input bounds are generous for small machines; they keep every
-// formula finite.
-const (
-	maxCylinders      = 32
-	minClearanceRatio = 1e-6 // "negligible clearance"; CR^n stays finite
-	// minRodExcess is how much longer than the crank the rod must be, as a
-	// fraction of the crank radius, for the slider-crank formulas to stay
-	// finite at 90° of crank angle.
-	minRodExcess = 1e-9
-)
-
-// Physical floors for inputs that only need to be positive in the
-// formulas: a value below them describes no machine these models are for
-// and gives absurd but finite results (common practice, our choice).
-const (
-	minPartSize       = 1e-4             // m: 0.1 mm, the smallest dimension of a part
-	minCrankSpeed     = 2 * math.Pi / 60 // rad/s: 1 rpm, a slow hand crank
-	minGasTemperature = 150              // K: well above where air liquefies, so an ideal gas
-	maxGasTemperature = 1000             // K: beyond any inlet or intercooler of an air machine
-	minSolidDensity   = 100              // kg/m³: below the lightest woods
-	minVesselVolume   = 1e-8             // m³: 10 mm³
-	// maxMeanPistonSpeed: fast racing engines run at about 25 m/s (common
-	// practice); no air machine comes near 40 m/s.
-	maxMeanPistonSpeed = 40.0 // m/s
-)
-
-// positiveUpTo allows values above zero up to max.
-func positiveUpTo(max float64) calc.Range {
-	return calc.Range{Min: 0, Max: max, HasMin: true, HasMax: true, MinOpen: true}
-}
-
-// cycleSteps is the least number of crank-angle steps per revolution
-// (0.1° each) at which the torque curves are sampled: fine enough that the
-// cycle integral matches the closed-form indicated work to 1e-6 (tested).
-const cycleSteps = 3600
-
-// curvePoints is the number of intervals per revolution in the published
-// crank-angle and p-V curves (0.5°); it divides cycleSteps.
-const curvePoints = 720
 
 const compressorDoc = `The compressor kind models one single-acting compression stage: z identical
 cylinders on one crankshaft, each with bore D, stroke s = 2R, rod length L and
@@ -164,89 +114,9 @@ Limits
   depend on cooling. With no delivery it is the peak of the trapped air,
   T1·CR^(n−1).`
 
-// compressorInput is a compressor block's inputs in SI, absolute pressures.
-type compressorInput struct {
-	bore, crankRadius, rod float64
-	clearanceVolume        float64
-	clearanceRatio         float64
-	clearanceGiven         bool // the ratio was derived from a given volume
-	cylinders              int
-	omega                  float64 // rad/s
-	p1, p2, ambient        float64
-	t1, n, etaMech         float64
-	mass                   float64 // 0 when not given
-}
-
-// readCylinder reads the cylinder of a block of any kind built on it:
-// geometry, clearance, cylinders, speed, polytropic index, mechanical
-// efficiency and reciprocating mass, with the checks that single-input
-// ranges cannot make. The pressures are the caller's.
-func readCylinder(in *calc.Inputs) (compressorInput, error) {
-	c := compressorInput{
-		bore:    in.Value("bore"),
-		rod:     in.Value("rod_length"),
-		omega:   in.Value("speed"),
-		ambient: in.Ambient,
-		p1:      in.Ambient,
-		t1:      in.Value("inlet_temperature"),
-		n:       in.Value("polytropic_index"),
-		etaMech: in.Value("mechanical_efficiency"),
-		mass:    in.Value("reciprocating_mass"),
-	}
-	switch {
-	case in.Has("stroke") && in.Has("crank_radius"):
-		return c, &calc.InputError{Key: "stroke", Message: "give either stroke or crank_radius, not both (stroke = 2 × crank radius)"}
-	case in.Has("stroke"):
-		c.crankRadius = in.Value("stroke") / 2
-	case in.Has("crank_radius"):
-		c.crankRadius = in.Value("crank_radius")
-	default:
-		return c, &calc.InputError{Key: "stroke", Message: "missing: give stroke or crank_radius (a length, e.g. \"32 mm\")"}
-	}
-	// Messages in the units the block is written in.
-	cust := in.Customary()
-	mm, speed := traceIn(cust, "mm"), traceIn(cust, "m/s")
-	if cm := 4 * c.crankRadius * c.omega / (2 * math.Pi); cm > maxMeanPistonSpeed {
-		return c, &calc.InputError{Key: "speed", Message: fmt.Sprintf(
-			"at %s a %s stroke gives a mean piston speed of %s, beyond any piston machine; allowed: up to %s (%s with this stroke)",
-			show(c.omega*60/(2*math.Pi), "rpm"), mm(2*c.crankRadius), speed(cm), speed(maxMeanPistonSpeed),
-			show(maxMeanPistonSpeed*60/(4*c.crankRadius), "rpm"))}
-	}
-	if c.rod <= c.crankRadius*(1+minRodExcess) {
-		return c, &calc.InputError{Key: "rod_length", Message: fmt.Sprintf(
-			"rod length %s must exceed the crank radius %s (half the stroke)",
-			mm(c.rod), mm(c.crankRadius))}
-	}
-	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
-	switch {
-	case in.Has("clearance_volume") && in.Has("clearance_ratio"):
-		return c, &calc.InputError{Key: "clearance_volume", Message: "give either clearance_volume or clearance_ratio, not both"}
-	case in.Has("clearance_volume"):
-		c.clearanceVolume = in.Value("clearance_volume")
-		c.clearanceRatio = c.clearanceVolume / swept
-		c.clearanceGiven = true
-		if c.clearanceRatio < minClearanceRatio {
-			return c, &calc.InputError{Key: "clearance_volume", Message: fmt.Sprintf(
-				"clearance volume %s is less than a millionth of the swept volume %s; for negligible clearance use clearance_ratio = %g",
-				traceIn(cust, "mm3")(c.clearanceVolume), traceIn(cust, "cm3")(swept), minClearanceRatio)}
-		}
-	case in.Has("clearance_ratio"):
-		c.clearanceRatio = in.Value("clearance_ratio")
-		c.clearanceVolume = c.clearanceRatio * swept
-	default:
-		return c, &calc.InputError{Key: "clearance_volume", Message: "missing: give clearance_volume (a volume, e.g. \"1.8 cm3\") or clearance_ratio (e.g. 0.05)"}
-	}
-	z := in.Value("cylinders")
-	if z != math.Trunc(z) {
-		return c, &calc.InputError{Key: "cylinders", Message: fmt.Sprintf("%s is not a whole number of cylinders", units.Format(z, 6))}
-	}
-	c.cylinders = int(z)
-	return c, nil
-}
-
-// readCompressorInput reads a compressor block: its cylinder, then its
+// readCompressor reads a compressor block: its cylinder, then its
 // inlet and discharge pressures.
-func readCompressorInput(in *calc.Inputs) (compressorInput, error) {
+func readCompressor(in *calc.Inputs) (cylinder, error) {
 	c, err := readCylinder(in)
 	if err != nil {
 		return c, err
@@ -256,97 +126,15 @@ func readCompressorInput(in *calc.Inputs) (compressorInput, error) {
 		c.p1 = in.Value("inlet_pressure")
 	}
 	if c.p2 <= c.p1 {
-		pair := func(p float64) string { return gaugeAndAbsolute(p, in.Ambient, in.Customary()) }
+		pair := func(p float64) string { return display.GaugeAndAbsolute(p, in.Ambient, in.Customary()) }
 		return c, &calc.InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
 			"discharge pressure %s must be above the inlet pressure %s", pair(c.p2), pair(c.p1))}
 	}
 	return c, nil
 }
 
-// traceIn formats an SI value for a formula trace in unit, a metric symbol
-// of the unit table, or in its US customary counterpart when customary.
-// Only for units read from zero (lengths, volumes, absolute pressures).
-func traceIn(customary bool, unit string) func(float64) string {
-	return traceInSig(customary, unit, traceFigures)
-}
-
-// traceInSig is traceIn at sig significant figures.
-func traceInSig(customary bool, unit string, sig int) func(float64) string {
-	if customary {
-		unit = units.CustomaryFor(unit)
-	}
-	u, err := units.LookupUnit(unit)
-	if err != nil {
-		return func(si float64) string { return showSig(si, unit, sig) }
-	}
-	pretty := units.Pretty(u.Symbol)
-	return func(si float64) string { return showSig((si-u.Offset)/u.Factor, pretty, sig) }
-}
-
-// traceFigures is the number of significant figures of a trace's numbers.
-const traceFigures = 4
-
-// gaugeText shows a gauge pressure (a difference from ambient, Pa) in the
-// block's units with the trade's gauge mark: "7 bar(g)", "100 psig".
-func gaugeText(gauge float64, customary bool) string {
-	s := traceIn(customary, "bar")(gauge)
-	if customary {
-		return s + "g"
-	}
-	return s + "(g)"
-}
-
-// gaugeAndAbsolute shows an absolute pressure p the way blocks are written,
-// gauge first, with the absolute figure beside it: "7 bar(g) (8.013 bar(a))",
-// "100 psig (114.7 psia)".
-func gaugeAndAbsolute(p, ambient float64, customary bool) string {
-	return gaugeText(p-ambient, customary) + " (" + traceIn(customary, "bar(a)")(p) + ")"
-}
-
-// show formats a value already scaled to unit at 4 significant figures,
-// without trailing zeros after the decimal point ("28 mm", "1.013 bar(a)").
-func show(v float64, unit string) string { return showSig(v, unit, traceFigures) }
-
-// showSig is show at sig significant figures.
-func showSig(v float64, unit string, sig int) string {
-	s := units.Format(v, sig)
-	if strings.Contains(s, ".") && !strings.Contains(s, "e") {
-		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
-	}
-	if unit == "" {
-		return s
-	}
-	return s + " " + unit
-}
-
-// figuresFor is how many significant figures the terms of a trace need so
-// that a result that is their small difference still comes out to
-// traceFigures: 4, plus the digits lost to cancellation (about log10 of
-// term over result). Without them a reviewer working the trace of a low
-// pressure ratio or a near dead-head by hand gets a different answer.
-func figuresFor(term, result float64) int {
-	ratio := math.Abs(term / result)
-	if !(ratio > 1) || math.IsInf(ratio, 0) {
-		return traceFigures
-	}
-	// Each term rounded to traceFigures is off by up to about 5e-4 of
-	// itself; the difference, by that times ratio.
-	return traceFigures + max(0, min(int(math.Ceil(math.Log10(0.7*ratio))), 8))
-}
-
-// polytropicWork returns the work to compress a volume v drawn in at p1
-// through a pressure ratio r along p·V^n = const, with delivery:
-// n/(n−1)·p1·v·(r^((n−1)/n) − 1), or p1·v·ln r when n = 1. Expm1 keeps
-// it accurate as n approaches 1.
-func polytropicWork(p1, v, r, n float64) float64 {
-	if n == 1 {
-		return p1 * v * math.Log(r)
-	}
-	return n / (n - 1) * p1 * v * math.Expm1((n-1)/n*math.Log(r))
-}
-
 func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
-	c, err := readCompressorInput(in)
+	c, err := readCompressor(in)
 	if err != nil {
 		return nil, err
 	}
@@ -393,22 +181,22 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 
 	// Trace helpers in convenient units, customary for a customary block.
 	cust := in.Customary()
-	mm, mm2, cm3 := traceIn(cust, "mm"), traceIn(cust, "mm2"), traceIn(cust, "cm3")
-	bara, lpm, watts, nm := traceIn(cust, "bar(a)"), traceIn(cust, "L/min"), traceIn(cust, "W"), traceIn(cust, "N m")
-	num := func(v float64) string { return show(v, "") }
-	rps := show(revs, "rev/s")
+	mm, mm2, cm3 := display.TraceIn(cust, "mm"), display.TraceIn(cust, "mm2"), display.TraceIn(cust, "cm3")
+	bara, lpm, watts, nm := display.TraceIn(cust, "bar(a)"), display.TraceIn(cust, "L/min"), display.TraceIn(cust, "W"), display.TraceIn(cust, "N m")
+	num := func(v float64) string { return display.Number(v, "") }
+	rps := display.Number(revs, "rev/s")
 	nWord := num(c.n)
 	// Enough figures that the differences in the traces (r − 1 at a low
 	// ratio, 1 − c·(...) near dead-head, p − p_amb) work out by hand.
-	rSig := figuresFor(r, r-1)
-	ratio := showSig(r, "", rSig)
-	veSig := max(rSig, figuresFor(1, ve))
+	rSig := display.FiguresFor(r, r-1)
+	ratio := display.NumberSig(r, "", rSig)
+	veSig := max(rSig, display.FiguresFor(1, ve))
 	atTop := cyc.top-c.ambient >= c.ambient-c.p1
-	forceSig := figuresFor(cyc.top, cyc.top-c.ambient)
+	forceSig := display.FiguresFor(cyc.top, cyc.top-c.ambient)
 	if !atTop {
-		forceSig = figuresFor(c.ambient, c.ambient-c.p1)
+		forceSig = display.FiguresFor(c.ambient, c.ambient-c.p1)
 	}
-	forceBar := traceInSig(cust, "bar(a)", forceSig)
+	forceBar := display.TraceInSig(cust, "bar(a)", forceSig)
 
 	res := []calc.Result{
 		{Name: "piston_area", Value: area, Dim: units.Area, Trace: calc.Trace{Formula: "A = π/4 · D²", Substituted: "= π/4 · (" + mm(c.bore) + ")²"}},
@@ -418,7 +206,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		clearanceResult(c, swept, cm3),
 		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "CR = (Vs + Vc) / Vc", Substituted: "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "r = p2 / p1", Substituted: "= " + bara(c.p2) + " / " + bara(c.p1)}},
-		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η_v = 1 − c·(r^(1/n) − 1)", Substituted: "= 1 − " + showSig(c.clearanceRatio, "", veSig) + "·(" + showSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
+		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η_v = 1 − c·(r^(1/n) − 1)", Substituted: "= 1 − " + display.NumberSig(c.clearanceRatio, "", veSig) + "·(" + display.NumberSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
 		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d", Substituted: "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_max = p1 · CR^n", Substituted: "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
@@ -427,12 +215,12 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "mean_piston_speed", Value: 2 * stroke * revs, Dim: units.Velocity, Trace: calc.Trace{Formula: "c_m = 2 · s · N", Substituted: "= 2 · " + mm(stroke) + " · " + rps}},
 		{Name: "max_rod_angle", Value: math.Asin(c.crankRadius / c.rod), Dim: units.Angle, Trace: calc.Trace{Formula: "φ_max = asin(R / L)", Substituted: "= asin(" + mm(c.crankRadius) + " / " + mm(c.rod) + ")"}},
 		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: workTrace(num(z), bara(c.p1), cm3(vi), ratio, c.n)},
-		{Name: "indicated_power", Value: power, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + show(work, "J") + " · " + rps}},
+		{Name: "indicated_power", Value: power, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + display.Number(work, "J") + " · " + rps}},
 		{Name: "isothermal_power", Value: isoPower, Dim: units.Power, Trace: calc.Trace{Formula: "P_iso = z · p1 · Vi · ln r · N", Substituted: "= " + num(z) + " · " + bara(c.p1) + " · " + cm3(vi) + " · ln " + ratio + " · " + rps}},
 		{Name: "shaft_power", Value: power / c.etaMech, Dim: units.Power, Trace: calc.Trace{Formula: "P_s = P_i / η_m", Substituted: "= " + watts(power) + " / " + num(c.etaMech)}},
-		{Name: "mean_torque", Value: meanTorque, Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + show(work, "J") + " / 2π"}},
+		{Name: "mean_torque", Value: meanTorque, Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + display.Number(work, "J") + " / 2π"}},
 		{Name: "peak_torque", Value: peakTorque, Dim: units.Torque, Trace: calc.Trace{Formula: "T_peak = max over θ of Σ −(p(θ) − p_amb)·A·dx/dθ", Substituted: fmt.Sprintf("= %s, over %d crank steps, %s", nm(peakTorque), steps, phasing(c.cylinders))}},
-		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
+		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
 	}
 
 	out := &calc.Outcome{Results: res}
@@ -452,19 +240,19 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 // compressorDischargeTemperature is the temperature at the end of compression: at the
 // discharge pressure, or, when the discharge valve never opens, at the top
 // of the trapped air's compression, the dead-head pressure.
-func compressorDischargeTemperature(c compressorInput, delivers bool, r, cr float64, nWord string) calc.Result {
+func compressorDischargeTemperature(c cylinder, delivers bool, r, cr float64, nWord string) calc.Result {
 	k := "K"
 	if !delivers {
-		return calc.Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(cr, c.n-1), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_max = T1 · CR^(n−1) (no delivery: the trapped air peaks at the dead-head pressure)", Substituted: "= " + show(c.t1, k) + " · " + show(cr, "") + "^(" + nWord + " − 1)"}}
+		return calc.Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(cr, c.n-1), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_max = T1 · CR^(n−1) (no delivery: the trapped air peaks at the dead-head pressure)", Substituted: "= " + display.Number(c.t1, k) + " · " + display.Number(cr, "") + "^(" + nWord + " − 1)"}}
 	}
-	return calc.Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T2 = T1 · r^((n−1)/n)", Substituted: "= " + show(c.t1, k) + " · " + show(r, "") + "^((" + nWord + " − 1)/" + nWord + ")"}}
+	return calc.Result{Name: "discharge_temperature", Value: c.t1 * math.Pow(r, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T2 = T1 · r^((n−1)/n)", Substituted: "= " + display.Number(c.t1, k) + " · " + display.Number(r, "") + "^((" + nWord + " − 1)/" + nWord + ")"}}
 }
 
 // clearanceResult reports the clearance ratio, derived or as given.
-func clearanceResult(c compressorInput, swept float64, cm3 func(float64) string) calc.Result {
+func clearanceResult(c cylinder, swept float64, cm3 func(float64) string) calc.Result {
 	t := calc.Trace{Formula: "c = Vc / Vs", Substituted: "= " + cm3(c.clearanceVolume) + " / " + cm3(swept)}
 	if !c.clearanceGiven {
-		t = calc.Trace{Formula: "c (given)", Substituted: "= " + show(c.clearanceRatio, "")}
+		t = calc.Trace{Formula: "c (given)", Substituted: "= " + display.Number(c.clearanceRatio, "")}
 	}
 	return calc.Result{Name: "clearance_ratio", Value: c.clearanceRatio, Dim: units.Dimensionless, Trace: t}
 }
@@ -494,7 +282,7 @@ func workTrace(z, p1, vi, r string, n float64) calc.Trace {
 	if n == 1 {
 		return calc.Trace{Formula: "W = z · p1 · Vi · ln r, Vi = η_v · Vs", Substituted: "= " + z + " · " + p1 + " · " + vi + " · ln " + r}
 	}
-	nw, nm1 := show(n, ""), show(n-1, "")
+	nw, nm1 := display.Number(n, ""), display.Number(n-1, "")
 	return calc.Trace{Formula: "W = z · n/(n−1) · p1 · Vi · (r^((n−1)/n) − 1), Vi = η_v · Vs", Substituted: "= " + z + " · " + nw + "/" + nm1 + " · " + p1 + " · " + vi + " · (" + r + "^(" + nm1 + "/" + nw + ") − 1)"}
 
 }
@@ -504,7 +292,7 @@ func phasing(z int) string {
 	if z == 1 {
 		return "one cylinder"
 	}
-	return fmt.Sprintf("%d cylinders %s° apart", z, show(360/float64(z), ""))
+	return fmt.Sprintf("%d cylinders %s° apart", z, display.Number(360/float64(z), ""))
 }
 
 // crankSteps returns the number of crank-angle samples per revolution: the
@@ -590,7 +378,7 @@ func vertex(e []float64, i int) float64 {
 
 // compressorCurves returns the p-V diagram of one cylinder with its
 // isothermal compression line, and the crankshaft torque curves.
-func compressorCurves(cyc *indicatorCycle, c compressorInput, gas []float64, steps int) []calc.Curve {
+func compressorCurves(cyc *indicatorCycle, c cylinder, gas []float64, steps int) []calc.Curve {
 	stride := steps / curvePoints
 	pick := func(f func(i int) float64) []float64 {
 		out := make([]float64, 0, curvePoints+1)

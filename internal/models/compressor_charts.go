@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -15,7 +16,7 @@ var compressorCharts = []string{"delivery", "kinematics", "pv", "temperature", "
 const sweepPoints = 120
 
 func compressorChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart, error) {
-	c, err := readCompressorInput(in)
+	c, err := readCompressor(in)
 	if err != nil {
 		return nil, err
 	}
@@ -34,8 +35,8 @@ func compressorChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Cha
 	return nil, fmt.Errorf("no chart %q", name)
 }
 
-func pvChart(c compressorInput, out *calc.Outcome, customary bool) (*calc.Chart, error) {
-	barA := chartIn(customary, "bar(a)")
+func pvChart(c cylinder, out *calc.Outcome, customary bool) (*calc.Chart, error) {
+	barA := display.Described(customary, "bar(a)")
 	pv, ok := out.Curve("pv")
 	iso, ok2 := out.Curve("isothermal")
 	if !ok || !ok2 {
@@ -69,7 +70,7 @@ func pvChart(c compressorInput, out *calc.Outcome, customary bool) (*calc.Chart,
 	}, nil
 }
 
-func torqueChart(c compressorInput, out *calc.Outcome) *calc.Chart {
+func torqueChart(c cylinder, out *calc.Outcome) *calc.Chart {
 	gas, _ := out.Curve("gas_torque")
 	deg := gas.X // radians; the axis shows degrees
 	p := calc.Panel{
@@ -91,7 +92,7 @@ func torqueChart(c compressorInput, out *calc.Outcome) *calc.Chart {
 
 // pressureSweep lists discharge pressures from just above the inlet to the
 // dead-head pressure.
-func pressureSweep(c compressorInput) []float64 {
+func pressureSweep(c cylinder) []float64 {
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	dead := c.p1 * math.Pow((swept+c.clearanceVolume)/c.clearanceVolume, c.n)
 	out := make([]float64, sweepPoints+1)
@@ -101,8 +102,8 @@ func pressureSweep(c compressorInput) []float64 {
 	return out
 }
 
-func deliveryChart(c compressorInput, customary bool) *calc.Chart {
-	barA := chartIn(customary, "bar(a)")
+func deliveryChart(c cylinder, customary bool) *calc.Chart {
+	barA := display.Described(customary, "bar(a)")
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	z := float64(c.cylinders)
 	revs := c.omega / (2 * math.Pi)
@@ -128,7 +129,7 @@ func deliveryChart(c compressorInput, customary bool) *calc.Chart {
 	}
 }
 
-func temperatureChart(c compressorInput, in *calc.Inputs) *calc.Chart {
+func temperatureChart(c cylinder, in *calc.Inputs) *calc.Chart {
 	ps := pressureSweep(c)
 	t := make([]float64, len(ps))
 	for i, p2 := range ps {
@@ -148,14 +149,14 @@ func temperatureChart(c compressorInput, in *calc.Inputs) *calc.Chart {
 		if m, err := envOf(in).Materials.Lookup(name); err == nil {
 			label := fmt.Sprintf("%s limit (%s)", key[:len(key)-len("_material")], m.Label)
 			p.Marks = append(p.Marks, calc.Mark{Value: m.TemperatureLimit(), Label: label})
-			desc += fmt.Sprintf("; a horizontal line marks the %s at %s", label, chartIn(in.Customary(), "degC")(m.TemperatureLimit()))
+			desc += fmt.Sprintf("; a horizontal line marks the %s at %s", label, display.Described(in.Customary(), "degC")(m.TemperatureLimit()))
 		}
 	}
 	return &calc.Chart{Title: "Discharge temperature over discharge pressure", Desc: desc + ".",
 		X: calc.Axis{Label: "Discharge pressure", Dim: units.Pressure, Unit: "bar"}, Panels: []calc.Panel{p}}
 }
 
-func kinematicsChart(c compressorInput) *calc.Chart {
+func kinematicsChart(c cylinder) *calc.Chart {
 	g := sliderCrank{r: c.crankRadius, l: c.rod}
 	const n = 360
 	theta, x, v, a := make([]float64, n+1), make([]float64, n+1), make([]float64, n+1), make([]float64, n+1)
@@ -177,19 +178,4 @@ func kinematicsChart(c compressorInput) *calc.Chart {
 			{Y: calc.Axis{Label: "Acceleration", Dim: units.Acceleration, Unit: "m/s2"}, Series: []calc.Series{{Name: "acceleration", X: theta, Y: a, Style: calc.DashDot}}},
 		},
 	}
-}
-
-// chartIn formats an SI value for a chart's description at 3 significant
-// figures in unit, or in its US customary counterpart when customary, as
-// the chart's axes are.
-func chartIn(customary bool, unit string) func(float64) string {
-	if customary {
-		unit = units.CustomaryFor(unit)
-	}
-	u, err := units.LookupUnit(unit)
-	if err != nil {
-		return func(si float64) string { return units.Format(si, 3) + " " + unit }
-	}
-	pretty := units.Pretty(u.Symbol)
-	return func(si float64) string { return units.Format((si-u.Offset)/u.Factor, 3) + " " + pretty }
 }

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strconv"
 	"strings"
 	"testing"
@@ -280,7 +281,7 @@ func TestCompressorNoDelivery(t *testing.T) {
 		t.Errorf("peak_piston_force = %g N, want (p_max − p_amb)·A = %g N", v, want)
 	}
 	if len(out.Cautions) != 1 || out.Cautions[0].Level != calc.Danger || out.Cautions[0].Rule != "no-delivery" ||
-		!strings.Contains(out.Cautions[0].Message, "10 bar(a)") || !strings.Contains(out.Cautions[0].Message, show(dead/1e5, "bar(a)")) {
+		!strings.Contains(out.Cautions[0].Message, "10 bar(a)") || !strings.Contains(out.Cautions[0].Message, display.Number(dead/1e5, "bar(a)")) {
 		t.Errorf("cautions = %+v, want one DANGER no-delivery naming 10 bar(a) and the dead-head pressure", out.Cautions)
 	}
 }
@@ -533,13 +534,13 @@ func TestNoDeliveryDischargeTemperature(t *testing.T) {
 // curves' step the ones the model uses.
 func TestCompressorDocSampling(t *testing.T) {
 	for _, want := range []string{
-		"sampled every " + show(360.0/cycleSteps, "") + "° of crank angle",
+		"sampled every " + display.Number(360.0/cycleSteps, "") + "° of crank angle",
 	} {
 		if !strings.Contains(strings.Join(strings.Fields(compressorDoc), " "), want) {
 			t.Errorf("compressor doc lacks %q", want)
 		}
 	}
-	for _, want := range []string{"(" + show(360.0/curvePoints, "") + "° steps)"} {
+	for _, want := range []string{"(" + display.Number(360.0/curvePoints, "") + "° steps)"} {
 		if !strings.Contains(flywheelDoc, want) {
 			t.Errorf("flywheel doc lacks %q", want)
 		}

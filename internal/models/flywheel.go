@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strconv"
 	"strings"
 
@@ -235,11 +236,11 @@ func (f flywheelInput) excessEnergy() []float64 {
 // energyFluctuation returns ΔE and how it was found.
 func (f flywheelInput) energyFluctuation() (float64, calc.Trace) {
 	if v, ok := f.sources[0].Results["energy_fluctuation"]; ok && len(f.sources) == 1 && f.torque.Name == "gas_torque" {
-		return v, calc.Trace{Formula: "ΔE = energy_fluctuation of the source (gas torque)", Substituted: "= " + show(v, "J") + " (" + f.names + ")"}
+		return v, calc.Trace{Formula: "ΔE = energy_fluctuation of the source (gas torque)", Substituted: "= " + display.Number(v, "J") + " (" + f.names + ")"}
 	}
 	e := f.excessEnergy()
 	low, high := extent(e)
-	return high - low, calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ, T the source's " + f.torque.Name, Substituted: "= " + show(high, "J") + " − (" + show(low, "J") + ") (" + f.names + ", 0.5° steps)"}
+	return high - low, calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ, T the source's " + f.torque.Name, Substituted: "= " + display.Number(high, "J") + " − (" + display.Number(low, "J") + ") (" + f.names + ", 0.5° steps)"}
 
 }
 
@@ -274,10 +275,10 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 	inertia := de / (f.cs * w * w)
 
 	cust := in.Customary()
-	mm, kgm2 := traceIn(cust, "mm"), traceIn(cust, "kg m2")
-	rho := traceIn(cust, "kg/m3")(f.density)
-	rads := show(w, "rad/s")
-	nu := show(f.poisson, "")
+	mm, kgm2 := display.TraceIn(cust, "mm"), display.TraceIn(cust, "kg m2")
+	rho := display.TraceIn(cust, "kg/m3")(f.density)
+	rads := display.Number(w, "rad/s")
+	nu := display.Number(f.poisson, "")
 	var (
 		diameter, mass, stress float64
 		dTrace, mTrace, sTrace calc.Trace
@@ -310,7 +311,7 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 	}
 	res := []calc.Result{
 		{Name: "energy_fluctuation", Value: de, Dim: units.Energy, Trace: deTrace},
-		{Name: "inertia", Value: inertia, Dim: units.Inertia, Trace: calc.Trace{Formula: "I = ΔE / (Cs·ω²)", Substituted: "= " + show(de, "J") + " / (" + show(f.cs, "") + " · (" + rads + ")²)"}},
+		{Name: "inertia", Value: inertia, Dim: units.Inertia, Trace: calc.Trace{Formula: "I = ΔE / (Cs·ω²)", Substituted: "= " + display.Number(de, "J") + " / (" + display.Number(f.cs, "") + " · (" + rads + ")²)"}},
 		{Name: "diameter", Value: diameter, Dim: units.Length, Trace: dTrace},
 		{Name: "mass", Value: mass, Dim: units.Mass, Trace: mTrace},
 		{Name: "rim_speed", Value: w * diameter / 2, Dim: units.Velocity, Trace: calc.Trace{Formula: "v = ω·D/2", Substituted: "= " + rads + " · " + mm(diameter) + " / 2"}},
@@ -318,7 +319,7 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 	}
 	if f.material != nil {
 		strength, name := f.material.DesignStrength()
-		res = append(res, calc.Result{Name: "safety_factor", Value: strength / stress, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "n = S / σ", Substituted: "= " + show(strength/1e6, "MPa") + " / " + show(stress/1e6, "MPa") + " (" + name + ", " + f.material.Label + ")"}})
+		res = append(res, calc.Result{Name: "safety_factor", Value: strength / stress, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "n = S / σ", Substituted: "= " + display.Number(strength/1e6, "MPa") + " / " + display.Number(stress/1e6, "MPa") + " (" + name + ", " + f.material.Label + ")"}})
 	}
 	return &calc.Outcome{Results: res}, nil
 }
@@ -357,7 +358,7 @@ func flywheelChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart
 	for i, w := range speed {
 		excess[i] = w - f.omega
 	}
-	rpm := func(v float64) string { return show(v*30/math.Pi, "rpm") }
+	rpm := func(v float64) string { return display.Number(v*30/math.Pi, "rpm") }
 	half := f.cs * f.omega / 2
 	return &calc.Chart{
 		Title: "Crank speed over one revolution",

@@ -1,10 +1,10 @@
 package models
 
 import (
-	"specgen/internal/calc"
 	"strings"
 	"testing"
 
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -27,7 +27,7 @@ func TestFormatValueMarksPressures(t *testing.T) {
 		// NIST SP 811 App. B: 1 psi = 6894.757 Pa; 101325 + 100·6894.757 = 790800.7 Pa.
 		{790800.7, "psi", "100 psig"},
 	} {
-		got, err := calc.FormatValue(c.si, units.Pressure, c.unit, ambient, 3)
+		got, err := display.Value(c.si, units.Pressure, c.unit, ambient, 3)
 		if err != nil || got != c.want {
 			t.Errorf("FormatValue(%g Pa, %s) = %q, %v; want %q", c.si, c.unit, got, err, c.want)
 		}

@@ -8,6 +8,7 @@ import (
 	"slices"
 	"sort"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -154,7 +155,7 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 				key = "tensile_strength"
 			}
 			fail(key, fmt.Sprintf("yield strength %s is above tensile strength %s; a material yields before it breaks",
-				show(mat.YieldStrength/1e6, "MPa"), show(mat.TensileStrength/1e6, "MPa")))
+				display.Number(mat.YieldStrength/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
 		}
 		if mat.Label == "" {
 			mat.Label = name
@@ -276,7 +277,7 @@ func (m *Material) set(key string, v any) error {
 			return fmt.Errorf("%q must be above zero", s)
 		}
 		if span, ok := materialSpans[key]; ok && (q.Value < span.min || q.Value > span.max) {
-			return fmt.Errorf("%q is out of range; allowed: %s to %s (%s)", s, show(span.min/span.scale, span.unit), show(span.max/span.scale, span.unit), span.why)
+			return fmt.Errorf("%q is out of range; allowed: %s to %s (%s)", s, display.Number(span.min/span.scale, span.unit), display.Number(span.max/span.scale, span.unit), span.why)
 		}
 		*dst = q.Value
 		return nil
@@ -289,7 +290,7 @@ func (m *Material) set(key string, v any) error {
 			return err
 		}
 		if t < minGasTemperature || t > maxMaterialTemperature {
-			return fmt.Errorf("%q is out of range; allowed: %s to %s", v, show(minGasTemperature, "K"), show(maxMaterialTemperature, "K"))
+			return fmt.Errorf("%q is out of range; allowed: %s to %s", v, display.Number(minGasTemperature, "K"), display.Number(maxMaterialTemperature, "K"))
 		}
 		*dst = t
 		return nil

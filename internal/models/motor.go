@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -17,21 +18,13 @@ var motorKind = calc.Kind{
 	Doc:     motorDoc,
 	Roles:   calc.HoldsPressure | calc.Crank,
 	Raises:  []string{"over-expansion"},
-	Inputs: []calc.InputSpec{
-		motorGeometryInput("bore"),
-		motorGeometryInput("stroke"),
-		motorGeometryInput("crank_radius"),
-		motorGeometryInput("rod_length"),
-		motorGeometryInput("clearance_volume"),
-		motorGeometryInput("clearance_ratio"),
-		motorGeometryInput("cylinders"),
-		motorGeometryInput("speed"),
-		{Name: "supply_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure of the supply air at the inlet valve, up to 1 GPa; must be above ambient"},
-		{Name: "cutoff", Dim: units.Dimensionless, Range: calc.Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
+	Inputs: append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio", "cylinders", "speed"),
+		calc.InputSpec{Name: "supply_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure of the supply air at the inlet valve, up to 1 GPa; must be above ambient"},
+		calc.InputSpec{Name: "cutoff", Dim: units.Dimensionless, Range: calc.Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
 			Meaning: "fraction of the stroke at which the inlet valve closes, above 0 up to 1 (1: admission over the whole stroke)"},
-		{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for the expansion after cut-off, 1 (isothermal) to 1.67"},
-		{Name: "supply_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "temperature of the supply air at the inlet valve"},
-	},
+		calc.InputSpec{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for the expansion after cut-off, 1 (isothermal) to 1.67"},
+		calc.InputSpec{Name: "supply_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "temperature of the supply air at the inlet valve"},
+	),
 	Results: []calc.ResultSpec{
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
 		{Name: "expansion_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "cylinder pressure at bottom dead centre, when the exhaust opens"},
@@ -46,13 +39,6 @@ var motorKind = calc.Kind{
 	Charts:   []string{"pv"},
 	Chart:    motorChart,
 	Evaluate: evaluateMotor,
-}
-
-// motorGeometryInput is the compressor's input spec of the same name: the
-// motor's cylinder, crank and speed are read as the compressor's.
-func motorGeometryInput(name string) calc.InputSpec {
-	spec, _ := compressorKind.Input(name)
-	return spec
 }
 
 const motorDoc = `The motor kind models a single-acting piston air motor: z identical, evenly
@@ -114,7 +100,7 @@ Limits
 
 // motorInput is a motor block's inputs in SI, pressures absolute.
 type motorInput struct {
-	geom      compressorInput // cylinder, crank and speed, as a compressor's
+	geom      cylinder // cylinder, crank and speed, as a compressor's
 	supply    float64
 	cutoff, n float64
 }
@@ -126,7 +112,7 @@ func readMotorInput(in *calc.Inputs) (motorInput, error) {
 	if m.supply <= in.Ambient {
 		return m, &calc.InputError{Key: "supply_pressure", Message: fmt.Sprintf(
 			"supply pressure %s must be above ambient %s: the air must push the piston out",
-			gaugeAndAbsolute(m.supply, in.Ambient, in.Customary()), traceIn(in.Customary(), "bar(a)")(in.Ambient))}
+			display.GaugeAndAbsolute(m.supply, in.Ambient, in.Customary()), display.TraceIn(in.Customary(), "bar(a)")(in.Ambient))}
 	}
 	g, err := readCylinder(in)
 	g.p2 = m.supply
@@ -210,7 +196,7 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 	if !(w1 > 0) {
 		return nil, &calc.InputError{Key: "cutoff", Message: fmt.Sprintf(
 			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
-			gaugeText(c.ps-c.pa, in.Customary()), show(in.Value("cutoff"), ""), show(w1, "J"))}
+			display.Gauge(c.ps-c.pa, in.Customary()), display.Number(in.Value("cutoff"), ""), display.Number(w1, "J"))}
 	}
 	ts := in.Value("supply_temperature")
 	steps := crankSteps(g.cylinders)
@@ -218,13 +204,13 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 	eLow, eHigh := excessEnergyRange(gas, meanLoad)
 
 	cust := in.Customary()
-	mm, cm3, bara := traceIn(cust, "mm"), traceIn(cust, "cm3"), traceIn(cust, "bar(a)")
+	mm, cm3, bara := display.TraceIn(cust, "mm"), display.TraceIn(cust, "cm3"), display.TraceIn(cust, "bar(a)")
 	// The net work is a difference of the admission and expansion work and
 	// the exhaust work: enough figures that it works out by hand.
-	wSig := figuresFor(c.ps*(c.v1-c.v0)+expand, w1)
-	wBar, wCm3 := traceInSig(cust, "bar(a)", wSig), traceInSig(cust, "cm3", wSig)
-	num := func(v float64) string { return show(v, "") }
-	rps := show(revs, "rev/s")
+	wSig := display.FiguresFor(c.ps*(c.v1-c.v0)+expand, w1)
+	wBar, wCm3 := display.TraceInSig(cust, "bar(a)", wSig), display.TraceInSig(cust, "cm3", wSig)
+	num := func(v float64) string { return display.Number(v, "") }
+	rps := display.Number(revs, "rev/s")
 	expandTrace := "p_s·V1/(n−1)·(1 − (V1/V2)^(n−1))"
 	if c.n == 1 {
 		expandTrace = "p_s·V1·ln(V2/V1)"
@@ -232,13 +218,13 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 	res := []calc.Result{
 		{Name: "swept_volume", Value: swept, Dim: units.Volume, Trace: calc.Trace{Formula: "Vs = π/4 · D² · s", Substituted: "= π/4 · (" + mm(g.bore) + ")² · " + mm(2*g.crankRadius)}},
 		{Name: "expansion_pressure", Value: pe, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_e = p_s · (V1/V2)^n, V1 = Vc + x_c·Vs, V2 = Vc + Vs", Substituted: "= " + bara(c.ps) + " · (" + cm3(c.v1) + " / " + cm3(c.v2) + ")^" + num(c.n)}},
-		{Name: "expansion_temperature", Value: ts * math.Pow(pe/c.ps, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_e = T_s · (p_e/p_s)^((n−1)/n)", Substituted: "= " + show(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
-		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: calc.Trace{Formula: "W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)", Substituted: "= " + num(z) + " · (" + wBar(c.ps) + " · " + wCm3(c.v1-c.v0) + " + " + showSig(expand, "J", wSig) + " − " + wBar(c.pa) + " · " + wCm3(swept) + ")"}},
-		{Name: "indicated_power", Value: work * revs, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + show(work, "J") + " · " + rps}},
-		{Name: "mean_torque", Value: work / (2 * math.Pi), Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + show(work, "J") + " / 2π"}},
+		{Name: "expansion_temperature", Value: ts * math.Pow(pe/c.ps, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_e = T_s · (p_e/p_s)^((n−1)/n)", Substituted: "= " + display.Number(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
+		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: calc.Trace{Formula: "W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)", Substituted: "= " + num(z) + " · (" + wBar(c.ps) + " · " + wCm3(c.v1-c.v0) + " + " + display.NumberSig(expand, "J", wSig) + " − " + wBar(c.pa) + " · " + wCm3(swept) + ")"}},
+		{Name: "indicated_power", Value: work * revs, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + display.Number(work, "J") + " · " + rps}},
+		{Name: "mean_torque", Value: work / (2 * math.Pi), Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + display.Number(work, "J") + " / 2π"}},
 		{Name: "air_consumption", Value: z * free * revs, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "Q = z · (p_s·V1 − p_a·Vc) / p_a · N (free air at p_a and T_s)", Substituted: "= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1) + " − " + bara(c.pa) + " · " + cm3(c.v0) + ") / " + bara(c.pa) + " · " + rps}},
-		{Name: "efficiency", Value: w1 / wIso, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η = W1 / (p_a · V_free · ln(p_s/p_a))", Substituted: "= " + show(w1, "J") + " / (" + bara(c.pa) + " · " + cm3(free) + " · ln(" + bara(c.ps) + " / " + bara(c.pa) + "))"}},
-		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + show(eHigh, "J") + " − (" + show(eLow, "J") + ")"}},
+		{Name: "efficiency", Value: w1 / wIso, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η = W1 / (p_a · V_free · ln(p_s/p_a))", Substituted: "= " + display.Number(w1, "J") + " / (" + bara(c.pa) + " · " + cm3(free) + " · ln(" + bara(c.ps) + " / " + bara(c.pa) + "))"}},
+		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
 	}
 	out := &calc.Outcome{Results: res}
 	if in.WantCurves() {
@@ -282,7 +268,7 @@ func motorChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart, e
 	}
 	c := newMotorCycle(m)
 	pe := c.ps * math.Pow(c.v1/c.v2, c.n)
-	barA := chartIn(in.Customary(), "bar(a)")
+	barA := display.Described(in.Customary(), "bar(a)")
 	cycle := calc.Series{Name: "indicator cycle", X: pv.X, Y: pv.Y, Labels: []calc.PointLabel{
 		{X: (c.v0 + c.v1) / 2, Y: c.ps, Text: "admission"},
 		{X: (c.v1 + c.v2) / 2, Y: c.ps * math.Pow(2*c.v1/(c.v1+c.v2), c.n), Text: "expansion"},

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strings"
 
 	"specgen/internal/units"
@@ -20,7 +21,7 @@ var multistageKind = calc.Kind{
 	Inputs: append([]calc.InputSpec{
 		{Name: "stages", Dim: units.Dimensionless, Range: calc.Between(2, maxStages), Meaning: "number of compression stages, a whole number 2 to 6"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the last stage delivers against, up to 1 GPa"},
-	}, append(compressorInputs("inlet_pressure", "inlet_temperature", "polytropic_index"),
+	}, append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index"),
 		calc.InputSpec{Name: "intercooled_temperature", Dim: units.Temperature, Optional: true, Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature leaving each intercooler; default: the inlet temperature (perfect intercooling)"},
 		calc.InputSpec{Name: "mass_flow", Dim: units.MassFlow, Optional: true, Range: positiveUpTo(1e3), Meaning: "mass of air compressed per unit time, for total_power; or give supply"},
 		calc.InputSpec{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow; or give mass_flow"},
@@ -104,14 +105,14 @@ func readMultistageInput(in *calc.Inputs) (multistageInput, error) {
 	m := multistageInput{p1: in.Ambient, p2: in.Value("discharge_pressure"), t1: in.Value("inlet_temperature"), n: in.Value("polytropic_index")}
 	z := in.Value("stages")
 	if z != math.Trunc(z) {
-		return m, &calc.InputError{Key: "stages", Message: fmt.Sprintf("%s is not a whole number of stages; allowed: 2, 3, 4, 5 or 6", show(z, ""))}
+		return m, &calc.InputError{Key: "stages", Message: fmt.Sprintf("%s is not a whole number of stages; allowed: 2, 3, 4, 5 or 6", display.Number(z, ""))}
 	}
 	m.stages = int(z)
 	if in.Has("inlet_pressure") {
 		m.p1 = in.Value("inlet_pressure")
 	}
 	cust := in.Customary()
-	bara := traceIn(cust, "bar(a)")
+	bara := display.TraceIn(cust, "bar(a)")
 	if m.p2 <= m.p1 {
 		return m, &calc.InputError{Key: "discharge_pressure", Message: fmt.Sprintf(
 			"discharge pressure %s must be above the inlet pressure %s", bara(m.p2), bara(m.p1))}
@@ -122,7 +123,7 @@ func readMultistageInput(in *calc.Inputs) (multistageInput, error) {
 		if hot := dischargeTemperature(m.t1, m.ratio(), m.n); m.tic > hot {
 			return m, &calc.InputError{Key: "intercooled_temperature", Message: fmt.Sprintf(
 				"%s is above the %s at which air leaves the first stage: an intercooler cools the air; allowed: up to %s",
-				traceIn(cust, "degC")(m.tic), traceIn(cust, "degC")(hot), traceIn(cust, "degC")(hot))}
+				display.TraceIn(cust, "degC")(m.tic), display.TraceIn(cust, "degC")(hot), display.TraceIn(cust, "degC")(hot))}
 		}
 	}
 	supply := in.LinkOf("supply")
@@ -140,11 +141,11 @@ func readMultistageInput(in *calc.Inputs) (multistageInput, error) {
 		}
 		if !(fad > 0 && ps > 0 && ts > 0) {
 			return m, &calc.InputError{Key: "supply", Message: fmt.Sprintf(
-				"supply %s delivers no air (free air delivery %s): it gives no mass flow", supply.ID, show(fad*6e4, "L/min"))}
+				"supply %s delivers no air (free air delivery %s): it gives no mass flow", supply.ID, display.Number(fad*6e4, "L/min"))}
 		}
 		m.flow = fad * ps / (airGasConstant * ts)
 		m.flowFrom = fmt.Sprintf("ṁ = FAD·p_s/(R·T_s) = %s · %s / (287.05 J/(kg K) · %s), from supply %s",
-			traceIn(cust, "L/min")(fad), bara(ps), show(ts, "K"), supply.ID)
+			display.TraceIn(cust, "L/min")(fad), bara(ps), display.Number(ts, "K"), supply.ID)
 	}
 	return m, nil
 }
@@ -179,12 +180,12 @@ func evaluateMultistage(in *calc.Inputs) (*calc.Outcome, error) {
 		single  = stageWork(m.t1, rAll, m.n)
 		hottest = math.Max(m.t1, m.tic)
 	)
-	bara := traceIn(in.Customary(), "bar(a)")
-	num := func(x float64) string { return show(x, "") }
-	kelvin := func(t float64) string { return show(t, "K") }
+	bara := display.TraceIn(in.Customary(), "bar(a)")
+	num := func(x float64) string { return display.Number(x, "") }
+	kelvin := func(t float64) string { return display.Number(t, "K") }
 	nw, nm1 := num(m.n), num(m.n-1)
 	// A ratio near 1 needs more figures for r^k − 1 and ln r to work out.
-	rs, rAlls := showSig(r, "", figuresFor(r, r-1)), showSig(rAll, "", figuresFor(rAll, rAll-1))
+	rs, rAlls := display.NumberSig(r, "", display.FiguresFor(r, r-1)), display.NumberSig(rAll, "", display.FiguresFor(rAll, rAll-1))
 	res := []calc.Result{{Name: "stage_pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "r = (p2/p1)^(1/N)", Substituted: fmt.Sprintf("= (%s / %s)^(1/%d)", bara(m.p2), bara(m.p1), m.stages)}}}
 	for k := 1; k < m.stages; k++ {
 		res = append(res, calc.Result{Name: fmt.Sprintf("interstage_pressure_%d", k), Value: m.p1 * math.Pow(r, float64(k)), Dim: units.Pressure, Trace: calc.Trace{Formula: fmt.Sprintf("p_%d = p1 · r^%d", k, k), Substituted: fmt.Sprintf("= %s · %s^%d", bara(m.p1), num(r), k)}})
@@ -219,7 +220,7 @@ func evaluateMultistage(in *calc.Inputs) (*calc.Outcome, error) {
 		calc.Result{Name: "single_stage_discharge_temperature", Value: dischargeTemperature(m.t1, rAll, m.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_d1 = T1 · (p2/p1)^((n−1)/n)", Substituted: fmt.Sprintf("= %s · %s^(%s/%s)", kelvin(m.t1), num(rAll), nm1, nw)}},
 	)
 	if m.flow > 0 {
-		res = append(res, calc.Result{Name: "total_power", Value: m.flow * work, Dim: units.Power, Trace: calc.Trace{Formula: "P = ṁ · w", Substituted: fmt.Sprintf("= %s · %s; %s", show(m.flow*1e3, "g/s"), show(work/1e3, "kJ/kg"), m.flowFrom)}})
+		res = append(res, calc.Result{Name: "total_power", Value: m.flow * work, Dim: units.Power, Trace: calc.Trace{Formula: "P = ṁ · w", Substituted: fmt.Sprintf("= %s · %s; %s", display.Number(m.flow*1e3, "g/s"), display.Number(work/1e3, "kJ/kg"), m.flowFrom)}})
 	}
 	return &calc.Outcome{Results: res}, nil
 }
@@ -262,7 +263,7 @@ func multistageChart(name string, in *calc.Inputs, _ *calc.Outcome) (*calc.Chart
 		x := math.Pow(all, float64(i)/float64(stagePoints*m.stages))
 		single.X, single.Y = append(single.X, m.p1*x), append(single.Y, dischargeTemperature(m.t1, x, m.n))
 	}
-	degC, barA := chartIn(in.Customary(), "degC"), chartIn(in.Customary(), "bar(a)")
+	degC, barA := display.Described(in.Customary(), "degC"), display.Described(in.Customary(), "bar(a)")
 	var ps []string
 	for _, mk := range marks {
 		ps = append(ps, barA(mk.Value))

@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
@@ -211,10 +212,10 @@ type tankInput struct {
 func readTankInput(in *calc.Inputs) (tankInput, error) {
 	t := tankInput{volume: in.Value("volume"), target: in.Value("pressure"), start: in.Value("start_pressure"), ambient: in.Ambient,
 		customary: in.Customary()}
-	pair := func(p float64) string { return gaugeAndAbsolute(p, t.ambient, t.customary) }
+	pair := func(p float64) string { return display.GaugeAndAbsolute(p, t.ambient, t.customary) }
 	if t.target <= t.ambient {
 		return t, &calc.InputError{Key: "pressure", Message: fmt.Sprintf(
-			"target pressure %s must be above ambient %s: a receiver stores compressed air", pair(t.target), traceIn(t.customary, "bar(a)")(t.ambient))}
+			"target pressure %s must be above ambient %s: a receiver stores compressed air", pair(t.target), display.TraceIn(t.customary, "bar(a)")(t.ambient))}
 	}
 	if t.start >= t.target {
 		return t, &calc.InputError{Key: "start_pressure", Message: fmt.Sprintf(
@@ -290,16 +291,16 @@ func checkWallInputs(in *calc.Inputs) error {
 // fillResult is the fill time with its working.
 func fillResult(t tankInput) calc.Result {
 	s := t.supply
-	bara := traceIn(t.customary, "bar(a)")
-	litres := traceIn(t.customary, "L")(t.volume)
-	rate := traceIn(t.customary, "L/min")(s.rate)
+	bara := display.TraceIn(t.customary, "bar(a)")
+	litres := display.TraceIn(t.customary, "L")(t.volume)
+	rate := display.TraceIn(t.customary, "L/min")(s.rate)
 	supply := fmt.Sprintf("supply %s: V̇d = %s, c = %s, n = %s, p1 = %s, p_max = %s",
-		s.id, rate, show(s.c, ""), show(s.n, ""), bara(s.p1), bara(s.pMax))
+		s.id, rate, display.Number(s.c, ""), display.Number(s.n, ""), bara(s.p1), bara(s.pMax))
 	r := calc.Result{Name: "fill_time", Value: s.fillTime(t.volume, t.start, t.target), Dim: units.Time}
 	if s.n == 1 {
 		// The closed form runs from p1 up; below p1 the cylinder delivers
 		// its full displacement, a term of its own.
-		cw := show(s.c, "")
+		cw := display.Number(s.c, "")
 		lo, hi := math.Max(t.start, s.p1), math.Max(t.target, s.p1)
 		formula := "t = V/(c·V̇d) · ln((1 + c − c·p0/p1)/(1 + c − c·p2/p1))"
 		sub := fmt.Sprintf("= %s/(%s · %s) · ln((1 + %s − %s·%s/%s)/(1 + %s − %s·%s/%s))",
@@ -313,7 +314,7 @@ func fillResult(t tankInput) calc.Result {
 	}
 	below := ""
 	if t.start < s.p1 {
-		below = fmt.Sprintf("; of which below p1, at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", show(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
+		below = fmt.Sprintf("; of which below p1, at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", display.Number(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
 	}
 	r.Trace = calc.Trace{Formula: "t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)", Substituted: fmt.Sprintf("= ∫ %s dp / (%s · FAD(p)) from %s to %s; %s%s",
 		litres, bara(s.p1), bara(t.start), bara(t.target), supply, below)}
@@ -363,7 +364,7 @@ func fillTable(t tankInput) calc.Table {
 		elapsed += t.supply.fillTime(t.volume, prev, t.target)
 		c.XS, c.YS = append(c.XS, t.target), append(c.YS, elapsed)
 	}
-	c.Y.Unit = calc.TimeUnitFor(elapsed)
+	c.Y.Unit = display.DurationUnit(elapsed)
 	return c
 }
 
@@ -387,10 +388,10 @@ func storedEnergyResult(t tankInput) calc.Result {
 	e := -p * v / (airGamma - 1) * math.Expm1(k*math.Log(pa/p))
 	iso := p * v * math.Log(p/pa)
 	// Near ambient, 1 − (p_a/p)^k is a small difference: more figures.
-	bara := traceInSig(t.customary, "bar(a)", figuresFor(p, p-pa))
-	litres := traceIn(t.customary, "L")
+	bara := display.TraceInSig(t.customary, "bar(a)", display.FiguresFor(p, p-pa))
+	litres := display.TraceIn(t.customary, "L")
 	return calc.Result{Name: "stored_energy", Value: e, Dim: units.Energy, Trace: calc.Trace{Formula: "E = p·V/(γ−1) · [1 − (p_a/p)^((γ−1)/γ)], γ = 1.4 (isentropic expansion to ambient, as ASME PCC-2 Art. 501 for pneumatic tests)", Substituted: fmt.Sprintf("= %s · %s / 0.4 · [1 − (%s / %s)^(0.4/1.4)]; isothermal for comparison: p·V·ln(p/p_a) = %s",
-		bara(p), litres(v), bara(pa), bara(p), show(iso/1e3, "kJ"))}}
+		bara(p), litres(v), bara(pa), bara(p), display.Number(iso/1e3, "kJ"))}}
 }
 
 func tankChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart, error) {
@@ -398,8 +399,8 @@ func tankChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart, er
 	if !ok {
 		return nil, fmt.Errorf("the fill chart needs a supply: name the compressor that fills the tank")
 	}
-	gauge := chartIn(in.Customary(), "bar")
-	unit := calc.TimeUnitFor(fill.X[len(fill.X)-1])
+	gauge := display.Described(in.Customary(), "bar")
+	unit := display.DurationUnit(fill.X[len(fill.X)-1])
 	return &calc.Chart{
 		Title: "Tank pressure while filling",
 		Desc: fmt.Sprintf("The receiver's gauge pressure over time as the supply fills it from %s to %s; the delivery falls as the pressure rises, so the curve flattens.",

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -117,7 +118,7 @@ type tubeInput struct {
 func readTubeInput(in *calc.Inputs) (tubeInput, error) {
 	c := tubeInput{ri: in.Value("inner_diameter") / 2, ambient: in.Ambient,
 		p: in.Value("pressure") - in.Ambient, closed: in.NameOf("closed_ends") != "false"}
-	mm := traceIn(in.Customary(), "mm")
+	mm := display.TraceIn(in.Customary(), "mm")
 	wallKey := "wall_thickness"
 	switch {
 	case in.Has("outer_diameter") && in.Has("wall_thickness"):
@@ -144,7 +145,7 @@ func readTubeInput(in *calc.Inputs) (tubeInput, error) {
 	if c.p <= 0 {
 		return c, &calc.InputError{Key: "pressure", Message: fmt.Sprintf(
 			"%s is not above ambient; the tube model takes internal pressure only (a wall under vacuum or external pressure can buckle, which it does not cover)",
-			gaugeText(c.p, in.Customary()))}
+			display.Gauge(c.p, in.Customary()))}
 	}
 	name := in.NameOf("material")
 	if name == "" {
@@ -179,16 +180,16 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 	}
 
 	cust := in.Customary()
-	mm, mpa, bar := traceIn(cust, "mm"), traceIn(cust, "MPa"), traceIn(cust, "bar")
+	mm, mpa, bar := display.TraceIn(cust, "mm"), display.TraceIn(cust, "MPa"), display.TraceIn(cust, "bar")
 	// ro² − ri² of a thin wall is a small difference: its diameters and
 	// radii get the figures it needs to work out by hand.
-	dm := traceInSig(cust, "mm", figuresFor(c.ro, c.t))
-	num := func(v float64) string { return show(v, "") }
+	dm := display.TraceInSig(cust, "mm", display.FiguresFor(c.ro, c.t))
+	num := func(v float64) string { return display.Number(v, "") }
 
 	thinTrace := calc.Trace{Formula: "σ_θ,thin = p · Di / (2 · t)", Substituted: "= " + bar(c.p) + " · " + mm(di) + " / (2 · " + mm(c.t) + ")"}
 	if ratio := c.t / di; ratio > thinWallLimit {
 		thinTrace.Substituted += fmt.Sprintf(" (NOTE: t/Di = %s > %s, a thick wall: this is %s %% below the Lamé bore stress; use hoop_stress)",
-			num(ratio), num(thinWallLimit), show(100*(1-thin/hoop), ""))
+			num(ratio), num(thinWallLimit), display.Number(100*(1-thin/hoop), ""))
 	}
 	axialTrace := calc.Trace{Formula: "σ_a = p · Di² / (Do² − Di²) (closed ends)", Substituted: "= " + bar(c.p) + " · (" + dm(di) + ")² / ((" + dm(do) + ")² − (" + dm(di) + ")²)"}
 	if !c.closed {

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 
 	"specgen/internal/units"
 )
@@ -15,7 +16,7 @@ var vacuumKind = calc.Kind{
 	Summary: "a compressor cylinder pumping a vessel down: ultimate pressure, pumping speed, pump-down time",
 	Doc:     vacuumDoc,
 	Roles:   calc.HoldsPressure | calc.HoldsVacuum,
-	Inputs: append(compressorInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
+	Inputs: append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed", "polytropic_index"),
 		calc.InputSpec{Name: "vessel_volume", Dim: units.Volume, Range: calc.Between(minVesselVolume, 1e3), Meaning: "internal volume of the vessel pumped down, with its piping, up to 1000 m3"},
 		calc.InputSpec{Name: "target_pressure", Dim: units.Pressure, Absolute: true, Range: positiveUpTo(1e9), Meaning: "absolute pressure the vessel is pumped down to, e.g. \"20 mbar(a)\" or \"15 torr\"; above the ultimate pressure"},
@@ -66,21 +67,9 @@ Limits
   Chart: pumpdown, the vessel pressure (log scale) over time, continued past
   the target (dashed) towards the ultimate pressure.`
 
-// compressorInputs returns the compressor kind's input specs named names,
-// in that order, for kinds built on its cylinder.
-func compressorInputs(names ...string) []calc.InputSpec {
-	specs := make([]calc.InputSpec, 0, len(names))
-	for _, name := range names {
-		if spec, ok := compressorKind.Input(name); ok {
-			specs = append(specs, spec)
-		}
-	}
-	return specs
-}
-
 // vacuumInput is a vacuum block's inputs in SI, pressures absolute.
 type vacuumInput struct {
-	cyl                            compressorInput
+	cyl                            cylinder
 	volume, target, start, ambient float64
 }
 
@@ -116,7 +105,7 @@ func readVacuumInput(in *calc.Inputs) (vacuumInput, vacuumPump, error) {
 	if in.Has("start_pressure") {
 		v.start = in.Value("start_pressure")
 	}
-	mbar := traceIn(in.Customary(), "mbar(a)")
+	mbar := display.TraceIn(in.Customary(), "mbar(a)")
 	if v.start > v.ambient {
 		return v, vacuumPump{}, &calc.InputError{Key: "start_pressure", Message: fmt.Sprintf(
 			"start pressure %s is above ambient %s: the pump starts at or below the atmosphere it discharges to",
@@ -138,7 +127,7 @@ func readVacuumInput(in *calc.Inputs) (vacuumInput, vacuumPump, error) {
 		return v, vacuumPump{}, &calc.InputError{Key: "target_pressure", Message: fmt.Sprintf(
 			"target pressure %s is at or below the ultimate pressure %s of this cylinder (ambient × (c/(1 + c))^n, c = %s, n = %s), "+
 				"where its volumetric efficiency falls to zero: it never gets there; raise the target or reduce the clearance",
-			mbar(v.target), mbar(pu), show(pump.c, ""), show(pump.n, ""))}
+			mbar(v.target), mbar(pu), display.Number(pump.c, ""), display.Number(pump.n, ""))}
 	}
 	return v, pump, nil
 }
@@ -152,18 +141,18 @@ func evaluateVacuum(in *calc.Inputs) (*calc.Outcome, error) {
 	swept := math.Pi / 4 * c.bore * c.bore * 2 * c.crankRadius
 	revs := c.omega / (2 * math.Pi)
 	cust := in.Customary()
-	mbar, lpm, mm, cm3 := traceIn(cust, "mbar(a)"), traceIn(cust, "L/min"), traceIn(cust, "mm"), traceIn(cust, "cm3")
-	num := func(x float64) string { return show(x, "") }
+	mbar, lpm, mm, cm3 := display.TraceIn(cust, "mbar(a)"), display.TraceIn(cust, "L/min"), display.TraceIn(cust, "mm"), display.TraceIn(cust, "cm3")
+	num := func(x float64) string { return display.Number(x, "") }
 	speed := func(p float64) calc.Trace {
 		// Near the ultimate pressure η_v is a small difference: more figures.
-		sig := figuresFor(1, pump.efficiency(p))
-		pa := traceInSig(cust, "mbar(a)", sig)
-		return calc.Trace{Formula: "S = V̇d · η_v, η_v = 1 − c·((p_a/p)^(1/n) − 1)", Substituted: fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), showSig(pump.c, "", sig), pa(v.ambient), pa(p), num(pump.n))}
+		sig := display.FiguresFor(1, pump.efficiency(p))
+		pa := display.TraceInSig(cust, "mbar(a)", sig)
+		return calc.Trace{Formula: "S = V̇d · η_v, η_v = 1 − c·((p_a/p)^(1/n) − 1)", Substituted: fmt.Sprintf("= %s · (1 − %s·((%s/%s)^(1/%s) − 1))", lpm(pump.rate), display.NumberSig(pump.c, "", sig), pa(v.ambient), pa(p), num(pump.n))}
 
 	}
 	res := []calc.Result{
 		{Name: "displacement_rate", Value: pump.rate, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "V̇d = z · π/4 · D² · s · N", Substituted: fmt.Sprintf("= %d · π/4 · (%s)² · %s · %s",
-			c.cylinders, mm(c.bore), mm(2*c.crankRadius), show(revs, "rev/s"))}},
+			c.cylinders, mm(c.bore), mm(2*c.crankRadius), display.Number(revs, "rev/s"))}},
 		clearanceResult(c, swept, cm3),
 		{Name: "ultimate_pressure", Value: pump.ultimate(), Dim: units.Pressure, Trace: calc.Trace{Formula: "p_u = p_a · (c/(1 + c))^n", Substituted: fmt.Sprintf("= %s · (%s/(1 + %s))^%s", mbar(v.ambient), num(pump.c), num(pump.c), num(pump.n))}},
 		{Name: "pumping_speed", Value: pump.rate * pump.efficiency(v.start), Dim: units.VolumeFlow, Trace: speed(v.start)},
@@ -178,10 +167,10 @@ func evaluateVacuum(in *calc.Inputs) (*calc.Outcome, error) {
 // to work out by hand.
 func pumpdownTrace(v vacuumInput, pump vacuumPump, cust bool) calc.Trace {
 	e0, e := pump.efficiency(v.start), pump.efficiency(v.target)
-	mbar := traceInSig(cust, "mbar(a)", figuresFor(v.start, v.start-v.target))
-	eSig := figuresFor(e0, e0-e)
-	return calc.Trace{Formula: "t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η_v(p0)/η_v(p))] (isothermal vessel, no leaks)", Substituted: fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", traceIn(cust, "L")(v.volume), traceIn(cust, "L/min")(pump.rate),
-		show(pump.c, ""), mbar(v.start), mbar(v.target), show(pump.n, ""), showSig(e0, "", eSig), showSig(e, "", eSig))}
+	mbar := display.TraceInSig(cust, "mbar(a)", display.FiguresFor(v.start, v.start-v.target))
+	eSig := display.FiguresFor(e0, e0-e)
+	return calc.Trace{Formula: "t = V/(V̇d·(1 + c)) · [ln(p0/p) + n·ln(η_v(p0)/η_v(p))] (isothermal vessel, no leaks)", Substituted: fmt.Sprintf("= %s/(%s · (1 + %s)) · [ln(%s/%s) + %s·ln(%s/%s)]", display.TraceIn(cust, "L")(v.volume), display.TraceIn(cust, "L/min")(pump.rate),
+		display.Number(pump.c, ""), mbar(v.start), mbar(v.target), display.Number(pump.n, ""), display.NumberSig(e0, "", eSig), display.NumberSig(e, "", eSig))}
 
 }
 
@@ -202,7 +191,7 @@ func vacuumChart(name string, in *calc.Inputs, _ *calc.Outcome) (*calc.Chart, er
 		return nil, err
 	}
 	pu := pump.ultimate()
-	mbar := traceIn(in.Customary(), "mbar(a)")
+	mbar := display.TraceIn(in.Customary(), "mbar(a)")
 	down := calc.Series{Name: "pump-down"}
 	for i := range pumpdownIntervals + 1 {
 		// Equal steps in ln p from the start to the target.
@@ -222,7 +211,7 @@ func vacuumChart(name string, in *calc.Inputs, _ *calc.Outcome) (*calc.Chart, er
 		more.X, more.Y = append(more.X, pump.time(v.volume, v.start, p)), append(more.Y, p)
 	}
 	t := down.X[len(down.X)-1]
-	unit := calc.TimeUnitFor(more.X[len(more.X)-1])
+	unit := display.DurationUnit(more.X[len(more.X)-1])
 	word := map[string]string{"s": "seconds", "min": "minutes", "h": "hours"}[unit]
 	shown, err := units.FromSI(t, units.Time, unit, v.ambient)
 	if err != nil {

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"strings"
 
 	"specgen/internal/units"
@@ -67,7 +68,7 @@ func evaluateValve(in *calc.Inputs) (*calc.Outcome, error) {
 	area := math.Pi / 4 * d * d
 	crack := force / area
 	cust := in.Customary()
-	mm, rate, newton := traceIn(cust, "mm"), traceIn(cust, "N/mm"), traceIn(cust, "N")
+	mm, rate, newton := display.TraceIn(cust, "mm"), display.TraceIn(cust, "N/mm"), display.TraceIn(cust, "N")
 	// A block named twice is a slip (often a copied line meant for another
 	// part), and would be listed twice in the trace.
 	seen := map[string]bool{}
@@ -81,7 +82,7 @@ func evaluateValve(in *calc.Inputs) (*calc.Outcome, error) {
 	if crack > maxCrackingPressure {
 		return nil, &calc.InputError{Key: "spring_rate", Message: fmt.Sprintf(
 			"a spring of %s compressed %s on a %s seat opens at %s, beyond any valve of an air machine; allowed: up to %s; check spring_rate, preload and seat_diameter",
-			rate(k), mm(x), mm(d), traceIn(cust, "MPa")(crack), traceIn(cust, "MPa")(maxCrackingPressure))}
+			rate(k), mm(x), mm(d), display.TraceIn(cust, "MPa")(crack), display.TraceIn(cust, "MPa")(maxCrackingPressure))}
 	}
 	res := []calc.Result{
 		{Name: "spring_force", Value: force, Dim: units.Force, Trace: calc.Trace{Formula: "F = k · x", Substituted: "= " + rate(k) + " · " + mm(x)}},
@@ -98,7 +99,7 @@ func protectedText(in *calc.Inputs, crack float64) string {
 	if len(linked) == 0 {
 		return ""
 	}
-	bara := traceIn(in.Customary(), "bar(a)")
+	bara := display.TraceIn(in.Customary(), "bar(a)")
 	var parts []string
 	for _, l := range linked {
 		switch {
