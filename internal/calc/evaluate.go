@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -572,6 +573,13 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	}
 	if bad := nonFinite(out); bad != "" {
 		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
+	}
+	for _, c := range out.Cautions {
+		// A caution outside the rule table could be neither explained nor
+		// acknowledged.
+		if !slices.Contains(b.Kind.Raises, c.Rule) {
+			return nil, fmt.Errorf("block %s: kind %s raised caution %q, which it does not list in Raises", b.ID, b.Kind.Name, c.Rule)
+		}
 	}
 	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
