@@ -1,6 +1,9 @@
 package units
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
 // TestCustomaryCounterparts checks that every customary counterpart is a
 // customary unit of the table measuring what its metric unit measures.
@@ -34,6 +37,30 @@ func TestCustomaryForKeepsMarks(t *testing.T) {
 	for unit, want := range map[string]string{"bar(a)": "psi(a)", "bar(g)": "psi(g)", "bar": "psi", "cm3": "in3", "J": "J", "rpm": "rpm", "deg": "deg"} {
 		if got := CustomaryFor(unit); got != want {
 			t.Errorf("CustomaryFor(%q) = %q, want %q", unit, got, want)
+		}
+	}
+}
+
+// TestEveryUnitHasItsSystem keeps the three system lists complete: a row
+// added to the unit table without its system fails here, naming it.
+func TestEveryUnitHasItsSystem(t *testing.T) {
+	for _, d := range unitTable {
+		base := strings.TrimSuffix(strings.TrimSuffix(d.Symbol, "(g)"), "(a)")
+		n := 0
+		for _, list := range []map[string]bool{metricUnits, customaryUnits, neutralUnits} {
+			if list[base] {
+				n++
+			}
+		}
+		if n != 1 {
+			t.Errorf("unit %q is in %d of the system lists (metricUnits, customaryUnits, neutralUnits in customary.go); put it in one", d.Symbol, n)
+		}
+	}
+	for _, list := range []map[string]bool{metricUnits, customaryUnits, neutralUnits} {
+		for sym := range list {
+			if _, err := LookupUnit(sym); err != nil {
+				t.Errorf("system list names %q, which is not in the unit table", sym)
+			}
 		}
 	}
 }
