@@ -70,7 +70,7 @@ type Output struct {
 	Unit string // "" for the result's default
 }
 
-// Common keys every block takes besides its kind's inputs.
+// commonKeys are the keys every block takes besides its kind's inputs.
 var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
 
 // Limits on one block, far above any real block, so that a runaway or
