@@ -9,6 +9,7 @@ import (
 	"os/signal"
 	"time"
 
+	"specgen/internal/preview"
 	"specgen/internal/site"
 )
 
@@ -26,7 +27,7 @@ func runPreview(args []string, stdout, stderr io.Writer) int {
 	if err := site.CheckRoot(*dir); err != nil {
 		return report(stderr, err)
 	}
-	if err := site.CheckPreviewAddr(*addr, *public); err != nil {
+	if err := preview.CheckAddr(*addr, *public); err != nil {
 		return report(stderr, err)
 	}
 	if *public {
@@ -40,7 +41,7 @@ func runPreview(args []string, stdout, stderr io.Writer) int {
 // servePreview runs the preview until ctx ends; ready receives the address.
 func servePreview(ctx context.Context, dir, addr string, stdout, stderr io.Writer, ready chan<- string) int {
 	logger := log.New(stderr, "specgen preview: ", 0)
-	p := site.NewPreview(dir, logger)
+	p := preview.New(dir, logger)
 	go func() {
 		if err := p.Watch(ctx, previewDebounce); err != nil {
 			logger.Printf("not watching for changes: %v", err)
