@@ -18,6 +18,7 @@ import (
 	"specgen/internal/calc"
 	"specgen/internal/models"
 	"specgen/internal/render"
+	"specgen/internal/results"
 )
 
 // StaticDir is the optional folder of a site root copied into the output as is.
@@ -223,9 +224,9 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil
 }
 
-// render produces every output file in memory, keyed by output path, for
-// the preview.
-func (s *Site) render(progress func(stage string, done, total int)) (map[string][]byte, error) {
+// Render produces every output file in memory, keyed by output path (the
+// preview serves them from there).
+func (s *Site) Render() (map[string][]byte, error) {
 	files := map[string][]byte{}
 	var mu sync.Mutex
 	err := s.emit(func(name string, write func(io.Writer) error) error {
@@ -237,7 +238,7 @@ func (s *Site) render(progress func(stage string, done, total int)) (map[string]
 		files[name] = buf.Bytes()
 		mu.Unlock()
 		return nil
-	}, progress)
+	}, nil)
 	return files, err
 }
 
@@ -258,7 +259,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	if err != nil {
 		return err
 	}
-	if err := put("results.json", s.writeResults); err != nil {
+	if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
 		return err
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
@@ -364,9 +365,9 @@ type PageInfo struct {
 	Cautions template.HTML
 }
 
-// home is the output path of the home page: content/index.md, or the
+// Home is the output path of the home page: content/index.md, or the
 // first page in reading order when the site has none.
-func (s *Site) home() string {
+func (s *Site) Home() string {
 	if s.nav.Page != nil || len(s.reading) == 0 {
 		return "index.html"
 	}
@@ -389,7 +390,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.home()), Revision: s.revision},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),

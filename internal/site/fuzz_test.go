@@ -87,7 +87,7 @@ func FuzzPagePipeline(f *testing.F) {
 			checkPlaced(t, err, "content/index.md", strings.Count(page, "\n")+1)
 			return
 		}
-		files, err := s.render(nil)
+		files, err := s.Render()
 		if err != nil {
 			if !IsInputError(err) {
 				t.Fatalf("render: %T %v", err, err)

@@ -1,15 +1,19 @@
-package site
+package calcdiff
 
-import "testing"
+import (
+	"testing"
+
+	"specgen/internal/results"
+)
 
 // TestRelativeChangeOverflow checks that a change too large for float64
 // (only in hand-edited results files) is left out rather than shown as
 // ±Inf, which JSON cannot hold.
 func TestRelativeChangeOverflow(t *testing.T) {
-	if c := relativeChange(ResultJSON{Value: -1e-300}, ResultJSON{Value: 1e308}); c != nil {
+	if c := relativeChange(results.Result{Value: -1e-300}, results.Result{Value: 1e308}); c != nil {
 		t.Errorf("change %g, want none", *c)
 	}
-	if c := relativeChange(ResultJSON{Value: 2}, ResultJSON{Value: 3}); c == nil || *c != 0.5 {
+	if c := relativeChange(results.Result{Value: 2}, results.Result{Value: 3}); c == nil || *c != 0.5 {
 		t.Errorf("change %v, want 0.5", c)
 	}
 }
@@ -18,11 +22,11 @@ func TestRelativeChangeOverflow(t *testing.T) {
 // not as one caution going and another appearing; withdrawing the
 // acknowledgement of a DANGER fails the diff like a new DANGER.
 func TestCautionAcknowledgementDiff(t *testing.T) {
-	open := CautionJSON{Level: "DANGER", Rule: "hot-discharge", Message: "too hot"}
+	open := results.Caution{Level: "DANGER", Rule: "hot-discharge", Message: "too hot"}
 	accepted := open
 	accepted.Acknowledged = "bench test behind a shield"
-	block := func(c CautionJSON) ResultBlock {
-		return ResultBlock{ID: "c", Kind: "compressor", Cautions: []CautionJSON{c}}
+	block := func(c results.Caution) results.Block {
+		return results.Block{ID: "c", Kind: "compressor", Cautions: []results.Caution{c}}
 	}
 
 	var d Diff

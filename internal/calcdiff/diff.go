@@ -1,15 +1,12 @@
-package site
+package calcdiff
 
 import (
-	"bytes"
-	"encoding/json"
-	"fmt"
-	"io"
 	"maps"
 	"math"
 	"slices"
 	"sort"
-	"strings"
+
+	"specgen/internal/results"
 )
 
 // Diff is what changed in a site's calculations between two evaluations.
@@ -105,7 +102,7 @@ func (d *Diff) Empty() bool {
 }
 
 // Compare computes the changes from base to head.
-func Compare(base, head *ResultsFile) *Diff {
+func Compare(base, head *results.File) *Diff {
 	d := &Diff{Changed: []BlockDiff{}, Added: []BlockBrief{}, Removed: []BlockBrief{}, Renamed: []Rename{}}
 	old, cur := byID(base), byID(head)
 	var added, removed []string
@@ -175,15 +172,15 @@ func Compare(base, head *ResultsFile) *Diff {
 	return d
 }
 
-func byID(f *ResultsFile) map[string]ResultBlock {
-	m := map[string]ResultBlock{}
+func byID(f *results.File) map[string]results.Block {
+	m := map[string]results.Block{}
 	for _, b := range f.Blocks {
 		m[b.ID] = b
 	}
 	return m
 }
 
-func sameInputs(a, b ResultBlock) bool {
+func sameInputs(a, b results.Block) bool {
 	if len(a.Inputs) != len(b.Inputs) {
 		return false
 	}
@@ -195,7 +192,7 @@ func sameInputs(a, b ResultBlock) bool {
 	return true
 }
 
-func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
+func compareBlock(a, b results.Block, d *Diff) (BlockDiff, bool) {
 	bd := BlockDiff{BlockBrief: BlockBrief{ID: b.ID, Kind: b.Kind, Page: b.Page}}
 	for _, name := range unionKeys(a.Inputs, b.Inputs) {
 		x, inA := a.Inputs[name]
@@ -219,7 +216,7 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 		}
 		bd.Results = append(bd.Results, vc)
 	}
-	oldClaims := map[string]ExpectJSON{}
+	oldClaims := map[string]results.Claim{}
 	for _, c := range a.Expect {
 		oldClaims[c.Name] = c
 	}
@@ -247,8 +244,8 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "removed", After: c.Message})
 		}
 	}
-	key := func(c CautionJSON) string { return c.Level + "\x00" + c.Rule }
-	had, has := map[string]CautionJSON{}, map[string]bool{}
+	key := func(c results.Caution) string { return c.Level + "\x00" + c.Rule }
+	had, has := map[string]results.Caution{}, map[string]bool{}
 	for _, c := range a.Cautions {
 		had[key(c)] = c
 	}
@@ -282,7 +279,7 @@ func compareBlock(a, b ResultBlock, d *Diff) (BlockDiff, bool) {
 // relativeChange is (after − before)/|before| of the SI values (for a
 // pressure, the absolute ones; the Markdown says so). It is nil when
 // before is zero, or when the change overflows (hand-edited files).
-func relativeChange(x, y ResultJSON) *float64 {
+func relativeChange(x, y results.Result) *float64 {
 	if x.Value == 0 {
 		return nil
 	}
@@ -317,150 +314,4 @@ func unionKeys[V any](a, b map[string]V) []string {
 	keys := slices.Collect(maps.Keys(set))
 	sort.Strings(keys)
 	return keys
-}
-
-// WriteMarkdown writes the diff as GitHub-flavoured Markdown, ready to
-// paste as a pull-request comment.
-func (d *Diff) WriteMarkdown(w io.Writer) {
-	fmt.Fprintf(w, "### Calculation changes: `%s` → `%s`\n\n", mdCode(d.Base), mdCode(d.Head))
-	for _, n := range d.Notes {
-		fmt.Fprintf(w, "> %s\n\n", n)
-	}
-	if d.Empty() {
-		fmt.Fprintln(w, "No calculation changed.")
-		return
-	}
-	var parts []string
-	if n := len(d.Changed); n > 0 {
-		parts = append(parts, plural(n, "block")+" changed")
-	}
-	if n := len(d.Added); n > 0 {
-		parts = append(parts, fmt.Sprintf("%d added", n))
-	}
-	if n := len(d.Removed); n > 0 {
-		parts = append(parts, fmt.Sprintf("%d removed", n))
-	}
-	if n := len(d.Renamed); n > 0 {
-		parts = append(parts, fmt.Sprintf("%d renamed", n))
-	}
-	summary := strings.Join(parts, ", ")
-	if d.NewlyFailing > 0 {
-		summary += fmt.Sprintf("; **%s newly failing**", plural(d.NewlyFailing, "claim"))
-	}
-	if d.NewDangers > 0 {
-		summary += fmt.Sprintf("; **%s newly raised**", plural(d.NewDangers, "DANGER caution"))
-	}
-	fmt.Fprintf(w, "%s.\n", upperFirst(summary))
-	for _, r := range d.Renamed {
-		fmt.Fprintf(w, "\n- Renamed `%s` → `%s` (%s)", r.From, r.To, mdCell(r.Page))
-	}
-	for _, b := range d.Added {
-		fmt.Fprintf(w, "\n- Added `%s` (%s, %s)", b.ID, b.Kind, mdCell(b.Page))
-	}
-	for _, b := range d.Removed {
-		fmt.Fprintf(w, "\n- Removed `%s` (%s, %s)", b.ID, b.Kind, mdCell(b.Page))
-	}
-	if len(d.Renamed)+len(d.Added)+len(d.Removed) > 0 {
-		fmt.Fprintln(w)
-	}
-	for _, b := range d.Changed {
-		fmt.Fprintf(w, "\n#### `%s` (%s, %s)\n", b.ID, b.Kind, mdCell(b.Page))
-		if len(b.Inputs) > 0 {
-			fmt.Fprintln(w, "\n| input | before | after |\n|---|---|---|")
-			for _, c := range b.Inputs {
-				fmt.Fprintf(w, "| %s | %s | %s |\n", mdCell(c.Name), mdCell(c.Before), mdCell(c.After))
-			}
-		}
-		if len(b.Results) > 0 {
-			fmt.Fprintln(w, "\n| result | before | after | change |\n|---|---|---|---:|")
-			marks := map[string]bool{}
-			for _, c := range b.Results {
-				change := ""
-				if c.Change != nil {
-					change = fmt.Sprintf("%+.3g %%", *c.Change*100)
-					if c.Absolute {
-						change += " (" + absoluteScale(c.Unit) + ")"
-						marks[absoluteScale(c.Unit)] = true
-					}
-				}
-				fmt.Fprintf(w, "| %s | %s | %s | %s |\n", mdCell(c.Name), mdCell(c.Before), mdCell(c.After), change)
-			}
-			var notes []string
-			if marks["absolute"] {
-				notes = append(notes, "(absolute) is the change of the absolute pressure, not of the gauge reading")
-			}
-			if marks["kelvin"] {
-				notes = append(notes, "(kelvin) is the change of the temperature in kelvin, not in °C or °F")
-			}
-			if len(notes) > 0 {
-				fmt.Fprintf(w, "\n%s.\n", upperFirst(strings.Join(notes, "; ")))
-			}
-		}
-		if len(b.Claims) > 0 {
-			fmt.Fprintln(w)
-			for _, c := range b.Claims {
-				mark := c.Status
-				if c.Status == "newly fails" {
-					mark = "**NEWLY FAILS**"
-				}
-				fmt.Fprintf(w, "- Claim %s: %s\n", mark, mdCell(c.After))
-			}
-		}
-		if len(b.Cautions) > 0 {
-			fmt.Fprintln(w)
-			for _, c := range b.Cautions {
-				level := c.Level
-				if c.Level == "DANGER" && (c.Status == "appeared" || c.Status == "no longer acknowledged") {
-					level = "**DANGER**"
-				}
-				fmt.Fprintf(w, "- Caution %s %s (`%s`): %s\n", c.Status, level, c.Rule, mdCell(c.Message))
-			}
-		}
-	}
-}
-
-// WriteJSON writes the diff as indented JSON.
-func (d *Diff) WriteJSON(w io.Writer) error {
-	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetIndent("", "  ")
-	enc.SetEscapeHTML(false) // claims hold "<=": keep them readable
-	err := enc.Encode(struct {
-		Base string `json:"base"`
-		Head string `json:"head"`
-		*Diff
-		Failed bool `json:"failed"`
-	}{d.Base, d.Head, d, d.Failed()})
-	if err != nil {
-		return err
-	}
-	_, err = w.Write(buf.Bytes())
-	return err
-}
-
-func plural(n int, noun string) string {
-	if n == 1 {
-		return "1 " + noun
-	}
-	return fmt.Sprintf("%d %ss", n, noun)
-}
-
-func upperFirst(s string) string {
-	if s == "" {
-		return s
-	}
-	return strings.ToUpper(s[:1]) + s[1:]
-}
-
-// mdCell keeps a value from breaking a Markdown table.
-func mdCell(s string) string {
-	return strings.NewReplacer("|", `\|`, "\n", " ", "\r", "").Replace(s)
-}
-
-func mdCode(s string) string { return strings.ReplaceAll(s, "`", "'") }
-
-func jsonUnmarshalStrict(b []byte, v any) error {
-	dec := json.NewDecoder(bytes.NewReader(b))
-	dec.DisallowUnknownFields()
-	return dec.Decode(v)
 }
