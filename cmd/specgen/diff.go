@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"specgen/internal/calcdiff"
+	"specgen/internal/inputerr"
 	"specgen/internal/results"
 	"specgen/internal/site"
 )
@@ -85,7 +86,7 @@ func resultsFor(dir, arg string) (*results.File, error) {
 			return results.Read(arg)
 		}
 		if !calcdiff.IsRevision(dir, arg) {
-			return nil, &site.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
+			return nil, &inputerr.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
 		}
 	}
 	return calcdiff.ResultsAt(dir, arg)

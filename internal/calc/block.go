@@ -13,6 +13,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -94,22 +95,22 @@ var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]
 func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
-		return nil, Errors{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
+		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
 	}
 	var raw map[string]any
 	if _, err := toml.Decode(src, &raw); err != nil {
 		return nil, b.tomlError(err)
 	}
 	b.lines = KeyLines(src)
-	var errs Errors
+	var errs inputerr.List
 	fail := func(key, format string, args ...any) {
-		errs = append(errs, &Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
+		errs = append(errs, &inputerr.Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
 	}
 
 	id, ok := raw["id"].(string)
 	switch {
 	case raw["id"] == nil:
-		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
+		errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
 	case !ok:
 		fail("id", "%s is not a string; write id = \"name\"", TOMLText(raw["id"]))
 	case !idPattern.MatchString(id):
@@ -120,7 +121,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 	kindName, ok := raw["kind"].(string)
 	switch {
 	case raw["kind"] == nil:
-		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(c.KindNames(), ", ") + ")"})
+		errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(c.KindNames(), ", ") + ")"})
 	case !ok:
 		fail("kind", "%s is not a string; one of %s", TOMLText(raw["kind"]), strings.Join(c.KindNames(), ", "))
 	default:
@@ -190,11 +191,11 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 	for _, in := range b.Kind.Inputs {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {
-			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
+			errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Key: in.Name,
 				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, b.takes(in))})
 		}
 	}
-	if err := errs.capped(MaxBlockErrors).Sorted(); err != nil {
+	if err := errs.Capped(MaxBlockErrors, "in this block").Sorted(); err != nil {
 		return nil, err
 	}
 	return b, nil
@@ -212,10 +213,10 @@ func lineCount(src string) int {
 
 // decodeValue reads one input: a quantity string, a plain number (only for
 // dimensionless inputs) or a "=id.result" reference.
-func (b *Block) decodeValue(key string, v any) (Value, *Error) {
+func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 	line := b.lineOf(key)
-	bad := func(format string, args ...any) (Value, *Error) {
-		return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
 	dim := units.Pressure
 	spec, isInput := b.Kind.Input(key)
@@ -257,11 +258,11 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 
 // decodeName reads a Name input: a string, a number written bare (a
 // property class such as 8.8) or a boolean ("true", "false").
-func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
+func (b *Block) decodeName(key string, line int, v any) (Value, *inputerr.Error) {
 	switch t := v.(type) {
 	case string:
 		if strings.TrimSpace(t) == "" {
-			return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: "must not be empty"}
+			return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: "must not be empty"}
 		}
 		return Value{Text: strings.TrimSpace(t), Line: line}, nil
 	case int64:
@@ -271,13 +272,13 @@ func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
 	case bool:
 		return Value{Text: strconv.FormatBool(t), Line: line}, nil
 	}
-	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", TOMLText(v))}
+	return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", TOMLText(v))}
 }
 
 // decodeLinks reads a Link (one block id) or LinkList (an array of ids).
-func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
-	bad := func(format string, args ...any) (Value, *Error) {
-		return Value{}, &Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
+func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *inputerr.Error) {
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
 	}
 	var ids []string
 	switch t := v.(type) {
@@ -309,13 +310,13 @@ func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
 }
 
 // decodeAcknowledge reads [acknowledge]: caution rule ids with reasons.
-func (b *Block) decodeAcknowledge(v any) Errors {
+func (b *Block) decodeAcknowledge(v any) inputerr.List {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return Errors{{File: b.File, Line: b.lineOf("acknowledge"), Key: "acknowledge",
+		return inputerr.List{{File: b.File, Line: b.lineOf("acknowledge"), Key: "acknowledge",
 			Msg: "must be a table: [acknowledge] with lines such as stored-energy = \"why this is accepted\""}}
 	}
-	var errs Errors
+	var errs inputerr.List
 	b.Acknowledge = map[string]string{}
 	ids := b.catalog.RuleIDs()
 	for _, rule := range slices.Sorted(maps.Keys(table)) {
@@ -327,9 +328,9 @@ func (b *Block) decodeAcknowledge(v any) Errors {
 			if s := Suggest(rule, ids); s != "" {
 				msg = fmt.Sprintf("unknown caution rule %q; did you mean %q?", rule, s)
 			}
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key, Msg: msg})
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf(key), Key: key, Msg: msg})
 		case !isString || strings.TrimSpace(reason) == "":
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key,
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf(key), Key: key,
 				Msg: "give the reason as a string; an acknowledgement without a reason is not accepted"})
 		default:
 			b.Acknowledge[rule] = strings.TrimSpace(reason)
@@ -369,9 +370,9 @@ func (b *Block) tomlError(err error) error {
 		if pe.LastKey != "" && !strings.Contains(pe.Message, pe.LastKey) {
 			msg = pe.LastKey + ": " + msg
 		}
-		return Errors{{File: b.File, Line: b.Line + line, Msg: msg}}
+		return inputerr.List{{File: b.File, Line: b.Line + line, Msg: msg}}
 	}
-	return Errors{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
+	return inputerr.List{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
 }
 
 // TOMLText shows a decoded TOML value as the user would have written it.

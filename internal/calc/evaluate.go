@@ -12,6 +12,7 @@ import (
 	"sync"
 
 	"specgen/internal/display"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -142,11 +143,11 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		opts.SigFigs = 3
 	}
 	set := &Set{byID: map[string]*Evaluated{}, opts: opts}
-	var errs Errors
+	var errs inputerr.List
 	byID := map[string]*Block{}
 	for _, b := range blocks {
 		if other, dup := byID[b.ID]; dup {
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf("id"), Key: "id",
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf("id"), Key: "id",
 				Msg: fmt.Sprintf("%q is already used by the block at %s:%d; ids are unique in the site", b.ID, other.File, other.lineOf("id"))})
 			continue
 		}
@@ -205,11 +206,11 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		for _, i := range run {
 			b, o := level[i], outs[i]
 			if o.err != nil {
-				var list Errors
+				var list inputerr.List
 				if errors.As(o.err, &list) {
 					errs = append(errs, list...)
 				} else {
-					errs = append(errs, &Error{File: b.File, Line: b.Line, Msg: o.err.Error()})
+					errs = append(errs, &inputerr.Error{File: b.File, Line: b.Line, Msg: o.err.Error()})
 				}
 				failed[b.ID] = true
 				continue
@@ -252,11 +253,11 @@ func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string
 
 // checkRefs checks that every "=id.result" of b names a block and one of
 // its results, of the input's dimension.
-func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
-	var errs Errors
+func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inputerr.List {
+	var errs inputerr.List
 	for _, key := range sortedValueKeys(b) {
 		v := b.Values[key]
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		if len(v.Links) > 0 {
 			in, _ := b.Kind.Input(key)
 			for _, id := range v.Links {
@@ -397,7 +398,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 			cycle := append(append([]string{}, stack[start:]...), id)
 			b := byID[stack[len(stack)-1]]
 			key, line := refKeyTo(b, id)
-			return Errors{{File: b.File, Line: line, Key: key,
+			return inputerr.List{{File: b.File, Line: line, Key: key,
 				Msg: "references go round in a circle: " + strings.Join(cycle, " → ") + "; break the circle by giving one value directly"}}
 		}
 		state[id] = active
@@ -437,9 +438,9 @@ func refKeyTo(b *Block, id string) (string, int) {
 // model and checks its claims.
 func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
-	var errs Errors
+	var errs inputerr.List
 	fail := func(key string, line int, msg string) {
-		errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg})
+		errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg})
 	}
 	if b.Ambient.Text != "" {
 		q, err := units.Parse(b.Ambient.Text, units.Pressure)
@@ -567,12 +568,12 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			if v, ok := b.Values[ie.Key]; ok {
 				line = v.Line
 			}
-			return nil, Errors{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
+			return nil, inputerr.List{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
 		}
-		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
+		return nil, inputerr.List{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
 	}
 	if bad := nonFinite(out); bad != "" {
-		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
+		return nil, inputerr.List{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
 	}
 	for _, c := range out.Cautions {
 		// A caution outside the rule table could be neither explained nor
@@ -586,7 +587,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {
-			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
+			return nil, inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
 		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
 	}
@@ -599,9 +600,9 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 // checkShownComputed checks that every result [show] outputs names was
 // computed: a kind declares some results only for some inputs (a tank's
 // hoop_stress needs its wall), and the table would silently leave it out.
-func checkShownComputed(e *Evaluated) Errors {
+func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
-	var errs Errors
+	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
 		if _, found := e.Result(o.Name); found {
 			continue
@@ -614,7 +615,7 @@ func checkShownComputed(e *Evaluated) Errors {
 		for i, r := range e.Results {
 			names[i] = r.Name
 		}
-		errs = append(errs, &Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+		errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
 			Msg: fmt.Sprintf("%q: block %s computes no %s with its inputs%s; it computes %s",
 				written, b.ID, o.Name, meaningAside(b.Kind.resultMeaning(o.Name)), strings.Join(names, ", "))})
 	}

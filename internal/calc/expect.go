@@ -11,6 +11,7 @@ import (
 	"unicode"
 
 	"specgen/internal/display"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -414,10 +415,10 @@ func (c Claim) figuresToShow(v float64, sig int, ok bool) int {
 }
 
 // decodeExpect reads the [expect] table.
-func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
+func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return nil, Errors{{File: b.File, Line: b.lineOf("expect"), Key: "expect", Msg: "must be a table: [expect] with lines such as displacement = \"22.5 cm3 ± 2%\""}}
+		return nil, inputerr.List{{File: b.File, Line: b.lineOf("expect"), Key: "expect", Msg: "must be a table: [expect] with lines such as displacement = \"22.5 cm3 ± 2%\""}}
 	}
 	names := make([]string, 0, len(table))
 	for k := range table {
@@ -425,11 +426,11 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 	}
 	sort.Strings(names)
 	var claims []Claim
-	var errs Errors
+	var errs inputerr.List
 	for _, name := range names {
 		key := "expect." + name
 		line := b.lineOf(key)
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
 		if _, isInput := b.Kind.Input(name); !found && isInput {
 			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
@@ -460,12 +461,12 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 }
 
 // decodeShow reads the [show] table.
-func (b *Block) decodeShow(v any) Errors {
+func (b *Block) decodeShow(v any) inputerr.List {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return Errors{{File: b.File, Line: b.lineOf("show"), Key: "show", Msg: "must be a table: [show] with outputs = [...] and charts = [...]"}}
+		return inputerr.List{{File: b.File, Line: b.lineOf("show"), Key: "show", Msg: "must be a table: [show] with outputs = [...] and charts = [...]"}}
 	}
-	var errs Errors
+	var errs inputerr.List
 	keys := make([]string, 0, len(table))
 	for k := range table {
 		keys = append(keys, k)
@@ -474,7 +475,7 @@ func (b *Block) decodeShow(v any) Errors {
 	for _, k := range keys {
 		key := "show." + k
 		line := b.lineOf(key)
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		list, isList := table[k].([]any)
 		if k != "outputs" && k != "charts" {
 			fail("unknown key; [show] takes outputs and charts")

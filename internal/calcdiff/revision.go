@@ -11,6 +11,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/results"
 	"specgen/internal/site"
 )
@@ -27,15 +28,15 @@ func ResultsAt(root, rev string) (*results.File, error) {
 		return nil, err
 	}
 	if _, err := exec.LookPath("git"); err != nil {
-		return nil, &site.Error{Msg: "git is not installed (or not on PATH), so revisions cannot be compared; install git, or give two results.json files instead"}
+		return nil, &inputerr.Error{Msg: "git is not installed (or not on PATH), so revisions cannot be compared; install git, or give two results.json files instead"}
 	}
 	top, err := git(abs, "rev-parse", "--show-toplevel")
 	if err != nil {
-		return nil, &site.Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
 	}
 	top = strings.TrimSpace(top)
 	if _, err := git(abs, "rev-parse", "--verify", "--quiet", rev+"^{commit}"); err != nil {
-		return nil, &site.Error{Msg: fmt.Sprintf("%q is not a revision of this repository (a commit, branch or tag, e.g. HEAD~1 or main)", rev)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("%q is not a revision of this repository (a commit, branch or tag, e.g. HEAD~1 or main)", rev)}
 	}
 	rel, err := filepath.Rel(realPath(top), realPath(abs))
 	if err != nil {
@@ -70,9 +71,9 @@ func ResultsAt(root, rev string) (*results.File, error) {
 	}
 	s, err := site.Load(filepath.Join(tmp, rel))
 	if err != nil {
-		var list site.ErrorList
-		if errors.As(err, &list) || site.IsInputError(err) {
-			return nil, &site.Error{Msg: fmt.Sprintf("the site at %s does not build:\n%v", rev, err)}
+		var list inputerr.List
+		if errors.As(err, &list) || inputerr.Is(err) {
+			return nil, &inputerr.Error{Msg: fmt.Sprintf("the site at %s does not build:\n%v", rev, err)}
 		}
 		return nil, err
 	}

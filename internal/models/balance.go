@@ -2,9 +2,9 @@ package models
 
 import (
 	"fmt"
+
 	"specgen/internal/calc"
 	"specgen/internal/display"
-
 	"specgen/internal/units"
 )
 

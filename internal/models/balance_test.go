@@ -3,9 +3,10 @@ package models
 import (
 	"fmt"
 	"math"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 // pistonHarmonic returns the amplitude of harmonic k of the inertia force

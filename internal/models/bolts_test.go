@@ -5,13 +5,14 @@ import (
 	"errors"
 	"math"
 	"path/filepath"
-	"specgen/internal/calc"
 	"strconv"
 	"strings"
 	"testing"
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -310,7 +311,7 @@ func TestBoltsInputErrors(t *testing.T) {
 			}
 		}
 		_, err := evaluateBoltsBlock(t, inputs, env)
-		var list calc.Errors
+		var list inputerr.List
 		if !errors.As(err, &list) || len(list) != 1 || list[0].Key != c.key || !strings.Contains(list[0].Msg, c.want) {
 			t.Errorf("%v: got %v; want one error on %s with %q", c.change, err, c.key, c.want)
 		}

@@ -3,9 +3,9 @@ package models
 import (
 	"fmt"
 	"slices"
-	"specgen/internal/calc"
 	"strings"
 
+	"specgen/internal/calc"
 	"specgen/internal/units"
 )
 

@@ -3,11 +3,12 @@ package models
 import (
 	"os"
 	"path/filepath"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
 
 	"github.com/BurntSushi/toml"
+
+	"specgen/internal/calc"
 )
 
 // cautionCase is one file of testdata/cautions: blocks evaluated together

@@ -7,14 +7,14 @@ import (
 	"math/rand/v2"
 	"path/filepath"
 	"regexp"
-	"specgen/internal/calc"
-	"specgen/internal/display"
 	"strconv"
 	"strings"
 	"testing"
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 

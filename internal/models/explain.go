@@ -3,10 +3,10 @@ package models
 import (
 	"fmt"
 	"io"
-	"specgen/internal/calc"
 	"strings"
 	"text/tabwriter"
 
+	"specgen/internal/calc"
 	"specgen/internal/units"
 )
 

@@ -4,11 +4,11 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"specgen/internal/calc"
-	"specgen/internal/display"
 	"strconv"
 	"strings"
 
+	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 

@@ -4,9 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 )
 
 // flywheelReference computes the bases of the flywheel cases: the source
@@ -334,7 +336,7 @@ func TestFlywheelSevenSources(t *testing.T) {
 	site[1]["source"] = ids
 	blocks = append(blocks, site[1])
 	_, err := evaluateBlocks(t, blocks)
-	var list calc.Errors
+	var list inputerr.List
 	if !errors.As(err, &list) || len(list) != 1 || list[0].Key != "source" {
 		t.Fatalf("seven sources: got %v, want one error on source", err)
 	}

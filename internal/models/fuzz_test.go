@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 )
 
 // stageTOML is a valid compressor block: bore 28 mm, stroke 32 mm.
@@ -64,7 +65,7 @@ func FuzzParseBlock(f *testing.F) {
 		fenceLine := int(fence)
 		last := fenceLine + strings.Count(src, "\n") + 1 // the closing fence
 		checkLines := func(what string, err error) {
-			var list calc.Errors
+			var list inputerr.List
 			if !errors.As(err, &list) {
 				t.Fatalf("%s: error %T %q is not an Errors list", what, err, err)
 			}

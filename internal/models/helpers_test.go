@@ -2,9 +2,11 @@ package models
 
 import (
 	"errors"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 )
 
 // wantInputError evaluates the blocks site(changes) builds and checks that
@@ -13,7 +15,7 @@ import (
 func wantInputError(t *testing.T, changes map[string]any, key string, says []string, site func(map[string]any) []map[string]any) {
 	t.Helper()
 	_, err := evaluateBlocks(t, site(changes))
-	var list calc.Errors
+	var list inputerr.List
 	if !errors.As(err, &list) || len(list) != 1 {
 		t.Errorf("%v: got %v, want one error", changes, err)
 		return

@@ -2,9 +2,10 @@ package models
 
 import (
 	"fmt"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 // TestBlockLimits checks that an oversized block fails at once with one

@@ -7,12 +7,13 @@ import (
 	"regexp"
 	"slices"
 	"sort"
-	"specgen/internal/calc"
-	"specgen/internal/display"
 	"strings"
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/calc"
+	"specgen/internal/display"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -117,14 +118,14 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 		names = append(names, n)
 	}
 	sort.Strings(names)
-	var errs calc.Errors
+	var errs inputerr.List
 	for _, name := range names {
 		mat, isBase := out.byName[name]
 		if !isBase {
 			mat = Material{Name: name}
 		}
 		fail := func(key, msg string) {
-			errs = append(errs, &calc.Error{File: file, Line: lines["materials."+name+"."+key] + lines[name+"."+key], Key: "materials." + name + "." + key, Msg: msg})
+			errs = append(errs, &inputerr.Error{File: file, Line: lines["materials."+name+"."+key] + lines[name+"."+key], Key: "materials." + name + "." + key, Msg: msg})
 		}
 		row := rows[name]
 		keys := make([]string, 0, len(row))
@@ -145,7 +146,7 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 				}
 			}
 			if len(missing) > 0 {
-				errs = append(errs, &calc.Error{File: file, Line: lines["materials."+name] + lines[name], Key: "materials." + name,
+				errs = append(errs, &inputerr.Error{File: file, Line: lines["materials."+name] + lines[name], Key: "materials." + name,
 					Msg: "a new material needs " + strings.Join(missing, ", ") + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
 			}
 		}
@@ -173,7 +174,7 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 // also a material's name gives way to that material, so a site can define
 // "nylon" itself; one alias on two materials is an error at the row that
 // set it last (one of changed, the rows just read).
-func aliasIndex(byName map[string]Material, changed []string, lines map[string]int, file string, errs calc.Errors) (map[string]string, calc.Errors) {
+func aliasIndex(byName map[string]Material, changed []string, lines map[string]int, file string, errs inputerr.List) (map[string]string, inputerr.List) {
 	owner := map[string]string{}
 	isChanged := map[string]bool{}
 	for _, n := range changed {
@@ -190,7 +191,7 @@ func aliasIndex(byName map[string]Material, changed []string, lines map[string]i
 				if !isChanged[at] {
 					at = prev
 				}
-				errs = append(errs, &calc.Error{File: file, Line: lines["materials."+at+".aliases"] + lines[at+".aliases"], Key: "materials." + at + ".aliases",
+				errs = append(errs, &inputerr.Error{File: file, Line: lines["materials."+at+".aliases"] + lines[at+".aliases"], Key: "materials." + at + ".aliases",
 					Msg: fmt.Sprintf("alias %q already names %q; an alias names one material", alias, otherOf(prev, name, at))})
 				continue
 			}

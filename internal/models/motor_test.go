@@ -2,8 +2,9 @@ package models
 
 import (
 	"math"
-	"specgen/internal/calc"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 // pvArea is the area enclosed by one motor cylinder's ideal indicator

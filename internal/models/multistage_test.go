@@ -2,9 +2,10 @@ package models
 
 import (
 	"math"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 // testAirR is the specific gas constant of dry air, J/(kg K), as the

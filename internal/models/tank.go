@@ -4,11 +4,11 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"specgen/internal/calc"
-	"specgen/internal/display"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
+	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 

@@ -6,13 +6,13 @@ import (
 	"math"
 	"path/filepath"
 	"regexp"
-	"specgen/internal/calc"
 	"strconv"
 	"strings"
 	"testing"
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/calc"
 	"specgen/internal/units"
 )
 

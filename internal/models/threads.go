@@ -5,9 +5,10 @@ import (
 	"math"
 	"regexp"
 	"sort"
-	"specgen/internal/calc"
 	"strconv"
 	"strings"
+
+	"specgen/internal/calc"
 )
 
 // Thread is an ISO general-purpose metric screw thread (ISO 68-1 basic

@@ -3,9 +3,9 @@ package models
 import (
 	"fmt"
 	"math"
+
 	"specgen/internal/calc"
 	"specgen/internal/display"
-
 	"specgen/internal/units"
 )
 

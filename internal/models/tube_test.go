@@ -6,12 +6,12 @@ import (
 	"math"
 	"path/filepath"
 	"slices"
-	"specgen/internal/calc"
 	"strings"
 	"testing"
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/calc"
 	"specgen/internal/units"
 )
 

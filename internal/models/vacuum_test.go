@@ -3,8 +3,9 @@ package models
 import (
 	"fmt"
 	"math"
-	"specgen/internal/calc"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 // midpointPumpdown integrates dt = −V·dp/(p·S(p)) from p0 down to p by the

@@ -3,10 +3,10 @@ package models
 import (
 	"fmt"
 	"math"
-	"specgen/internal/calc"
-	"specgen/internal/display"
 	"strings"
 
+	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 

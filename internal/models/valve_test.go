@@ -1,9 +1,10 @@
 package models
 
 import (
-	"specgen/internal/calc"
 	"strings"
 	"testing"
+
+	"specgen/internal/calc"
 )
 
 func TestValveReference(t *testing.T) {

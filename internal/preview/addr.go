@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"net"
 
-	"specgen/internal/site"
+	"specgen/internal/inputerr"
 )
 
 // CheckAddr refuses an address that is not on the loopback
@@ -12,7 +12,7 @@ import (
 func CheckAddr(addr string, public bool) error {
 	host, _, err := net.SplitHostPort(addr)
 	if err != nil {
-		return &site.Error{Msg: fmt.Sprintf("-addr %q: %v; write host:port, such as 127.0.0.1:8080", addr, err)}
+		return &inputerr.Error{Msg: fmt.Sprintf("-addr %q: %v; write host:port, such as 127.0.0.1:8080", addr, err)}
 	}
 	if host == "localhost" {
 		return nil
@@ -22,7 +22,7 @@ func CheckAddr(addr string, public bool) error {
 		return nil
 	}
 	if !public {
-		return &site.Error{Msg: fmt.Sprintf("-addr %q is not a loopback address; the preview would be reachable from other machines. Add -public to allow it", addr)}
+		return &inputerr.Error{Msg: fmt.Sprintf("-addr %q is not a loopback address; the preview would be reachable from other machines. Add -public to allow it", addr)}
 	}
 	return nil
 }

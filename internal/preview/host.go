@@ -8,7 +8,7 @@ import (
 	"strings"
 	"sync"
 
-	"specgen/internal/site"
+	"specgen/internal/inputerr"
 )
 
 // hosts decides which Host (and Origin) a request may name. A page on
@@ -166,7 +166,7 @@ func NetworkURLs(listen string) (urls []string, reachable bool) {
 // IP address.
 func CheckHostName(name string) error {
 	bad := func(why string) error {
-		return &site.Error{Msg: fmt.Sprintf("-allow-host %q: %s; give a host name or address, such as docs.example or 192.168.1.20", name, why)}
+		return &inputerr.Error{Msg: fmt.Sprintf("-allow-host %q: %s; give a host name or address, such as docs.example or 192.168.1.20", name, why)}
 	}
 	switch {
 	case strings.TrimSpace(name) == "":

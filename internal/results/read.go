@@ -10,31 +10,31 @@ import (
 	"reflect"
 	"strings"
 
-	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 )
 
 // Read reads a results.json file. A file that is not one, or of another
-// version, is an input error (*calc.Error) that says what is wrong.
+// version, is an input error (*inputerr.Error) that says what is wrong.
 func Read(path string) (*File, error) {
 	b, err := os.ReadFile(path)
 	if err != nil {
-		return nil, &calc.Error{Msg: fmt.Sprintf("%s: %v", path, err)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("%s: %v", path, err)}
 	}
 	var f File
 	dec := json.NewDecoder(bytes.NewReader(b))
 	dec.DisallowUnknownFields()
 	if err := dec.Decode(&f); err != nil {
-		return nil, &calc.Error{File: path, Msg: "not a specgen results.json: " + jsonProblem(err)}
+		return nil, &inputerr.Error{File: path, Msg: "not a specgen results.json: " + jsonProblem(err)}
 	}
 	if f.Version == 0 {
-		return nil, &calc.Error{File: path, Msg: "not a specgen results.json: it has no version; specgen build writes one as dist/results.json"}
+		return nil, &inputerr.Error{File: path, Msg: "not a specgen results.json: it has no version; specgen build writes one as dist/results.json"}
 	}
 	if f.Version != Version {
-		return nil, &calc.Error{File: path, Msg: fmt.Sprintf("results.json version %d; this specgen reads version %d", f.Version, Version)}
+		return nil, &inputerr.Error{File: path, Msg: fmt.Sprintf("results.json version %d; this specgen reads version %d", f.Version, Version)}
 	}
 	for i, blk := range f.Blocks {
 		if blk.ID == "" {
-			return nil, &calc.Error{File: path, Msg: fmt.Sprintf("not a specgen results.json: block %d of its list has no id", i+1)}
+			return nil, &inputerr.Error{File: path, Msg: fmt.Sprintf("not a specgen results.json: block %d of its list has no id", i+1)}
 		}
 	}
 	return &f, nil

@@ -16,6 +16,7 @@ import (
 	"sync/atomic"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/models"
 	"specgen/internal/render"
 	"specgen/internal/results"
@@ -108,10 +109,10 @@ func Load(root string) (*Site, error) {
 	if err := checkOutputClashes(s.Pages); err != nil {
 		return nil, err
 	}
-	var tplErrs ErrorList
+	var tplErrs inputerr.List
 	for _, p := range s.Pages {
 		if _, err := s.layouts.lookup(p.Front.Template); err != nil {
-			tplErrs = append(tplErrs, &Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+			tplErrs = append(tplErrs, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
 		}
 	}
 	if err := tplErrs.Sorted(); err != nil {
@@ -276,7 +277,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	for _, name := range slices.Sorted(maps.Keys(static)) {
 		if other, ok := names.take(name, StaticDir+"/"+name); !ok {
-			return &Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
+			return &inputerr.Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
 		}
 		if err := put(name, bytesOf(static[name])); err != nil {
 			return err
@@ -284,10 +285,10 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	// Pages take their names in order before rendering in parallel, so
 	// that which of two clashing files is blamed never depends on timing.
-	var clashes ErrorList
+	var clashes inputerr.List
 	for _, p := range s.Pages {
 		if other, ok := names.take(p.Out, p.File); !ok {
-			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
+			clashes = append(clashes, &inputerr.Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
 		}
 	}
 	if err := clashes.Sorted(); err != nil {
@@ -298,7 +299,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 			return nil
 		}
 		if other, ok := names.take(name, p.File); !ok {
-			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
+			return &inputerr.Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
 		}
 		return nil
 	}
@@ -386,7 +387,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	body, err := s.md.Render(doc)
 	if err != nil {
-		return nil, &Error{File: p.File, Msg: "rendering: " + err.Error()}
+		return nil, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
@@ -420,7 +421,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	tpl, err := s.layouts.lookup(p.Front.Template)
 	if err != nil {
-		return nil, &Error{File: p.File, Msg: err.Error()}
+		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
 	}
 	var buf bytes.Buffer
 	if err := tpl.Execute(&buf, data); err != nil {
@@ -444,13 +445,13 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 // collect joins the input errors of a parallel step, sorted by place; a
 // failure of the machine wins over input errors.
 func collect(errs []error) error {
-	var list ErrorList
+	var list inputerr.List
 	for _, err := range errs {
 		switch e := err.(type) {
 		case nil:
-		case *Error:
+		case *inputerr.Error:
 			list = append(list, e)
-		case ErrorList:
+		case inputerr.List:
 			list = append(list, e...)
 		default:
 			return err

@@ -17,6 +17,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/models"
 )
 
@@ -69,8 +70,8 @@ func DefaultConfig() Config {
 
 // makeEnv builds the calculation environment: built-in materials with the
 // site's additions, and the minimum safety factors.
-func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, ErrorList) {
-	var errs ErrorList
+func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, inputerr.List) {
+	var errs inputerr.List
 	env := models.DefaultEnv()
 	safety := models.DefaultSafety
 	for _, f := range []struct {
@@ -88,7 +89,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, ErrorList) {
 			continue
 		}
 		if !(f.value >= 1 && f.value <= 100) { // NaN too
-			errs = append(errs, &Error{File: ConfigFile, Line: lines[key],
+			errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines[key],
 				Msg: fmt.Sprintf("%s: %s is out of range; allowed: 1 to 100 (a factor below 1 accepts failure)", key, numberWords(f.value))})
 			continue
 		}
@@ -101,18 +102,18 @@ func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, ErrorList) {
 	for _, name := range slices.Sorted(maps.Keys(cfg.Materials)) {
 		if !materialName.MatchString(name) {
 			badName = true
-			errs = append(errs, &Error{File: ConfigFile, Line: lines["materials."+name],
+			errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["materials."+name],
 				Msg: fmt.Sprintf("materials: %q is not allowed as a material name; a name is lower-case letters, digits, '-', '_' and '.', starting with a letter or digit (put free text in label)", name)})
 		}
 	}
 	if len(cfg.Materials) > 0 && !badName {
 		base, err := models.DefaultMaterials()
 		if err != nil {
-			return env, append(errs, &Error{Msg: err.Error()})
+			return env, append(errs, &inputerr.Error{Msg: err.Error()})
 		}
 		mats, err := base.With(cfg.Materials, lines, ConfigFile)
 		if err != nil {
-			return env, append(errs, fromCalc(err)...)
+			return env, append(errs, inputerr.From(err)...)
 		}
 		env.Materials = mats
 	}
@@ -131,7 +132,7 @@ func LoadConfig(root string) (Config, error) {
 	}
 	if err != nil {
 		if info, statErr := os.Stat(filepath.Join(root, ConfigFile)); statErr == nil && info.IsDir() {
-			return cfg, &Error{File: ConfigFile, Msg: "is a folder; the site settings are a TOML file of that name (or leave it out for the defaults)"}
+			return cfg, &inputerr.Error{File: ConfigFile, Msg: "is a folder; the site settings are a TOML file of that name (or leave it out for the defaults)"}
 		}
 		return cfg, err
 	}
@@ -141,11 +142,11 @@ func LoadConfig(root string) (Config, error) {
 		return cfg, tomlError(ConfigFile, 0, text, err, "site configuration")
 	}
 	lines := calc.KeyLines(text)
-	var errs ErrorList
+	var errs inputerr.List
 	// A plain value for materials decodes as no materials at all. (A table
 	// made by [materials.x] alone has no type of its own.)
 	if t := md.Type("materials"); t != "" && t != "Hash" {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["materials"],
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["materials"],
 			Msg: fmt.Sprintf("materials: %s is not allowed here; write a table per material: a line [materials.NAME] and its keys below it", tomlKindWord(t))})
 	}
 	for _, k := range md.Undecoded() {
@@ -157,21 +158,21 @@ func LoadConfig(root string) (Config, error) {
 		if s := calc.Suggest(key, candidates); s != "" {
 			msg = fmt.Sprintf("unknown key %q; did you mean %q? (allowed: %s)", key, s, strings.Join(configKeys, ", "))
 		}
-		errs = append(errs, &Error{File: ConfigFile, Line: lines[key], Msg: msg})
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines[key], Msg: msg})
 	}
 	if cfg.SigFigs < 2 || cfg.SigFigs > 8 {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["sig_figs"],
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["sig_figs"],
 			Msg: fmt.Sprintf("sig_figs: %d is out of range; allowed: 2 to 8 significant figures", cfg.SigFigs)})
 	}
 	if strings.TrimSpace(cfg.Title) == "" {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
 	}
 	env, envErrs := cfg.makeEnv(lines)
 	errs = append(errs, envErrs...)
 	cfg.env = env
 	cat, err := models.NewCatalog(env)
 	if err != nil {
-		errs = append(errs, &Error{File: ConfigFile, Msg: err.Error()})
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Msg: err.Error()})
 	}
 	cfg.catalog = cat
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
