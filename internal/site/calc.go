@@ -158,27 +158,32 @@ func (s *Site) evaluate() error {
 }
 
 // attach gives the nodes of a freshly parsed page what the evaluation
-// found: each block its results, each inline value its text and link,
-// each caution list the site's cautions. The page was checked when it
-// was read, so nothing here fails.
+// found: each block its results (found by the line of its fence), each
+// inline value its text and link (formatted from what it names), each
+// caution list the site's cautions. The page was checked when it was read,
+// so nothing here fails.
 func (s *Site) attach(p *Page, doc *render.Document) {
-	for i, n := range doc.CalcBlocks() {
-		if i >= len(p.blocks) {
-			break
+	byLine := make(map[int]*calc.Block, len(p.blocks))
+	for _, b := range p.blocks {
+		byLine[b.Line] = b
+	}
+	for _, n := range doc.CalcBlocks() {
+		b, ok := byLine[n.FenceLine+doc.LineOffset]
+		if !ok {
+			continue
 		}
-		n.Eval, _ = s.Calc.Lookup(p.blocks[i].ID)
+		n.Eval, _ = s.Calc.Lookup(b.ID)
 		n.Links = map[string]string{}
-		for _, v := range p.blocks[i].Values {
+		for _, v := range b.Values {
 			for _, id := range v.Deps() {
 				n.Links[id] = s.blockLink(p, id)
 			}
 		}
 	}
-	for i, ref := range doc.ValueRefs() {
-		if i < len(p.refs) {
-			v, _ := s.formatRef(p, p.refs[i])
-			ref.Shown, ref.Href = v.Shown, v.Href
-		}
+	for _, ref := range doc.ValueRefs() {
+		v, _ := s.formatRef(p, valueRef{Block: ref.Block, Result: ref.Result, Unit: ref.Unit,
+			Written: ref.Written, Problem: ref.Problem, Line: doc.Line(ref.Offset)})
+		ref.Shown, ref.Href = v.Shown, v.Href
 	}
 	for _, list := range doc.CautionLists() {
 		for _, it := range s.cautions {
