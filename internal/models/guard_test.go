@@ -89,3 +89,19 @@ func TestEveryRuleHasACautionCase(t *testing.T) {
 		}
 	}
 }
+
+// TestEveryRuleCanBeAcknowledged checks that [acknowledge] takes the id of
+// every rule explain lists, and that explain lists every rule.
+func TestEveryRuleCanBeAcknowledged(t *testing.T) {
+	var explained strings.Builder
+	ExplainCautions(&explained, testCatalog)
+	for _, id := range testCatalog.RuleIDs() {
+		if !strings.Contains(explained.String(), "  "+id+"  ") {
+			t.Errorf("explain cautions does not list %s", id)
+		}
+		src := stageTOML + "\n[acknowledge]\n" + id + " = \"a reason\"\n"
+		if _, err := testCatalog.ParseBlock("content/index.md", 1, src); err != nil {
+			t.Errorf("[acknowledge] %s: %v", id, err)
+		}
+	}
+}
