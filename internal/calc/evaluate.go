@@ -29,13 +29,45 @@ type Options struct {
 type Set struct {
 	Blocks []*Evaluated // sorted by id
 	byID   map[string]*Evaluated
-	opts   Options
+	// early holds, while the set is evaluated, the early outcomes of the
+	// blocks whose WithoutLinks results others quote.
+	early map[string]*Evaluated
+	opts  Options
 }
 
 // Lookup returns the evaluated block with the given id.
 func (s *Set) Lookup(id string) (*Evaluated, bool) {
 	e, ok := s.byID[id]
 	return e, ok
+}
+
+// quoted is the outcome a quote "=id.name" reads: the early one for a
+// result its kind gives without links, when the block has one.
+func (s *Set) quoted(v Value) *Evaluated {
+	if e, ok := s.early[v.RefBlock]; ok {
+		if spec, ok := e.Block.Kind.ResultSpec(v.RefResult); ok && spec.WithoutLinks {
+			return e
+		}
+	}
+	e, _ := s.Lookup(v.RefBlock)
+	return e
+}
+
+// sameAsEarly checks that the results a block's kind declares WithoutLinks
+// came out of the full evaluation as they did of the early one, which
+// other blocks read: a kind whose such result did depend on its links
+// would give two answers.
+func (s *Set) sameAsEarly(e *Evaluated) error {
+	first, ok := s.early[e.Block.ID]
+	if !ok {
+		return nil
+	}
+	for _, r := range first.Results {
+		if full, _ := e.Result(r.Name); full.Value != r.Value {
+			return fmt.Errorf("block %s: kind %s gives %s = %g without its links and %g with them; a result marked WithoutLinks must not depend on them", e.Block.ID, e.Block.Kind.Name, r.Name, r.Value, full.Value)
+		}
+	}
+	return nil
 }
 
 // IDs lists every block id, sorted.
@@ -164,47 +196,52 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
-	order, err := dependencyOrder(byID, ids)
+	pl, err := makePlan(byID, ids)
 	if err != nil {
 		return nil, err
 	}
-	// Blocks of one level depend only on blocks of lower levels, so each
-	// level is evaluated in parallel.
 	linked := map[string]bool{}
-	for _, b := range order {
+	for _, b := range byID {
 		for _, v := range b.Values {
 			for _, dep := range v.Deps() {
 				linked[dep] = true
 			}
 		}
 	}
+	set.early = map[string]*Evaluated{}
 	failed := map[string]bool{}
-	for _, level := range levels(order) {
+	for _, level := range pl.levels {
 		type outcome struct {
 			e   *Evaluated
 			err error
 		}
 		outs := make([]outcome, len(level))
 		var run []int
-		for i, b := range level {
-			if dependsOnFailed(b, failed) {
-				failed[b.ID] = true
+		for i, st := range level {
+			if failed[st.id] || slices.ContainsFunc(pl.deps(st), func(d dependency) bool { return failed[d.id] }) {
+				failed[st.id] = true
 				continue
 			}
 			run = append(run, i)
 		}
 		Parallel(len(run), func(j int) {
 			i := run[j]
-			b := level[i]
+			st := level[i]
+			b := byID[st.id]
+			if st.phase == early {
+				outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, false, true)
+				return
+			}
 			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
-			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want)
+			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want, false)
 			// Drop curves at once: a level can hold thousands of blocks.
 			if outs[i].err == nil && !want {
 				outs[i].e.Curves = nil
 			}
 		})
 		for _, i := range run {
-			b, o := level[i], outs[i]
+			st, o := level[i], outs[i]
+			b := byID[st.id]
 			if o.err != nil {
 				var list inputerr.List
 				if errors.As(o.err, &list) {
@@ -215,9 +252,14 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 				failed[b.ID] = true
 				continue
 			}
+			if st.phase == early {
+				set.early[b.ID] = o.e
+				continue
+			}
 			set.byID[b.ID] = o.e
 		}
 	}
+	set.early = nil
 	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
@@ -226,17 +268,6 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	c.applyRules(set)
 	return set, nil
-}
-
-func dependsOnFailed(b *Block, failed map[string]bool) bool {
-	for _, v := range b.Values {
-		for _, id := range v.Deps() {
-			if failed[id] {
-				return true
-			}
-		}
-	}
-	return false
 }
 
 // linkCandidates are the blocks a key of b could name: any other block, of
@@ -330,27 +361,6 @@ func sortedValueKeys(b *Block) []string {
 	return keys
 }
 
-// levels groups blocks in dependency order by depth: a block with no
-// references is on level 0, any other one level above its deepest reference.
-func levels(order []*Block) [][]*Block {
-	depth := map[string]int{}
-	var out [][]*Block
-	for _, b := range order {
-		d := 0
-		for _, v := range b.Values {
-			for _, dep := range v.Deps() {
-				d = max(d, depth[dep]+1)
-			}
-		}
-		depth[b.ID] = d
-		for len(out) <= d {
-			out = append(out, nil)
-		}
-		out[d] = append(out[d], b)
-	}
-	return out
-}
-
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
 func Parallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
@@ -372,71 +382,11 @@ func Parallel(n int, f func(i int)) {
 	wg.Wait()
 }
 
-// dependencyOrder sorts blocks so that each comes after the blocks it
-// refers to; a cycle is an error that names every block on it.
-func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
-	const (
-		unseen = iota
-		active
-		done
-	)
-	state := map[string]int{}
-	var order []*Block
-	var stack []string
-	var visit func(id string) error
-	visit = func(id string) error {
-		switch state[id] {
-		case done:
-			return nil
-		case active:
-			start := 0
-			for i, s := range stack {
-				if s == id {
-					start = i
-				}
-			}
-			cycle := append(append([]string{}, stack[start:]...), id)
-			b := byID[stack[len(stack)-1]]
-			key, line := refKeyTo(b, id)
-			return inputerr.List{{File: b.File, Line: line, Key: key,
-				Msg: "references go round in a circle: " + strings.Join(cycle, " → ") + "; break the circle by giving one value directly"}}
-		}
-		state[id] = active
-		stack = append(stack, id)
-		b := byID[id]
-		for _, key := range sortedValueKeys(b) {
-			for _, ref := range b.Values[key].Deps() {
-				if err := visit(ref); err != nil {
-					return err
-				}
-			}
-		}
-		stack = stack[:len(stack)-1]
-		state[id] = done
-		order = append(order, b)
-		return nil
-	}
-	for _, id := range ids {
-		if err := visit(id); err != nil {
-			return nil, err
-		}
-	}
-	return order, nil
-}
-
-// refKeyTo finds the key of b that refers to block id.
-func refKeyTo(b *Block, id string) (string, int) {
-	for _, key := range sortedValueKeys(b) {
-		if v := b.Values[key]; contains(v.Deps(), id) {
-			return key, v.Line
-		}
-	}
-	return "", b.Line
-}
-
 // evaluateBlock reads a block's inputs (references from set), runs its
 // model and checks its claims.
-func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
+// evaluateBlock reads a block's inputs and runs its model; early runs it
+// without the block's links, for the results marked WithoutLinks only.
+func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, early bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
 	var errs inputerr.List
 	fail := func(key string, line int, msg string) {
@@ -456,7 +406,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		}
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
+		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves, linksWithheld: early}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
@@ -495,7 +445,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			e.Inputs = append(e.Inputs, iv)
 			continue
 		case Link, LinkList:
-			if !given {
+			if !given || early {
 				continue
 			}
 			var linked []*Linked
@@ -518,7 +468,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		var value float64
 		var shownUnit string
 		if given && v.RefBlock != "" {
-			src, _ := set.Lookup(v.RefBlock)
+			src := set.quoted(v)
 			si, _, unit, found := src.Quantity(v.RefResult)
 			if !found {
 				fail(spec.Name, line, fmt.Sprintf("%q: block %s has no value for %s (an optional input it leaves out)", v.Text, v.RefBlock, v.RefResult))
@@ -582,8 +532,20 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			return nil, fmt.Errorf("block %s: kind %s raised caution %q, which it does not list in Raises", b.ID, b.Kind.Name, c.Rule)
 		}
 	}
+	if early {
+		e.Results = nil
+		for _, r := range out.Results {
+			if spec, ok := b.Kind.ResultSpec(r.Name); ok && spec.WithoutLinks {
+				e.Results = append(e.Results, r)
+			}
+		}
+		return e, nil
+	}
 	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
+	if err := set.sameAsEarly(e); err != nil {
+		return nil, err
+	}
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {

@@ -157,6 +157,12 @@ type ResultSpec struct {
 	// "" means a ductile metal (steel bolts).
 	Factor         bool
 	FactorMaterial string
+	// WithoutLinks marks a result the model computes from the block's own
+	// inputs alone, without the blocks its Link inputs name: another block
+	// may quote it even where the block links back to that one (a drive's
+	// crank speed, quoted by the stage it drives, whose power the drive
+	// reads). The model gives these when Inputs.LinksWithheld.
+	WithoutLinks bool
 }
 
 // Inputs holds a block's validated input values in SI units, pressures
@@ -172,7 +178,14 @@ type Inputs struct {
 	noCurves bool
 	// customary: the block is written in US customary units.
 	customary bool
+	// linksWithheld: an early evaluation, with no Link inputs, for the
+	// results marked WithoutLinks.
+	linksWithheld bool
 }
+
+// LinksWithheld reports an early evaluation: the block's Link inputs are
+// not given, and only the results marked WithoutLinks are wanted.
+func (in *Inputs) LinksWithheld() bool { return in.linksWithheld }
 
 // NewInputs returns inputs with no values yet, at an ambient pressure (Pa
 // absolute) in the site settings env, for evaluating a kind directly.

@@ -1,0 +1,156 @@
+package calc
+
+import (
+	"strings"
+
+	"specgen/internal/inputerr"
+)
+
+// phase is a step in evaluating a block. A reference waits only for the
+// step that gives what it names, so that two blocks may refer to each other
+// as long as no value waits on itself.
+type phase int
+
+const (
+	// early computes the results a kind gives without its links
+	// (ResultSpec.WithoutLinks), for a block whose such results another
+	// block quotes.
+	early phase = iota
+	// full reads every input and runs the model.
+	full
+)
+
+// step is one phase of one block.
+type step struct {
+	id    string
+	phase phase
+}
+
+// dependency is a step that another waits on, with the key and line of the
+// reference that makes it wait, for messages.
+type dependency struct {
+	step
+	key  string
+	line int
+}
+
+// plan is the order in which the steps of a site run.
+type plan struct {
+	// levels: the steps of a level depend only on steps of earlier levels,
+	// so each level runs in parallel.
+	levels [][]step
+	// early lists the blocks that have an early step.
+	early map[string]bool
+	byID  map[string]*Block
+}
+
+// makePlan orders the steps of the blocks byID (ids sorted), or reports
+// the first circle of references it finds.
+func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
+	p := &plan{early: map[string]bool{}, byID: byID}
+	for _, id := range ids {
+		for _, v := range byID[id].Values {
+			if v.RefBlock == "" {
+				continue
+			}
+			if spec, ok := byID[v.RefBlock].Kind.ResultSpec(v.RefResult); ok && spec.WithoutLinks {
+				p.early[v.RefBlock] = true
+			}
+		}
+	}
+	const (
+		unseen = iota
+		active
+		done
+	)
+	state := map[step]int{}
+	depth := map[step]int{}
+	var stack []step
+	circle := func(closing dependency) error {
+		start := 0
+		for i, s := range stack {
+			if s == closing.step {
+				start = i
+			}
+		}
+		var names []string
+		for _, s := range stack[start:] {
+			names = append(names, s.id)
+		}
+		names = append(names, closing.id)
+		b := byID[stack[len(stack)-1].id]
+		return inputerr.List{{File: b.File, Line: closing.line, Key: closing.key,
+			Msg: "references go round in a circle: " + strings.Join(names, " → ") + "; break the circle by giving one value directly"}}
+	}
+	var visit func(st step) error
+	visit = func(st step) error {
+		state[st] = active
+		stack = append(stack, st)
+		d := 0
+		for _, dep := range p.deps(st) {
+			switch state[dep.step] {
+			case active:
+				return circle(dep)
+			case unseen:
+				if err := visit(dep.step); err != nil {
+					return err
+				}
+			}
+			d = max(d, depth[dep.step]+1)
+		}
+		stack = stack[:len(stack)-1]
+		state[st] = done
+		depth[st] = d
+		for len(p.levels) <= d {
+			p.levels = append(p.levels, nil)
+		}
+		p.levels[d] = append(p.levels[d], st)
+		return nil
+	}
+	for _, id := range ids {
+		for _, ph := range []phase{early, full} {
+			st := step{id, ph}
+			if (ph == early && !p.early[id]) || state[st] != unseen {
+				continue
+			}
+			if err := visit(st); err != nil {
+				return nil, err
+			}
+		}
+	}
+	return p, nil
+}
+
+// deps lists the steps st waits on, in the order of the block's keys: the
+// steps that give the values it quotes and, for the full step, the blocks
+// it links to and its own early step.
+func (p *plan) deps(st step) []dependency {
+	b := p.byID[st.id]
+	var out []dependency
+	for _, key := range sortedValueKeys(b) {
+		v := b.Values[key]
+		if v.RefBlock != "" {
+			out = append(out, dependency{p.quoted(v), key, v.Line})
+			continue
+		}
+		if st.phase == full {
+			for _, id := range v.Links {
+				out = append(out, dependency{step{id, full}, key, v.Line})
+			}
+		}
+	}
+	if st.phase == full && p.early[st.id] {
+		out = append(out, dependency{step{st.id, early}, "", b.Line})
+	}
+	return out
+}
+
+// quoted is the step whose outcome a quote "=id.name" reads.
+func (p *plan) quoted(v Value) step {
+	if p.early[v.RefBlock] {
+		if spec, ok := p.byID[v.RefBlock].Kind.ResultSpec(v.RefResult); ok && spec.WithoutLinks {
+			return step{v.RefBlock, early}
+		}
+	}
+	return step{v.RefBlock, full}
+}
