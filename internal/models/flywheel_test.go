@@ -13,7 +13,7 @@ import (
 // block's own energy_fluctuation ("source result"), and the inertia of the
 // disc or ring with the model's mass and diameter by the elementary
 // formulas ½·m·R² ("½·m·R²") and ½·m·(a² + b²) ("½·m·(a² + b²)").
-func flywheelReference(t *testing.T, basis string, set *calc.Set, e *calc.Evaluated) float64 {
+func flywheelReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
 	result := func(name string) float64 {
 		r, ok := e.Result(name)
@@ -22,7 +22,7 @@ func flywheelReference(t *testing.T, basis string, set *calc.Set, e *calc.Evalua
 		}
 		return r.Value
 	}
-	switch basis {
+	switch ch.Basis {
 	case "source result":
 		for _, in := range e.Inputs {
 			if in.Name == "source" {
@@ -44,12 +44,8 @@ func flywheelReference(t *testing.T, basis string, set *calc.Set, e *calc.Evalua
 		a := b - depth
 		return result("mass") * (a*a + b*b) / 2
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestFlywheelReference(t *testing.T) {
-	runBlockCases(t, "flywheel", 3, flywheelReference)
 }
 
 // flywheelSite is a source block (the bench compressor, changed by

@@ -31,7 +31,7 @@ func pvArea(v0, v1, v2, ps, pa, n float64) float64 {
 // motorReference computes the "pv-area" bases from the block's inputs:
 // the enclosed area times the cylinders ("pv-area", J per revolution),
 // times the speed in rev/s ("pv-area · N") or over 2π ("pv-area / 2π").
-func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func motorReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
 	get := func(name string) float64 {
 		v, ok := inputValue(t, e, name)
@@ -52,7 +52,7 @@ func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) 
 	}
 	v1 := clearance + get("cutoff")*swept
 	work := get("cylinders") * pvArea(clearance, v1, clearance+swept, get("supply_pressure"), e.Ambient, get("polytropic_index"))
-	switch basis {
+	switch ch.Basis {
 	case "pv-area":
 		return work
 	case "pv-area · N":
@@ -60,12 +60,8 @@ func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) 
 	case "pv-area / 2π":
 		return work / (2 * math.Pi)
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestMotorReference(t *testing.T) {
-	runBlockCases(t, "motor", 3, motorReference)
 }
 
 // TestPVArea checks the test's own integration on a rectangle and on the

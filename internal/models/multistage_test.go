@@ -74,7 +74,7 @@ func scanInterstage(t *testing.T, stages int, p1, p2, t1, tic, n float64) ([]flo
 // multistageReference computes the scan bases from the block's inputs:
 // "scan-min", the least work found, and "scan-argmin-K", interstage
 // pressure K where it was found.
-func multistageReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func multistageReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
 	get := func(name string) float64 {
 		v, ok := inputValue(t, e, name)
@@ -93,7 +93,7 @@ func multistageReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evalua
 		tic = t1
 	}
 	best, w := scanInterstage(t, int(get("stages")), p1, get("discharge_pressure"), t1, tic, get("polytropic_index"))
-	switch basis {
+	switch ch.Basis {
 	case "scan-min":
 		return w
 	case "scan-argmin-1":
@@ -101,12 +101,8 @@ func multistageReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evalua
 	case "scan-argmin-2":
 		return best[1]
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestMultistageReference(t *testing.T) {
-	runBlockCases(t, "multistage", 4, multistageReference)
 }
 
 // staging is two stages from 1 atm to 8 bar gauge; changes replace keys,

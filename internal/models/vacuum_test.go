@@ -25,10 +25,10 @@ func midpointPumpdown(v, p0, p, pa, rate, c, n float64) float64 {
 // vacuumReference computes the "midpoint" basis from the block's own
 // inputs: the cylinder's displacement rate and clearance ratio, then the
 // test's integration.
-func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func vacuumReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	if basis != "midpoint" {
-		t.Fatalf("unknown basis %q", basis)
+	if ch.Basis != "midpoint" {
+		t.Fatalf("unknown basis %q", ch.Basis)
 	}
 	get := func(name string) float64 {
 		v, ok := inputValue(t, e, name)
@@ -52,10 +52,6 @@ func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated)
 		p0 = e.Ambient
 	}
 	return midpointPumpdown(get("vessel_volume"), p0, get("target_pressure"), e.Ambient, rate, c, get("polytropic_index"))
-}
-
-func TestVacuumReference(t *testing.T) {
-	runBlockCases(t, "vacuum", 4, vacuumReference)
 }
 
 // benchPot is a single-cylinder pump on a 20 L pot; changes replace keys,
