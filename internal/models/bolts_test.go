@@ -129,20 +129,6 @@ func testSteel() MaterialRow {
 		"density": "7.85 g/cm3", "service_temperature": "300 degC"}
 }
 
-// mustMaterials returns the built-in table with rows over it.
-func mustMaterials(t *testing.T, rows map[string]MaterialRow) *Materials {
-	t.Helper()
-	base, err := DefaultMaterials()
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := base.With(rows, nil, "")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return m
-}
-
 // evaluateBoltsBlock runs inputs through the whole path a page's block
 // takes: TOML decoding, defaults, name checks, the model, the caution rules.
 func evaluateBoltsBlock(t *testing.T, inputs map[string]any, env *Env) (*calc.Evaluated, error) {

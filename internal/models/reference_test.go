@@ -60,10 +60,10 @@ func (ch *caseCheck) value(t *testing.T, dim units.Dimension, ambient float64) f
 // evaluated in set.
 type referenceFunc func(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated) float64
 
-// references holds each kind's own reference computations, by kind name;
-// a kind whose cases use no basis has none. Each is worked independently of
-// the model: by numerical integration, by other formulas, or by scaling a
-// book's value.
+// references holds each kind's own reference computations, by kind name,
+// each worked apart from the model under test (numerical integration,
+// other formulas, a book's value scaled); a kind whose cases use no basis
+// has none.
 var references = map[string]referenceFunc{
 	"balance":    balanceReference,
 	"compressor": compressorReference,
@@ -163,6 +163,7 @@ func runBlockCase(t *testing.T, kind, file string) {
 		}
 		if e.Block.Kind.Name != kind {
 			t.Errorf("%s: block %s is a %s; a case in testdata/reference/%s checks %s blocks", ch.Result, id, e.Block.Kind.Name, kind, kind)
+			continue
 		}
 		r, ok := e.Result(ch.Result)
 		if !ok {
@@ -170,12 +171,13 @@ func runBlockCase(t *testing.T, kind, file string) {
 			continue
 		}
 		var want float64
-		switch reference, ok := references[kind]; {
-		case ch.Basis == "":
+		if ch.Basis == "" {
 			want = ch.value(t, r.Dim, e.Ambient)
-		case !ok:
-			t.Fatalf("%s: basis %q, but the %s tests compute no references", ch.Result, ch.Basis, kind)
-		default:
+		} else {
+			reference, ok := references[kind]
+			if !ok {
+				t.Fatalf("%s: basis %q, but the %s tests compute no references", ch.Result, ch.Basis, kind)
+			}
 			want = reference(t, ch, set, e)
 			if ch.Value != "" && !ch.valueRead {
 				t.Errorf("%s: basis %q does not use the value %q", ch.Result, ch.Basis, ch.Value)
