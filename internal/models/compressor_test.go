@@ -121,26 +121,14 @@ func compressorReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evalu
 	if _, err := fmt.Sscanf(ch.Basis, "per kg drawn in, R = %g J/(kg K)", &gasConstant); err != nil || gasConstant <= 0 {
 		t.Fatalf("unknown basis %q", ch.Basis)
 	}
-	result := func(name string) calc.Result {
-		r, ok := e.Result(name)
-		if !ok {
-			t.Fatalf("block %s has no %s", e.Block.ID, name)
-		}
-		return r
-	}
-	p1, ok := inputValue(t, e, "inlet_pressure")
-	if !ok {
-		p1 = e.Ambient
-	}
-	t1, _ := inputValue(t, e, "inlet_temperature")
-	speed, _ := inputValue(t, e, "speed")
-	perRev := p1 * result("volumetric_efficiency").Value * result("displacement").Value / (gasConstant * t1)
+	perRev := inletPressure(t, e) * mustResult(t, e, "volumetric_efficiency") * mustResult(t, e, "displacement") /
+		(gasConstant * mustInput(t, e, "inlet_temperature"))
 	perKg := ch.value(t, units.SpecificEnergy, e.Ambient)
-	switch r := result(ch.Result); r.Dim {
+	switch r, _ := e.Result(ch.Result); r.Dim {
 	case units.Energy:
 		return perKg * perRev
 	case units.Power:
-		return perKg * perRev * speed / (2 * math.Pi)
+		return perKg * perRev * mustInput(t, e, "speed") / (2 * math.Pi)
 	default:
 		t.Fatalf("%s: basis %q applies to a work or a power", r.Name, ch.Basis)
 	}

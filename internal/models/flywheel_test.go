@@ -15,13 +15,6 @@ import (
 // formulas ½·m·R² ("½·m·R²") and ½·m·(a² + b²) ("½·m·(a² + b²)").
 func flywheelReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	result := func(name string) float64 {
-		r, ok := e.Result(name)
-		if !ok {
-			t.Fatalf("block %s has no %s", e.Block.ID, name)
-		}
-		return r.Value
-	}
 	switch ch.Basis {
 	case "source result":
 		for _, in := range e.Inputs {
@@ -36,13 +29,13 @@ func flywheelReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evalu
 		}
 		t.Fatalf("block %s has no source", e.Block.ID)
 	case "½·m·R²":
-		r := result("diameter") / 2
-		return result("mass") * r * r / 2
+		r := mustResult(t, e, "diameter") / 2
+		return mustResult(t, e, "mass") * r * r / 2
 	case "½·m·(a² + b²)":
 		depth, _ := inputValue(t, e, "rim_depth")
-		b := result("diameter") / 2
+		b := mustResult(t, e, "diameter") / 2
 		a := b - depth
-		return result("mass") * (a*a + b*b) / 2
+		return mustResult(t, e, "mass") * (a*a + b*b) / 2
 	}
 	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0

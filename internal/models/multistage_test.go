@@ -76,23 +76,13 @@ func scanInterstage(t *testing.T, stages int, p1, p2, t1, tic, n float64) ([]flo
 // pressure K where it was found.
 func multistageReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
-	}
-	p1, ok := inputValue(t, e, "inlet_pressure")
-	if !ok {
-		p1 = e.Ambient
-	}
-	t1 := get("inlet_temperature")
+	p1 := inletPressure(t, e)
+	t1 := mustInput(t, e, "inlet_temperature")
 	tic, ok := inputValue(t, e, "intercooled_temperature")
 	if !ok {
 		tic = t1
 	}
-	best, w := scanInterstage(t, int(get("stages")), p1, get("discharge_pressure"), t1, tic, get("polytropic_index"))
+	best, w := scanInterstage(t, int(mustInput(t, e, "stages")), p1, mustInput(t, e, "discharge_pressure"), t1, tic, mustInput(t, e, "polytropic_index"))
 	switch ch.Basis {
 	case "scan-min":
 		return w

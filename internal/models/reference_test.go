@@ -269,3 +269,32 @@ func inputValue(t *testing.T, e *calc.Evaluated, name string) (float64, bool) {
 	}
 	return 0, false
 }
+
+// mustInput returns the SI value of e's input name, which e must have.
+func mustInput(t *testing.T, e *calc.Evaluated, name string) float64 {
+	t.Helper()
+	v, ok := inputValue(t, e, name)
+	if !ok {
+		t.Fatalf("block %s has no input %s", e.Block.ID, name)
+	}
+	return v
+}
+
+// mustResult returns the SI value of e's result name, which e must have.
+func mustResult(t *testing.T, e *calc.Evaluated, name string) float64 {
+	t.Helper()
+	r, ok := e.Result(name)
+	if !ok {
+		t.Fatalf("block %s has no result %s", e.Block.ID, name)
+	}
+	return r.Value
+}
+
+// inletPressure returns e's inlet_pressure, or its ambient when it has none.
+func inletPressure(t *testing.T, e *calc.Evaluated) float64 {
+	t.Helper()
+	if p, ok := inputValue(t, e, "inlet_pressure"); ok {
+		return p
+	}
+	return e.Ambient
+}

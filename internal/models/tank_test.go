@@ -29,11 +29,7 @@ func supplyOf(t *testing.T, set *calc.Set, tank *calc.Evaluated) (rate, c, n, p1
 	vd, _ := s.Result("displacement_rate")
 	cr, _ := s.Result("clearance_ratio")
 	n, _ = inputValue(t, s, "polytropic_index")
-	p1 = s.Ambient
-	if v, ok := inputValue(t, s, "inlet_pressure"); ok {
-		p1 = v
-	}
-	return vd.Value, cr.Value, n, p1
+	return vd.Value, cr.Value, n, inletPressure(t, s)
 }
 
 // midpointFill integrates dt = V·dp/(p1·FAD(p)) from p0 to p2 by the
