@@ -16,9 +16,9 @@ import (
 	"specgen/internal/units"
 )
 
-// boltsCase is one testdata/reference/bolts/*.toml file: tabulated values
-// of a standard, or a worked case with inputs as a user writes them.
-type boltsCase struct {
+// iso898Table is one testdata/reference/tables/iso898-1-*.toml file:
+// values ISO 898-1 tabulates.
+type iso898Table struct {
 	Source     string
 	FromMemory bool `toml:"from_memory"`
 	Note       string
@@ -33,20 +33,16 @@ type boltsCase struct {
 		ProofStrength string `toml:"proof_strength"`
 		ProofLoad     string `toml:"proof_load"`
 	}
-	// Materials are rows over the built-in table for this case.
-	Materials map[string]MaterialRow
-	Inputs    map[string]any
-	Check     []struct{ Result, Value, Tolerance string }
 }
 
-func TestBoltsReference(t *testing.T) {
-	files, err := filepath.Glob("../../testdata/reference/bolts/*.toml")
-	if err != nil || len(files) < 3 {
-		t.Fatalf("want at least three reference files, found %d (%v)", len(files), err)
+func TestISO898Tables(t *testing.T) {
+	files, err := filepath.Glob("../../testdata/reference/tables/iso898-1-*.toml")
+	if err != nil || len(files) < 2 {
+		t.Fatalf("want the stress-area and proof-strength tables, found %d files (%v)", len(files), err)
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			var c boltsCase
+			var c iso898Table
 			md, err := toml.DecodeFile(f, &c)
 			if err != nil {
 				t.Fatal(err)
@@ -54,20 +50,14 @@ func TestBoltsReference(t *testing.T) {
 			if un := md.Undecoded(); len(un) > 0 {
 				t.Fatalf("unknown keys %v", un)
 			}
-			if c.Source == "" || c.Note == "" {
-				t.Fatal("a case needs a source and a note")
-			}
-			if len(c.Area)+len(c.Strength)+len(c.Check) == 0 {
-				t.Fatal("a case needs area, strength or check rows")
+			if c.Source == "" || c.Note == "" || len(c.Area)+len(c.Strength) == 0 {
+				t.Fatal("a table needs a source, a note and area or strength rows")
 			}
 			for _, row := range c.Area {
 				checkStressArea(t, row.Thread, row.Value, c.Source)
 			}
 			for _, row := range c.Strength {
 				checkProofStrength(t, row.Class, row.Thread, row.ProofStrength, row.ProofLoad, c.Source)
-			}
-			if len(c.Check) > 0 {
-				checkBoltsCase(t, c)
 			}
 		})
 	}
@@ -140,20 +130,6 @@ func testSteel() MaterialRow {
 		"density": "7.85 g/cm3", "service_temperature": "300 degC"}
 }
 
-// mustMaterials returns the built-in table with rows over it.
-func mustMaterials(t *testing.T, rows map[string]MaterialRow) *Materials {
-	t.Helper()
-	base, err := DefaultMaterials()
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := base.With(rows, nil, "")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return m
-}
-
 // evaluateBoltsBlock runs inputs through the whole path a page's block
 // takes: TOML decoding, defaults, name checks, the model, the caution rules.
 func evaluateBoltsBlock(t *testing.T, inputs map[string]any, env *Env) (*calc.Evaluated, error) {
@@ -173,46 +149,6 @@ func evaluateBoltsBlock(t *testing.T, inputs map[string]any, env *Env) (*calc.Ev
 	}
 	e, _ := set.Lookup("head")
 	return e, nil
-}
-
-func checkBoltsCase(t *testing.T, c boltsCase) {
-	t.Helper()
-	env := &Env{Materials: mustMaterials(t, c.Materials), Safety: DefaultSafety}
-	e, err := evaluateBoltsBlock(t, c.Inputs, env)
-	if err != nil {
-		t.Fatal(err)
-	}
-	checkBoltsWellFormed(t, e.Results)
-	for _, ch := range c.Check {
-		r, ok := e.Result(ch.Result)
-		if !ok {
-			t.Errorf("no result %q", ch.Result)
-			continue
-		}
-		want := mustParse(t, ch.Value, r.Dim)
-		tol := tolerance(t, ch.Tolerance, r.Dim, want)
-		if math.Abs(r.Value-want) > tol {
-			t.Errorf("%s = %.6g SI, want %s = %.6g SI ± %.3g (%s)", ch.Result, r.Value, ch.Value, want, tol, c.Source)
-		}
-	}
-}
-
-// checkBoltsWellFormed checks that every declared result is there, in
-// order, finite and with a trace.
-func checkBoltsWellFormed(t *testing.T, res []calc.Result) {
-	t.Helper()
-	if len(res) != len(boltsKind.Results) {
-		t.Fatalf("%d results, %d declared", len(res), len(boltsKind.Results))
-	}
-	for i, spec := range boltsKind.Results {
-		r := res[i]
-		if r.Name != spec.Name || r.Dim != spec.Dim || !finite(r.Value) || r.Value <= 0 {
-			t.Errorf("result %d is %s (%v) = %g; declared %s (%v), positive", i, r.Name, r.Dim, r.Value, spec.Name, spec.Dim)
-		}
-		if r.Trace.Formula == "" || !strings.HasPrefix(r.Trace.Substituted, "= ") {
-			t.Errorf("%s has trace %q / %q", r.Name, r.Trace.Formula, r.Trace.Substituted)
-		}
-	}
 }
 
 // TestThreadProfile checks the stripping area's tooth fraction against the

@@ -83,3 +83,17 @@ func catalogWith(t testing.TB, env *Env) *calc.Catalog {
 	}
 	return c
 }
+
+// mustMaterials returns the built-in table with rows over it.
+func mustMaterials(t *testing.T, rows map[string]MaterialRow) *Materials {
+	t.Helper()
+	base, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := base.With(rows, nil, "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
+}

@@ -72,7 +72,7 @@ func TestBuiltinMaterials(t *testing.T) {
 }
 
 // TestMaterialMinimums checks the rows that quote a standard's minimum
-// strengths against testdata/reference/materials.
+// strengths against testdata/reference/tables/material-minimums.toml.
 func TestMaterialMinimums(t *testing.T) {
 	mats, err := DefaultMaterials()
 	if err != nil {
@@ -86,7 +86,7 @@ func TestMaterialMinimums(t *testing.T) {
 			Tolerance        string
 		}
 	}
-	md, err := toml.DecodeFile("../../testdata/reference/materials/standard-minimums.toml", &ref)
+	md, err := toml.DecodeFile("../../testdata/reference/tables/material-minimums.toml", &ref)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -32,41 +32,31 @@ func pvArea(v0, v1, v2, ps, pa, n float64) float64 {
 // motorReference computes the "pv-area" bases from the block's inputs:
 // the enclosed area times the cylinders ("pv-area", J per revolution),
 // times the speed in rev/s ("pv-area · N") or over 2π ("pv-area / 2π").
-func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func motorReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
-	}
-	bore := get("bore")
+	bore := mustInput(t, e, "bore")
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {
-		stroke = 2 * get("crank_radius")
+		stroke = 2 * mustInput(t, e, "crank_radius")
 	}
 	swept := math.Pi / 4 * bore * bore * stroke
 	clearance, ok := inputValue(t, e, "clearance_volume")
 	if !ok {
-		clearance = get("clearance_ratio") * swept
+		clearance = mustInput(t, e, "clearance_ratio") * swept
 	}
-	v1 := clearance + get("cutoff")*swept
-	work := get("cylinders") * pvArea(clearance, v1, clearance+swept, get("supply_pressure"), e.Ambient, get("polytropic_index"))
-	switch basis {
+	v1 := clearance + mustInput(t, e, "cutoff")*swept
+	ps, n := mustInput(t, e, "supply_pressure"), mustInput(t, e, "polytropic_index")
+	work := mustInput(t, e, "cylinders") * pvArea(clearance, v1, clearance+swept, ps, e.Ambient, n)
+	switch ch.Basis {
 	case "pv-area":
 		return work
 	case "pv-area · N":
-		return work * get("speed") / (2 * math.Pi)
+		return work * mustInput(t, e, "speed") / (2 * math.Pi)
 	case "pv-area / 2π":
 		return work / (2 * math.Pi)
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestMotorReference(t *testing.T) {
-	runBlockCases(t, "motor", 3, motorReference)
 }
 
 // TestPVArea checks the test's own integration on a rectangle and on the

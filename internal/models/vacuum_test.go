@@ -26,37 +26,27 @@ func midpointPumpdown(v, p0, p, pa, rate, c, n float64) float64 {
 // vacuumReference computes the "midpoint" basis from the block's own
 // inputs: the cylinder's displacement rate and clearance ratio, then the
 // test's integration.
-func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func vacuumReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	if basis != "midpoint" {
-		t.Fatalf("unknown basis %q", basis)
-	}
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
+	if ch.Basis != "midpoint" {
+		t.Fatalf("unknown basis %q", ch.Basis)
 	}
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {
-		stroke = 2 * get("crank_radius")
+		stroke = 2 * mustInput(t, e, "crank_radius")
 	}
-	swept := math.Pi / 4 * math.Pow(get("bore"), 2) * stroke
+	swept := math.Pi / 4 * math.Pow(mustInput(t, e, "bore"), 2) * stroke
 	c, ok := inputValue(t, e, "clearance_ratio")
 	if !ok {
-		c = get("clearance_volume") / swept
+		c = mustInput(t, e, "clearance_volume") / swept
 	}
-	rate := get("cylinders") * swept * get("speed") / (2 * math.Pi)
+	rate := mustInput(t, e, "cylinders") * swept * mustInput(t, e, "speed") / (2 * math.Pi)
 	p0, ok := inputValue(t, e, "start_pressure")
 	if !ok {
 		p0 = e.Ambient
 	}
-	return midpointPumpdown(get("vessel_volume"), p0, get("target_pressure"), e.Ambient, rate, c, get("polytropic_index"))
-}
-
-func TestVacuumReference(t *testing.T) {
-	runBlockCases(t, "vacuum", 4, vacuumReference)
+	v, p, n := mustInput(t, e, "vessel_volume"), mustInput(t, e, "target_pressure"), mustInput(t, e, "polytropic_index")
+	return midpointPumpdown(v, p0, p, e.Ambient, rate, c, n)
 }
 
 // benchPot is a single-cylinder pump on a 20 L pot; changes replace keys,

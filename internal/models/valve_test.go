@@ -3,16 +3,7 @@ package models
 import (
 	"strings"
 	"testing"
-
-	"specgen/internal/calc"
 )
-
-func TestValveReference(t *testing.T) {
-	runBlockCases(t, "valve", 2, func(t *testing.T, basis string, _ *calc.Set, _ *calc.Evaluated) float64 {
-		t.Fatalf("unknown basis %q", basis)
-		return 0
-	})
-}
 
 // TestValveRelief: a valve that protects a compressor and a receiver
 // names both in its trace with the absolute pressure it opens at, and the
