@@ -123,47 +123,6 @@ func TestBlockSourceHighlighting(t *testing.T) {
 	}
 }
 
-// TestVacuumPressurePair: a pressure below ambient shows absolute first,
-// and its gauge value never rounds below minus the ambient pressure.
-func TestVacuumPressurePair(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// 1 Pa absolute on 1 atm: -14.6958 psi(g) (NIST SP 811: 1 psi = 6894.757 Pa);
-	// three figures would give -14.7, below a perfect vacuum.
-	got := display.PressurePair(1, "psi", e.Ambient, e.SigFigs())
-	if !strings.HasPrefix(got, "0.000145 psia · -14.69") {
-		t.Errorf("pressurePair = %q", got)
-	}
-}
-
-// TestAbsoluteByNaturePressurePair: torr and atm have no gauge form, so a
-// result asked for in them shows the absolute value alone, in that unit.
-func TestAbsoluteByNaturePressurePair(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory); 905 Pa = 6.788 torr.
-	if got := display.PressurePair(905, "torr", e.Ambient, e.SigFigs()); got != "6.79 torr" {
-		t.Errorf("pressurePair(905 Pa, torr) = %q, want \"6.79 torr\"", got)
-	}
-	// 1 atm = 101325 Pa (NIST SP 811 App. B).
-	if got := display.PressurePair(202650, "atm", e.Ambient, e.SigFigs()); got != "2.00 atm" {
-		t.Errorf("pressurePair(202650 Pa, atm) = %q, want \"2.00 atm\"", got)
-	}
-}
-
-// TestHighPressurePairDiffers: gauge and absolute that round alike at the
-// site's figures get more, so the pair does not read as one number twice.
-func TestHighPressurePairDiffers(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// 1031.2 bar(g) = 1031.2e5 + 101325 Pa absolute = 1032.213 bar(a).
-	got := display.PressurePair(1031.2e5+101325, "bar", e.Ambient, e.SigFigs())
-	if got != "1031 bar(g) · 1032 bar(a)" {
-		t.Errorf("pressurePair = %q, want \"1031 bar(g) · 1032 bar(a)\"", got)
-	}
-	// Low pressures keep the site's figures.
-	if got := display.PressurePair(6e5+101325, "bar", e.Ambient, e.SigFigs()); got != "6.00 bar(g) · 7.01 bar(a)" {
-		t.Errorf("pressurePair = %q", got)
-	}
-}
-
 // TestCustomaryDefaults: a block written in US customary units shows the
 // defaults it did not write in its units too (20 °C = 68 °F).
 func TestCustomaryDefaults(t *testing.T) {
