@@ -6,8 +6,9 @@ package units
 // starting with " is", that says why u does not fit.
 //
 // Pressure and Stress units are interchangeable, but a stress is a
-// difference and so takes no gauge or absolute mark. Temperature units
-// serve as TemperatureDifference units.
+// difference and so takes no gauge or absolute mark; neither does a
+// PressureDifference, which also takes its own "(d)" units. Temperature
+// units serve as TemperatureDifference units.
 func readAs(u Unit, want Dimension) (difference bool, problem string) {
 	switch {
 	case u.Dim == want:
@@ -22,6 +23,16 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 		return false, ""
 	case want == Pressure && u.Dim == Stress:
 		return false, ""
+	case want == PressureDifference && u.Dim == Pressure:
+		// An unmarked pressure unit reads as a difference where only a
+		// difference can be meant (a claim on one); a mark contradicts it.
+		switch u.Ref {
+		case Gauge:
+			return false, " is a gauge pressure; " + differenceTakes()
+		case Absolute:
+			return false, " is an absolute pressure; " + differenceTakes()
+		}
+		return false, ""
 	case want == TemperatureDifference && u.Dim == Temperature:
 		return true, ""
 	}
@@ -31,6 +42,12 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 // stressTakes says what a stress takes, after a marked pressure unit.
 func stressTakes() string {
 	return "a stress is a difference: use an unmarked unit (" + Stress.Examples() + ")"
+}
+
+// differenceTakes says what a pressure difference takes, after a marked
+// pressure unit.
+func differenceTakes() string {
+	return "takes a pressure difference (" + PressureDifference.Examples() + ")"
 }
 
 // fits reports whether u can be read as want; see readAs.

@@ -27,9 +27,9 @@ var neutralUnits = map[string]bool{
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)
-// belongs to; a pressure's gauge or absolute mark does not matter.
+// belongs to; a pressure's gauge, absolute or difference mark does not matter.
 func SystemOf(symbol string) UnitSystem {
-	base := strings.TrimSuffix(strings.TrimSuffix(symbol, "(g)"), "(a)")
+	base, _ := pressureMark(symbol)
 	switch {
 	case customaryUnits[base]:
 		return Customary
@@ -53,14 +53,9 @@ var customaryOf = map[string]string{
 
 // CustomaryFor is the US customary counterpart of a metric display unit,
 // or the unit itself when it has none (J, kJ/kg) or is not metric.
-// A pressure keeps its mark: "bar(a)" becomes "psi(a)".
+// A pressure keeps its mark: "bar(a)" becomes "psi(a)", "bar(d)" "psi(d)".
 func CustomaryFor(unit string) string {
-	base, mark := unit, ""
-	for _, m := range []string{"(a)", "(g)"} {
-		if b, ok := strings.CutSuffix(unit, m); ok {
-			base, mark = b, m
-		}
-	}
+	base, mark := pressureMark(unit)
 	c, ok := customaryOf[base]
 	if !ok {
 		return unit
@@ -69,4 +64,15 @@ func CustomaryFor(unit string) string {
 		return unit
 	}
 	return c + mark
+}
+
+// pressureMark splits a pressure unit symbol into its base and its mark
+// ("bar(a)" into "bar" and "(a)"); other symbols have no mark.
+func pressureMark(symbol string) (base, mark string) {
+	for _, m := range []string{"(a)", "(g)", "(d)"} {
+		if b, ok := strings.CutSuffix(symbol, m); ok {
+			return b, m
+		}
+	}
+	return symbol, ""
 }
