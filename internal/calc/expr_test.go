@@ -21,10 +21,10 @@ type deriveCase struct {
 	// reads them as that dimension ("temperature difference: 10 K").
 	Inputs    map[string]string
 	Customary bool
-	Ambient   string // default 101325 Pa
-	Want      string // the value, read as Dim
-	Dim       string // the dimension the result must have
-	Unit      string // the result's display unit, when checked
+	Ambient   string  // default 101325 Pa
+	Want      string  // the value, read as Dim
+	Dim       string  // the dimension the result must have
+	Unit      string  // the result's display unit, when checked
 	RelTol    float64 `toml:"rel_tol"`
 	Trace     string  // a fragment of the working (Substituted)
 	Error     string  // a fragment of the message, instead of Want
