@@ -340,8 +340,8 @@ func (p *exprParser) unexpectedAfterOperand(t exprToken) string {
 	case tokComma:
 		return "a comma outside the arguments of a function"
 	case tokName:
-		if prev := p.toks[p.i-1]; prev.kind == tokNumber && prev.end == t.pos && t.ref.Name != "pi" && exprFunctions[t.ref.Name] == 0 {
-			return fmt.Sprintf("%s directly after the number %s: an expression takes no units; a quantity with a unit enters as an input of a figures block, by its name", t.describe(), prev.text)
+		if prev := p.toks[p.i-1]; prev.kind == tokNumber && t.ref.Name != "pi" && exprFunctions[t.ref.Name] == 0 {
+			return fmt.Sprintf("%s after the number %s: an expression takes no units (a quantity with a unit enters as an input of a figures block, by its name); to multiply, write * between the two", t.describe(), prev.text)
 		}
 		fallthrough
 	case tokNumber, tokLeft:

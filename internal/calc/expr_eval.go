@@ -56,7 +56,7 @@ func (x *Expr) Eval(lookup func(ExprRef) (ExprValue, bool), ambient float64, cus
 		return ExprValue{}, Trace{}, &ExprError{Msg: fmt.Sprintf(
 			"the result is in %s, which is no quantity a result can be; allowed: a plain number or a named quantity (length, pressure, power, energy per volume, ...)", v.exp)}
 	}
-	result := e.show(v, "", false)
+	result := e.show(v, "", false, exprFigures)
 	sub := "= " + result
 	switch x.root.kind {
 	case numberNode, piNode, nameNode:
@@ -241,7 +241,7 @@ func (e *exprEval) sum(n *exprNode, l, r exprVal) (exprVal, error) {
 				e.text(n), l.what(), r.what(), p.dim, p.dim, pointDifference(p.dim), p.dim, p.dim)
 		}
 		if si < 0 {
-			return exprVal{}, e.fail(n, "%s comes out below absolute zero (%s)", e.text(n), e.show(quantity(si, p.dim), "", true))
+			return exprVal{}, e.fail(n, "%s comes out below absolute zero (%s)", e.text(n), e.show(quantity(si, p.dim), "", true, exprFigures))
 		}
 		return quantity(si, p.dim), nil
 	}
@@ -363,7 +363,7 @@ func (e *exprEval) power(n *exprNode, base, exponent exprVal) (exprVal, error) {
 	case base.si == 0 && y < 0:
 		return exprVal{}, e.fail(n, "%s divides by zero: %s is 0", e.text(n), e.text(n.args[0]))
 	case base.si < 0 && y != math.Trunc(y):
-		return exprVal{}, e.fail(n, "%s raises a negative value (%s) to a fractional power, which is not a number", e.text(n), e.show(base, "", true))
+		return exprVal{}, e.fail(n, "%s raises a negative value (%s) to a fractional power, which is not a number", e.text(n), e.show(base, "", true, exprFigures))
 	case y == 1:
 		base.si = si
 		return base, nil
@@ -373,7 +373,7 @@ func (e *exprEval) power(n *exprNode, base, exponent exprVal) (exprVal, error) {
 	exp, ok := rootOf(base.exp, y)
 	if !ok {
 		return exprVal{}, e.fail(n, "%s: %s to the power %s has no dimension; a power of a quantity with units must leave whole powers of m, kg, s and K (the square root of an area is a length)",
-			e.text(n), base.what(), units.Format(y, 6))
+			e.text(n), base.what(), trimZeros(units.Format(y, 6)))
 	}
 	return fromExponents(si, exp), nil
 }
@@ -405,7 +405,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	switch n.text {
 	case "sqrt":
 		if a.si < 0 {
-			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.units[n.args[0].id], true))
+			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.units[n.args[0].id], true, exprFigures))
 		}
 		return e.power(n, a, quantity(0.5, units.Dimensionless))
 	case "abs":
@@ -425,7 +425,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	}
 	if !a.exp.IsZero() {
 		takes := "a plain number (divide by a value of the same kind for a ratio)"
-		if strings.HasSuffix(n.text, "n") || n.text == "cos" {
+		if n.text == "sin" || n.text == "cos" || n.text == "tan" {
 			takes = "an angle or a plain number (radians)"
 		}
 		return exprVal{}, e.fail(n, "%s takes %s; %s is %s", n.text, takes, arg, a.what())
@@ -433,7 +433,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	switch n.text {
 	case "ln", "log10":
 		if a.si <= 0 {
-			return exprVal{}, e.fail(n, "%s: the logarithm of %s, which is not a positive number", e.text(n), units.Format(a.si, 4))
+			return exprVal{}, e.fail(n, "%s: the logarithm of %s, which is not a positive number", e.text(n), trimZeros(units.Format(a.si, exprFigures)))
 		}
 		if n.text == "ln" {
 			return quantity(math.Log(a.si), units.Dimensionless), nil

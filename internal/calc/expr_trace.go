@@ -31,7 +31,7 @@ func cancelFigures(term, sum float64) int {
 func (e *exprEval) trace(n *exprNode, abs bool) string {
 	switch n.kind {
 	case nameNode:
-		s := e.show(e.vals[n.id], e.units[n.id], abs)
+		s := e.show(e.vals[n.id], e.units[n.id], abs, e.figures)
 		if strings.HasPrefix(s, "-") {
 			return "(" + s + ")"
 		}
@@ -62,12 +62,12 @@ func (e *exprEval) trace(n *exprNode, abs bool) string {
 	return n.text // a number or pi, as written
 }
 
-// show writes v in the unit the working shows it in: unit (from lookup) or
-// the display unit of its dimension, in the block's unit system; a pressure
-// absolute, a pressure difference with its mark, a temperature interval in
-// K or °R, and a temperature in K or °R when abs.
-func (e *exprEval) show(v exprVal, unit string, abs bool) string {
-	sig := e.figures
+// show writes v to sig significant figures in the unit the working shows
+// it in: unit (from lookup) or the display unit of its dimension, in the
+// block's unit system; a pressure absolute, a pressure difference with its
+// mark, a temperature interval in K or °R, and a temperature in K or °R
+// when abs.
+func (e *exprEval) show(v exprVal, unit string, abs bool, sig int) string {
 	if !v.named {
 		return trimZeros(units.Format(v.si, sig)) + " " + v.exp.String()
 	}
