@@ -180,10 +180,6 @@ func (p *exprParser) binary(op exprToken, l, r *exprNode) *exprNode {
 }
 
 func (p *exprParser) sum() (*exprNode, error) {
-	if p.depth++; p.depth > maxExprDepth {
-		return nil, p.errAt(p.peek(), fmt.Sprintf("nested more than %d deep; split it into several derived values", maxExprDepth))
-	}
-	defer func() { p.depth-- }()
 	l, err := p.product()
 	for err == nil && p.peek().isOp('+', '-') {
 		op := p.next()
@@ -207,14 +203,16 @@ func (p *exprParser) product() (*exprNode, error) {
 	return l, err
 }
 
+// unary is where every operand starts, so it bounds the nesting of
+// parentheses, function calls, exponents and minus signs alike.
 func (p *exprParser) unary() (*exprNode, error) {
+	if p.depth++; p.depth > maxExprDepth {
+		return nil, p.errAt(p.peek(), fmt.Sprintf("nested more than %d deep; split it into several derived values", maxExprDepth))
+	}
+	defer func() { p.depth-- }()
 	if !p.peek().isOp('-') {
 		return p.power()
 	}
-	if p.depth++; p.depth > maxExprDepth {
-		return nil, p.errAt(p.peek(), fmt.Sprintf("more than %d minus signs in a row", maxExprDepth))
-	}
-	defer func() { p.depth-- }()
 	minus := p.next()
 	x, err := p.unary()
 	if err != nil {

@@ -5,6 +5,8 @@ import (
 	"strconv"
 	"unicode"
 	"unicode/utf8"
+
+	"specgen/internal/units"
 )
 
 // exprTokenKind is what an exprToken is.
@@ -93,37 +95,16 @@ func lexExpr(src string) ([]exprToken, error) {
 	return append(toks, exprToken{kind: tokEnd, pos: len(src), end: len(src)}), nil
 }
 
-// lexNumber reads a decimal number at src[i:]: digits with at most one
-// point, and an exponent when one follows ("2.5e-3").
+// lexNumber reads a decimal number at src[i:], which starts with a digit
+// or a point: digits with at most one point, and an exponent when one
+// follows ("2.5e-3"), as a quantity's number is written.
 func lexNumber(src string, i int) (exprToken, error) {
-	j := i
-	for j < len(src) && isDigitByte(src[j]) {
-		j++
-	}
-	if j < len(src) && src[j] == '.' {
-		j++
-		for j < len(src) && isDigitByte(src[j]) {
-			j++
-		}
-	}
-	if j < len(src) && (src[j] == 'e' || src[j] == 'E') {
-		k := j + 1
-		if k < len(src) && (src[k] == '+' || src[k] == '-') {
-			k++
-		}
-		if k < len(src) && isDigitByte(src[k]) {
-			for k < len(src) && isDigitByte(src[k]) {
-				k++
-			}
-			j = k
-		}
-	}
-	text := src[i:j]
+	text, _ := units.SplitNumber(src[i:])
 	v, err := strconv.ParseFloat(text, 64)
 	if err != nil {
 		return exprToken{}, &ExprError{Col: column(src, i), Msg: fmt.Sprintf("the number %s is out of range", text)}
 	}
-	return exprToken{kind: tokNumber, pos: i, end: j, text: text, num: v}, nil
+	return exprToken{kind: tokNumber, pos: i, end: i + len(text), text: text, num: v}, nil
 }
 
 // lexName reads a name at src[i:]. A run of id characters (which include

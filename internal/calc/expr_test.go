@@ -134,7 +134,7 @@ func readDeriveInput(t *testing.T, text string) (units.Dimension, units.Quantity
 	if name, rest, ok := strings.Cut(text, ": "); ok {
 		dim, text = dimensionNamed(t, name), rest
 	} else {
-		_, unit := splitNumberUnit(text)
+		_, unit, _ := strings.Cut(strings.TrimSpace(text), " ")
 		u, err := units.LookupUnit(unit)
 		if err != nil {
 			t.Fatalf("input %q: %v", text, err)
@@ -146,12 +146,6 @@ func readDeriveInput(t *testing.T, text string) (units.Dimension, units.Quantity
 		t.Fatalf("input %q: %v", text, err)
 	}
 	return dim, q
-}
-
-// splitNumberUnit splits "2.5e3 kW" at the first space.
-func splitNumberUnit(text string) (number, unit string) {
-	number, unit, _ = strings.Cut(strings.TrimSpace(text), " ")
-	return number, unit
 }
 
 // parseAbsolute reads text as dim, in SI with a pressure absolute.

@@ -31,7 +31,7 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": empty; expected "+want.article()+" ("+want.Examples()+")")
 	}
 	// U+2212 is the minus sign of typeset text (ISO 80000-1); no unit holds it.
-	numText, rest := splitNumber(strings.ReplaceAll(text, "\u2212", "-"))
+	numText, rest := SplitNumber(strings.ReplaceAll(text, "\u2212", "-"))
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text, want))
 	}
@@ -97,10 +97,10 @@ var ratioOfOne = regexp.MustCompile(`^:[\s\p{Zs}]*1(\.0*)?$`)
 // underscore ("1 000", "1'000"), which would otherwise read as a unit.
 var groupSeparator = regexp.MustCompile(`^[\s\p{Zs}'’_][0-9]{3}([^0-9]|$)`)
 
-// splitNumber splits s into a leading decimal number (sign, digits with at
+// SplitNumber splits s into a leading decimal number (sign, digits with at
 // most one point, optional exponent) and the rest. The number is "" when s
 // does not start with one.
-func splitNumber(s string) (number, rest string) {
+func SplitNumber(s string) (number, rest string) {
 	i := 0
 	if i < len(s) && (s[i] == '+' || s[i] == '-') {
 		i++
