@@ -73,19 +73,8 @@ func browser(t *testing.T) (context.Context, func() []string) {
 
 // previewDemo serves the repository's demo site with the preview server.
 func previewDemo(t *testing.T, dir string) string {
-	ctx, cancel := context.WithCancel(context.Background())
-	ready := make(chan string, 1)
-	done := make(chan int)
-	var out, errb syncBuffer
-	go func() { done <- servePreview(ctx, dir, "127.0.0.1:0", &out, &errb, ready) }()
-	t.Cleanup(func() { cancel(); <-done })
-	select {
-	case a := <-ready:
-		return "http://" + a + "/"
-	case <-time.After(20 * time.Second):
-		t.Fatal("preview did not start")
-	}
-	return ""
+	addr, _ := startPreview(t, dir)
+	return "http://" + addr + "/"
 }
 
 // a11yScript checks a page with our own small rule set: one main landmark,
@@ -231,11 +220,7 @@ func TestBrowserDemo(t *testing.T) {
 // page reloads by itself.
 func TestBrowserPreviewReloads(t *testing.T) {
 	ctx, problems := browser(t)
-	dir := filepath.Join(t.TempDir(), "site")
-	var out, errb syncBuffer
-	if code := run([]string{"init", dir}, &out, &errb); code != exitOK {
-		t.Fatal("init failed")
-	}
+	dir := starterSite(t)
 	base := previewDemo(t, dir)
 	// Give the page time to open its event stream.
 	if err := chromedp.Do(ctx, chromedp.Navigate(base), chromedp.WaitReady(chromedp.CSS("body")), chromedp.Sleep(300*time.Millisecond)); err != nil {
@@ -251,6 +236,22 @@ func TestBrowserPreviewReloads(t *testing.T) {
 		t.Fatal(err)
 	}
 	t.Logf("browser showed the edit after %v", time.Since(start).Round(time.Millisecond))
+
+	// A broken edit shows the error over the page, styled by the preview's
+	// own stylesheet: the content policy refuses inline styles.
+	if err := os.WriteFile(filepath.Join(dir, "content", "broken.md"), []byte("+++\ntitel = \"oops\"\n+++\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.Search(`//*[@id="sg-preview-error"][contains(., "content/broken.md:2")]`))); err != nil {
+		t.Fatal(err)
+	}
+	position, err := chromedp.Run(ctx, chromedp.Evaluate[string](`getComputedStyle(document.getElementById("sg-preview-error")).position`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if position != "fixed" {
+		t.Errorf("the error overlay is not styled (position %q); is its stylesheet refused?", position)
+	}
 	for _, p := range problems() {
 		// The event stream is cut when the page reloads; that is not an error of the site.
 		if !strings.Contains(p, "_specgen/events") {

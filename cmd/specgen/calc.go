@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"specgen/internal/calc"
+	"specgen/internal/models"
 	"specgen/internal/render"
 )
 
@@ -39,12 +40,17 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "specgen calc:", err)
 		return exitBadInput
 	}
-	b, err := calc.ParseBlock(file, 0, string(src))
+	cat, err := models.NewCatalog(nil)
+	if err != nil {
+		fmt.Fprintln(stderr, "specgen calc:", err)
+		return exitBadInput
+	}
+	b, err := cat.ParseBlock(file, 0, string(src))
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
-	set, err := calc.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
+	set, err := cat.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
@@ -71,30 +77,35 @@ func runExplain(args []string, stdout, stderr io.Writer) int {
 	if code >= 0 {
 		return code
 	}
+	cat, err := models.NewCatalog(nil)
+	if err != nil {
+		fmt.Fprintln(stderr, "specgen explain:", err)
+		return exitBadInput
+	}
 	switch len(pos) {
 	case 0:
-		calc.ExplainKinds(stdout)
+		models.ExplainKinds(stdout, cat)
 		return exitOK
 	case 1:
 		switch pos[0] {
 		case "cautions":
-			calc.ExplainCautions(stdout)
+			models.ExplainCautions(stdout, cat)
 			return exitOK
 		case "materials":
-			calc.ExplainMaterials(stdout, calc.DefaultEnv())
+			models.ExplainMaterials(stdout, models.DefaultEnv())
 			return exitOK
 		}
-		k, ok := calc.LookupKind(pos[0])
+		k, ok := cat.Kind(pos[0])
 		if !ok {
 			msg := fmt.Sprintf("specgen explain: unknown kind %q", pos[0])
-			if s := calc.Suggest(pos[0], calc.KindNames()); s != "" {
+			if s := calc.Suggest(pos[0], cat.KindNames()); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			fmt.Fprintln(stderr, msg)
-			calc.ExplainKinds(stderr)
+			models.ExplainKinds(stderr, cat)
 			return exitBadInput
 		}
-		k.Explain(stdout)
+		models.ExplainKind(stdout, cat, k)
 		return exitOK
 	}
 	fmt.Fprintln(stderr, "specgen explain: give at most one kind")

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/site"
 )
 
@@ -31,12 +32,12 @@ type inputError struct {
 // inputErrors lists err's messages for JSON, or nil when err is not bad
 // input.
 func inputErrors(err error) []inputError {
-	var list site.ErrorList
-	var one *site.Error
+	var list inputerr.List
+	var one *inputerr.Error
 	switch {
 	case errors.As(err, &list):
 	case errors.As(err, &one):
-		list = site.ErrorList{one}
+		list = inputerr.List{one}
 	default:
 		return nil
 	}

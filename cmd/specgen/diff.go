@@ -6,6 +6,9 @@ import (
 	"os"
 	"strings"
 
+	"specgen/internal/calcdiff"
+	"specgen/internal/inputerr"
+	"specgen/internal/results"
 	"specgen/internal/site"
 )
 
@@ -41,21 +44,21 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 		return report(stderr, err)
 	}
 	headName := "working tree"
-	var head *site.ResultsFile
+	var head *results.File
 	if len(pos) == 2 {
 		headName = pos[1]
 		head, err = resultsFor(*dir, pos[1])
 	} else {
-		head, err = site.ResultsOf(*dir)
+		head, err = calcdiff.ResultsOf(*dir)
 	}
 	if err != nil {
 		return report(stderr, err)
 	}
-	d := site.Compare(base, head)
+	d := calcdiff.Compare(base, head)
 	d.Base, d.Head = pos[0], headName
 	for _, side := range []struct {
 		name string
-		f    *site.ResultsFile
+		f    *results.File
 		verb string
 	}{{d.Base, base, "added"}, {d.Head, head, "removed"}} {
 		if side.f.NoSite {
@@ -77,16 +80,16 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 
 // resultsFor reads a results.json file, or evaluates the site at a git
 // revision.
-func resultsFor(dir, arg string) (*site.ResultsFile, error) {
+func resultsFor(dir, arg string) (*results.File, error) {
 	if strings.HasSuffix(arg, ".json") {
 		if _, err := os.Stat(arg); err == nil {
-			return site.ReadResults(arg)
+			return results.Read(arg)
 		}
-		if !site.IsRevision(dir, arg) {
-			return nil, &site.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
+		if !calcdiff.IsRevision(dir, arg) {
+			return nil, &inputerr.Error{Msg: fmt.Sprintf("%s: no such file (nor a git revision); give a results.json file, such as the dist/results.json that specgen build writes", arg)}
 		}
 	}
-	return site.ResultsAt(dir, arg)
+	return calcdiff.ResultsAt(dir, arg)
 }
 
 func runInit(args []string, stdout, stderr io.Writer) int {

@@ -14,6 +14,7 @@ import (
 	"runtime/debug"
 	"syscall"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/site"
 )
 
@@ -157,7 +158,7 @@ func parseOnly(fs *flag.FlagSet, args []string) ([]string, int) {
 // start with their file:line; other failures (a disk, a permission) get the
 // program's name.
 func report(stderr io.Writer, err error) int {
-	if site.IsInputError(err) {
+	if inputerr.Is(err) {
 		fmt.Fprintln(stderr, err)
 	} else {
 		fmt.Fprintln(stderr, "specgen:", err)

@@ -13,6 +13,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -36,6 +37,7 @@ type Block struct {
 	// accepting them.
 	Acknowledge map[string]string
 	lines       map[string]int // TOML-relative line of each key
+	catalog     *Catalog
 }
 
 // Value is one input as the user wrote it.
@@ -69,7 +71,7 @@ type Output struct {
 	Unit string // "" for the result's default
 }
 
-// Common keys every block takes besides its kind's inputs.
+// commonKeys are the keys every block takes besides its kind's inputs.
 var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
 
 // Limits on one block, far above any real block, so that a runaway or
@@ -90,27 +92,27 @@ var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]
 
 // ParseBlock decodes one calc block. file and fenceLine place it for error
 // messages: TOML line k is file line fenceLine+k.
-func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
-	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}}
+func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, error) {
+	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
-		return nil, Errors{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
+		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
 	}
 	var raw map[string]any
 	if _, err := toml.Decode(src, &raw); err != nil {
 		return nil, b.tomlError(err)
 	}
 	b.lines = KeyLines(src)
-	var errs Errors
+	var errs inputerr.List
 	fail := func(key, format string, args ...any) {
-		errs = append(errs, &Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
+		errs = append(errs, &inputerr.Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
 	}
 
 	id, ok := raw["id"].(string)
 	switch {
 	case raw["id"] == nil:
-		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
+		errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Msg: `the block has no id; add id = "name" (lower-case letters, digits, '-' and '_'), unique in the site`})
 	case !ok:
-		fail("id", "%s is not a string; write id = \"name\"", tomlText(raw["id"]))
+		fail("id", "%s is not a string; write id = \"name\"", TOMLText(raw["id"]))
 	case !idPattern.MatchString(id):
 		fail("id", "%q is not allowed; an id is lower-case letters, digits, '-' and '_', starting with a letter or digit", id)
 	}
@@ -119,15 +121,15 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	kindName, ok := raw["kind"].(string)
 	switch {
 	case raw["kind"] == nil:
-		errs = append(errs, &Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(KindNames(), ", ") + ")"})
+		errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Msg: "the block has no kind; add kind = \"...\" (one of " + strings.Join(c.KindNames(), ", ") + ")"})
 	case !ok:
-		fail("kind", "%s is not a string; one of %s", tomlText(raw["kind"]), strings.Join(KindNames(), ", "))
+		fail("kind", "%s is not a string; one of %s", TOMLText(raw["kind"]), strings.Join(c.KindNames(), ", "))
 	default:
-		k, found := LookupKind(kindName)
+		k, found := c.Kind(kindName)
 		if !found {
-			msg := fmt.Sprintf("unknown kind %q; allowed: %s", kindName, strings.Join(KindNames(), ", "))
-			if s := Suggest(kindName, KindNames()); s != "" {
-				msg = fmt.Sprintf("unknown kind %q; did you mean %q? (allowed: %s)", kindName, s, strings.Join(KindNames(), ", "))
+			msg := fmt.Sprintf("unknown kind %q; allowed: %s", kindName, strings.Join(c.KindNames(), ", "))
+			if s := Suggest(kindName, c.KindNames()); s != "" {
+				msg = fmt.Sprintf("unknown kind %q; did you mean %q? (allowed: %s)", kindName, s, strings.Join(c.KindNames(), ", "))
 			}
 			fail("kind", "%s", msg)
 		}
@@ -137,7 +139,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 		if s, ok := t.(string); ok {
 			b.Title = s
 		} else {
-			fail("title", "%s is not a string", tomlText(t))
+			fail("title", "%s is not a string", TOMLText(t))
 		}
 	}
 	if len(errs) > 0 || b.Kind == nil {
@@ -167,7 +169,7 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 			errs = append(errs, b.decodeAcknowledge(v)...)
 			continue
 		}
-		if _, isInput := b.Kind.input(key); !isInput && key != "ambient_pressure" {
+		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" {
 			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))
 			if s := Suggest(key, allowed); s != "" {
 				msg = fmt.Sprintf("unknown key for kind %s; did you mean %q?", b.Kind.Name, s)
@@ -189,11 +191,11 @@ func ParseBlock(file string, fenceLine int, src string) (*Block, error) {
 	for _, in := range b.Kind.Inputs {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {
-			errs = append(errs, &Error{File: file, Line: fenceLine, Key: in.Name,
-				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, takes(in))})
+			errs = append(errs, &inputerr.Error{File: file, Line: fenceLine, Key: in.Name,
+				Msg: fmt.Sprintf("missing; kind %s needs it: %s (%s)", b.Kind.Name, in.Meaning, b.takes(in))})
 		}
 	}
-	if err := errs.capped(MaxBlockErrors).Sorted(); err != nil {
+	if err := errs.Capped(MaxBlockErrors, "in this block").Sorted(); err != nil {
 		return nil, err
 	}
 	return b, nil
@@ -211,13 +213,13 @@ func lineCount(src string) int {
 
 // decodeValue reads one input: a quantity string, a plain number (only for
 // dimensionless inputs) or a "=id.result" reference.
-func (b *Block) decodeValue(key string, v any) (Value, *Error) {
+func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 	line := b.lineOf(key)
-	bad := func(format string, args ...any) (Value, *Error) {
-		return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
 	dim := units.Pressure
-	spec, isInput := b.Kind.input(key)
+	spec, isInput := b.Kind.Input(key)
 	if isInput {
 		dim = spec.Dim
 		switch spec.Type {
@@ -251,16 +253,16 @@ func (b *Block) decodeValue(key string, v any) (Value, *Error) {
 		}
 		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
 	}
-	return bad("%s is not a quantity; write a string such as \"32 mm\"", tomlText(v))
+	return bad("%s is not a quantity; write a string such as \"32 mm\"", TOMLText(v))
 }
 
 // decodeName reads a Name input: a string, a number written bare (a
 // property class such as 8.8) or a boolean ("true", "false").
-func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
+func (b *Block) decodeName(key string, line int, v any) (Value, *inputerr.Error) {
 	switch t := v.(type) {
 	case string:
 		if strings.TrimSpace(t) == "" {
-			return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: "must not be empty"}
+			return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: "must not be empty"}
 		}
 		return Value{Text: strings.TrimSpace(t), Line: line}, nil
 	case int64:
@@ -270,13 +272,13 @@ func (b *Block) decodeName(key string, line int, v any) (Value, *Error) {
 	case bool:
 		return Value{Text: strconv.FormatBool(t), Line: line}, nil
 	}
-	return Value{}, &Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", tomlText(v))}
+	return Value{}, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: fmt.Sprintf("%s is not a name; write a string", TOMLText(v))}
 }
 
 // decodeLinks reads a Link (one block id) or LinkList (an array of ids).
-func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
-	bad := func(format string, args ...any) (Value, *Error) {
-		return Value{}, &Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
+func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *inputerr.Error) {
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
 	}
 	var ids []string
 	switch t := v.(type) {
@@ -289,12 +291,12 @@ func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
 		for _, item := range t {
 			s, ok := item.(string)
 			if !ok {
-				return bad("%s is not a block id; write a list of strings such as [\"receiver\"]", tomlText(item))
+				return bad("%s is not a block id; write a list of strings such as [\"receiver\"]", TOMLText(item))
 			}
 			ids = append(ids, s)
 		}
 	default:
-		return bad("%s is not a block id; write the id of another block as a string", tomlText(v))
+		return bad("%s is not a block id; write the id of another block as a string", TOMLText(v))
 	}
 	for _, id := range ids {
 		if !idPattern.MatchString(id) {
@@ -308,27 +310,27 @@ func (b *Block) decodeLinks(spec InputSpec, line int, v any) (Value, *Error) {
 }
 
 // decodeAcknowledge reads [acknowledge]: caution rule ids with reasons.
-func (b *Block) decodeAcknowledge(v any) Errors {
+func (b *Block) decodeAcknowledge(v any) inputerr.List {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return Errors{{File: b.File, Line: b.lineOf("acknowledge"), Key: "acknowledge",
+		return inputerr.List{{File: b.File, Line: b.lineOf("acknowledge"), Key: "acknowledge",
 			Msg: "must be a table: [acknowledge] with lines such as stored-energy = \"why this is accepted\""}}
 	}
-	var errs Errors
+	var errs inputerr.List
 	b.Acknowledge = map[string]string{}
-	ids := RuleIDs()
+	ids := b.catalog.RuleIDs()
 	for _, rule := range slices.Sorted(maps.Keys(table)) {
 		key := "acknowledge." + rule
 		reason, isString := table[rule].(string)
 		switch {
-		case !knownRule(rule):
+		case !slices.Contains(ids, rule):
 			msg := fmt.Sprintf("unknown caution rule %q; rules: %s", rule, strings.Join(ids, ", "))
 			if s := Suggest(rule, ids); s != "" {
 				msg = fmt.Sprintf("unknown caution rule %q; did you mean %q?", rule, s)
 			}
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key, Msg: msg})
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf(key), Key: key, Msg: msg})
 		case !isString || strings.TrimSpace(reason) == "":
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf(key), Key: key,
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf(key), Key: key,
 				Msg: "give the reason as a string; an acknowledgement without a reason is not accepted"})
 		default:
 			b.Acknowledge[rule] = strings.TrimSpace(reason)
@@ -368,13 +370,13 @@ func (b *Block) tomlError(err error) error {
 		if pe.LastKey != "" && !strings.Contains(pe.Message, pe.LastKey) {
 			msg = pe.LastKey + ": " + msg
 		}
-		return Errors{{File: b.File, Line: b.Line + line, Msg: msg}}
+		return inputerr.List{{File: b.File, Line: b.Line + line, Msg: msg}}
 	}
-	return Errors{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
+	return inputerr.List{{File: b.File, Line: b.Line, Msg: "TOML: " + err.Error()}}
 }
 
-// tomlText shows a decoded TOML value as the user would have written it.
-func tomlText(v any) string {
+// TOMLText shows a decoded TOML value as the user would have written it.
+func TOMLText(v any) string {
 	switch t := v.(type) {
 	case string:
 		return strconv.Quote(t)
@@ -389,11 +391,11 @@ func tomlText(v any) string {
 }
 
 // takes says what an input takes, for messages.
-func takes(in InputSpec) string {
+func (b *Block) takes(in InputSpec) string {
 	switch in.Type {
 	case Name:
 		if in.Choices != nil {
-			return "one of " + strings.Join(in.Choices(DefaultEnv()), ", ")
+			return "one of " + strings.Join(in.Choices(b.catalog.env), ", ")
 		}
 		return "a name"
 	case Link:

@@ -94,8 +94,8 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 	return c, nil
 }
 
-// curve returns the outcome's curve named name.
-func (o *Outcome) curve(name string) (Curve, bool) {
+// Curve returns the outcome's curve named name.
+func (o *Outcome) Curve(name string) (Curve, bool) {
 	for _, c := range o.Curves {
 		if c.Name == name {
 			return c, true
@@ -104,8 +104,8 @@ func (o *Outcome) curve(name string) (Curve, bool) {
 	return Curve{}, false
 }
 
-// result returns the outcome's result named name (0 when absent).
-func (o *Outcome) result(name string) float64 {
+// ResultValue returns the outcome's result named name (0 when absent).
+func (o *Outcome) ResultValue(name string) float64 {
 	for _, r := range o.Results {
 		if r.Name == name {
 			return r.Value
@@ -121,24 +121,4 @@ type Table struct {
 	Title  string
 	X, Y   Axis
 	XS, YS []float64
-}
-
-func tankChart(name string, in *Inputs, out *Outcome) (*Chart, error) {
-	fill, ok := out.curve("fill")
-	if !ok {
-		return nil, fmt.Errorf("the fill chart needs a supply: name the compressor that fills the tank")
-	}
-	gauge := chartIn(in.Customary(), "bar")
-	unit := timeUnitFor(fill.X[len(fill.X)-1])
-	return &Chart{
-		Title: "Tank pressure while filling",
-		Desc: fmt.Sprintf("The receiver's gauge pressure over time as the supply fills it from %s to %s; the delivery falls as the pressure rises, so the curve flattens.",
-			gauge(fill.Y[0]-in.Ambient), gauge(fill.Y[len(fill.Y)-1]-in.Ambient)),
-		X: Axis{Label: "Time", Dim: units.Time, Unit: unit},
-		Panels: []Panel{{
-			Y:      Axis{Label: "Tank pressure", Dim: units.Pressure, Unit: "bar"},
-			Series: []Series{{Name: "tank pressure", X: fill.X, Y: fill.Y}},
-			Marks:  []Mark{{Value: fill.Y[len(fill.Y)-1], Label: "target"}},
-		}},
-	}, nil
 }

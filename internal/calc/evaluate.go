@@ -5,18 +5,20 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
 	"sync"
 
+	"specgen/internal/display"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
 // Options are the site-wide settings of an evaluation.
 type Options struct {
-	SigFigs int  // significant figures of displayed values (default 3)
-	Env     *Env // materials and safety settings (default DefaultEnv)
+	SigFigs int // significant figures of displayed values (default 3)
 	// Charted, when set, tells which blocks will have charts drawn; the
 	// curves of the others are dropped as soon as no block needs them, so
 	// that a big site does not hold them all. Nil keeps every curve.
@@ -80,7 +82,7 @@ type InputValue struct {
 
 // linked is the view of e that a block linking to it gets.
 func (e *Evaluated) linked() *Linked {
-	l := &Linked{ID: e.Block.ID, Kind: e.Block.Kind.Name, Ambient: e.Ambient,
+	l := &Linked{ID: e.Block.ID, Kind: e.Block.Kind.Name, Roles: e.Block.Kind.Roles, Ambient: e.Ambient,
 		Results: map[string]float64{}, Inputs: map[string]float64{}, Names: map[string]string{}, Curves: e.Curves}
 	for _, r := range e.Results {
 		l.Results[r.Name] = r.Value
@@ -113,6 +115,10 @@ func (e *Evaluated) Release() {
 	e.in = nil
 }
 
+// ModelInputs is what the model saw (nil once released), for the caution
+// rules.
+func (e *Evaluated) ModelInputs() *Inputs { return e.in }
+
 // SigFigs is the number of significant figures the block's values show.
 func (e *Evaluated) SigFigs() int { return e.sigFigs }
 
@@ -130,128 +136,18 @@ func (e *Evaluated) Failed() bool {
 // units, and so shows its results in them.
 func (e *Evaluated) Customary() bool { return e.customary }
 
-// DisplayUnit is the unit a result shows in: the block's [show] choice,
-// else the kind's default, in US customary units when the block is written
-// in them.
-func (e *Evaluated) DisplayUnit(name string) string {
-	for _, o := range e.Block.Show.Outputs {
-		if o.Name == name && o.Unit != "" {
-			return o.Unit
-		}
-	}
-	if spec, ok := e.Block.Kind.result(name); ok {
-		if spec.Dim == units.Time {
-			if r, found := e.Result(name); found {
-				return timeUnitFor(r.Value)
-			}
-		}
-		if e.customary {
-			return units.CustomaryFor(spec.Unit)
-		}
-		return spec.Unit
-	}
-	return ""
-}
-
-// timeUnitFor is the unit a duration reads best in: seconds up to three
-// minutes, minutes up to three hours, then hours ("41 700 000 s" is 11 600 h).
-func timeUnitFor(seconds float64) string {
-	switch {
-	case seconds < 180:
-		return "s"
-	case seconds < 3*3600:
-		return "min"
-	}
-	return "h"
-}
-
-// Format shows a result in a unit ("" for its display unit) with the
-// site's significant figures: "19.7 cm3".
-func (e *Evaluated) Format(name, unit string) (string, error) {
-	si, dim, shown, ok := e.Quantity(name)
-	if !ok {
-		return "", fmt.Errorf("block %s has no result or input %q", e.Block.ID, name)
-	}
-	if unit == "" {
-		unit = shown
-	}
-	return FormatValue(si, dim, unit, e.Ambient, e.sigFigs)
-}
-
-// Quantity returns a result, or else a quantity input, of the block: its
-// SI value, dimension and the unit it is shown in (the display unit of a
-// result, the unit an input was written in). Prose and other blocks may
-// quote both.
-func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit string, ok bool) {
-	if r, found := e.Result(name); found {
-		return r.Value, r.Dim, e.DisplayUnit(name), true
-	}
-	for _, in := range e.Inputs {
-		if in.Name == name && in.Type == Quantity {
-			unit := ""
-			if q, err := units.Parse(in.Text, in.Dim); err == nil {
-				unit = q.Unit.Symbol
-			} else if in.From != "" {
-				unit = unitFromShown(in.Text)
-			}
-			return in.Value, in.Dim, unit, true
-		}
-	}
-	return 0, 0, "", false
-}
-
-// unitFromShown is the unit of a formatted value such as "19.7 cm³".
-func unitFromShown(text string) string {
-	_, unit, _ := strings.Cut(text, " ")
-	if u, err := units.LookupUnit(unit); err == nil {
-		return u.Symbol
-	}
-	return ""
-}
-
-// FormatValue shows an SI value in unit with sig significant figures.
-func FormatValue(si float64, dim units.Dimension, unit string, ambient float64, sig int) (string, error) {
-	if dim == units.Dimensionless && unit == "" {
-		return units.Format(si, sig), nil
-	}
-	if dim == units.Pressure {
-		unit = markedPressureUnit(si, unit, ambient)
-	}
-	v, err := units.FromSI(si, dim, unit, ambient)
-	if err != nil {
-		return "", err
-	}
-	u, err := units.LookupUnit(unit)
-	if err != nil {
-		return "", err
-	}
-	if u.Symbol == "" {
-		return units.Format(v, sig), nil
-	}
-	if pretty := units.Pretty(u.Symbol); pretty != "°" {
-		return units.Format(v, sig) + " " + pretty, nil
-	}
-	return units.Format(v, sig) + "°", nil
-}
-
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order.
-func Evaluate(blocks []*Block, opts Options) (*Set, error) {
+func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if opts.SigFigs == 0 {
 		opts.SigFigs = 3
 	}
-	if opts.Env == nil {
-		if _, err := DefaultMaterials(); err != nil {
-			return nil, err
-		}
-		opts.Env = DefaultEnv()
-	}
 	set := &Set{byID: map[string]*Evaluated{}, opts: opts}
-	var errs Errors
+	var errs inputerr.List
 	byID := map[string]*Block{}
 	for _, b := range blocks {
 		if other, dup := byID[b.ID]; dup {
-			errs = append(errs, &Error{File: b.File, Line: b.lineOf("id"), Key: "id",
+			errs = append(errs, &inputerr.Error{File: b.File, Line: b.lineOf("id"), Key: "id",
 				Msg: fmt.Sprintf("%q is already used by the block at %s:%d; ids are unique in the site", b.ID, other.File, other.lineOf("id"))})
 			continue
 		}
@@ -263,7 +159,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	sort.Strings(ids)
 	for _, id := range ids {
-		errs = append(errs, checkRefs(byID[id], byID, ids)...)
+		errs = append(errs, c.checkRefs(byID[id], byID, ids)...)
 	}
 	if err := errs.Sorted(); err != nil {
 		return nil, err
@@ -301,7 +197,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			i := run[j]
 			b := level[i]
 			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
-			outs[i].e, outs[i].err = evaluateBlock(b, set, opts, want)
+			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want)
 			// Drop curves at once: a level can hold thousands of blocks.
 			if outs[i].err == nil && !want {
 				outs[i].e.Curves = nil
@@ -310,11 +206,11 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		for _, i := range run {
 			b, o := level[i], outs[i]
 			if o.err != nil {
-				var list Errors
+				var list inputerr.List
 				if errors.As(o.err, &list) {
 					errs = append(errs, list...)
 				} else {
-					errs = append(errs, &Error{File: b.File, Line: b.Line, Msg: o.err.Error()})
+					errs = append(errs, &inputerr.Error{File: b.File, Line: b.Line, Msg: o.err.Error()})
 				}
 				failed[b.ID] = true
 				continue
@@ -328,7 +224,7 @@ func Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	for _, id := range ids {
 		set.Blocks = append(set.Blocks, set.byID[id])
 	}
-	applyRules(set)
+	c.applyRules(set)
 	return set, nil
 }
 
@@ -348,7 +244,7 @@ func dependsOnFailed(b *Block, failed map[string]bool) bool {
 func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
 	var out []string
 	for _, id := range ids {
-		if t := byID[id]; t != b && (len(in.LinkKinds) == 0 || contains(in.LinkKinds, t.Kind.Name)) {
+		if t := byID[id]; t != b && (in.LinkRoles == 0 || t.Kind.Roles&in.LinkRoles != 0) {
 			out = append(out, id)
 		}
 	}
@@ -357,13 +253,13 @@ func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string
 
 // checkRefs checks that every "=id.result" of b names a block and one of
 // its results, of the input's dimension.
-func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
-	var errs Errors
+func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inputerr.List {
+	var errs inputerr.List
 	for _, key := range sortedValueKeys(b) {
 		v := b.Values[key]
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		if len(v.Links) > 0 {
-			in, _ := b.Kind.input(key)
+			in, _ := b.Kind.Input(key)
 			for _, id := range v.Links {
 				target, ok := byID[id]
 				switch {
@@ -375,10 +271,10 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 					fail(msg)
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
-				case len(in.LinkKinds) > 0 && !contains(in.LinkKinds, target.Kind.Name):
-					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(in.LinkKinds, " or "))
-					if target.Kind.Name == "multistage" && contains(in.LinkKinds, "compressor") {
-						msg += " (a multistage block has no cylinders: name the compressor block of the stage that delivers)"
+				case in.LinkRoles != 0 && target.Kind.Roles&in.LinkRoles == 0:
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsWith(in.LinkRoles), " or "))
+					if target.Kind.LinkHint != "" {
+						msg += " (" + target.Kind.LinkHint + ")"
 					}
 					fail(msg)
 				}
@@ -402,7 +298,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			continue
 		}
 		spec, ok := target.Kind.result(v.RefResult)
-		if inSpec, isInput := target.Kind.input(v.RefResult); !ok && isInput {
+		if inSpec, isInput := target.Kind.Input(v.RefResult); !ok && isInput {
 			if inSpec.Type != Quantity {
 				fail(fmt.Sprintf("%q: %s is a %s input of block %s, not a quantity", v.Text, v.RefResult, "name or link", target.ID))
 				continue
@@ -417,7 +313,7 @@ func checkRefs(b *Block, byID map[string]*Block, ids []string) Errors {
 			fail(msg)
 			continue
 		}
-		in, _ := b.Kind.input(key)
+		in, _ := b.Kind.Input(key)
 		if spec.Dim != in.Dim {
 			fail(fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(spec.Dim), key, dimPhrase(in.Dim)))
 		}
@@ -453,37 +349,6 @@ func levels(order []*Block) [][]*Block {
 		out[d] = append(out[d], b)
 	}
 	return out
-}
-
-// absoluteUnit is the absolute form of a pressure unit: "bar" → "bar(a)".
-// markedPressureUnit gives an unmarked pressure unit ("bar") its mark, so
-// that a shown pressure never leaves the reader to guess: gauge at or above
-// ambient, absolute below it, where a gauge figure hides how good a vacuum
-// is ("-1000 mbar" for 9 mbar(a)).
-func markedPressureUnit(si float64, unit string, ambient float64) string {
-	u, err := units.LookupUnit(unit)
-	if err != nil || u.Ref != units.Unmarked {
-		return unit
-	}
-	mark := "(g)"
-	if si < ambient {
-		mark = "(a)"
-	}
-	if m, err := units.LookupUnit(u.Symbol + mark); err == nil {
-		return m.Symbol
-	}
-	return unit
-}
-
-func absoluteUnit(unit string) string {
-	u, err := units.LookupUnit(unit)
-	if err != nil || u.Ref == units.Absolute {
-		return unit
-	}
-	if a, err := units.LookupUnit(strings.TrimSuffix(u.Symbol, "(g)") + "(a)"); err == nil {
-		return a.Symbol
-	}
-	return "bar(a)"
 }
 
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
@@ -533,7 +398,7 @@ func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
 			cycle := append(append([]string{}, stack[start:]...), id)
 			b := byID[stack[len(stack)-1]]
 			key, line := refKeyTo(b, id)
-			return Errors{{File: b.File, Line: line, Key: key,
+			return inputerr.List{{File: b.File, Line: line, Key: key,
 				Msg: "references go round in a circle: " + strings.Join(cycle, " → ") + "; break the circle by giving one value directly"}}
 		}
 		state[id] = active
@@ -571,11 +436,11 @@ func refKeyTo(b *Block, id string) (string, int) {
 
 // evaluateBlock reads a block's inputs (references from set), runs its
 // model and checks its claims.
-func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
+func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
-	var errs Errors
+	var errs inputerr.List
 	fail := func(key string, line int, msg string) {
-		errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg})
+		errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg})
 	}
 	if b.Ambient.Text != "" {
 		q, err := units.Parse(b.Ambient.Text, units.Pressure)
@@ -591,7 +456,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 		}
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: opts.Env, noCurves: !wantCurves}
+		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
@@ -606,8 +471,8 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			}
 			written := text
 			if spec.Choices != nil {
-				choices := spec.Choices(opts.Env)
-				if resolved, ok := resolveChoice(spec, opts.Env, text); ok {
+				choices := spec.Choices(c.env)
+				if resolved, ok := resolveChoice(spec, c.env, text); ok {
 					text = resolved
 				}
 				if !contains(choices, text) {
@@ -625,7 +490,7 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 				iv.Written = written
 			}
 			if spec.Label != nil {
-				iv.Label = spec.Label(opts.Env, text)
+				iv.Label = spec.Label(c.env, text)
 			}
 			e.Inputs = append(e.Inputs, iv)
 			continue
@@ -703,19 +568,26 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 			if v, ok := b.Values[ie.Key]; ok {
 				line = v.Line
 			}
-			return nil, Errors{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
+			return nil, inputerr.List{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
 		}
-		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
+		return nil, inputerr.List{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %v", b.ID, err)}}
 	}
 	if bad := nonFinite(out); bad != "" {
-		return nil, Errors{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
+		return nil, inputerr.List{{File: b.File, Line: b.Line, Msg: fmt.Sprintf("block %s: %s is not a finite number with the inputs %s; check that they describe a real machine", b.ID, bad, givenInputs(e.Inputs))}}
+	}
+	for _, c := range out.Cautions {
+		// A caution outside the rule table could be neither explained nor
+		// acknowledged.
+		if !slices.Contains(b.Kind.Raises, c.Rule) {
+			return nil, fmt.Errorf("block %s: kind %s raised caution %q, which it does not list in Raises", b.ID, b.Kind.Name, c.Rule)
+		}
 	}
 	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {
-			return nil, Errors{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
+			return nil, inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
 		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
 	}
@@ -728,9 +600,9 @@ func evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluate
 // checkShownComputed checks that every result [show] outputs names was
 // computed: a kind declares some results only for some inputs (a tank's
 // hoop_stress needs its wall), and the table would silently leave it out.
-func checkShownComputed(e *Evaluated) Errors {
+func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
-	var errs Errors
+	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
 		if _, found := e.Result(o.Name); found {
 			continue
@@ -743,7 +615,7 @@ func checkShownComputed(e *Evaluated) Errors {
 		for i, r := range e.Results {
 			names[i] = r.Name
 		}
-		errs = append(errs, &Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+		errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
 			Msg: fmt.Sprintf("%q: block %s computes no %s with its inputs%s; it computes %s",
 				written, b.ID, o.Name, meaningAside(b.Kind.resultMeaning(o.Name)), strings.Join(names, ", "))})
 	}
@@ -754,7 +626,7 @@ func checkShownComputed(e *Evaluated) Errors {
 // a pressure's range is on its absolute value, so it is worded absolute.
 func describeRange(spec InputSpec, unit string, ambient float64, sig int) string {
 	if spec.Dim == units.Pressure {
-		unit = absoluteUnit(unit)
+		unit = display.AbsoluteUnit(unit)
 	}
 	show := func(v float64) string {
 		if unit == "" || spec.Dim == units.Dimensionless {
@@ -763,7 +635,7 @@ func describeRange(spec InputSpec, unit string, ambient float64, sig int) string
 			}
 			return units.Format(v, sig)
 		}
-		s, err := FormatValue(v, spec.Dim, unit, ambient, sig)
+		s, err := display.Value(v, spec.Dim, unit, ambient, sig)
 		if err != nil {
 			return units.Format(v, sig)
 		}
@@ -836,7 +708,7 @@ func givenInputs(in []InputValue) string {
 }
 
 // resolveChoice maps text to one of spec's choices through spec.Resolve.
-func resolveChoice(spec InputSpec, env *Env, text string) (string, bool) {
+func resolveChoice(spec InputSpec, env any, text string) (string, bool) {
 	if spec.Resolve == nil {
 		return "", false
 	}

@@ -10,6 +10,8 @@ import (
 	"strings"
 	"unicode"
 
+	"specgen/internal/display"
+	"specgen/internal/inputerr"
 	"specgen/internal/units"
 )
 
@@ -305,8 +307,8 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		// A vacuum claimed in a plain unit: "<= 5 mbar" holds as gauge for
 		// any vacuum, and is surely meant absolute. Neither reading is safe.
 		r.OK = false
-		g, _ := FormatValue(si, dim, c.Unit+"(g)", ambient, sig)
-		a, _ := FormatValue(si, dim, absolute, ambient, sig)
+		g, _ := display.Value(si, dim, c.Unit+"(g)", ambient, sig)
+		a, _ := display.Value(si, dim, absolute, ambient, sig)
 		r.Message = fmt.Sprintf("%s: claim %q fails: the result is below ambient pressure (%s, %s), where a plain %s reads gauge but is often meant absolute, and the claim holds one way only; write %s or %s(g)",
 			c.Result, c.Text, a, g, c.Unit, absolute, c.Unit)
 	case r.OK:
@@ -413,10 +415,10 @@ func (c Claim) figuresToShow(v float64, sig int, ok bool) int {
 }
 
 // decodeExpect reads the [expect] table.
-func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
+func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return nil, Errors{{File: b.File, Line: b.lineOf("expect"), Key: "expect", Msg: "must be a table: [expect] with lines such as displacement = \"22.5 cm3 ± 2%\""}}
+		return nil, inputerr.List{{File: b.File, Line: b.lineOf("expect"), Key: "expect", Msg: "must be a table: [expect] with lines such as displacement = \"22.5 cm3 ± 2%\""}}
 	}
 	names := make([]string, 0, len(table))
 	for k := range table {
@@ -424,13 +426,13 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 	}
 	sort.Strings(names)
 	var claims []Claim
-	var errs Errors
+	var errs inputerr.List
 	for _, name := range names {
 		key := "expect." + name
 		line := b.lineOf(key)
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
-		if _, isInput := b.Kind.input(name); !found && isInput {
+		if _, isInput := b.Kind.Input(name); !found && isInput {
 			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
 			continue
 		}
@@ -444,7 +446,7 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 		}
 		text, isString := table[name].(string)
 		if !isString {
-			fail(fmt.Sprintf("%s is not a claim; write a string such as %s", tomlText(table[name]), claimForms))
+			fail(fmt.Sprintf("%s is not a claim; write a string such as %s", TOMLText(table[name]), claimForms))
 			continue
 		}
 		c, err := ParseClaim(name, text, spec.Dim)
@@ -459,12 +461,12 @@ func (b *Block) decodeExpect(v any) ([]Claim, Errors) {
 }
 
 // decodeShow reads the [show] table.
-func (b *Block) decodeShow(v any) Errors {
+func (b *Block) decodeShow(v any) inputerr.List {
 	table, ok := v.(map[string]any)
 	if !ok {
-		return Errors{{File: b.File, Line: b.lineOf("show"), Key: "show", Msg: "must be a table: [show] with outputs = [...] and charts = [...]"}}
+		return inputerr.List{{File: b.File, Line: b.lineOf("show"), Key: "show", Msg: "must be a table: [show] with outputs = [...] and charts = [...]"}}
 	}
-	var errs Errors
+	var errs inputerr.List
 	keys := make([]string, 0, len(table))
 	for k := range table {
 		keys = append(keys, k)
@@ -473,20 +475,20 @@ func (b *Block) decodeShow(v any) Errors {
 	for _, k := range keys {
 		key := "show." + k
 		line := b.lineOf(key)
-		fail := func(msg string) { errs = append(errs, &Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		list, isList := table[k].([]any)
 		if k != "outputs" && k != "charts" {
 			fail("unknown key; [show] takes outputs and charts")
 			continue
 		}
 		if !isList {
-			fail(fmt.Sprintf("%s is not a list; write %s = [\"...\"]", tomlText(table[k]), k))
+			fail(fmt.Sprintf("%s is not a list; write %s = [\"...\"]", TOMLText(table[k]), k))
 			continue
 		}
 		for _, item := range list {
 			s, isString := item.(string)
 			if !isString {
-				fail(fmt.Sprintf("%s is not a string", tomlText(item)))
+				fail(fmt.Sprintf("%s is not a string", TOMLText(item)))
 				continue
 			}
 			if k == "charts" {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -14,7 +15,7 @@ type ExprValue struct {
 	Dim units.Dimension
 	// Unit is the unit the working shows the value in: the unit an input was
 	// written in, or a result's display unit; "" for the display unit of its
-	// dimension in the block's unit system (units.DisplayUnit).
+	// dimension in the block's unit system (display.UnitFor).
 	Unit string
 }
 
@@ -46,7 +47,7 @@ type ExprValue struct {
 func (x *Expr) Eval(lookup func(ExprRef) (ExprValue, bool), ambient float64, customary bool) (ExprValue, Trace, error) {
 	e := &exprEval{
 		x: x, lookup: lookup, ambient: ambient, customary: customary,
-		vals: make([]exprVal, x.nodes), units: make([]string, x.nodes), figures: exprFigures,
+		vals: make([]exprVal, x.nodes), units: make([]string, x.nodes), figures: display.TraceFigures,
 	}
 	v, err := e.eval(x.root)
 	if err != nil {
@@ -56,14 +57,14 @@ func (x *Expr) Eval(lookup func(ExprRef) (ExprValue, bool), ambient float64, cus
 		return ExprValue{}, Trace{}, &ExprError{Msg: fmt.Sprintf(
 			"the result is in %s, which is no quantity a result can be; allowed: a plain number or a named quantity (length, pressure, power, energy per volume, ...)", v.exp)}
 	}
-	result := e.show(v, "", false, exprFigures)
+	result := e.show(v, "", false, display.TraceFigures)
 	sub := "= " + result
 	switch x.root.kind {
 	case numberNode, piNode, nameNode:
 	default:
 		sub = "= " + e.trace(x.root, false) + " " + sub
 	}
-	return ExprValue{SI: v.si, Dim: v.dim, Unit: units.DisplayUnit(v.dim, customary)},
+	return ExprValue{SI: v.si, Dim: v.dim, Unit: display.UnitFor(v.dim, customary)},
 		Trace{Formula: strings.TrimSpace(x.src), Substituted: sub}, nil
 }
 
@@ -210,7 +211,7 @@ func (e *exprEval) sum(n *exprNode, l, r exprVal) (exprVal, error) {
 	if minus {
 		si, word = l.si-r.si, "minus"
 	}
-	e.figures = max(e.figures, cancelFigures(math.Max(math.Abs(l.si), math.Abs(r.si)), si))
+	e.figures = max(e.figures, display.FiguresFor(math.Max(math.Abs(l.si), math.Abs(r.si)), si))
 	mismatch := func() error {
 		msg := fmt.Sprintf("%s is %s %s %s; + and - need two values of one kind", e.text(n), l.what(), word, r.what())
 		if l.exp == r.exp {
@@ -241,7 +242,7 @@ func (e *exprEval) sum(n *exprNode, l, r exprVal) (exprVal, error) {
 				e.text(n), l.what(), r.what(), p.dim, p.dim, pointDifference(p.dim), p.dim, p.dim)
 		}
 		if si < 0 {
-			return exprVal{}, e.fail(n, "%s comes out below absolute zero (%s)", e.text(n), e.show(quantity(si, p.dim), "", true, exprFigures))
+			return exprVal{}, e.fail(n, "%s comes out below absolute zero (%s)", e.text(n), e.show(quantity(si, p.dim), "", true, display.TraceFigures))
 		}
 		return quantity(si, p.dim), nil
 	}
@@ -363,7 +364,7 @@ func (e *exprEval) power(n *exprNode, base, exponent exprVal) (exprVal, error) {
 	case base.si == 0 && y < 0:
 		return exprVal{}, e.fail(n, "%s divides by zero: %s is 0", e.text(n), e.text(n.args[0]))
 	case base.si < 0 && y != math.Trunc(y):
-		return exprVal{}, e.fail(n, "%s raises a negative value (%s) to a fractional power, which is not a number", e.text(n), e.show(base, "", true, exprFigures))
+		return exprVal{}, e.fail(n, "%s raises a negative value (%s) to a fractional power, which is not a number", e.text(n), e.show(base, "", true, display.TraceFigures))
 	case y == 1:
 		base.si = si
 		return base, nil
@@ -373,7 +374,7 @@ func (e *exprEval) power(n *exprNode, base, exponent exprVal) (exprVal, error) {
 	exp, ok := rootOf(base.exp, y)
 	if !ok {
 		return exprVal{}, e.fail(n, "%s: %s to the power %s has no dimension; a power of a quantity with units must leave whole powers of m, kg, s and K (the square root of an area is a length)",
-			e.text(n), base.what(), trimZeros(units.Format(y, 6)))
+			e.text(n), base.what(), display.NumberSig(y, "", 6))
 	}
 	return fromExponents(si, exp), nil
 }
@@ -405,7 +406,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	switch n.text {
 	case "sqrt":
 		if a.si < 0 {
-			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.units[n.args[0].id], true, exprFigures))
+			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.units[n.args[0].id], true, display.TraceFigures))
 		}
 		return e.power(n, a, quantity(0.5, units.Dimensionless))
 	case "abs":
@@ -416,7 +417,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	case "gauge":
 		switch {
 		case a.named && a.dim == units.Pressure:
-			e.figures = max(e.figures, cancelFigures(a.si, a.si-e.ambient))
+			e.figures = max(e.figures, display.FiguresFor(a.si, a.si-e.ambient))
 			return quantity(a.si-e.ambient, units.PressureDifference), nil
 		case a.named && differs(units.Pressure, a.dim):
 			return exprVal{}, e.fail(n, "gauge() takes a pressure; %s is already %s, which has no gauge reading", arg, a.what())
@@ -433,7 +434,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	switch n.text {
 	case "ln", "log10":
 		if a.si <= 0 {
-			return exprVal{}, e.fail(n, "%s: the logarithm of %s, which is not a positive number", e.text(n), trimZeros(units.Format(a.si, exprFigures)))
+			return exprVal{}, e.fail(n, "%s: the logarithm of %s, which is not a positive number", e.text(n), display.NumberSig(a.si, "", display.TraceFigures))
 		}
 		if n.text == "ln" {
 			return quantity(math.Log(a.si), units.Dimensionless), nil

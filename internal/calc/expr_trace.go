@@ -1,29 +1,11 @@
 package calc
 
 import (
-	"math"
 	"strings"
 
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
-
-// exprFigures is the number of significant figures of an expression's
-// working, as in the models' traces.
-const exprFigures = 4
-
-// cancelFigures is how many figures the terms of a sum need so that the
-// sum, when they nearly cancel, still comes out to exprFigures when a
-// reviewer works it by hand: one more for each factor of ten by which a
-// term exceeds the sum.
-func cancelFigures(term, sum float64) int {
-	ratio := math.Abs(term / sum)
-	if !(ratio > 1) || math.IsInf(ratio, 0) {
-		return exprFigures
-	}
-	// A term rounded to exprFigures is off by up to 5e-4 of itself.
-	extra := int(math.Ceil(math.Log10(0.7 * ratio)))
-	return exprFigures + min(max(extra, 0), 8)
-}
 
 // trace writes node n with every name replaced by its value and unit. abs
 // says the value is used multiplicatively, so that a temperature shows on
@@ -69,26 +51,26 @@ func (e *exprEval) trace(n *exprNode, abs bool) string {
 // when abs.
 func (e *exprEval) show(v exprVal, unit string, abs bool, sig int) string {
 	if !v.named {
-		return trimZeros(units.Format(v.si, sig)) + " " + v.exp.String()
+		return display.NumberSig(v.si, v.exp.String(), sig)
 	}
 	switch {
 	case unit == "":
-		unit = units.DisplayUnit(v.dim, e.customary)
+		unit = display.UnitFor(v.dim, e.customary)
 	case e.customary:
 		unit = units.CustomaryFor(unit)
 	}
 	switch v.dim {
 	case units.Pressure:
-		unit = absoluteUnit(unit)
+		unit = display.AbsoluteUnit(unit)
 	case units.PressureDifference:
-		unit = units.DifferenceUnit(unit)
+		unit = display.DifferenceUnit(unit)
 	case units.Temperature:
 		if abs {
-			unit = units.DisplayUnit(units.TemperatureDifference, e.customary)
+			unit = display.UnitFor(units.TemperatureDifference, e.customary)
 		}
 	case units.TemperatureDifference:
 		if u, err := units.LookupUnit(unit); err == nil && u.Offset != 0 {
-			unit = units.DisplayUnit(units.TemperatureDifference, units.SystemOf(u.Symbol) == units.Customary)
+			unit = display.UnitFor(units.TemperatureDifference, units.SystemOf(u.Symbol) == units.Customary)
 		}
 	}
 	x, err := units.FromSI(v.si, v.dim, unit, e.ambient)
@@ -98,25 +80,12 @@ func (e *exprEval) show(v exprVal, unit string, abs bool, sig int) string {
 			unit = "Pa(a)"
 		}
 	}
-	s := trimZeros(units.Format(x, sig))
 	pretty := ""
 	if u, err := units.LookupUnit(unit); err == nil {
 		pretty = units.Pretty(u.Symbol)
 	}
-	switch pretty {
-	case "":
-		return s
-	case "°":
-		return s + "°"
+	if pretty == "°" {
+		return display.NumberSig(x, "", sig) + "°"
 	}
-	return s + " " + pretty
-}
-
-// trimZeros drops trailing zeros after a decimal point ("28.00" → "28"),
-// as the working of the models writes its numbers.
-func trimZeros(s string) string {
-	if strings.Contains(s, ".") && !strings.Contains(s, "e") {
-		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
-	}
-	return s
+	return display.NumberSig(x, pretty, sig)
 }

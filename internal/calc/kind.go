@@ -18,9 +18,58 @@ type Kind struct {
 	Results []ResultSpec
 	Charts  []string  // chart names a block may ask for in [show] charts
 	Chart   ChartFunc // draws them
+	// Roles say what the kind's blocks are, for the caution rules, the
+	// links of other kinds and the site.
+	Roles Role
+	// WorkingPressure is the input holding the pressure the part works at,
+	// which a relief valve protecting it must stay shut at; "" for none.
+	WorkingPressure WorkingPressure
+	// Raises lists the caution rules the model raises itself while it
+	// evaluates (each a row of the rule table).
+	Raises []string
+	// LinkHint is added to the message when a block names one of this
+	// kind where a link takes another: what to name instead.
+	LinkHint string
 	// Evaluate computes the results from validated inputs. Input problems
 	// that single-input ranges cannot catch are returned as *InputError.
 	Evaluate func(in *Inputs) (*Outcome, error)
+}
+
+// Role is something a kind's blocks are, that rules and links ask about
+// instead of kind names.
+type Role uint
+
+// The roles.
+const (
+	// HoldsPressure: a pressure calculation; its page carries the standard
+	// compressed-air caution.
+	HoldsPressure Role = 1 << iota
+	// HoldsVacuum: works below ambient; a page whose pressure blocks all
+	// hold vacuum carries the vacuum caution instead.
+	HoldsVacuum
+	// Delivers: a compressor stage's cylinders that deliver air into what
+	// they fill and can dead-head (max_pressure) with the outlet blocked.
+	Delivers
+	// Crank: a slider crank turning at a speed, with torque over the
+	// revolution: what a flywheel or counterweight sits on.
+	Crank
+	// PressurePart: a part rated for a pressure (allowable_pressure).
+	PressurePart
+	// Receiver: a vessel filled from the block its supply input names up to
+	// its working pressure.
+	Receiver
+	// Relieves: a relief valve venting to ambient: it opens at ambient plus
+	// its cracking_pressure and relieves the blocks its protects input names.
+	Relieves
+)
+
+// Has reports whether the kind plays every role in r.
+func (k *Kind) Has(r Role) bool { return k.Roles&r == r }
+
+// WorkingPressure names a kind's working-pressure input and how messages
+// call it ("target pressure").
+type WorkingPressure struct {
+	Key, Name string
 }
 
 // InputType is what an input's value is.
@@ -31,7 +80,7 @@ const (
 	Quantity InputType = iota // "32 mm", a plain number, or "=id.result"
 	Name                      // a name from a list: a material, a thread size
 	Link                      // the id of another block: supply = "low"
-	LinkList                  // a list of block ids: protects = ["tank", "wall"]
+	LinkList                  // a list of block ids: protects = ["receiver", "wall"]
 )
 
 // InputSpec describes one input key of a kind.
@@ -51,18 +100,18 @@ type InputSpec struct {
 	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr"):
 	// for vacuum targets, where a gauge reading is a mistake.
 	Absolute bool
-	// LinkKinds are the kinds a Link or LinkList input may name; empty
-	// allows any kind.
-	LinkKinds []string
+	// LinkRoles are the roles of the blocks a Link or LinkList input may
+	// name, any one of them; zero allows any block.
+	LinkRoles Role
 	// Choices lists the values a Name input allows (for messages and
 	// checks); nil allows any non-empty name the model checks itself.
-	Choices func(env *Env) []string
+	Choices func(env any) []string
 	// Resolve maps another way of writing a choice (other case, an alias
 	// such as "nylon" for "pa12") to the choice; nil accepts choices only.
-	Resolve func(env *Env, text string) (string, bool)
+	Resolve func(env any, text string) (string, bool)
 	// Label says what a choice stands for, for people ("Mild steel S235"
 	// for "s235"); nil when the choice says it itself.
-	Label func(env *Env, choice string) string
+	Label func(env any, choice string) string
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.
@@ -118,11 +167,18 @@ type Inputs struct {
 	given   map[string]bool
 	names   map[string]string
 	links   map[string][]*Linked
-	env     *Env
+	env     any
 	// noCurves tells the model that nothing will draw or read its curves.
 	noCurves bool
 	// customary: the block is written in US customary units.
 	customary bool
+}
+
+// NewInputs returns inputs with no values yet, at an ambient pressure (Pa
+// absolute) in the site settings env, for evaluating a kind directly.
+func NewInputs(ambient float64, env any) *Inputs {
+	return &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+		names: map[string]string{}, links: map[string][]*Linked{}, env: env}
 }
 
 // Customary reports whether the block is written in US customary units,
@@ -159,12 +215,14 @@ func (in *Inputs) LinkOf(key string) *Linked {
 // LinksOf returns the blocks a LinkList input names.
 func (in *Inputs) LinksOf(key string) []*Linked { return in.links[key] }
 
-// Env returns the site settings the block is evaluated in.
-func (in *Inputs) Env() *Env { return in.env }
+// Env returns the site settings the block is evaluated in, as the
+// catalog holds them.
+func (in *Inputs) Env() any { return in.env }
 
 // Linked is another block's evaluation, as a block that links to it sees it.
 type Linked struct {
 	ID, Kind string
+	Roles    Role
 	Ambient  float64
 	Results  map[string]float64 // SI
 	Inputs   map[string]float64 // SI, with defaults
@@ -277,3 +335,49 @@ type InputError struct {
 }
 
 func (e *InputError) Error() string { return e.Key + ": " + e.Message }
+
+// Input returns the kind's input spec named name.
+func (k *Kind) Input(name string) (InputSpec, bool) {
+	for _, in := range k.Inputs {
+		if in.Name == name {
+			return in, true
+		}
+	}
+	return InputSpec{}, false
+}
+
+// ResultSpec returns the kind's result spec named name.
+func (k *Kind) ResultSpec(name string) (ResultSpec, bool) { return k.result(name) }
+
+// resultMeaning is a result's one-line meaning, which says when an
+// optional result is computed.
+func (k *Kind) resultMeaning(name string) string {
+	r, _ := k.result(name)
+	return r.Meaning
+}
+
+// result returns the kind's result spec named name.
+func (k *Kind) result(name string) (ResultSpec, bool) {
+	for _, r := range k.Results {
+		if r.Name == name {
+			return r, true
+		}
+	}
+	return ResultSpec{}, false
+}
+
+func (k *Kind) inputNames() []string {
+	names := make([]string, len(k.Inputs))
+	for i, in := range k.Inputs {
+		names[i] = in.Name
+	}
+	return names
+}
+
+func (k *Kind) resultNames() []string {
+	names := make([]string, len(k.Results))
+	for i, r := range k.Results {
+		names[i] = r.Name
+	}
+	return names
+}

@@ -27,20 +27,23 @@ x = 1e200
 			wants: []string{"block sq: result square is not a finite number", `x = "1e+200"`},
 		},
 	}
-	kinds["test-square"] = &Kind{Name: "test-square",
+	square := &Kind{Name: "test-square",
 		Inputs:  []InputSpec{{Name: "x", Dim: units.Dimensionless, Range: Positive}},
 		Results: []ResultSpec{{Name: "square", Dim: units.Dimensionless}},
 		Evaluate: func(in *Inputs) (*Outcome, error) {
 			x := in.Value("x")
 			return &Outcome{Results: []Result{{Name: "square", Value: x * x, Dim: units.Dimensionless}}}, nil
 		}}
-	defer delete(kinds, "test-square")
+	testCatalog, err := NewCatalog([]*Kind{square}, nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, c := range cases {
-		b, err := ParseBlock("content/index.md", 10, c.src)
+		b, err := testCatalog.ParseBlock("content/index.md", 10, c.src)
 		if err != nil {
 			t.Fatalf("%s: %v", c.name, err)
 		}
-		_, err = Evaluate([]*Block{b}, Options{})
+		_, err = testCatalog.Evaluate([]*Block{b}, Options{})
 		if err == nil {
 			t.Fatalf("%s: evaluated without an error", c.name)
 		}

@@ -3,7 +3,6 @@ package render
 import (
 	"bufio"
 	"html"
-	"math"
 	"regexp"
 	"strconv"
 	"strings"
@@ -13,6 +12,7 @@ import (
 	"github.com/yuin/goldmark/util"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -170,11 +170,11 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 			if in.Default && e.Customary() {
 				unit = units.CustomaryFor(unit)
 			}
-			value = esc(pressurePair(in.Value, unit, e))
+			value = esc(display.PressurePair(in.Value, unit, e.Ambient, e.SigFigs()))
 		case in.Default && e.Customary() && in.Type == calc.Quantity && in.Dim != units.Dimensionless:
 			// A default is written in SI; a customary block reads it in its own units.
 			if q, err := units.Parse(in.Text, in.Dim); err == nil {
-				if s, err := calc.FormatValue(in.Value, in.Dim, units.CustomaryFor(q.Unit.Symbol), e.Ambient, e.SigFigs()); err == nil {
+				if s, err := display.Value(in.Value, in.Dim, units.CustomaryFor(q.Unit.Symbol), e.Ambient, e.SigFigs()); err == nil {
 					value = esc(s)
 				}
 			}
@@ -236,7 +236,7 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 			value = units.Format(r.Value, e.SigFigs())
 		}
 		if r.Dim == units.Pressure {
-			value = pressurePair(r.Value, e.DisplayUnit(r.Name), e)
+			value = display.PressurePair(r.Value, e.DisplayUnit(r.Name), e.Ambient, e.SigFigs())
 		}
 		cls := ""
 		if shown[r.Name] {
@@ -279,84 +279,6 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		_, _ = w.WriteString(`<tr><td class="sg-num">` + groupFigures(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + groupFigures(units.Format(y, e.SigFigs())) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
-}
-
-// pressurePair shows an absolute pressure both gauge and absolute, in the
-// family of unit: "6.00 bar(g) · 7.01 bar(a)".
-func pressurePair(abs float64, unit string, e *calc.Evaluated) string {
-	if u, err := units.LookupUnit(unit); err == nil && u.Ref == units.Absolute && !strings.HasSuffix(u.Symbol, "(a)") {
-		// torr and atm are absolute by nature and have no gauge form.
-		s, _ := calc.FormatValue(abs, units.Pressure, u.Symbol, e.Ambient, e.SigFigs())
-		return s
-	}
-	base := pressureBase(unit)
-	g, errG := calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, e.SigFigs())
-	a, errA := calc.FormatValue(abs, units.Pressure, base+"(a)", e.Ambient, e.SigFigs())
-	if errG != nil || errA != nil {
-		s, _ := calc.FormatValue(abs, units.Pressure, "Pa(a)", e.Ambient, e.SigFigs())
-		return s
-	}
-	if abs < e.Ambient {
-		// A vacuum reads best absolute first, and its gauge value must not
-		// round past a perfect vacuum (-14.696 psi(g) shown as -14.7), nor
-		// so coarsely that it hides the absolute value beside it (6.11
-		// mbar(a) beside -1010 mbar(g)): up to six figures.
-		for sig := e.SigFigs() + 1; sig <= 8 && (roundsPastVacuum(g, e.Ambient) || sig <= 6 && gaugeHides(g, abs, e.Ambient)); sig++ {
-			g, _ = calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, sig)
-		}
-		return a + " · " + g
-	}
-	// At high pressure the two can round alike ("1030 bar(g) · 1030 bar(a)"):
-	// more figures show the ambient between them.
-	for sig := e.SigFigs() + 1; sig <= 8 && sameNumber(g, a); sig++ {
-		g, _ = calc.FormatValue(abs, units.Pressure, base+"(g)", e.Ambient, sig)
-		a, _ = calc.FormatValue(abs, units.Pressure, base+"(a)", e.Ambient, sig)
-	}
-	return g + " · " + a
-}
-
-// sameNumber reports whether two shown quantities have the same number.
-func sameNumber(x, y string) bool {
-	nx, _, _ := strings.Cut(x, " ")
-	ny, _, _ := strings.Cut(y, " ")
-	return nx == ny
-}
-
-// gaugeHides reports whether a shown gauge pressure is off the true one
-// by more than a tenth of the absolute pressure abs (Pa).
-func gaugeHides(shown string, abs, ambient float64) bool {
-	q, err := units.Parse(shown, units.Pressure)
-	if err != nil {
-		return false
-	}
-	return math.Abs(q.Value-(abs-ambient)) > abs/10
-}
-
-// roundsPastVacuum reports whether a shown gauge pressure is below minus
-// the ambient pressure, which no pressure can be.
-func roundsPastVacuum(shown string, ambient float64) bool {
-	q, err := units.Parse(shown, units.Pressure)
-	if err != nil {
-		return false
-	}
-	return q.Value < -ambient
-}
-
-// pressureBase is the unit of a pressure without its gauge or absolute mark.
-func pressureBase(unit string) string {
-	u, err := units.LookupUnit(unit)
-	if err != nil || u.Dim != units.Pressure {
-		return "bar"
-	}
-	s := strings.TrimSuffix(strings.TrimSuffix(u.Symbol, "(a)"), "(g)")
-	switch s {
-	case "atm", "torr":
-		return "kPa"
-	}
-	if _, err := units.LookupUnit(s + "(a)"); err != nil {
-		return "bar"
-	}
-	return s
 }
 
 // unitOf is the unit part of a quantity text such as "6 bar".

@@ -8,6 +8,8 @@ import (
 	"testing"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
+	"specgen/internal/models"
 	"specgen/internal/units"
 )
 
@@ -31,11 +33,11 @@ outputs = ["free_air_delivery L/min", "max_pressure psi"]
 
 func evaluated(t testing.TB, src string) *calc.Evaluated {
 	t.Helper()
-	b, err := calc.ParseBlock("content/x.md", 10, src)
+	b, err := testCatalog(t).ParseBlock("content/x.md", 10, src)
 	if err != nil {
 		t.Fatal(err)
 	}
-	set, err := calc.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: 3})
+	set, err := testCatalog(t).Evaluate([]*calc.Block{b}, calc.Options{SigFigs: 3})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -127,7 +129,7 @@ func TestVacuumPressurePair(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	// 1 Pa absolute on 1 atm: -14.6958 psi(g) (NIST SP 811: 1 psi = 6894.757 Pa);
 	// three figures would give -14.7, below a perfect vacuum.
-	got := pressurePair(1, "psi", e)
+	got := display.PressurePair(1, "psi", e.Ambient, e.SigFigs())
 	if !strings.HasPrefix(got, "0.000145 psia · -14.69") {
 		t.Errorf("pressurePair = %q", got)
 	}
@@ -138,11 +140,11 @@ func TestVacuumPressurePair(t *testing.T) {
 func TestAbsoluteByNaturePressurePair(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	// NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory); 905 Pa = 6.788 torr.
-	if got := pressurePair(905, "torr", e); got != "6.79 torr" {
+	if got := display.PressurePair(905, "torr", e.Ambient, e.SigFigs()); got != "6.79 torr" {
 		t.Errorf("pressurePair(905 Pa, torr) = %q, want \"6.79 torr\"", got)
 	}
 	// 1 atm = 101325 Pa (NIST SP 811 App. B).
-	if got := pressurePair(202650, "atm", e); got != "2.00 atm" {
+	if got := display.PressurePair(202650, "atm", e.Ambient, e.SigFigs()); got != "2.00 atm" {
 		t.Errorf("pressurePair(202650 Pa, atm) = %q, want \"2.00 atm\"", got)
 	}
 }
@@ -152,12 +154,12 @@ func TestAbsoluteByNaturePressurePair(t *testing.T) {
 func TestHighPressurePairDiffers(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	// 1031.2 bar(g) = 1031.2e5 + 101325 Pa absolute = 1032.213 bar(a).
-	got := pressurePair(1031.2e5+101325, "bar", e)
+	got := display.PressurePair(1031.2e5+101325, "bar", e.Ambient, e.SigFigs())
 	if got != "1031 bar(g) · 1032 bar(a)" {
 		t.Errorf("pressurePair = %q, want \"1031 bar(g) · 1032 bar(a)\"", got)
 	}
 	// Low pressures keep the site's figures.
-	if got := pressurePair(6e5+101325, "bar", e); got != "6.00 bar(g) · 7.01 bar(a)" {
+	if got := display.PressurePair(6e5+101325, "bar", e.Ambient, e.SigFigs()); got != "6.00 bar(g) · 7.01 bar(a)" {
 		t.Errorf("pressurePair = %q", got)
 	}
 }
@@ -190,7 +192,7 @@ discharge_pressure = "116 psi"
 func TestVacuumGaugeResolvesAbsolute(t *testing.T) {
 	e := evaluated(t, stageBlock)
 	// 611 Pa absolute on 101325 Pa: -100714 Pa = -1007.14 mbar(g).
-	if got := pressurePair(611, "mbar", e); got != "6.11 mbar(a) · -1007 mbar(g)" {
+	if got := display.PressurePair(611, "mbar", e.Ambient, e.SigFigs()); got != "6.11 mbar(a) · -1007 mbar(g)" {
 		t.Errorf("pressurePair = %q, want \"6.11 mbar(a) · -1007 mbar(g)\"", got)
 	}
 }
@@ -337,4 +339,14 @@ func TestExtraTableGrouped(t *testing.T) {
 	if want := "<td class=\"sg-num\">127\u00a0000</td>"; !strings.Contains(buf.String(), want) {
 		t.Errorf("table lacks %q:\n%s", want, buf.String())
 	}
+}
+
+// testCatalog is every kind and caution rule with the built-in materials.
+func testCatalog(t testing.TB) *calc.Catalog {
+	t.Helper()
+	c, err := models.NewCatalog(nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
 }

@@ -53,13 +53,13 @@ func (c chartCase) draw(t testing.TB) *DrawnChart {
 func (c chartCase) chart(t testing.TB) *calc.Chart {
 	var blocks []*calc.Block
 	for i, src := range c.Blocks {
-		b, err := calc.ParseBlock("testdata/charts/"+c.Name+".toml", 100*i, src)
+		b, err := testCatalog(t).ParseBlock("testdata/charts/"+c.Name+".toml", 100*i, src)
 		if err != nil {
 			t.Fatal(err)
 		}
 		blocks = append(blocks, b)
 	}
-	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
+	set, err := testCatalog(t).Evaluate(blocks, calc.Options{SigFigs: 3})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -99,8 +99,9 @@ func TestGoldenCharts(t *testing.T) {
 		})
 		kinds[c.Name[:strings.IndexByte(c.Name, '-')]] = true
 	}
-	for _, name := range calc.KindNames() {
-		k, _ := calc.LookupKind(name)
+	cat := testCatalog(t)
+	for _, name := range cat.KindNames() {
+		k, _ := cat.Kind(name)
 		if len(k.Charts) > 0 && !kinds[name] {
 			t.Errorf("kind %s draws charts but has no golden chart", name)
 		}
@@ -111,23 +112,7 @@ func TestGoldenCharts(t *testing.T) {
 // under 2 ms.
 func BenchmarkChartTypes(b *testing.B) {
 	for _, c := range chartCases(b) {
-		var blocks []*calc.Block
-		for i, src := range c.Blocks {
-			blk, err := calc.ParseBlock(c.Name, 100*i, src)
-			if err != nil {
-				b.Fatal(err)
-			}
-			blocks = append(blocks, blk)
-		}
-		set, err := calc.Evaluate(blocks, calc.Options{SigFigs: 3})
-		if err != nil {
-			b.Fatal(err)
-		}
-		e, _ := set.Lookup(c.Block)
-		ch, err := e.Chart(c.Chart)
-		if err != nil {
-			b.Fatal(err)
-		}
+		ch := c.chart(b)
 		b.Run(c.Name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {

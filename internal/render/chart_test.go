@@ -7,11 +7,12 @@ import (
 	"regexp"
 	"strconv"
 
+	"strings"
+	"testing"
+
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/vg"
-	"strings"
-	"testing"
 
 	"specgen/internal/calc"
 	"specgen/internal/units"

@@ -7,6 +7,7 @@ import (
 	"text/tabwriter"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -23,7 +24,7 @@ func WriteText(w io.Writer, e *calc.Evaluated) {
 	for _, in := range e.Inputs {
 		value := in.Text
 		if in.Dim == units.Pressure {
-			value = pressurePair(in.Value, unitOf(in.Text), e)
+			value = display.PressurePair(in.Value, unitOf(in.Text), e.Ambient, e.SigFigs())
 		}
 		var notes []string
 		switch {
@@ -49,7 +50,7 @@ func WriteText(w io.Writer, e *calc.Evaluated) {
 			value = units.Format(r.Value, e.SigFigs())
 		}
 		if r.Dim == units.Pressure {
-			value = pressurePair(r.Value, e.DisplayUnit(r.Name), e)
+			value = display.PressurePair(r.Value, e.DisplayUnit(r.Name), e.Ambient, e.SigFigs())
 		}
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", r.Name, value, r.Trace.Formula, r.Trace.Substituted)
 	}

@@ -16,7 +16,10 @@ import (
 	"sync/atomic"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
+	"specgen/internal/models"
 	"specgen/internal/render"
+	"specgen/internal/results"
 )
 
 // StaticDir is the optional folder of a site root copied into the output as is.
@@ -98,7 +101,7 @@ func Load(root string) (*Site, error) {
 	s.Pages = make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md)
+		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
 	})
 	if err := collect(errs); err != nil {
 		return nil, err
@@ -106,10 +109,10 @@ func Load(root string) (*Site, error) {
 	if err := checkOutputClashes(s.Pages); err != nil {
 		return nil, err
 	}
-	var tplErrs ErrorList
+	var tplErrs inputerr.List
 	for _, p := range s.Pages {
 		if _, err := s.layouts.lookup(p.Front.Template); err != nil {
-			tplErrs = append(tplErrs, &Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+			tplErrs = append(tplErrs, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
 		}
 	}
 	if err := tplErrs.Sorted(); err != nil {
@@ -222,9 +225,9 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil
 }
 
-// render produces every output file in memory, keyed by output path, for
-// the preview.
-func (s *Site) render(progress func(stage string, done, total int)) (map[string][]byte, error) {
+// Render produces every output file in memory, keyed by output path (the
+// preview serves them from there).
+func (s *Site) Render() (map[string][]byte, error) {
 	files := map[string][]byte{}
 	var mu sync.Mutex
 	err := s.emit(func(name string, write func(io.Writer) error) error {
@@ -236,7 +239,7 @@ func (s *Site) render(progress func(stage string, done, total int)) (map[string]
 		files[name] = buf.Bytes()
 		mu.Unlock()
 		return nil
-	}, progress)
+	}, nil)
 	return files, err
 }
 
@@ -257,7 +260,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	if err != nil {
 		return err
 	}
-	if err := put("results.json", s.writeResults); err != nil {
+	if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
 		return err
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
@@ -274,7 +277,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	for _, name := range slices.Sorted(maps.Keys(static)) {
 		if other, ok := names.take(name, StaticDir+"/"+name); !ok {
-			return &Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
+			return &inputerr.Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
 		}
 		if err := put(name, bytesOf(static[name])); err != nil {
 			return err
@@ -282,10 +285,10 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	// Pages take their names in order before rendering in parallel, so
 	// that which of two clashing files is blamed never depends on timing.
-	var clashes ErrorList
+	var clashes inputerr.List
 	for _, p := range s.Pages {
 		if other, ok := names.take(p.Out, p.File); !ok {
-			clashes = append(clashes, &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
+			clashes = append(clashes, &inputerr.Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", p.Out, other)})
 		}
 	}
 	if err := clashes.Sorted(); err != nil {
@@ -296,7 +299,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 			return nil
 		}
 		if other, ok := names.take(name, p.File); !ok {
-			return &Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
+			return &inputerr.Error{File: p.File, Msg: fmt.Sprintf("its output %s clashes with %s; rename one", name, other)}
 		}
 		return nil
 	}
@@ -363,9 +366,9 @@ type PageInfo struct {
 	Cautions template.HTML
 }
 
-// home is the output path of the home page: content/index.md, or the
+// Home is the output path of the home page: content/index.md, or the
 // first page in reading order when the site has none.
-func (s *Site) home() string {
+func (s *Site) Home() string {
 	if s.nav.Page != nil || len(s.reading) == 0 {
 		return "index.html"
 	}
@@ -384,11 +387,11 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	body, err := s.md.Render(doc)
 	if err != nil {
-		return nil, &Error{File: p.File, Msg: "rendering: " + err.Error()}
+		return nil, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.home()), Revision: s.revision},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),
@@ -418,7 +421,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	tpl, err := s.layouts.lookup(p.Front.Template)
 	if err != nil {
-		return nil, &Error{File: p.File, Msg: err.Error()}
+		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
 	}
 	var buf bytes.Buffer
 	if err := tpl.Execute(&buf, data); err != nil {
@@ -434,21 +437,21 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 	case !shows:
 		return ""
 	case vacuum:
-		return template.HTML(render.StandardCautionHTML(calc.StandardVacuumCaution))
+		return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
 	}
-	return template.HTML(render.StandardCautionHTML(calc.StandardCaution))
+	return template.HTML(render.StandardCautionHTML(models.StandardCaution))
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a
 // failure of the machine wins over input errors.
 func collect(errs []error) error {
-	var list ErrorList
+	var list inputerr.List
 	for _, err := range errs {
 		switch e := err.(type) {
 		case nil:
-		case *Error:
+		case *inputerr.Error:
 			list = append(list, e)
-		case ErrorList:
+		case inputerr.List:
 			list = append(list, e...)
 		default:
 			return err

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/render"
 	"specgen/internal/units"
 )
@@ -34,24 +35,24 @@ type chartName struct {
 // calculation blocks (decoded), its inline values and its chart fences.
 // The tree itself is not kept; it is parsed again when the page is
 // rendered, so that a big site is never held in memory whole.
-func readDoc(p *Page, doc *render.Document) error {
-	var errs ErrorList
+func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
+	var errs inputerr.List
 	for _, n := range doc.CalcBlocks() {
 		if !n.Closed {
-			errs = append(errs, &Error{File: p.File, Line: n.FenceLine + doc.LineOffset,
+			errs = append(errs, &inputerr.Error{File: p.File, Line: n.FenceLine + doc.LineOffset,
 				Msg: "the calc block opened here is never closed; end it with a line holding only the fence (```)"})
 			continue
 		}
 		// A fence line inside means this block was left open and a later
 		// fence closed it; TOML would only complain about a backquote.
 		if i, fence := openingFenceIn(n.Source); fence != "" {
-			errs = append(errs, &Error{File: p.File, Line: n.FenceLine + doc.LineOffset + 1 + i,
+			errs = append(errs, &inputerr.Error{File: p.File, Line: n.FenceLine + doc.LineOffset + 1 + i,
 				Msg: fmt.Sprintf("%q inside the calc block opened at line %d: that block is not closed; end it with a line holding only the fence (```) before this one", fence, n.FenceLine+doc.LineOffset)})
 			continue
 		}
-		b, err := calc.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
+		b, err := cat.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
-			errs = append(errs, fromCalc(err)...)
+			errs = append(errs, inputerr.From(err)...)
 			continue
 		}
 		p.blocks = append(p.blocks, b)
@@ -63,13 +64,13 @@ func readDoc(p *Page, doc *render.Document) error {
 	drawn := map[string]int{} // chart name to the line that first draws it
 	for _, cr := range doc.ChartRefs() {
 		if len(cr.Names) == 0 {
-			errs = append(errs, &Error{File: p.File, Line: cr.FenceLine + doc.LineOffset,
+			errs = append(errs, &inputerr.Error{File: p.File, Line: cr.FenceLine + doc.LineOffset,
 				Msg: "this chart fence names no chart; write one per line as block.chart, e.g. low.pv"})
 		}
 		for _, n := range cr.Names {
 			line := n.Line + doc.LineOffset
 			if first, seen := drawn[n.Text]; seen {
-				errs = append(errs, &Error{File: p.File, Line: line,
+				errs = append(errs, &inputerr.Error{File: p.File, Line: line,
 					Msg: fmt.Sprintf("chart %s is already drawn on this page (line %d); a page draws each chart once", n.Text, first)})
 				continue
 			}
@@ -79,7 +80,7 @@ func readDoc(p *Page, doc *render.Document) error {
 	}
 	for _, list := range doc.CautionLists() {
 		if list.Content != "" {
-			errs = append(errs, &Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
+			errs = append(errs, &inputerr.Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
 				Msg: "a cautions fence takes no content (the site fills it with every caution); leave it empty"})
 		}
 	}
@@ -92,19 +93,6 @@ func readDoc(p *Page, doc *render.Document) error {
 		p.anchors[render.BlockAnchor(b.ID)] = true
 	}
 	return errs.Sorted()
-}
-
-// fromCalc lists the input problems an error holds.
-func fromCalc(err error) ErrorList {
-	var list ErrorList
-	if errors.As(err, &list) {
-		return list
-	}
-	var one *Error
-	if errors.As(err, &one) {
-		return ErrorList{one}
-	}
-	return ErrorList{{Msg: err.Error()}}
 }
 
 // evaluate runs every block of the site, then checks the value
@@ -131,13 +119,13 @@ func (s *Site) evaluate() error {
 			charted[n.Block] = true
 		}
 	}
-	set, err := calc.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs, Env: s.Config.env,
+	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
 		Charted: func(id string) bool { return charted[id] }})
 	if err != nil {
-		return fromCalc(err).Sorted()
+		return inputerr.From(err).Sorted()
 	}
 	s.Calc = set
-	var errs ErrorList
+	var errs inputerr.List
 	for _, p := range s.Pages {
 		for _, n := range p.charts {
 			if err := s.checkChartName(p, n); err != nil {
@@ -170,27 +158,32 @@ func (s *Site) evaluate() error {
 }
 
 // attach gives the nodes of a freshly parsed page what the evaluation
-// found: each block its results, each inline value its text and link,
-// each caution list the site's cautions. The page was checked when it
-// was read, so nothing here fails.
+// found: each block its results (found by the line of its fence), each
+// inline value its text and link (formatted from what it names), each
+// caution list the site's cautions. The page was checked when it was read,
+// so nothing here fails.
 func (s *Site) attach(p *Page, doc *render.Document) {
-	for i, n := range doc.CalcBlocks() {
-		if i >= len(p.blocks) {
-			break
+	byLine := make(map[int]*calc.Block, len(p.blocks))
+	for _, b := range p.blocks {
+		byLine[b.Line] = b
+	}
+	for _, n := range doc.CalcBlocks() {
+		b, ok := byLine[n.FenceLine+doc.LineOffset]
+		if !ok {
+			continue
 		}
-		n.Eval, _ = s.Calc.Lookup(p.blocks[i].ID)
+		n.Eval, _ = s.Calc.Lookup(b.ID)
 		n.Links = map[string]string{}
-		for _, v := range p.blocks[i].Values {
+		for _, v := range b.Values {
 			for _, id := range v.Deps() {
 				n.Links[id] = s.blockLink(p, id)
 			}
 		}
 	}
-	for i, ref := range doc.ValueRefs() {
-		if i < len(p.refs) {
-			v, _ := s.formatRef(p, p.refs[i])
-			ref.Shown, ref.Href = v.Shown, v.Href
-		}
+	for _, ref := range doc.ValueRefs() {
+		v, _ := s.formatRef(p, valueRef{Block: ref.Block, Result: ref.Result, Unit: ref.Unit,
+			Written: ref.Written, Problem: ref.Problem, Line: doc.Line(ref.Offset)})
+		ref.Shown, ref.Href = v.Shown, v.Href
 	}
 	for _, list := range doc.CautionLists() {
 		for _, it := range s.cautions {
@@ -271,9 +264,9 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
 	allVacuum = true
 	for _, id := range s.blocksShown(p) {
-		if e, ok := s.Calc.Lookup(id); ok && slices.Contains(calc.PressureKinds, e.Block.Kind.Name) {
+		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
 			any = true
-			allVacuum = allVacuum && e.Block.Kind.Name == "vacuum"
+			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)
 		}
 	}
 	return any, any && allVacuum
@@ -284,14 +277,14 @@ type refView struct{ Shown, Href string }
 
 // formatRef formats one inline value and links it to its block, or says
 // what is wrong with it.
-func (s *Site) formatRef(p *Page, ref valueRef) (refView, *Error) {
+func (s *Site) formatRef(p *Page, ref valueRef) (refView, *inputerr.Error) {
 	written := "=[" + ref.Block + "." + ref.Result
 	if ref.Unit != "" {
 		written += " " + ref.Unit
 	}
 	written += "]"
-	fail := func(format string, args ...any) (refView, *Error) {
-		return refView{}, &Error{File: p.File, Line: ref.Line, Msg: written + ": " + fmt.Sprintf(format, args...)}
+	fail := func(format string, args ...any) (refView, *inputerr.Error) {
+		return refView{}, &inputerr.Error{File: p.File, Line: ref.Line, Msg: written + ": " + fmt.Sprintf(format, args...)}
 	}
 	if ref.Problem != "" {
 		written = ref.Written
@@ -409,9 +402,9 @@ func blocksWith(name string, list []*calc.Evaluated) []*calc.Evaluated {
 
 // checkChartName checks that a line of a chart fence names a block and
 // one of its kind's charts.
-func (s *Site) checkChartName(p *Page, n chartName) *Error {
-	fail := func(format string, args ...any) *Error {
-		return &Error{File: p.File, Line: n.Line, Msg: "chart " + n.Text + ": " + fmt.Sprintf(format, args...)}
+func (s *Site) checkChartName(p *Page, n chartName) *inputerr.Error {
+	fail := func(format string, args ...any) *inputerr.Error {
+		return &inputerr.Error{File: p.File, Line: n.Line, Msg: "chart " + n.Text + ": " + fmt.Sprintf(format, args...)}
 	}
 	e, ok := s.Calc.Lookup(n.Block)
 	switch {
@@ -441,12 +434,12 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 		e, _ := s.Calc.Lookup(id)
 		c, err := e.Chart(chart)
 		if err != nil {
-			return nil, &Error{File: p.File, Line: line, Msg: err.Error()}
+			return nil, &inputerr.Error{File: p.File, Line: line, Msg: err.Error()}
 		}
 		csvName := chartDataName(p, id, chart)
 		d, err := render.DrawChart(c, prefix+id+"-"+chart, href(path.Base(csvName)))
 		if err != nil {
-			return nil, &Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
+			return nil, &inputerr.Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
 		}
 		out[csvName] = d.CSV
 		s.chartDrawn()

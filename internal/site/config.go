@@ -17,6 +17,8 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
+	"specgen/internal/models"
 )
 
 // ConfigFile is the optional site configuration at the site root.
@@ -30,9 +32,11 @@ type Config struct {
 	Markdown    MarkdownConfig `toml:"markdown"`
 	Safety      SafetyConfig   `toml:"safety"`
 	// Materials adds materials or overrides properties of built-in ones.
-	Materials map[string]calc.MaterialRow `toml:"materials"`
+	Materials map[string]models.MaterialRow `toml:"materials"`
 	// env is the calculation environment the settings make.
-	env *calc.Env
+	env *models.Env
+	// catalog is the models and rules, with env.
+	catalog *calc.Catalog
 }
 
 // SafetyConfig holds the site's minimum safety factors. MinimumFactor, when
@@ -55,17 +59,21 @@ var configKeys = []string{"description", "markdown", "markdown.raw_html", "mater
 // materialName is what a material added in specgen.toml may be called.
 var materialName = regexp.MustCompile(`^[a-z0-9][a-z0-9._-]*$`)
 
+// defaultCatalog is the models and rules with the built-in materials; a
+// failure is the build's own fault and shows in every test.
+var defaultCatalog, defaultCatalogErr = models.NewCatalog(nil)
+
 // DefaultConfig is the configuration of a site without specgen.toml.
 func DefaultConfig() Config {
-	return Config{Title: "Build documentation", SigFigs: 3, env: calc.DefaultEnv()}
+	return Config{Title: "Build documentation", SigFigs: 3, env: models.DefaultEnv(), catalog: defaultCatalog}
 }
 
 // makeEnv builds the calculation environment: built-in materials with the
 // site's additions, and the minimum safety factors.
-func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
-	var errs ErrorList
-	env := calc.DefaultEnv()
-	safety := calc.DefaultSafety
+func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, inputerr.List) {
+	var errs inputerr.List
+	env := models.DefaultEnv()
+	safety := models.DefaultSafety
 	for _, f := range []struct {
 		key   string
 		value float64
@@ -81,7 +89,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 			continue
 		}
 		if !(f.value >= 1 && f.value <= 100) { // NaN too
-			errs = append(errs, &Error{File: ConfigFile, Line: lines[key],
+			errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines[key],
 				Msg: fmt.Sprintf("%s: %s is out of range; allowed: 1 to 100 (a factor below 1 accepts failure)", key, numberWords(f.value))})
 			continue
 		}
@@ -94,18 +102,18 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 	for _, name := range slices.Sorted(maps.Keys(cfg.Materials)) {
 		if !materialName.MatchString(name) {
 			badName = true
-			errs = append(errs, &Error{File: ConfigFile, Line: lines["materials."+name],
+			errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["materials."+name],
 				Msg: fmt.Sprintf("materials: %q is not allowed as a material name; a name is lower-case letters, digits, '-', '_' and '.', starting with a letter or digit (put free text in label)", name)})
 		}
 	}
 	if len(cfg.Materials) > 0 && !badName {
-		base, err := calc.DefaultMaterials()
+		base, err := models.DefaultMaterials()
 		if err != nil {
-			return env, append(errs, &Error{Msg: err.Error()})
+			return env, append(errs, &inputerr.Error{Msg: err.Error()})
 		}
 		mats, err := base.With(cfg.Materials, lines, ConfigFile)
 		if err != nil {
-			return env, append(errs, fromCalc(err)...)
+			return env, append(errs, inputerr.From(err)...)
 		}
 		env.Materials = mats
 	}
@@ -115,13 +123,16 @@ func (cfg *Config) makeEnv(lines map[string]int) (*calc.Env, ErrorList) {
 // LoadConfig reads root/specgen.toml if it exists.
 func LoadConfig(root string) (Config, error) {
 	cfg := DefaultConfig()
+	if defaultCatalogErr != nil {
+		return cfg, defaultCatalogErr
+	}
 	src, err := os.ReadFile(filepath.Join(root, ConfigFile))
 	if errors.Is(err, fs.ErrNotExist) {
 		return cfg, nil
 	}
 	if err != nil {
 		if info, statErr := os.Stat(filepath.Join(root, ConfigFile)); statErr == nil && info.IsDir() {
-			return cfg, &Error{File: ConfigFile, Msg: "is a folder; the site settings are a TOML file of that name (or leave it out for the defaults)"}
+			return cfg, &inputerr.Error{File: ConfigFile, Msg: "is a folder; the site settings are a TOML file of that name (or leave it out for the defaults)"}
 		}
 		return cfg, err
 	}
@@ -131,11 +142,11 @@ func LoadConfig(root string) (Config, error) {
 		return cfg, tomlError(ConfigFile, 0, text, err, "site configuration")
 	}
 	lines := calc.KeyLines(text)
-	var errs ErrorList
+	var errs inputerr.List
 	// A plain value for materials decodes as no materials at all. (A table
 	// made by [materials.x] alone has no type of its own.)
 	if t := md.Type("materials"); t != "" && t != "Hash" {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["materials"],
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["materials"],
 			Msg: fmt.Sprintf("materials: %s is not allowed here; write a table per material: a line [materials.NAME] and its keys below it", tomlKindWord(t))})
 	}
 	for _, k := range md.Undecoded() {
@@ -147,18 +158,23 @@ func LoadConfig(root string) (Config, error) {
 		if s := calc.Suggest(key, candidates); s != "" {
 			msg = fmt.Sprintf("unknown key %q; did you mean %q? (allowed: %s)", key, s, strings.Join(configKeys, ", "))
 		}
-		errs = append(errs, &Error{File: ConfigFile, Line: lines[key], Msg: msg})
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines[key], Msg: msg})
 	}
 	if cfg.SigFigs < 2 || cfg.SigFigs > 8 {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["sig_figs"],
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["sig_figs"],
 			Msg: fmt.Sprintf("sig_figs: %d is out of range; allowed: 2 to 8 significant figures", cfg.SigFigs)})
 	}
 	if strings.TrimSpace(cfg.Title) == "" {
-		errs = append(errs, &Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
 	}
 	env, envErrs := cfg.makeEnv(lines)
 	errs = append(errs, envErrs...)
 	cfg.env = env
+	cat, err := models.NewCatalog(env)
+	if err != nil {
+		errs = append(errs, &inputerr.Error{File: ConfigFile, Msg: err.Error()})
+	}
+	cfg.catalog = cat
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
 	if len(errs) > 0 {
 		return cfg, errs

@@ -11,6 +11,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 )
 
 // FrontMatter is the TOML header of a page, between "+++" lines.
@@ -36,7 +37,7 @@ func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset i
 	first, rest, _ := bytes.Cut(src, []byte("\n"))
 	if strings.TrimRight(string(first), "\r \t") != fence {
 		if k := colonHeader(first, rest); k != "" {
-			return nil, nil, 0, &Error{File: file, Line: 1, Msg: fmt.Sprintf(`the page opens with "---" lines of "key: value" (%s:); they would show as a heading. Front matter is TOML between "+++" lines: %s = ...`, k, k)}
+			return nil, nil, 0, &inputerr.Error{File: file, Line: 1, Msg: fmt.Sprintf(`the page opens with "---" lines of "key: value" (%s:); they would show as a heading. Front matter is TOML between "+++" lines: %s = ...`, k, k)}
 		}
 		return nil, src, 0, nil
 	}
@@ -54,7 +55,7 @@ func splitFrontMatter(file string, src []byte) (fm []byte, body []byte, offset i
 			break
 		}
 	}
-	return nil, nil, 0, &Error{File: file, Line: 1, Msg: `front matter opened with "+++" is never closed; end it with a line holding only "+++"`}
+	return nil, nil, 0, &inputerr.Error{File: file, Line: 1, Msg: `front matter opened with "+++" is never closed; end it with a line holding only "+++"`}
 }
 
 // colonKey is a "key: value" line of a header in another syntax.
@@ -103,14 +104,14 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 	if err != nil {
 		return fm, nil, nil, 0, tomlError(file, 1, text, err, "front matter")
 	}
-	var errs ErrorList
+	var errs inputerr.List
 	for _, k := range md.Undecoded() {
 		key := k.String()
 		msg := fmt.Sprintf("front matter: unknown key %q; allowed: %s", key, strings.Join(frontMatterKeys, ", "))
 		if s := calc.Suggest(key, frontMatterKeys); s != "" {
 			msg = fmt.Sprintf("front matter: unknown key %q; did you mean %q? (allowed: %s)", key, s, strings.Join(frontMatterKeys, ", "))
 		}
-		errs = append(errs, &Error{File: file, Line: 1 + lines[key], Msg: msg})
+		errs = append(errs, &inputerr.Error{File: file, Line: 1 + lines[key], Msg: msg})
 	}
 	if len(errs) > 0 {
 		return fm, nil, nil, 0, errs.Sorted()
@@ -135,19 +136,19 @@ func tomlError(file string, base int, text string, err error, what string) error
 		if pe.LastKey != "" && !strings.Contains(msg, pe.LastKey) {
 			msg = pe.LastKey + ": " + msg
 		}
-		return &Error{File: file, Line: base + line, Msg: what + ": " + msg}
+		return &inputerr.Error{File: file, Line: base + line, Msg: what + ": " + msg}
 	}
 	if m := typeMismatch.FindStringSubmatch(err.Error()); m != nil {
 		line, _ := strconv.Atoi(m[1])
-		return &Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write %s",
+		return &inputerr.Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write %s",
 			what, m[2], tomlTypeWord(m[3]), tomlTypeWord(m[4]))}
 	}
 	if m := tableMismatch.FindStringSubmatch(err.Error()); m != nil {
 		line, _ := strconv.Atoi(m[1])
-		return &Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write a table: a line [%s] and its keys below it",
+		return &inputerr.Error{File: file, Line: base + max(line, 1), Msg: fmt.Sprintf("%s: %s: %s is not allowed here; write a table: a line [%s] and its keys below it",
 			what, m[2], tomlTypeWord(m[3]), m[2])}
 	}
-	return &Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
+	return &inputerr.Error{File: file, Line: base + 1, Msg: what + ": " + strings.TrimPrefix(err.Error(), "toml: ")}
 }
 
 // tableMismatch matches the TOML decoder's report of a plain value where
@@ -202,14 +203,14 @@ const (
 // checkPageLimits refuses a page that is too large or nests too deeply.
 func checkPageLimits(file string, src []byte) error {
 	if len(src) > MaxPageBytes {
-		return &Error{File: file, Line: 1, Msg: fmt.Sprintf("the page is %.1f MiB; allowed: up to %d MiB; split it into several pages", float64(len(src))/(1<<20), MaxPageBytes>>20)}
+		return &inputerr.Error{File: file, Line: 1, Msg: fmt.Sprintf("the page is %.1f MiB; allowed: up to %d MiB; split it into several pages", float64(len(src))/(1<<20), MaxPageBytes>>20)}
 	}
 	line := 1
 	for rest := src; len(rest) > 0; line++ {
 		var l []byte
 		l, rest, _ = bytes.Cut(rest, []byte("\n"))
 		if depth := nesting(l); depth > MaxPageNesting {
-			return &Error{File: file, Line: line, Msg: fmt.Sprintf("this line opens %d levels of quotes or lists; allowed: up to %d levels of nesting", depth, MaxPageNesting)}
+			return &inputerr.Error{File: file, Line: line, Msg: fmt.Sprintf("this line opens %d levels of quotes or lists; allowed: up to %d levels of nesting", depth, MaxPageNesting)}
 		}
 	}
 	return nil

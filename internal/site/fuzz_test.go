@@ -9,6 +9,8 @@ import (
 	"strings"
 	"testing"
 	"unicode/utf8"
+
+	"specgen/internal/inputerr"
 )
 
 // pageSeeds are pages that exercise front matter, calc blocks, claims,
@@ -33,7 +35,7 @@ var pageSeeds = []string{
 }
 
 // FuzzFrontMatter checks that parseFrontMatter never panics, that an error
-// is a site *Error or ErrorList placed on a line of the page, and that a
+// is an input error (inputerr.Error or List) placed on a line of the page, and that a
 // page that parses keeps its body: the body is a suffix of the page and the
 // line offset counts the lines before it.
 func FuzzFrontMatter(f *testing.F) {
@@ -87,9 +89,9 @@ func FuzzPagePipeline(f *testing.F) {
 			checkPlaced(t, err, "content/index.md", strings.Count(page, "\n")+1)
 			return
 		}
-		files, err := s.render(nil)
+		files, err := s.Render()
 		if err != nil {
-			if !IsInputError(err) {
+			if !inputerr.Is(err) {
 				t.Fatalf("render: %T %v", err, err)
 			}
 			return
@@ -114,12 +116,12 @@ func FuzzPagePipeline(f *testing.F) {
 // in file at a line from 0 (the whole file) to last, with a message.
 func checkPlaced(t *testing.T, err error, file string, last int) {
 	t.Helper()
-	var list ErrorList
-	var one *Error
+	var list inputerr.List
+	var one *inputerr.Error
 	switch {
 	case errors.As(err, &list):
 	case errors.As(err, &one):
-		list = ErrorList{one}
+		list = inputerr.List{one}
 	default:
 		t.Fatalf("error %T %q is not an input error", err, err)
 	}

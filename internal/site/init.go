@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"specgen/internal/inputerr"
 	"specgen/templates"
 )
 
@@ -18,10 +19,10 @@ func Init(dir string) ([]string, error) {
 	if dir == "" {
 		// ReadDir("") fails as "not exist", and the files would land in
 		// the current folder, over whatever is there.
-		return nil, &Error{Msg: "specgen init: the folder name is empty; give the folder for the new site, e.g. specgen init docs"}
+		return nil, &inputerr.Error{Msg: "specgen init: the folder name is empty; give the folder for the new site, e.g. specgen init docs"}
 	}
 	if info, err := os.Stat(dir); err == nil && !info.IsDir() {
-		return nil, &Error{Msg: fmt.Sprintf("%s is a file; specgen init writes a new site into an empty or new folder", dir)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("%s is a file; specgen init writes a new site into an empty or new folder", dir)}
 	}
 	entries, err := os.ReadDir(dir)
 	switch {
@@ -29,7 +30,7 @@ func Init(dir string) ([]string, error) {
 	case err != nil:
 		return nil, err
 	case len(entries) > 0:
-		return nil, &Error{Msg: fmt.Sprintf("%s is not empty; specgen init writes a new site only into an empty or new folder", dir)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("%s is not empty; specgen init writes a new site only into an empty or new folder", dir)}
 	}
 	var written []string
 	err = fs.WalkDir(templates.FS, "starter", func(p string, d fs.DirEntry, err error) error {

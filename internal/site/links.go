@@ -9,13 +9,15 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
+
+	"specgen/internal/inputerr"
 )
 
 // checkLinks reports every link or image of a page, relative or from the
 // site's root ("/img/pump.png"), that points at no page or static file of
 // the site, or at an anchor its page lacks: a broken link is found when
 // the site is built, not by its readers.
-func (s *Site) checkLinks(static map[string]bool) ErrorList {
+func (s *Site) checkLinks(static map[string]bool) inputerr.List {
 	// What the build writes besides pages and static/ can be linked too:
 	// results.json, the assets and the charts' data files.
 	static = maps.Clone(static)
@@ -30,7 +32,7 @@ func (s *Site) checkLinks(static map[string]bool) ErrorList {
 			static[name] = true
 		}
 	}
-	var errs ErrorList
+	var errs inputerr.List
 	for _, p := range s.Pages {
 		for _, l := range p.links {
 			target, frag, rooted, ok := linkTarget(p.Out, l.Dest)
@@ -38,7 +40,7 @@ func (s *Site) checkLinks(static map[string]bool) ErrorList {
 				continue
 			}
 			fail := func(format string, args ...any) {
-				errs = append(errs, &Error{File: p.File, Line: l.Line, Msg: fmt.Sprintf("link %q: ", l.Written) + fmt.Sprintf(format, args...)})
+				errs = append(errs, &inputerr.Error{File: p.File, Line: l.Line, Msg: fmt.Sprintf("link %q: ", l.Written) + fmt.Sprintf(format, args...)})
 			}
 			// mdLink is how this page links the page at out: relative, by
 			// its source, as the Markdown rewrite expects.

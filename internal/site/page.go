@@ -11,6 +11,7 @@ import (
 	"unicode/utf8"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/render"
 )
 
@@ -65,7 +66,7 @@ func findPages(root string) ([]string, error) {
 	dir := filepath.Join(root, ContentDir)
 	info, err := os.Stat(dir)
 	if err != nil || !info.IsDir() {
-		return nil, &Error{Msg: fmt.Sprintf("no content/ folder in %s; a site root holds content/ with Markdown pages (use -C to point at the site root)", root)}
+		return nil, &inputerr.Error{Msg: fmt.Sprintf("no content/ folder in %s; a site root holds content/ with Markdown pages (use -C to point at the site root)", root)}
 	}
 	var rels []string
 	err = filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
@@ -84,7 +85,7 @@ func findPages(root string) ([]string, error) {
 		if d.Type()&fs.ModeSymlink != 0 && !strings.EqualFold(filepath.Ext(name), ".md") {
 			if info, err := os.Stat(p); err == nil && info.IsDir() {
 				rel, _ := filepath.Rel(dir, p)
-				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link to a folder, which specgen does not follow (its pages would be left out); move or copy the folder into content/"}
+				return &inputerr.Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link to a folder, which specgen does not follow (its pages would be left out); move or copy the folder into content/"}
 			}
 		}
 		if !d.IsDir() && strings.EqualFold(filepath.Ext(name), ".md") {
@@ -93,15 +94,15 @@ func findPages(root string) ([]string, error) {
 				return err
 			}
 			if !utf8.ValidString(rel) {
-				return &Error{File: ContentDir + "/" + strings.ToValidUTF8(filepath.ToSlash(rel), "\uFFFD"), Msg: "the file name is not UTF-8 text (written in another encoding); rename the file, or its links and title would be garbled"}
+				return &inputerr.Error{File: ContentDir + "/" + strings.ToValidUTF8(filepath.ToSlash(rel), "\uFFFD"), Msg: "the file name is not UTF-8 text (written in another encoding); rename the file, or its links and title would be garbled"}
 			}
 			// Only index.md becomes index.html, the page a web server
 			// shows for its folder; INDEX.MD would not be found there.
 			if strings.EqualFold(name, "index.md") && name != "index.md" {
-				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "rename it index.md, in lower case: a folder's own page is index.md, written as index.html, the page web servers show for the folder"}
+				return &inputerr.Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "rename it index.md, in lower case: a folder's own page is index.md, written as index.html, the page web servers show for the folder"}
 			}
 			if d.Type()&fs.ModeSymlink != 0 {
-				return &Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link; content/ holds plain files only, so nothing outside the site root is published by accident"}
+				return &inputerr.Error{File: ContentDir + "/" + filepath.ToSlash(rel), Msg: "is a symbolic link; content/ holds plain files only, so nothing outside the site root is published by accident"}
 			}
 			rels = append(rels, filepath.ToSlash(rel))
 		}
@@ -111,21 +112,21 @@ func findPages(root string) ([]string, error) {
 		return nil, err
 	}
 	if len(rels) == 0 {
-		return nil, &Error{File: ContentDir, Msg: "no Markdown pages (*.md) in content/"}
+		return nil, &inputerr.Error{File: ContentDir, Msg: "no Markdown pages (*.md) in content/"}
 	}
 	sort.Strings(rels)
 	return rels, nil
 }
 
 // loadPage reads and parses one page.
-func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
+func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
 	file := ContentDir + "/" + rel
 	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
 	if err != nil {
 		return nil, err
 	}
 	if !utf8.Valid(src) {
-		return nil, &Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
+		return nil, &inputerr.Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
 	}
 	fm, lines, body, offset, err := parseFrontMatter(file, src)
 	if err != nil {
@@ -144,7 +145,7 @@ func loadPage(root, rel string, md *render.Markdown) (*Page, error) {
 		p.titleParts = append(p.titleParts, titlePart{Ref: refs})
 		refs++
 	}
-	if err := readDoc(p, doc); err != nil {
+	if err := readDoc(p, doc, cat); err != nil {
 		return nil, err
 	}
 	// Until the values are known, a reference in the title reads as written.
@@ -217,11 +218,11 @@ func firstInvalidUTF8Line(src []byte) int {
 // such as "a.md" and "A.md" on a case-insensitive disk, or "a.MD".
 func checkOutputClashes(pages []*Page) error {
 	seen := map[string]*Page{}
-	var errs ErrorList
+	var errs inputerr.List
 	for _, p := range pages {
 		key := strings.ToLower(p.Out)
 		if other, ok := seen[key]; ok {
-			errs = append(errs, &Error{File: p.File, Msg: fmt.Sprintf("writes the same page as %s (%s); rename one", other.File, p.Out)})
+			errs = append(errs, &inputerr.Error{File: p.File, Msg: fmt.Sprintf("writes the same page as %s (%s); rename one", other.File, p.Out)})
 			continue
 		}
 		seen[key] = p

@@ -1,6 +1,7 @@
 package site
 
 import (
+	"os/exec"
 	"path/filepath"
 	"strings"
 )
@@ -30,4 +31,11 @@ func revisionOf(root string) *Revision {
 	status, err := git(root, "status", "--porcelain", "--", filepath.Join(root, ContentDir), filepath.Join(root, ConfigFile))
 	r.Modified = err == nil && strings.TrimSpace(status) != ""
 	return r
+}
+
+// git runs git in dir and returns its output.
+func git(dir string, args ...string) (string, error) {
+	cmd := exec.Command("git", append([]string{"-C", dir}, args...)...)
+	out, err := cmd.Output()
+	return string(out), err
 }

@@ -6,6 +6,8 @@ import (
 	"fmt"
 	"io/fs"
 	"os"
+
+	"specgen/internal/inputerr"
 )
 
 // CheckRoot says plainly when the site root (the -C folder) is missing or
@@ -16,11 +18,11 @@ func CheckRoot(root string) error {
 	info, err := os.Stat(cmp.Or(root, "."))
 	switch {
 	case errors.Is(err, fs.ErrNotExist):
-		return &Error{Msg: fmt.Sprintf("site root %s: no such folder; -C names the folder that holds content/", root)}
+		return &inputerr.Error{Msg: fmt.Sprintf("site root %s: no such folder; -C names the folder that holds content/", root)}
 	case err != nil:
-		return &Error{Msg: fmt.Sprintf("site root %s: %v", root, errors.Unwrap(err))}
+		return &inputerr.Error{Msg: fmt.Sprintf("site root %s: %v", root, errors.Unwrap(err))}
 	case !info.IsDir():
-		return &Error{Msg: fmt.Sprintf("site root %s: is a file, not a folder; -C names the folder that holds content/", root)}
+		return &inputerr.Error{Msg: fmt.Sprintf("site root %s: is a file, not a folder; -C names the folder that holds content/", root)}
 	}
 	return nil
 }

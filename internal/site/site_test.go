@@ -18,6 +18,8 @@ import (
 	"sort"
 	"strings"
 	"testing"
+
+	"specgen/internal/inputerr"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
@@ -217,7 +219,7 @@ func TestFailedBuildLeavesOutputUntouched(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err := Build(root, Options{})
-	if err == nil || !IsInputError(err) {
+	if err == nil || !inputerr.Is(err) {
 		t.Fatalf("want an input error, got %v", err)
 	}
 	if after := treeHash(t, filepath.Join(root, DefaultOut)); after != before {

@@ -6,6 +6,8 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"specgen/internal/inputerr"
 )
 
 // readStatic reads every file under static/, keyed by its output path.
@@ -31,11 +33,11 @@ func readStatic(root string) (map[string][]byte, error) {
 		}
 		switch {
 		case d.Type()&fs.ModeSymlink != 0:
-			return &Error{File: name, Msg: "is a symbolic link; static/ holds plain files only, so nothing outside the site root is published by accident"}
+			return &inputerr.Error{File: name, Msg: "is a symbolic link; static/ holds plain files only, so nothing outside the site root is published by accident"}
 		case d.IsDir():
 			return nil
 		case rel == OutputMarker || strings.HasPrefix(rel, ".specgen"):
-			return &Error{File: name, Msg: "this name is reserved for specgen's own files"}
+			return &inputerr.Error{File: name, Msg: "this name is reserved for specgen's own files"}
 		}
 		b, err := os.ReadFile(p)
 		files[rel] = b

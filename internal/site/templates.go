@@ -13,6 +13,7 @@ import (
 	"strconv"
 	"strings"
 
+	"specgen/internal/inputerr"
 	"specgen/internal/render"
 	"specgen/templates"
 )
@@ -81,7 +82,7 @@ func loadLayouts(root string) (*layouts, error) {
 		}
 	}
 	if l.set.Lookup("page.html") == nil {
-		return nil, &Error{File: TemplatesDir + "/page.html", Msg: "the default page template is missing"}
+		return nil, &inputerr.Error{File: TemplatesDir + "/page.html", Msg: "the default page template is missing"}
 	}
 	return l, nil
 }
@@ -119,9 +120,9 @@ func init() {
 // templateError places a template's parse or execution error on the
 // template file and line it names, and words a missing field with the
 // fields there are instead of a Go type name.
-func templateError(err error, name, prefix string) *Error {
+func templateError(err error, name, prefix string) *inputerr.Error {
 	msg := err.Error()
-	e := &Error{File: TemplatesDir + "/" + name}
+	e := &inputerr.Error{File: TemplatesDir + "/" + name}
 	if m := templatePlace.FindStringSubmatch(msg); m != nil {
 		e.File = TemplatesDir + "/" + m[1]
 		e.Line, _ = strconv.Atoi(m[2])

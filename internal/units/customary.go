@@ -26,8 +26,23 @@ var neutralUnits = map[string]bool{
 	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true,
 }
 
+// metricUnits are the metric symbols of the unit table. Every symbol of
+// the table is in exactly one of the three lists (tested), so that a new
+// row cannot fall into a system by default.
+var metricUnits = map[string]bool{
+	"um": true, "mm": true, "cm": true, "m": true, "mm2": true, "cm2": true, "m2": true, "mm3": true, "cm3": true,
+	"L": true, "m3": true, "cm3/s": true, "L/min": true, "L/s": true, "m3/h": true, "m3/min": true, "m3/s": true,
+	"Pa": true, "hPa": true, "kPa": true, "MPa": true, "bar": true, "mbar": true, "N/mm2": true, "GPa": true,
+	"degC": true, "N": true, "kN": true, "kgf": true, "N m": true, "N mm": true, "kN m": true, "W": true, "kW": true,
+	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
+	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
+	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
+	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true,
+}
+
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)
-// belongs to; a pressure's gauge, absolute or difference mark does not matter.
+// belongs to; a pressure's gauge, absolute or difference mark does not
+// matter. A symbol outside the unit table is metric.
 func SystemOf(symbol string) UnitSystem {
 	base, _ := pressureMark(symbol)
 	switch {

@@ -37,3 +37,27 @@ func TestCustomaryForKeepsMarks(t *testing.T) {
 		}
 	}
 }
+
+// TestEveryUnitHasItsSystem keeps the three system lists complete: a row
+// added to the unit table without its system fails here, naming it.
+func TestEveryUnitHasItsSystem(t *testing.T) {
+	for _, d := range unitTable {
+		base, _ := pressureMark(d.Symbol)
+		n := 0
+		for _, list := range []map[string]bool{metricUnits, customaryUnits, neutralUnits} {
+			if list[base] {
+				n++
+			}
+		}
+		if n != 1 {
+			t.Errorf("unit %q is in %d of the system lists (metricUnits, customaryUnits, neutralUnits in customary.go); put it in one", d.Symbol, n)
+		}
+	}
+	for _, list := range []map[string]bool{metricUnits, customaryUnits, neutralUnits} {
+		for sym := range list {
+			if _, err := LookupUnit(sym); err != nil {
+				t.Errorf("system list names %q, which is not in the unit table", sym)
+			}
+		}
+	}
+}

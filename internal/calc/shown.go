@@ -1,0 +1,115 @@
+package calc
+
+import (
+	"fmt"
+	"strings"
+
+	"specgen/internal/display"
+	"specgen/internal/units"
+)
+
+// How a block's values are shown: which unit each takes, chosen from what
+// its writer wrote; the display package does the formatting.
+
+// DisplayUnit is the unit a result shows in: the block's [show] choice,
+// else the kind's default, in US customary units when the block is written
+// in them.
+func (e *Evaluated) DisplayUnit(name string) string {
+	for _, o := range e.Block.Show.Outputs {
+		if o.Name == name && o.Unit != "" {
+			return o.Unit
+		}
+	}
+	if spec, ok := e.Block.Kind.result(name); ok {
+		if spec.Dim == units.Time {
+			if r, found := e.Result(name); found {
+				return display.DurationUnit(r.Value)
+			}
+		}
+		if e.customary {
+			return units.CustomaryFor(spec.Unit)
+		}
+		return spec.Unit
+	}
+	return ""
+}
+
+// Format shows a result in a unit ("" for its display unit) with the
+// site's significant figures: "19.7 cm3".
+func (e *Evaluated) Format(name, unit string) (string, error) {
+	si, dim, shown, ok := e.Quantity(name)
+	if !ok {
+		return "", fmt.Errorf("block %s has no result or input %q", e.Block.ID, name)
+	}
+	if unit == "" {
+		unit = shown
+	}
+	return display.Value(si, dim, unit, e.Ambient, e.sigFigs)
+}
+
+// Quantity returns a result, or else a quantity input, of the block: its
+// SI value, dimension and the unit it is shown in (the display unit of a
+// result, the unit an input was written in). Prose and other blocks may
+// quote both.
+func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit string, ok bool) {
+	if r, found := e.Result(name); found {
+		return r.Value, r.Dim, e.DisplayUnit(name), true
+	}
+	for _, in := range e.Inputs {
+		if in.Name == name && in.Type == Quantity {
+			unit := ""
+			if q, err := units.Parse(in.Text, in.Dim); err == nil {
+				unit = q.Unit.Symbol
+			} else if in.From != "" {
+				unit = unitFromShown(in.Text)
+			}
+			return in.Value, in.Dim, unit, true
+		}
+	}
+	return 0, 0, "", false
+}
+
+// unitFromShown is the unit of a formatted value such as "19.7 cm³".
+func unitFromShown(text string) string {
+	_, unit, _ := strings.Cut(text, " ")
+	if u, err := units.LookupUnit(unit); err == nil {
+		return u.Symbol
+	}
+	return ""
+}
+
+// Show formats a value the block does not itself report (a limit, a
+// threshold, another block's figure) in the unit its writer uses for that
+// dimension (see WriterUnit), else in fallback.
+func (e *Evaluated) Show(si float64, dim units.Dimension, fallback string) string {
+	s, err := display.Value(si, dim, e.WriterUnit(dim, fallback), e.Ambient, e.sigFigs)
+	if err != nil {
+		return units.Format(si, e.sigFigs)
+	}
+	return s
+}
+
+// WriterUnit is the unit of dimension dim that the block's writer chose: of a
+// [show] output, else of an input written in the block, else fallback (its
+// customary counterpart in a customary block, which may leave a temperature
+// at its default). A block written in psi and degF gets its cautions in psi
+// and degF.
+func (e *Evaluated) WriterUnit(dim units.Dimension, fallback string) string {
+	for _, o := range e.Block.Show.Outputs {
+		if spec, ok := e.Block.Kind.ResultSpec(o.Name); ok && o.Unit != "" && spec.Dim == dim {
+			return o.Unit
+		}
+	}
+	for _, in := range e.Inputs {
+		if in.Default || in.From != "" || in.Dim != dim {
+			continue
+		}
+		if q, err := units.Parse(in.Text, dim); err == nil && q.Unit.Symbol != "" {
+			return q.Unit.Symbol
+		}
+	}
+	if e.customary {
+		return units.CustomaryFor(fallback)
+	}
+	return fallback
+}

@@ -1,0 +1,461 @@
+package models
+
+import (
+	"fmt"
+	"slices"
+	"strings"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
+)
+
+// Thresholds of the rules, with their basis.
+const (
+	// hotMargin: a discharge within this of a part's temperature limit is a
+	// WARNING (the issue's figure; thermocouple and model error are of this order).
+	hotMargin = 10.0 // K
+	// hotAir: above this even oil made for air compressors chars in the
+	// discharge line, where the deposits can ignite (from memory: DIN 51506
+	// rates its VDL compressor oils for final compression temperatures up
+	// to 220 °C).
+	hotAir = 493.15 // K, 220 °C
+	// dangerFactor: below this safety factor a part is a DANGER whatever the
+	// site's minimum (common practice: no margin left for flaws or fatigue).
+	dangerFactor = 1.5
+	// Stored energy: above 1 kJ a NOTICE, above 10 kJ a WARNING. The basis is
+	// the energy of an isentropic expansion to ambient; 1 kJ is about the
+	// energy of a 1 kg mass dropped from 100 m (common practice for "enough to
+	// hurt"; from memory, several pneumatic-test guides use thresholds of this order).
+	storedEnergyNotice  = 1e3  // J
+	storedEnergyWarning = 10e3 // J
+	// fastRim: the rim speed long held as the limit for cast-iron flywheels,
+	// whose casting flaws make a stress check alone unsafe (common practice;
+	// from memory, machine-design handbooks give about 6000 ft/min, 30 m/s).
+	fastRim = 30.0 // m/s
+	// freezing: water in the air freezes below 0 °C.
+	freezing = 273.15 // K
+)
+
+// rules is every caution rule, in the order they are applied.
+var rules = []calc.Rule{
+	{ID: "no-delivery", Level: calc.Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
+	{ID: "over-expansion", Level: calc.Notice, Summary: "an air motor whose air expands below ambient before the exhaust opens, so the end of each stroke takes work back (raised by the motor model)"},
+	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of: charred oil in the discharge line, burns", Check: hotAirRule},
+	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
+	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
+	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
+	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
+	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
+	{ID: "relief-below-target", Level: calc.Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", Check: reliefBelowTarget},
+	{ID: "fill-above-rating", Level: calc.Caution, Summary: "a tank filled above the discharge pressure its supply's block is computed at: the stage's forces, temperature and power run above what its block shows", Check: fillAboveRating},
+	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
+	{ID: "printed-pressure-part", Level: calc.Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", Check: printedPart},
+	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
+	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
+	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
+}
+
+// material returns the material a Name input of e names.
+func material(e *calc.Evaluated, key string) (Material, bool) {
+	in := e.ModelInputs()
+	if in == nil {
+		return Material{}, false
+	}
+	name := in.NameOf(key)
+	if name == "" {
+		return Material{}, false
+	}
+	m, err := envOf(in).Materials.Lookup(name)
+	return m, err == nil
+}
+
+func hotDischarge(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		t2, ok := e.Result("discharge_temperature")
+		if !ok {
+			continue
+		}
+		for _, key := range []string{"head_material", "valve_material"} {
+			m, ok := material(e, key)
+			if !ok {
+				continue
+			}
+			limit := m.TemperatureLimit()
+			what := "service temperature limit"
+			if limit == m.HeatDeflection {
+				what = "heat deflection temperature"
+			}
+			msg := fmt.Sprintf("discharge temperature %s against the %s %s of %s %s (%s)",
+				e.Show(t2.Value, units.Temperature, "degC"), strings.TrimSuffix(key, "_material"), what, m.Label,
+				e.Show(limit, units.Temperature, "degC"), "typical value: verify for your material")
+			switch {
+			case t2.Value > limit:
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
+			case t2.Value > limit-hotMargin:
+				margin := "10 K"
+				if e.WriterUnit(units.Temperature, "degC") == "degF" {
+					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
+				}
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+			}
+		}
+	}
+	return out
+}
+
+func hotAirRule(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		t2, ok := e.Result("discharge_temperature")
+		if !ok || t2.Value <= hotAir {
+			continue
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
+				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
+			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func lowSafetyFactor(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		for _, spec := range e.Block.Kind.Results {
+			if !spec.Factor {
+				continue
+			}
+			r, ok := e.Result(spec.Name)
+			if !ok {
+				continue
+			}
+			m, hasMaterial := material(e, spec.FactorMaterial)
+			min := envOf(e.ModelInputs()).Safety.MinimumFactorMetal
+			basis := "metal"
+			if hasMaterial {
+				min = envOf(e.ModelInputs()).Safety.MinimumFor(m)
+				basis = m.Label
+			}
+			factor := units.Format(r.Value, e.SigFigs())
+			switch {
+			case r.Value < 1:
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+					"%s is %s, below 1: the part is expected to fail at its working load. Redesign it before it is pressurised.",
+					spec.Name, factor)}})
+			case r.Value < dangerFactor:
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+					"%s is %s, below %s: the part is close to failing at its working load. Redesign it before it is pressurised.",
+					spec.Name, factor, units.Format(dangerFactor, 2))}})
+			case r.Value < min:
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+					"%s is %s, below the site's minimum of %s for %s. Thicken or strengthen the part, or lower the pressure.",
+					spec.Name, factor, units.Format(min, 2), basis)}})
+			}
+		}
+	}
+	return out
+}
+
+func aboveAllowable(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		allow, ok := e.Result("allowable_pressure")
+		burst, hasBurst := e.Result("burst_pressure")
+		in, working := e.ModelInputs(), e.Block.Kind.WorkingPressure
+		if !ok || in == nil || working.Key == "" || !in.Has(working.Key) {
+			continue
+		}
+		p := in.Value(working.Key)
+		if p <= allow.Value {
+			continue
+		}
+		level, why := calc.Warning, "above its allowable pressure"
+		// Both pressures are absolute; the margin is on gauge pressure.
+		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
+			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
+			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
+			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
+	}
+	return out
+}
+
+// pressureParts are the blocks with an allowable pressure.
+func pressureParts(s *calc.Set) []*calc.Evaluated {
+	var parts []*calc.Evaluated
+	for _, e := range s.Blocks {
+		if _, ok := e.Result("allowable_pressure"); ok {
+			parts = append(parts, e)
+		}
+	}
+	return parts
+}
+
+// links reports whether e names id in any of its Link or LinkList inputs.
+func links(e *calc.Evaluated, id string) bool {
+	for _, in := range e.Inputs {
+		if slices.Contains(in.Links, id) {
+			return true
+		}
+	}
+	return false
+}
+
+func noRelief(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	parts := pressureParts(s)
+	var valves []*calc.Evaluated
+	for _, e := range s.Blocks {
+		if _, ok := e.Result("cracking_pressure"); ok && e.Block.Kind.Has(calc.Relieves) {
+			valves = append(valves, e)
+		}
+	}
+	for _, c := range s.Blocks {
+		dead, ok := c.Result("max_pressure")
+		if !ok || !c.Block.Kind.Has(calc.Delivers) {
+			continue
+		}
+		for _, p := range parts {
+			exposed := p.Block.File == c.Block.File || links(p, c.Block.ID)
+			for _, v := range valves {
+				if links(v, c.Block.ID) && links(v, p.Block.ID) {
+					exposed = true
+				}
+			}
+			allow, _ := p.Result("allowable_pressure")
+			if !exposed || dead.Value <= allow.Value {
+				continue
+			}
+			// The relief must open below the part's allowable pressure.
+			relieved := false
+			var tooHigh []string
+			for _, v := range valves {
+				if !links(v, c.Block.ID) && !links(v, p.Block.ID) {
+					continue
+				}
+				set, _ := v.Result("cracking_pressure")
+				// cracking_pressure is a difference across the seat; the
+				// valve vents to ambient, so it opens at ambient + that.
+				if set.Value+v.Ambient <= allow.Value {
+					relieved = true
+					break
+				}
+				// Shown as the part's pressures are (gauge or absolute, its
+				// unit), so the three numbers compare at a glance.
+				tooHigh = append(tooHigh, fmt.Sprintf("%s opens at %s", v.Block.ID, p.Show(set.Value+v.Ambient, units.Pressure, "bar")))
+			}
+			if relieved {
+				continue
+			}
+			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
+				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), p.Show(allow.Value, units.Pressure, "bar"), p.Block.ID,
+				p.Show(allow.Value, units.Pressure, "bar"), c.Block.ID)
+			if len(tooHigh) > 0 {
+				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
+			}
+			out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Danger, Message: msg}})
+		}
+	}
+	return out
+}
+
+func reliefUnnamed(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, c := range s.Blocks {
+		dead, ok := c.Result("max_pressure")
+		ve, _ := c.Result("volumetric_efficiency")
+		if !ok || !c.Block.Kind.Has(calc.Delivers) || ve.Value <= 0 {
+			continue
+		}
+		// A relief on the receiver the compressor fills (the usual place)
+		// relieves the compressor too, as the no-relief rule counts it.
+		named := false
+		for _, v := range s.Blocks {
+			if !v.Block.Kind.Has(calc.Relieves) {
+				continue
+			}
+			named = named || links(v, c.Block.ID)
+			for _, p := range s.Blocks {
+				named = named || (p != v && links(v, p.Block.ID) && links(p, c.Block.ID))
+			}
+		}
+		if named {
+			continue
+		}
+		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
+			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
+			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+	}
+	return out
+}
+
+// reliefBelowTarget raises a CAUTION on a relief valve that opens below the
+// working pressure of a part it protects (a tank's target, say): not a
+// hazard, since the valve holds the pressure down, but the part never
+// reaches it, the compressor runs on with the valve blowing off, and a
+// tank's fill_time is for a pressure it cannot reach.
+func reliefBelowTarget(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, v := range s.Blocks {
+		set, ok := v.Result("cracking_pressure")
+		vin := v.ModelInputs()
+		if !ok || !v.Block.Kind.Has(calc.Relieves) || vin == nil {
+			continue
+		}
+		opens := set.Value + v.Ambient // absolute: the valve vents to ambient
+		for _, l := range vin.LinksOf("protects") {
+			p, ok := s.Lookup(l.ID)
+			if !ok || p.ModelInputs() == nil {
+				continue
+			}
+			working := p.Block.Kind.WorkingPressure
+			if working.Key == "" || !p.ModelInputs().Has(working.Key) {
+				continue
+			}
+			target := p.ModelInputs().Value(working.Key)
+			if opens >= target {
+				continue
+			}
+			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+				"%s opens at %s, below the %s %s of %s, which it protects: %s never reaches it, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the allowable pressure of the parts it protects; or lower the %s.",
+				v.Block.ID, p.Show(opens, units.Pressure, "bar"), working.Name, p.Show(target, units.Pressure, "bar"), p.Block.ID,
+				p.Block.ID, p.Show(target, units.Pressure, "bar"), working.Name)}})
+		}
+	}
+	return out
+}
+
+func fillAboveRating(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, t := range s.Blocks {
+		tin, working := t.ModelInputs(), t.Block.Kind.WorkingPressure
+		if !t.Block.Kind.Has(calc.Receiver) || tin == nil || !tin.Has(working.Key) {
+			continue
+		}
+		l := tin.LinkOf("supply")
+		if l == nil {
+			continue
+		}
+		c, ok := s.Lookup(l.ID)
+		if !ok || c.ModelInputs() == nil {
+			continue
+		}
+		rating := c.Block.Kind.WorkingPressure
+		if rating.Key == "" || !c.ModelInputs().Has(rating.Key) {
+			continue
+		}
+		target, rated := tin.Value(working.Key), c.ModelInputs().Value(rating.Key)
+		if target <= rated {
+			continue
+		}
+		out = append(out, calc.Raised{Block: t, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+			"%s is filled to %s, above the discharge pressure %s that its supply %s is computed at. Near the end of the fill the stage runs beyond its block: its piston force, head load, discharge temperature and power are higher than %s shows. "+
+				"Compute the supply at the receiver's cut-out pressure, or fill to the pressure it is computed at: pressure = \"=%s.discharge_pressure\".",
+			t.Block.ID, t.Show(target, units.Pressure, "bar"), t.Show(rated, units.Pressure, "bar"), c.Block.ID, c.Block.ID, c.Block.ID)}})
+	}
+	return out
+}
+
+func storedEnergy(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		r, ok := e.Result("stored_energy")
+		if !ok || r.Value <= storedEnergyNotice {
+			continue
+		}
+		level := calc.Notice
+		if r.Value > storedEnergyWarning {
+			level = calc.Warning
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
+			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
+			e.Show(r.Value, units.Energy, "kJ"))}})
+	}
+	return out
+}
+
+func printedPart(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		isPart := false
+		if _, ok := e.Result("allowable_pressure"); ok {
+			isPart = true
+		}
+		// nut_material is the part a head's bolts thread into: printed, its
+		// threads carry the whole head load.
+		for _, key := range []string{"material", "head_material", "valve_material", "nut_material"} {
+			m, ok := material(e, key)
+			if !ok || !m.Printable || (key == "material" && !isPart && !e.Block.Kind.Has(calc.Relieves)) {
+				continue
+			}
+			what := strings.ReplaceAll(key, "_", " ")
+			if key == "nut_material" {
+				what = "nut or tapped part the bolts thread into"
+			}
+			out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+				"The %s is %s, a 3D-printing plastic. Printed parts leak and split along their layers, and creep under load and heat. Test it hydrostatically with water, never with air, behind a shield; keep its volume small.",
+				what, m.Label)}})
+		}
+	}
+	return out
+}
+
+func fastFlywheel(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		v, ok := e.Result("rim_speed")
+		if !ok || v.Value <= fastRim {
+			continue
+		}
+		why := "only a density is given, so no strength check is made; name a material"
+		if m, named := material(e, "material"); named {
+			if !m.Brittle {
+				continue
+			}
+			why = "its material (" + m.Label + ") is brittle and can burst from casting flaws well below its computed strength"
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
+			e.Show(v.Value, units.Velocity, "m/s"), e.Show(fastRim, units.Velocity, "m/s"), why)}})
+	}
+	return out
+}
+
+func coldExhaust(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		t, ok := e.Result("expansion_temperature")
+		if !ok || t.Value >= freezing {
+			continue
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
+			e.Show(t.Value, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func vacuumVessel(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		if !e.Block.Kind.Has(calc.HoldsVacuum) {
+			continue
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded."}})
+	}
+	return out
+}
+
+// StandardCaution is shown on every page with a pressure calculation.
+const StandardCaution = "Compressed air stores energy that can burst vessels, throw parts and inject air through skin. " +
+	"The figures on this page come from simplified models and are not a certification. " +
+	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
+// StandardVacuumCaution replaces StandardCaution on a page whose pressure
+// calculations are all vacuum ones, which hold no compressed air.
+const StandardVacuumCaution = "A vessel under vacuum carries the full weight of the atmosphere on its walls, about 10 tonnes on every square metre. " +
+	"Thin sheet, plastic boxes and glass can implode and throw fragments. " +
+	"The figures on this page come from simplified models and are not a certification. " +
+	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."

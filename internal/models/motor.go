@@ -1,0 +1,284 @@
+package models
+
+import (
+	"fmt"
+	"math"
+
+	"specgen/internal/calc"
+	"specgen/internal/display"
+	"specgen/internal/units"
+)
+
+// motorKind models a single-acting piston air motor: the compressor's
+// cylinder and slider crank driven by supply air, with admission to a
+// cut-off, polytropic expansion and exhaust to ambient.
+var motorKind = calc.Kind{
+	Name:    "motor",
+	Summary: "a piston air motor (the compressor run backwards): admission to cut-off, expansion, exhaust; power, torque, air consumption",
+	Doc:     motorDoc,
+	Roles:   calc.HoldsPressure | calc.Crank,
+	Raises:  []string{"over-expansion"},
+	Inputs: append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio", "cylinders", "speed"),
+		calc.InputSpec{Name: "supply_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure of the supply air at the inlet valve, up to 1 GPa; must be above ambient"},
+		calc.InputSpec{Name: "cutoff", Dim: units.Dimensionless, Range: calc.Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
+			Meaning: "fraction of the stroke at which the inlet valve closes, above 0 up to 1 (1: admission over the whole stroke)"},
+		calc.InputSpec{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for the expansion after cut-off, 1 (isothermal) to 1.67"},
+		calc.InputSpec{Name: "supply_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "temperature of the supply air at the inlet valve"},
+	),
+	Results: []calc.ResultSpec{
+		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
+		{Name: "expansion_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "cylinder pressure at bottom dead centre, when the exhaust opens"},
+		{Name: "expansion_temperature", Dim: units.Temperature, Unit: "degC", Meaning: "air temperature at bottom dead centre, when the exhaust opens"},
+		{Name: "indicated_work", Dim: units.Energy, Unit: "J", Meaning: "gas work of all cylinders on the pistons in one revolution"},
+		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time, before friction"},
+		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the mean torque the motor delivers, before friction"},
+		{Name: "air_consumption", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "air admitted, as free air: its volume at ambient pressure and the supply air's own temperature"},
+		{Name: "efficiency", Dim: units.Dimensionless, Unit: "", Meaning: "indicated work over the work of the same air expanding isothermally from supply to ambient pressure"},
+		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant load torque"},
+	},
+	Charts:   []string{"pv"},
+	Chart:    motorChart,
+	Evaluate: evaluateMotor,
+}
+
+const motorDoc = `The motor kind models a single-acting piston air motor: z identical, evenly
+phased cylinders of bore D, stroke s = 2R, rod length L and clearance volume Vc
+on one crankshaft at N revolutions per second, driven by supply air at p_s and
+T_s and exhausting to ambient p_a (pressures absolute). The geometry inputs are
+the compressor's (specgen explain compressor).
+
+The cycle (one cylinder, one revolution, volumes V0 = Vc, V1 = Vc + x_c·Vs,
+V2 = Vc + Vs with x_c the cut-off fraction of the stroke)
+- Admission: the inlet opens at top dead centre and the cylinder fills to p_s
+  at once; the piston moves out at p_s until the inlet closes at V1.
+- Expansion: from V1 to bottom dead centre along p·V^n = const, to
+  p_e = p_s·(V1/V2)^n.
+- Exhaust: the exhaust opens at bottom dead centre, the cylinder blows down
+  to p_a at once, and the piston returns at p_a to top dead centre. The
+  exhaust stays open to TDC: no compression, so the clearance holds air at
+  p_a when the inlet opens and is refilled from the supply every cycle.
+- Ideal valves: no pressure drops, no leakage. The crankcase behind the
+  piston is at ambient pressure. Constant crank speed.
+
+Work, power and torque
+  W1 = p_s·(V1 − V0) + p_s·V1/(n − 1)·(1 − (V1/V2)^(n−1)) − p_a·(V2 − V0)
+  (the expansion term is p_s·V1·ln(V2/V1) when n = 1)
+  W = z·W1 per revolution   P_i = W·N   T_m = W/2π
+  When p_e < p_a the expansion runs below ambient and the end of the stroke
+  takes work back (a NOTICE says so): a later cut-off gives more work.
+  A cycle that gives back all it gains (W1 <= 0) is refused.
+
+Air consumption
+  The air admitted per cycle is what the cylinder holds at cut-off less what
+  the clearance held before admission, both taken at the supply temperature:
+  m1 = (p_s·V1 − p_a·V0)/(R·T_s). As free air (ambient pressure, supply
+  temperature): V_free = (p_s·V1 − p_a·V0)/p_a, and
+  air_consumption = z·V_free·N.
+
+Expansion temperature
+  T_e = T_s·(p_e/p_s)^((n−1)/n), the air at bottom dead centre. Below
+  0 °C the cold-exhaust caution says that moisture will freeze there.
+
+Efficiency
+  η = W1 / (p_a·V_free·ln(p_s/p_a)), the indicated work over the work the
+  same air would give expanding isothermally from p_s to p_a. It is 1 only
+  with no clearance, n = 1 and a cut-off that expands exactly to ambient.
+
+Torque
+  T(θ) = −(p(θ) − p_a)·A·dx/dθ, summed over the cylinders, as the compressor
+  (load convention: negative where the air drives the crank); the motor
+  publishes it as the gas_torque curve for a flywheel block, and
+  energy_fluctuation is the max − min of ∫(T_m − T(θ))dθ over a revolution.
+  Chart: pv, the indicator diagram of one cylinder.
+
+Limits
+- Real motors use less of the stroke at supply pressure (valve and port
+  drops), leak, and lose power to friction: treat power and torque as upper
+  bounds and the air consumption as a guide.
+- The charge is taken at the supply temperature; the expansion cools it, and
+  a cold exhaust can ice up with moist air.`
+
+// motorInput is a motor block's inputs in SI, pressures absolute.
+type motorInput struct {
+	geom      cylinder // cylinder, crank and speed, as a compressor's
+	supply    float64
+	cutoff, n float64
+}
+
+// readMotorInput applies the checks that single-input ranges cannot.
+func readMotorInput(in *calc.Inputs) (motorInput, error) {
+	m := motorInput{supply: in.Value("supply_pressure"),
+		cutoff: in.Value("cutoff"), n: in.Value("polytropic_index")}
+	if m.supply <= in.Ambient {
+		return m, &calc.InputError{Key: "supply_pressure", Message: fmt.Sprintf(
+			"supply pressure %s must be above ambient %s: the air must push the piston out",
+			display.GaugeAndAbsolute(m.supply, in.Ambient, in.Customary()), display.TraceIn(in.Customary(), "bar(a)")(in.Ambient))}
+	}
+	g, err := readCylinder(in)
+	g.p2 = m.supply
+	if err != nil {
+		return m, err
+	}
+	m.geom = g
+	return m, nil
+}
+
+// motorCycle is the ideal indicator cycle of one motor cylinder.
+type motorCycle struct {
+	crank      sliderCrank
+	area       float64 // piston area, m2
+	v0, v1, v2 float64 // clearance, cut-off and bottom dead centre volumes, m3
+	ps, pa     float64 // supply and ambient pressure, Pa absolute
+	n          float64
+}
+
+func newMotorCycle(m motorInput) motorCycle {
+	g := m.geom
+	area := math.Pi / 4 * g.bore * g.bore
+	swept := area * 2 * g.crankRadius
+	return motorCycle{crank: sliderCrank{r: g.crankRadius, l: g.rod}, area: area,
+		v0: g.clearanceVolume, v1: g.clearanceVolume + m.cutoff*swept, v2: g.clearanceVolume + swept,
+		ps: m.supply, pa: g.ambient, n: m.n}
+}
+
+// volume returns the gas volume in the cylinder at crank angle theta.
+func (c motorCycle) volume(theta float64) float64 {
+	return c.v0 + c.area*c.crank.position(theta)
+}
+
+// pressure returns the cylinder pressure at crank angle theta: admission
+// and expansion on the out-stroke (0 to π), exhaust on the return.
+func (c motorCycle) pressure(theta float64) float64 {
+	if math.Mod(theta, 2*math.Pi) > math.Pi {
+		return c.pa
+	}
+	v := c.volume(theta)
+	if v <= c.v1 {
+		return c.ps
+	}
+	return c.ps * math.Pow(c.v1/v, c.n)
+}
+
+// gasTorque is the load torque of the gas on the crank, as the
+// compressor's: negative where the air drives the crank.
+func (c motorCycle) gasTorque(theta float64) float64 {
+	return -(c.pressure(theta) - c.pa) * c.area * c.crank.velocity(theta)
+}
+
+// expansionWork is the work of the gas from cut-off to bottom dead centre.
+func (c motorCycle) expansionWork() float64 {
+	ratio := c.v2 / c.v1
+	if c.n == 1 {
+		return c.ps * c.v1 * math.Log(ratio)
+	}
+	return -c.ps * c.v1 / (c.n - 1) * math.Expm1(-(c.n-1)*math.Log(ratio))
+}
+
+func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
+	m, err := readMotorInput(in)
+	if err != nil {
+		return nil, err
+	}
+	c := newMotorCycle(m)
+	var (
+		g        = m.geom
+		z        = float64(g.cylinders)
+		revs     = g.omega / (2 * math.Pi)
+		swept    = c.v2 - c.v0
+		pe       = c.ps * math.Pow(c.v1/c.v2, c.n)
+		expand   = c.expansionWork()
+		w1       = c.ps*(c.v1-c.v0) + expand - c.pa*swept
+		work     = z * w1
+		free     = (c.ps*c.v1 - c.pa*c.v0) / c.pa
+		wIso     = c.pa * free * math.Log(c.ps/c.pa)
+		meanLoad = -work / (2 * math.Pi)
+	)
+	if !(w1 > 0) {
+		return nil, &calc.InputError{Key: "cutoff", Message: fmt.Sprintf(
+			"with a supply of %s and cut-off at %s of the stroke the cycle does no net work (%s per cylinder and revolution): the air expands so far below ambient that the piston gives back more than the admission gained; raise cutoff or supply_pressure",
+			display.Gauge(c.ps-c.pa, in.Customary()), display.Number(in.Value("cutoff"), ""), display.Number(w1, "J"))}
+	}
+	ts := in.Value("supply_temperature")
+	steps := crankSteps(g.cylinders)
+	gas := phaseSum(sampleRevolution(steps, c.gasTorque), g.cylinders)
+	eLow, eHigh := excessEnergyRange(gas, meanLoad)
+
+	cust := in.Customary()
+	mm, cm3, bara := display.TraceIn(cust, "mm"), display.TraceIn(cust, "cm3"), display.TraceIn(cust, "bar(a)")
+	// The net work is a difference of the admission and expansion work and
+	// the exhaust work: enough figures that it works out by hand.
+	wSig := display.FiguresFor(c.ps*(c.v1-c.v0)+expand, w1)
+	wBar, wCm3 := display.TraceInSig(cust, "bar(a)", wSig), display.TraceInSig(cust, "cm3", wSig)
+	num := func(v float64) string { return display.Number(v, "") }
+	rps := display.Number(revs, "rev/s")
+	expandTrace := "p_s·V1/(n−1)·(1 − (V1/V2)^(n−1))"
+	if c.n == 1 {
+		expandTrace = "p_s·V1·ln(V2/V1)"
+	}
+	res := []calc.Result{
+		{Name: "swept_volume", Value: swept, Dim: units.Volume, Trace: calc.Trace{Formula: "Vs = π/4 · D² · s", Substituted: "= π/4 · (" + mm(g.bore) + ")² · " + mm(2*g.crankRadius)}},
+		{Name: "expansion_pressure", Value: pe, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_e = p_s · (V1/V2)^n, V1 = Vc + x_c·Vs, V2 = Vc + Vs", Substituted: "= " + bara(c.ps) + " · (" + cm3(c.v1) + " / " + cm3(c.v2) + ")^" + num(c.n)}},
+		{Name: "expansion_temperature", Value: ts * math.Pow(pe/c.ps, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_e = T_s · (p_e/p_s)^((n−1)/n)", Substituted: "= " + display.Number(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
+		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: calc.Trace{Formula: "W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)", Substituted: "= " + num(z) + " · (" + wBar(c.ps) + " · " + wCm3(c.v1-c.v0) + " + " + display.NumberSig(expand, "J", wSig) + " − " + wBar(c.pa) + " · " + wCm3(swept) + ")"}},
+		{Name: "indicated_power", Value: work * revs, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + display.Number(work, "J") + " · " + rps}},
+		{Name: "mean_torque", Value: work / (2 * math.Pi), Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + display.Number(work, "J") + " / 2π"}},
+		{Name: "air_consumption", Value: z * free * revs, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "Q = z · (p_s·V1 − p_a·Vc) / p_a · N (free air at p_a and T_s)", Substituted: "= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1) + " − " + bara(c.pa) + " · " + cm3(c.v0) + ") / " + bara(c.pa) + " · " + rps}},
+		{Name: "efficiency", Value: w1 / wIso, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η = W1 / (p_a · V_free · ln(p_s/p_a))", Substituted: "= " + display.Number(w1, "J") + " / (" + bara(c.pa) + " · " + cm3(free) + " · ln(" + bara(c.ps) + " / " + bara(c.pa) + "))"}},
+		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
+	}
+	out := &calc.Outcome{Results: res}
+	if in.WantCurves() {
+		out.Curves = motorCurves(c, gas, steps)
+	}
+	if pe < c.pa {
+		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Notice, Rule: "over-expansion", Message: fmt.Sprintf(
+			"The air expands to %s, below ambient %s, before the exhaust opens: the end of each stroke takes work back. "+
+				"A later cut-off gives more work for a little more air.", bara(pe), bara(c.pa))})
+	}
+	return out, nil
+}
+
+// motorCurves returns the indicator diagram of one cylinder, closed at top
+// dead centre, and the crankshaft's gas torque over a revolution.
+func motorCurves(c motorCycle, gas []float64, steps int) []calc.Curve {
+	stride := steps / curvePoints
+	pv := calc.Curve{Name: "pv", XDim: units.Volume, YDim: units.Pressure}
+	torque := calc.Curve{Name: "gas_torque", XDim: units.Angle, YDim: units.Torque}
+	for i := 0; i <= steps; i += stride {
+		theta := 2 * math.Pi * float64(i) / float64(steps)
+		pv.X, pv.Y = append(pv.X, c.volume(theta)), append(pv.Y, c.pressure(theta))
+		torque.X, torque.Y = append(torque.X, theta), append(torque.Y, gas[i%steps])
+	}
+	// The last sample is the exhaust at TDC; admission closes the loop.
+	pv.X, pv.Y = append(pv.X, c.v0), append(pv.Y, c.ps)
+	return []calc.Curve{pv, torque}
+}
+
+func motorChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart, error) {
+	if name != "pv" {
+		return nil, fmt.Errorf("no chart %q", name)
+	}
+	m, err := readMotorInput(in)
+	if err != nil {
+		return nil, err
+	}
+	pv, ok := out.Curve("pv")
+	if !ok {
+		return nil, fmt.Errorf("the model gave no p-V curve")
+	}
+	c := newMotorCycle(m)
+	pe := c.ps * math.Pow(c.v1/c.v2, c.n)
+	barA := display.Described(in.Customary(), "bar(a)")
+	cycle := calc.Series{Name: "indicator cycle", X: pv.X, Y: pv.Y, Labels: []calc.PointLabel{
+		{X: (c.v0 + c.v1) / 2, Y: c.ps, Text: "admission"},
+		{X: (c.v1 + c.v2) / 2, Y: c.ps * math.Pow(2*c.v1/(c.v1+c.v2), c.n), Text: "expansion"},
+		{X: (c.v0 + c.v2) / 2, Y: c.pa, Text: "exhaust", Below: true},
+	}}
+	return &calc.Chart{
+		Title: "Pressure over cylinder volume",
+		Desc: fmt.Sprintf("The indicator diagram of one cylinder: supply air at %s fills the cylinder to cut-off at %s of the stroke, expands along p·V^%s to %s at bottom dead centre, and is pushed out at ambient %s; the enclosed area is the work of one cycle.",
+			barA(c.ps), units.Format(m.cutoff, 3), units.Format(c.n, 3), barA(pe), barA(c.pa)),
+		X:      calc.Axis{Label: "Cylinder volume", Dim: units.Volume, Unit: "cm3"},
+		Panels: []calc.Panel{{Y: calc.Axis{Label: "Cylinder pressure", Dim: units.Pressure, Unit: "bar(a)"}, Series: []calc.Series{cycle}}},
+	}, nil
+}

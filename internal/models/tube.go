@@ -1,0 +1,225 @@
+package models
+
+import (
+	"fmt"
+	"math"
+
+	"specgen/internal/calc"
+	"specgen/internal/display"
+	"specgen/internal/units"
+)
+
+// tubeKind models a cylinder wall under internal pressure: Lamé's
+// thick-wall stresses at the bore, the thin-wall hoop stress for
+// comparison, Barlow's burst pressure and a safety factor.
+var tubeKind = calc.Kind{
+	Name:            "tube",
+	Summary:         "a pressurised cylinder wall: Lamé thick-wall and thin-wall stresses, Barlow burst pressure, allowable pressure, safety factor",
+	Doc:             tubeDoc,
+	Roles:           calc.HoldsPressure | calc.PressurePart,
+	WorkingPressure: calc.WorkingPressure{Key: "pressure", Name: "working pressure"},
+	Inputs: []calc.InputSpec{
+		{Name: "inner_diameter", Dim: units.Length, Range: calc.Between(1e-4, 10), Meaning: "bore of the tube or cylinder, 0.1 mm to 10 m"},
+		{Name: "outer_diameter", Dim: units.Length, Optional: true, Range: calc.Between(1e-4, 20), Meaning: "outside diameter; give outer_diameter or wall_thickness"},
+		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 5), Meaning: "wall thickness, 1 µm or more and less than the inner radius; give wall_thickness or outer_diameter"},
+		{Name: "pressure", Dim: units.Pressure, Range: calc.Range{Max: maxTubePressure, HasMax: true}, Meaning: "internal pressure, above ambient, up to 1 GPa; the outside is at ambient"},
+		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the wall (specgen explain lists the materials)"},
+		{Name: "closed_ends", Type: calc.Name, Default: "true", Choices: func(any) []string { return []string{"false", "true"} },
+			Meaning: "true when the tube's own wall carries the end load (capped cylinder); false when tie rods or the frame carry it"},
+	},
+	Results: []calc.ResultSpec{
+		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore, Lamé (thick wall): the largest stress in the wall"},
+		{Name: "hoop_stress_thin", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress by the thin-wall formula p·Di/2t, for comparison"},
+		{Name: "axial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "longitudinal stress from the end load (0 for open ends)"},
+		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure"},
+		{Name: "burst_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "pressure at which the wall bursts, Barlow's formula on the outside diameter and tensile strength"},
+		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure over the site's minimum safety factor for the material"},
+		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
+			Meaning: "design strength over the equivalent stress at the bore (von Mises against yield; the largest principal stress against tensile strength when the material has no yield point)"},
+	},
+	Evaluate: evaluateTube,
+}
+
+const (
+	// maxTubePressure bounds the pressure input (absolute), as for the
+	// compressor's discharge pressure.
+	maxTubePressure = 1e9 // Pa
+	// minTubeWall is the thinnest wall taken (a foil); it keeps the
+	// thin-wall stress finite at the largest pressure.
+	minTubeWall = 1e-6 // m
+	// thinWallLimit is the wall thickness over bore beyond which the thin
+	// formula p·Di/2t falls more than about 5 % below the Lamé bore stress
+	// (Di/t ≥ 20, the ri/t ≥ 10 rule of strength-of-materials texts).
+	thinWallLimit = 0.05
+)
+
+const tubeDoc = `The tube kind models a straight cylinder wall of bore Di = 2·ri and outside
+diameter Do = 2·ro (wall t = ro − ri) under an internal gauge pressure p, with
+ambient pressure outside. Give the wall as outer_diameter or wall_thickness.
+
+Assumptions
+- Linear elastic, homogeneous, isotropic wall; far from ends, ports and
+  welds, where stresses concentrate.
+- Internal pressure only. Vacuum or external pressure can buckle a wall
+  at far lower stress; this model does not cover it and rejects it.
+- closed_ends = true: the wall carries the end load of its caps. false: the
+  end load goes elsewhere (tie rods, a frame) and the axial stress is 0.
+- The wall is thinner than the bore radius (t < ri, so ro/ri < 2).
+
+Stresses at the bore, where they are largest (Lamé; W. C. Young and R. G.
+Budynas, Roark's Formulas for Stress and Strain, 7th ed., Table 13.5 cases
+1a and 1b)
+  σ_θ = p·(ro² + ri²)/(ro² − ri²)     hoop_stress
+  σ_r = −p                            radial_stress
+  σ_a = p·Di²/(Do² − Di²)             axial_stress, closed ends (else 0)
+Thin-wall hoop stress, for comparison
+  σ_θ,thin = p·Di/(2·t)               hoop_stress_thin
+  σ_θ/σ_θ,thin = 1 + (x + x²)/(2 + x) with x = t/ri, so the thin formula is
+  about 1 % low at t/Di = 0.01 and 5 % low at t/Di = 0.05 (ri/t = 10).
+  Above t/Di = 0.05 its trace carries a NOTE; use hoop_stress.
+
+Burst and allowable pressure
+  p_burst = 2·S_u·t/Do               Barlow's formula on the outside diameter
+  with S_u the tensile strength and k = ro/ri. Since (k − 1)/k lies below
+  both (k² − 1)/(k² + 1) and ln k for k > 1, it is below the pressure that
+  brings the Lamé bore stress to S_u (brittle fracture),
+  S_u·(k² − 1)/(k² + 1), and below the von Mises collapse pressure of a
+  fully plastic wall, (2/√3)·S_u·ln k: conservative for thin and
+  moderately thick walls. Measured bursts of ductile tubes with a low
+  yield-to-tensile ratio can fall below it; test a part before trusting it.
+  p_allow = p_burst/n_min, n_min the site's minimum factor for the material
+  (2.5 for ductile metals and 4 for plastics and brittle materials unless
+  specgen.toml says otherwise). Both are reported as gauge in tables and as
+  absolute pascals in results.json. This allowable rests on tensile
+  strength; pressure-vessel and piping codes set design stresses from
+  both yield and tensile strength with their own factors and usually allow
+  less. Where a code applies, its allowable governs.
+
+Safety factor
+  With a yield strength S_y (ductile): n = S_y/σ_vM, von Mises at the bore,
+    σ_vM = sqrt(((σ_θ − σ_a)² + (σ_a − σ_r)² + (σ_r − σ_θ)²)/2).
+  Without one (cast iron, PMMA, PLA): n = S_u/σ_1, the largest principal
+    stress magnitude, which is σ_θ at the bore (maximum normal stress).
+  The safety factor is against yield or fracture at the working pressure;
+  the allowable pressure is against bursting. The caution rules compare the
+  factor with the site's minimum, and a compressor's dead-head pressure with
+  the allowable pressure.`
+
+// tubeInput is a tube block's inputs in SI, pressure gauge.
+type tubeInput struct {
+	ri, ro, t  float64
+	p, ambient float64
+	closed     bool
+	material   Material
+	minFactor  float64
+}
+
+// readTubeInput applies the checks that single-input ranges cannot.
+func readTubeInput(in *calc.Inputs) (tubeInput, error) {
+	c := tubeInput{ri: in.Value("inner_diameter") / 2, ambient: in.Ambient,
+		p: in.Value("pressure") - in.Ambient, closed: in.NameOf("closed_ends") != "false"}
+	mm := display.TraceIn(in.Customary(), "mm")
+	wallKey := "wall_thickness"
+	switch {
+	case in.Has("outer_diameter") && in.Has("wall_thickness"):
+		return c, &calc.InputError{Key: "wall_thickness", Message: "give either outer_diameter or wall_thickness, not both (outer diameter = inner diameter + 2 × wall thickness)"}
+	case in.Has("outer_diameter"):
+		wallKey = "outer_diameter"
+		c.ro = in.Value("outer_diameter") / 2
+		c.t = c.ro - c.ri
+		if c.t < minTubeWall {
+			return c, &calc.InputError{Key: "outer_diameter", Message: fmt.Sprintf(
+				"outer diameter %s must exceed the inner diameter %s by at least 2 µm (a wall of 1 µm)", mm(2*c.ro), mm(2*c.ri))}
+		}
+	case in.Has("wall_thickness"):
+		c.t = in.Value("wall_thickness")
+		c.ro = c.ri + c.t
+	default:
+		return c, &calc.InputError{Key: "wall_thickness", Message: "missing: give wall_thickness or outer_diameter (a length, e.g. \"3 mm\")"}
+	}
+	if c.t >= c.ri {
+		return c, &calc.InputError{Key: wallKey, Message: fmt.Sprintf(
+			"wall thickness %s must be less than the inner radius %s (half the inner diameter %s); the burst formula does not hold for such thick walls",
+			mm(c.t), mm(c.ri), mm(2*c.ri))}
+	}
+	if c.p <= 0 {
+		return c, &calc.InputError{Key: "pressure", Message: fmt.Sprintf(
+			"%s is not above ambient; the tube model takes internal pressure only (a wall under vacuum or external pressure can buckle, which it does not cover)",
+			display.Gauge(c.p, in.Customary()))}
+	}
+	name := in.NameOf("material")
+	if name == "" {
+		return c, &calc.InputError{Key: "material", Message: "missing: name the wall's material, e.g. \"s235\" (specgen explain lists them)"}
+	}
+	m, err := envOf(in).Materials.Lookup(name)
+	if err != nil {
+		return c, &calc.InputError{Key: "material", Message: err.Error()}
+	}
+	c.material, c.minFactor = m, envOf(in).Safety.MinimumFor(m)
+	return c, nil
+}
+
+func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
+	c, err := readTubeInput(in)
+	if err != nil {
+		return nil, err
+	}
+	var (
+		di, do   = 2 * c.ri, 2 * c.ro
+		ri2, ro2 = c.ri * c.ri, c.ro * c.ro
+		// ro² − ri² = t·(ro + ri), without the cancellation of thin walls.
+		hoop   = c.p * (ro2 + ri2) / (c.t * (c.ro + c.ri))
+		thin   = c.p * di / (2 * c.t)
+		radial = -c.p
+		axial  = 0.0
+		burst  = 2 * c.material.TensileStrength * c.t / do
+		allow  = burst / c.minFactor
+	)
+	if c.closed {
+		axial = c.p * ri2 / (c.t * (c.ro + c.ri))
+	}
+
+	cust := in.Customary()
+	mm, mpa, bar := display.TraceIn(cust, "mm"), display.TraceIn(cust, "MPa"), display.TraceIn(cust, "bar")
+	// ro² − ri² of a thin wall is a small difference: its diameters and
+	// radii get the figures it needs to work out by hand.
+	dm := display.TraceInSig(cust, "mm", display.FiguresFor(c.ro, c.t))
+	num := func(v float64) string { return display.Number(v, "") }
+
+	thinTrace := calc.Trace{Formula: "σ_θ,thin = p · Di / (2 · t)", Substituted: "= " + bar(c.p) + " · " + mm(di) + " / (2 · " + mm(c.t) + ")"}
+	if ratio := c.t / di; ratio > thinWallLimit {
+		thinTrace.Substituted += fmt.Sprintf(" (NOTE: t/Di = %s > %s, a thick wall: this is %s %% below the Lamé bore stress; use hoop_stress)",
+			num(ratio), num(thinWallLimit), display.Number(100*(1-thin/hoop), ""))
+	}
+	axialTrace := calc.Trace{Formula: "σ_a = p · Di² / (Do² − Di²) (closed ends)", Substituted: "= " + bar(c.p) + " · (" + dm(di) + ")² / ((" + dm(do) + ")² − (" + dm(di) + ")²)"}
+	if !c.closed {
+		axialTrace = calc.Trace{Formula: "σ_a = 0 (open ends: the end load is carried elsewhere)", Substituted: "= 0 MPa"}
+	}
+	strength, strengthName := c.material.DesignStrength()
+	factor, factorTrace := tubeFactor(hoop, axial, radial, strength, strengthName, c.material.YieldStrength > 0, mpa)
+
+	res := []calc.Result{
+		{Name: "hoop_stress", Value: hoop, Dim: units.Stress, Trace: calc.Trace{Formula: "σ_θ = p · (ro² + ri²) / (ro² − ri²) (Lamé, at the bore)", Substituted: "= " + bar(c.p) + " · ((" + dm(c.ro) + ")² + (" + dm(c.ri) + ")²) / ((" + dm(c.ro) + ")² − (" + dm(c.ri) + ")²)"}},
+		{Name: "hoop_stress_thin", Value: thin, Dim: units.Stress, Trace: thinTrace},
+		{Name: "axial_stress", Value: axial, Dim: units.Stress, Trace: axialTrace},
+		{Name: "radial_stress", Value: radial, Dim: units.Stress, Trace: calc.Trace{Formula: "σ_r = −p (at the bore)", Substituted: "= −" + bar(c.p)}},
+		{Name: "burst_pressure", Value: burst + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_burst = 2 · S_u · t / Do (Barlow, outside diameter, tensile strength)", Substituted: "= 2 · " + mpa(c.material.TensileStrength) + " · " + mm(c.t) + " / " + mm(do) + " (" + c.material.Label + ")"}},
+		{Name: "allowable_pressure", Value: allow + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_allow = p_burst / n_min", Substituted: "= " + bar(burst) + " / " + num(c.minFactor) + " (site minimum for " + c.material.Label + ")"}},
+		{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace},
+	}
+	return &calc.Outcome{Results: res}, nil
+}
+
+// tubeFactor returns the safety factor at the bore and its trace: the
+// strength over the von Mises stress when the strength is a yield
+// strength, else over the largest principal stress magnitude.
+func tubeFactor(hoop, axial, radial, strength float64, strengthName string, ductile bool, mpa func(float64) string) (float64, calc.Trace) {
+	if ductile {
+		vm := math.Sqrt(((hoop-axial)*(hoop-axial) + (axial-radial)*(axial-radial) + (radial-hoop)*(radial-hoop)) / 2)
+		return strength / vm, calc.Trace{Formula: "n = S_y / σ_vM, σ_vM = sqrt(((σ_θ − σ_a)² + (σ_a − σ_r)² + (σ_r − σ_θ)²) / 2)", Substituted: "= " + mpa(strength) + " / " + mpa(vm) + " (" + strengthName + "; σ_θ " + mpa(hoop) + ", σ_a " + mpa(axial) + ", σ_r " + mpa(radial) + ")"}
+
+	}
+	largest := math.Max(math.Abs(hoop), math.Max(math.Abs(axial), math.Abs(radial)))
+	return strength / largest, calc.Trace{Formula: "n = S_u / max(|σ_θ|, |σ_a|, |σ_r|) (no yield point: largest principal stress)", Substituted: "= " + mpa(strength) + " / " + mpa(largest) + " (" + strengthName + ")"}
+
+}

@@ -1,0 +1,141 @@
+package results
+
+import (
+	"bufio"
+	"encoding/json"
+	"fmt"
+	"io"
+
+	"specgen/internal/calc"
+	"specgen/internal/units"
+)
+
+// Version is the schema version of results.json.
+const Version = 1
+
+// File is the layout of results.json (see DESIGN.md).
+type File struct {
+	Version int     `json:"version"`
+	Blocks  []Block `json:"blocks"`
+	// NoSite is set for a revision without the site's content/ (before
+	// the documentation was added): no blocks.
+	NoSite bool `json:"-"`
+}
+
+// Block is one block in results.json.
+type Block struct {
+	ID       string            `json:"id"`
+	Kind     string            `json:"kind"`
+	Page     string            `json:"page"`
+	Line     int               `json:"line"`
+	Inputs   map[string]Input  `json:"inputs"`
+	Results  map[string]Result `json:"results"`
+	Expect   []Claim           `json:"expect"`
+	Cautions []Caution         `json:"cautions"`
+}
+
+// Input is one input: SI value and unit, and the text as written.
+type Input struct {
+	Value float64 `json:"value"`
+	Unit  string  `json:"unit"`
+	Text  string  `json:"text"`
+}
+
+// Result is one result: SI value and unit, and how pages show it.
+type Result struct {
+	Value   float64 `json:"value"`
+	Unit    string  `json:"unit"`
+	Display string  `json:"display"`
+}
+
+// Claim is one checked claim (an entry of a block's "expect").
+type Claim struct {
+	Name    string `json:"name"`
+	Claim   string `json:"claim"`
+	OK      bool   `json:"ok"`
+	Message string `json:"message"`
+}
+
+// Caution is one caution.
+type Caution struct {
+	Level        string `json:"level"`
+	Rule         string `json:"rule"`
+	Message      string `json:"message"`
+	Acknowledged string `json:"acknowledged,omitempty"` // the block's reason for accepting it
+}
+
+// Write writes results.json one block at a time, as json's indented
+// encoding of the whole file would (blocks in the order given, sorted by
+// id; keys sorted), so that a big site's results are never held in memory
+// whole.
+func Write(w io.Writer, blocks []*calc.Evaluated) error {
+	bw := bufio.NewWriter(w)
+	if len(blocks) == 0 {
+		fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": []\n}\n", Version)
+		return bw.Flush()
+	}
+	fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": [\n", Version)
+	for i, e := range blocks {
+		b, err := json.MarshalIndent(blockOf(e), "    ", "  ")
+		if err != nil {
+			return err
+		}
+		bw.WriteString("    ")
+		bw.Write(b)
+		if i < len(blocks)-1 {
+			bw.WriteString(",")
+		}
+		bw.WriteString("\n")
+	}
+	bw.WriteString("  ]\n}\n")
+	return bw.Flush()
+}
+
+// Of returns the contents of results.json for evaluated blocks, sorted by id.
+func Of(blocks []*calc.Evaluated) File {
+	f := File{Version: Version, Blocks: []Block{}}
+	for _, e := range blocks {
+		f.Blocks = append(f.Blocks, blockOf(e))
+	}
+	return f
+}
+
+// blockOf is one evaluated block's entry of results.json.
+func blockOf(e *calc.Evaluated) Block {
+	b := Block{
+		ID:       e.Block.ID,
+		Kind:     e.Block.Kind.Name,
+		Page:     e.Block.File,
+		Line:     e.Block.Line,
+		Inputs:   map[string]Input{},
+		Results:  map[string]Result{},
+		Expect:   []Claim{},
+		Cautions: []Caution{},
+	}
+	for _, in := range e.Inputs {
+		b.Inputs[in.Name] = Input{Value: in.Value, Unit: siUnit(in.Dim), Text: in.Text}
+	}
+	for _, r := range e.Results {
+		display, err := e.Format(r.Name, "")
+		if err != nil {
+			display = units.Format(r.Value, e.SigFigs())
+		}
+		b.Results[r.Name] = Result{Value: r.Value, Unit: siUnit(r.Dim), Display: display}
+	}
+	for _, c := range e.Claims {
+		b.Expect = append(b.Expect, Claim{Name: c.Claim.Result, Claim: c.Claim.Text, OK: c.OK, Message: c.Message})
+	}
+	for _, c := range e.Cautions {
+		b.Cautions = append(b.Cautions, Caution{Level: c.Level.String(), Rule: c.Rule, Message: c.Message, Acknowledged: c.Acknowledged})
+	}
+	return b
+}
+
+// siUnit is the SI unit results.json states for a dimension; pressures are
+// absolute and say so.
+func siUnit(d units.Dimension) string {
+	if d == units.Pressure {
+		return "Pa(a)"
+	}
+	return units.DefaultUnit(d)
+}

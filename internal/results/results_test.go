@@ -1,0 +1,64 @@
+package results_test
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"reflect"
+	"testing"
+
+	"specgen/internal/results"
+	"specgen/internal/site"
+)
+
+// TestWriteMatchesWholeEncoding: results.json written block by block is
+// byte for byte what encoding the whole file at once gives, and reads back
+// as the same contents. The demo site has blocks of every kind.
+func TestWriteMatchesWholeEncoding(t *testing.T) {
+	s, err := site.Load(filepath.Join("..", ".."))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Calc.Blocks) < 2 {
+		t.Fatalf("the demo has %d blocks; the test needs several", len(s.Calc.Blocks))
+	}
+	var streamed bytes.Buffer
+	if err := results.Write(&streamed, s.Calc.Blocks); err != nil {
+		t.Fatal(err)
+	}
+	whole := s.Results()
+	want, err := json.MarshalIndent(whole, "", "  ")
+	if err != nil {
+		t.Fatal(err)
+	}
+	want = append(want, '\n')
+	if !bytes.Equal(streamed.Bytes(), want) {
+		t.Fatalf("streamed results.json differs from the whole encoding:\n%s\nwant:\n%s", streamed.Bytes(), want)
+	}
+
+	path := filepath.Join(t.TempDir(), "results.json")
+	if err := os.WriteFile(path, streamed.Bytes(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	back, err := results.Read(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(*back, whole) {
+		t.Error("results.json read back differs from what was written")
+	}
+}
+
+// TestWriteNoBlocks: a site without calculations still writes a valid
+// file, with an empty list rather than null.
+func TestWriteNoBlocks(t *testing.T) {
+	var b bytes.Buffer
+	if err := results.Write(&b, nil); err != nil {
+		t.Fatal(err)
+	}
+	want, _ := json.MarshalIndent(results.Of(nil), "", "  ")
+	if got := b.String(); got != string(want)+"\n" {
+		t.Errorf("got %q, want %q", got, want)
+	}
+}
