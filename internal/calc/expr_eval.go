@@ -47,7 +47,7 @@ type ExprValue struct {
 func (x *Expr) Eval(lookup func(ExprRef) (ExprValue, bool), ambient float64, customary bool) (ExprValue, Trace, error) {
 	e := &exprEval{
 		x: x, lookup: lookup, ambient: ambient, customary: customary,
-		vals: make([]exprVal, x.nodes), units: make([]string, x.nodes), figures: display.TraceFigures,
+		vals: make([]exprVal, x.nodes), shownIn: make([]string, x.nodes), figures: display.TraceFigures,
 	}
 	v, err := e.eval(x.root)
 	if err != nil {
@@ -101,15 +101,7 @@ func (v exprVal) what() string {
 	case v.dim == units.Dimensionless:
 		return "a plain number"
 	}
-	return withArticle(v.dim.String())
-}
-
-// withArticle puts "a" or "an" before a word.
-func withArticle(word string) string {
-	if word != "" && strings.ContainsRune("aeiou", rune(word[0])) {
-		return "an " + word
-	}
-	return "a " + word
+	return v.dim.Article()
 }
 
 // exprEval is one evaluation of an expression.
@@ -119,7 +111,7 @@ type exprEval struct {
 	ambient   float64
 	customary bool
 	vals      []exprVal // by node id, for the trace
-	units     []string  // by node id: the unit lookup gave a name
+	shownIn   []string  // by node id: the unit lookup gave a name
 	figures   int       // significant figures of the trace's values
 }
 
@@ -179,9 +171,9 @@ func (e *exprEval) name(n *exprNode) (exprVal, error) {
 		return exprVal{}, err
 	}
 	if math.IsNaN(got.SI) || math.IsInf(got.SI, 0) || units.DefaultUnit(got.Dim) == "" && got.Dim != units.Dimensionless {
-		return exprVal{}, e.fail(n, "%s has no finite value", n.ref)
+		return exprVal{}, e.fail(n, "%s has no finite value of a known dimension", n.ref)
 	}
-	e.units[n.id] = got.Unit
+	e.shownIn[n.id] = got.Unit
 	return quantity(got.SI, got.Dim), nil
 }
 
@@ -406,7 +398,7 @@ func (e *exprEval) call(n *exprNode) (exprVal, error) {
 	switch n.text {
 	case "sqrt":
 		if a.si < 0 {
-			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.units[n.args[0].id], true, display.TraceFigures))
+			return exprVal{}, e.fail(n, "%s: the square root of a negative value (%s is %s)", e.text(n), arg, e.show(a, e.shownIn[n.args[0].id], true, display.TraceFigures))
 		}
 		return e.power(n, a, quantity(0.5, units.Dimensionless))
 	case "abs":

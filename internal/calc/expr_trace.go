@@ -13,7 +13,7 @@ import (
 func (e *exprEval) trace(n *exprNode, abs bool) string {
 	switch n.kind {
 	case nameNode:
-		s := e.show(e.vals[n.id], e.units[n.id], abs, e.figures)
+		s := e.show(e.vals[n.id], e.shownIn[n.id], abs, e.figures)
 		if strings.HasPrefix(s, "-") {
 			return "(" + s + ")"
 		}

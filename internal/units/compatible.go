@@ -36,7 +36,7 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 	case want == TemperatureDifference && u.Dim == Temperature:
 		return true, ""
 	}
-	return false, " is " + u.Dim.article() + "; takes " + want.article() + " (" + want.Examples() + ")"
+	return false, " is " + u.Dim.Article() + "; takes " + want.Article() + " (" + want.Examples() + ")"
 }
 
 // stressTakes says what a stress takes, after a marked pressure unit.

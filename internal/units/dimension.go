@@ -96,8 +96,8 @@ func (d Dimension) Examples() string {
 	return dimensions[d].examples
 }
 
-// article returns d's name preceded by "a" or "an".
-func (d Dimension) article() string {
+// Article returns d's name preceded by "a" or "an": "an energy", "a length".
+func (d Dimension) Article() string {
 	name := d.String()
 	if strings.ContainsRune("aeiou", rune(name[0])) {
 		return "an " + name
