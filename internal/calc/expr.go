@@ -179,24 +179,18 @@ func (p *exprParser) binary(op exprToken, l, r *exprNode) *exprNode {
 	return n
 }
 
-func (p *exprParser) sum() (*exprNode, error) {
-	l, err := p.product()
-	for err == nil && p.peek().isOp('+', '-') {
-		op := p.next()
-		var r *exprNode
-		if r, err = p.product(); err == nil {
-			l = p.binary(op, l, r)
-		}
-	}
-	return l, err
-}
+func (p *exprParser) sum() (*exprNode, error) { return p.chain(p.product, '+', '-') }
 
-func (p *exprParser) product() (*exprNode, error) {
-	l, err := p.unary()
-	for err == nil && p.peek().isOp('*', '/') {
+func (p *exprParser) product() (*exprNode, error) { return p.chain(p.unary, '*', '/') }
+
+// chain reads operands joined by the left-associative operators ops:
+// a - b - c is (a - b) - c.
+func (p *exprParser) chain(operand func() (*exprNode, error), ops ...byte) (*exprNode, error) {
+	l, err := operand()
+	for err == nil && p.peek().isOp(ops...) {
 		op := p.next()
 		var r *exprNode
-		if r, err = p.unary(); err == nil {
+		if r, err = operand(); err == nil {
 			l = p.binary(op, l, r)
 		}
 	}

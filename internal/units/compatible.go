@@ -13,25 +13,17 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 	switch {
 	case u.Dim == want:
 		return false, ""
-	case want == Stress && u.Dim == Pressure:
+	case (want == Stress || want == PressureDifference) && u.Dim == Pressure:
+		// Both are differences: an unmarked pressure unit reads as one (a
+		// claim on a difference), a mark contradicts it.
 		switch u.Ref {
 		case Gauge:
-			return false, " is a gauge pressure; " + stressTakes()
+			return false, " is a gauge pressure; " + differenceTakes(want)
 		case Absolute:
-			return false, " is an absolute pressure; " + stressTakes()
+			return false, " is an absolute pressure; " + differenceTakes(want)
 		}
 		return false, ""
 	case want == Pressure && u.Dim == Stress:
-		return false, ""
-	case want == PressureDifference && u.Dim == Pressure:
-		// An unmarked pressure unit reads as a difference where only a
-		// difference can be meant (a claim on one); a mark contradicts it.
-		switch u.Ref {
-		case Gauge:
-			return false, " is a gauge pressure; " + differenceTakes()
-		case Absolute:
-			return false, " is an absolute pressure; " + differenceTakes()
-		}
 		return false, ""
 	case want == TemperatureDifference && u.Dim == Temperature:
 		return true, ""
@@ -39,14 +31,12 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 	return false, " is " + u.Dim.Article() + "; takes " + want.Article() + " (" + want.Examples() + ")"
 }
 
-// stressTakes says what a stress takes, after a marked pressure unit.
-func stressTakes() string {
-	return "a stress is a difference: use an unmarked unit (" + Stress.Examples() + ")"
-}
-
-// differenceTakes says what a pressure difference takes, after a marked
-// pressure unit.
-func differenceTakes() string {
+// differenceTakes says what a stress or a pressure difference takes,
+// after a marked pressure unit.
+func differenceTakes(want Dimension) string {
+	if want == Stress {
+		return "a stress is a difference: use an unmarked unit (" + Stress.Examples() + ")"
+	}
 	return "takes a pressure difference (" + PressureDifference.Examples() + ")"
 }
 
