@@ -37,13 +37,14 @@ var metricUnits = map[string]bool{
 	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
 	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
 	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
+	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true,
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)
-// belongs to; a pressure's gauge or absolute mark does not matter. A
-// symbol outside the unit table is metric.
+// belongs to; a pressure's gauge, absolute or difference mark does not
+// matter. A symbol outside the unit table is metric.
 func SystemOf(symbol string) UnitSystem {
-	base := strings.TrimSuffix(strings.TrimSuffix(symbol, "(g)"), "(a)")
+	base, _ := pressureMark(symbol)
 	switch {
 	case customaryUnits[base]:
 		return Customary
@@ -67,14 +68,9 @@ var customaryOf = map[string]string{
 
 // CustomaryFor is the US customary counterpart of a metric display unit,
 // or the unit itself when it has none (J, kJ/kg) or is not metric.
-// A pressure keeps its mark: "bar(a)" becomes "psi(a)".
+// A pressure keeps its mark: "bar(a)" becomes "psi(a)", "bar(d)" "psi(d)".
 func CustomaryFor(unit string) string {
-	base, mark := unit, ""
-	for _, m := range []string{"(a)", "(g)"} {
-		if b, ok := strings.CutSuffix(unit, m); ok {
-			base, mark = b, m
-		}
-	}
+	base, mark := pressureMark(unit)
 	c, ok := customaryOf[base]
 	if !ok {
 		return unit
@@ -83,4 +79,15 @@ func CustomaryFor(unit string) string {
 		return unit
 	}
 	return c + mark
+}
+
+// pressureMark splits a pressure unit symbol into its base and its mark
+// ("bar(a)" into "bar" and "(a)"); other symbols have no mark.
+func pressureMark(symbol string) (base, mark string) {
+	for _, m := range []string{"(a)", "(g)", "(d)"} {
+		if b, ok := strings.CutSuffix(symbol, m); ok {
+			return b, m
+		}
+	}
+	return symbol, ""
 }

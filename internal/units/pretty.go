@@ -21,6 +21,8 @@ func Pretty(symbol string) string {
 		return "psig" // the trade's spelling in the US
 	case "psi(a)":
 		return "psia"
+	case "psi(d)":
+		return "psid"
 	}
 	return prettyParts.Replace(symbol)
 }

@@ -98,6 +98,15 @@ var unitTable = joinDefs(
 		// The torr is a vacuum unit, read from zero: absolute.
 		{Unit{Symbol: "torr", Dim: Pressure, Factor: torr, Ref: Absolute}, []string{"Torr"}},
 
+		// Pressure differences carry their own mark so that they are never
+		// read back as gauge; psid is the trade's spelling, the others follow it.
+		def("Pa(d)", PressureDifference, 1),
+		def("kPa(d)", PressureDifference, 1e3),
+		def("MPa(d)", PressureDifference, 1e6),
+		def("bar(d)", PressureDifference, 1e5),
+		def("mbar(d)", PressureDifference, 100),
+		def("psi(d)", PressureDifference, psi, "psid", "PSID"),
+
 		// Stress-only units; read as a pressure they are plain (gauge).
 		def("N/mm2", Stress, 1e6),
 		def("GPa", Stress, 1e9),
@@ -171,6 +180,11 @@ var unitTable = joinDefs(
 
 		def("J/kg", SpecificEnergy, 1),
 		def("kJ/kg", SpecificEnergy, 1e3),
+
+		def("J/m3", EnergyPerVolume, 1),
+		def("kJ/m3", EnergyPerVolume, 1e3),
+		def("J/L", EnergyPerVolume, 1e3, "J/l"),
+		def("kWh/m3", EnergyPerVolume, 3.6e6),
 
 		def("kg m2", Inertia, 1, "kgm2"),
 		def("kg mm2", Inertia, 1e-6),
