@@ -36,8 +36,12 @@ type Block struct {
 	// Acknowledge maps caution rule ids to the block's reason for
 	// accepting them.
 	Acknowledge map[string]string
-	lines       map[string]int // TOML-relative line of each key
-	catalog     *Catalog
+	// Derive lists the results the block computes with expressions, in
+	// the order its [derive] table names them.
+	Derive        []Derivation
+	pendingClaims []pendingClaim
+	lines         map[string]int // TOML-relative line of each key
+	catalog       *Catalog
 }
 
 // Value is one input as the user wrote it.
@@ -72,7 +76,7 @@ type Output struct {
 }
 
 // commonKeys are the keys every block takes besides its kind's inputs.
-var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
+var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "derive", "expect", "show", "acknowledge"}
 
 // Limits on one block, far above any real block, so that a runaway or
 // generated block fails quickly with one clear message.
@@ -151,6 +155,12 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		keys = append(keys, k)
 	}
 	sort.Strings(keys)
+	if b.Kind.FreeInputs {
+		// The block's own inputs join a copy of its kind.
+		k := *b.Kind
+		k.Inputs = slices.Clone(k.Inputs)
+		b.Kind = &k
+	}
 	allowed := append(append([]string{}, commonKeys...), b.Kind.inputNames()...)
 	for _, key := range keys {
 		v := raw[key]
@@ -168,6 +178,17 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		case "acknowledge":
 			errs = append(errs, b.decodeAcknowledge(v)...)
 			continue
+		case "derive":
+			errs = append(errs, b.decodeDerive(v)...)
+			continue
+		}
+		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" && b.Kind.FreeInputs {
+			spec, err := b.freeInput(key, v)
+			if err != nil {
+				errs = append(errs, err)
+				continue
+			}
+			b.Kind.Inputs = append(b.Kind.Inputs, spec)
 		}
 		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" {
 			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))

@@ -192,6 +192,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	sort.Strings(ids)
 	for _, id := range ids {
 		errs = append(errs, c.checkRefs(byID[id], byID, ids)...)
+		errs = append(errs, checkDeriveRefs(byID[id], byID, ids)...)
 	}
 	if err := errs.Sorted(); err != nil {
 		return nil, err
@@ -228,8 +229,13 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			i := run[j]
 			st := level[i]
 			b := byID[st.id]
-			if st.phase == early {
+			switch st.phase {
+			case early:
 				outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, false, true)
+				return
+			case derived:
+				base, _ := set.Lookup(b.ID)
+				outs[i].e, outs[i].err = set.derive(base, opts)
 				return
 			}
 			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
@@ -328,6 +334,9 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			fail(fmt.Sprintf("%q refers to its own block", v.Text))
 			continue
 		}
+		if _, derived := target.derivation(v.RefResult); derived {
+			continue // its dimension is checked when it is read
+		}
 		spec, ok := target.Kind.result(v.RefResult)
 		if inSpec, isInput := target.Kind.Input(v.RefResult); !ok && isInput {
 			if inSpec.Type != Quantity {
@@ -345,7 +354,7 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			continue
 		}
 		in, _ := b.Kind.Input(key)
-		if spec.Dim != in.Dim {
+		if in.Dim != anyDimension && spec.Dim != in.Dim {
 			fail(fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(spec.Dim), key, dimPhrase(in.Dim)))
 		}
 	}
@@ -469,9 +478,16 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		var shownUnit string
 		if given && v.RefBlock != "" {
 			src := set.quoted(v)
-			si, _, unit, found := src.Quantity(v.RefResult)
+			si, dim, unit, found := src.Quantity(v.RefResult)
 			if !found {
 				fail(spec.Name, line, fmt.Sprintf("%q: block %s has no value for %s (an optional input it leaves out)", v.Text, v.RefBlock, v.RefResult))
+				continue
+			}
+			if spec.Dim == anyDimension {
+				iv.Dim = dim
+			} else if dim != spec.Dim {
+				// Only a derived value's dimension is first known here.
+				fail(spec.Name, line, fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(dim), spec.Name, dimPhrase(spec.Dim)))
 				continue
 			}
 			value = si
@@ -566,7 +582,8 @@ func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
 	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
-		if _, found := e.Result(o.Name); found {
+		_, found := e.Result(o.Name)
+		if _, derived := b.derivation(o.Name); found || derived {
 			continue
 		}
 		written := o.Name

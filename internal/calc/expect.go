@@ -436,6 +436,15 @@ func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
 			continue
 		}
+		if _, derived := b.derivation(name); derived {
+			// Its dimension, which the claim is read in, comes with its value.
+			if text, isString := table[name].(string); isString {
+				b.pendingClaims = append(b.pendingClaims, pendingClaim{name: name, text: text, line: line})
+			} else {
+				fail(fmt.Sprintf("%s is not a claim; write a string such as %s", TOMLText(table[name]), claimForms))
+			}
+			continue
+		}
 		if !found {
 			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
 			if s := Suggest(name, b.Kind.resultNames()); s != "" {
@@ -513,6 +522,10 @@ func (b *Block) decodeShow(v any) inputerr.List {
 				name, unit = name[:i], name[i:]
 			}
 			spec, found := b.Kind.result(name)
+			if _, derived := b.derivation(name); derived {
+				// Its unit is checked once its dimension is known.
+				spec, found = ResultSpec{Name: name, Dim: units.Dimension(-1)}, true
+			}
 			if !found {
 				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
 				if sug := Suggest(name, b.Kind.resultNames()); sug != "" {
@@ -522,7 +535,7 @@ func (b *Block) decodeShow(v any) inputerr.List {
 				continue
 			}
 			unit = strings.TrimSpace(unit)
-			if unit != "" {
+			if unit != "" && spec.Dim >= 0 {
 				if _, err := units.FromSI(1, spec.Dim, unit, 0); err != nil {
 					fail(fmt.Sprintf("%s: %v; %s is %s", name, err, name, dimPhrase(spec.Dim)))
 					continue

@@ -27,6 +27,9 @@ type Kind struct {
 	// Raises lists the caution rules the model raises itself while it
 	// evaluates (each a row of the rule table).
 	Raises []string
+	// FreeInputs lets a block give any key as an input, its dimension read
+	// from the value written: a kind of figures with no model of its own.
+	FreeInputs bool
 	// LinkHint is added to the message when a block names one of this
 	// kind where a link takes another: what to name instead.
 	LinkHint string

@@ -18,6 +18,8 @@ const (
 	early phase = iota
 	// full reads every input and runs the model.
 	full
+	// derived computes the block's [derive] expressions.
+	derived
 )
 
 // step is one phase of one block.
@@ -66,6 +68,7 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 	state := map[step]int{}
 	depth := map[step]int{}
 	var stack []step
+	var via []string // the key by which each step of stack was entered
 	circle := func(closing dependency) error {
 		start := 0
 		for i, s := range stack {
@@ -74,16 +77,21 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 			}
 		}
 		var names []string
-		for _, s := range stack[start:] {
-			names = append(names, s.id)
+		for i, s := range stack[start:] {
+			out := closing.key
+			if start+i+1 < len(stack) {
+				out = via[start+i+1]
+			}
+			names = append(names, stepLabel(s, out))
 		}
 		names = append(names, closing.id)
 		b := byID[stack[len(stack)-1].id]
 		return inputerr.List{{File: b.File, Line: closing.line, Key: closing.key,
 			Msg: "references go round in a circle: " + strings.Join(names, " → ") + "; break the circle by giving one value directly"}}
 	}
-	var visit func(st step) error
-	visit = func(st step) error {
+	var visit func(st step, key string) error
+	visit = func(st step, key string) error {
+		via = append(via, key)
 		state[st] = active
 		stack = append(stack, st)
 		d := 0
@@ -92,13 +100,13 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 			case active:
 				return circle(dep)
 			case unseen:
-				if err := visit(dep.step); err != nil {
+				if err := visit(dep.step, dep.key); err != nil {
 					return err
 				}
 			}
 			d = max(d, depth[dep.step]+1)
 		}
-		stack = stack[:len(stack)-1]
+		stack, via = stack[:len(stack)-1], via[:len(via)-1]
 		state[st] = done
 		depth[st] = d
 		for len(p.levels) <= d {
@@ -108,12 +116,12 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 		return nil
 	}
 	for _, id := range ids {
-		for _, ph := range []phase{early, full} {
+		for _, ph := range []phase{early, full, derived} {
 			st := step{id, ph}
-			if (ph == early && !p.early[id]) || state[st] != unseen {
+			if (ph == early && !p.early[id]) || (ph == derived && len(byID[id].Derive) == 0) || state[st] != unseen {
 				continue
 			}
-			if err := visit(st); err != nil {
+			if err := visit(st, ""); err != nil {
 				return nil, err
 			}
 		}
@@ -127,6 +135,17 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 func (p *plan) deps(st step) []dependency {
 	b := p.byID[st.id]
 	var out []dependency
+	if st.phase == derived {
+		out = append(out, dependency{step{st.id, full}, "", b.Line})
+		for _, d := range b.Derive {
+			for _, r := range d.Expr.Refs() {
+				if r.Block != "" {
+					out = append(out, dependency{p.valueStep(r.Block, r.Name), "derive." + d.Name, d.Line})
+				}
+			}
+		}
+		return out
+	}
 	for _, key := range sortedValueKeys(b) {
 		v := b.Values[key]
 		if v.RefBlock != "" {
@@ -146,11 +165,30 @@ func (p *plan) deps(st step) []dependency {
 }
 
 // quoted is the step whose outcome a quote "=id.name" reads.
-func (p *plan) quoted(v Value) step {
-	if p.early[v.RefBlock] {
-		if spec, ok := p.byID[v.RefBlock].Kind.ResultSpec(v.RefResult); ok && spec.WithoutLinks {
-			return step{v.RefBlock, early}
+func (p *plan) quoted(v Value) step { return p.valueStep(v.RefBlock, v.RefResult) }
+
+// valueStep is the step that gives block id's value name: its derived
+// step for a derived result, its early step for a result the kind gives
+// without links (when the block has one), else its full step.
+func (p *plan) valueStep(id, name string) step {
+	b := p.byID[id]
+	if _, ok := b.derivation(name); ok {
+		return step{id, derived}
+	}
+	if p.early[id] {
+		if spec, ok := b.Kind.ResultSpec(name); ok && spec.WithoutLinks {
+			return step{id, early}
 		}
 	}
-	return step{v.RefBlock, full}
+	return step{id, full}
+}
+
+// stepLabel names a step in a circle of references: its block, or for a
+// derived step the derived result (leaving by key "derive.NAME") that
+// leads on.
+func stepLabel(s step, key string) string {
+	if name, ok := strings.CutPrefix(key, "derive."); ok && s.phase == derived {
+		return s.id + "." + name
+	}
+	return s.id
 }

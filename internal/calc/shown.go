@@ -31,6 +31,24 @@ func (e *Evaluated) DisplayUnit(name string) string {
 		}
 		return spec.Unit
 	}
+	if r, ok := e.Result(name); ok { // a derived result
+		if r.Dim == units.Time {
+			return display.DurationUnit(r.Value)
+		}
+		return display.UnitFor(r.Dim, e.customary)
+	}
+	return ""
+}
+
+// Meaning says what a result is, for its row of the table: the kind's
+// words, or for a derived result its expression.
+func (e *Evaluated) Meaning(name string) string {
+	if spec, ok := e.Block.Kind.result(name); ok {
+		return spec.Meaning
+	}
+	if d, ok := e.Block.derivation(name); ok {
+		return "derived: " + d.Source
+	}
 	return ""
 }
 

@@ -243,8 +243,8 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 			cls = ` class="sg-shown"`
 		}
 		meaning := ""
-		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
-			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
+		if m := e.Meaning(r.Name); m != "" {
+			meaning = `<span class="sg-meaning">` + esc(m) + `</span>`
 		}
 		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
 		if r.Trace.Formula != "" {
