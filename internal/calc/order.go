@@ -84,7 +84,7 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 			}
 			names = append(names, stepLabel(s, out))
 		}
-		names = append(names, closing.id)
+		names = append(names, names[0])
 		b := byID[stack[len(stack)-1].id]
 		return inputerr.List{{File: b.File, Line: closing.line, Key: closing.key,
 			Msg: "references go round in a circle: " + strings.Join(names, " → ") + "; break the circle by giving one value directly"}}
