@@ -21,7 +21,8 @@ func ExplainKinds(w io.Writer, cat *calc.Catalog) {
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nEvery block also takes: id (required), kind (required), title, ambient_pressure (absolute, default 1 atm),")
 	fmt.Fprintln(w, "[expect] claims such as displacement = \"22.5 cm3 ± 2%\", [show] outputs = [\"name unit\", ...],")
-	fmt.Fprintln(w, "and [acknowledge] rule-id = \"reason\" to accept a caution (it stays on the page with the reason).")
+	fmt.Fprintln(w, "[acknowledge] rule-id = \"reason\" to accept a caution (it stays on the page with the reason), and [derive]")
+	fmt.Fprintln(w, "name = \"expression\" for results of its own (specgen explain figures says how).")
 	fmt.Fprintln(w, "\nAlso: specgen explain materials, specgen explain cautions.")
 }
 
@@ -74,6 +75,9 @@ func ExplainMaterials(w io.Writer, env *Env) {
 func ExplainKind(w io.Writer, cat *calc.Catalog, k *calc.Kind) {
 	fmt.Fprintf(w, "%s: %s\n\n", k.Name, k.Summary)
 	fmt.Fprintln(w, strings.TrimSpace(k.Doc))
+	if k.FreeInputs {
+		return
+	}
 	fmt.Fprintln(w, "\nInputs (pressures are gauge unless marked absolute: \"bar(a)\", \"psia\"; \"atm\" is absolute):")
 	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(tw, "  name\tdefault\tunits\tmeaning")
