@@ -54,6 +54,16 @@ func (b *Block) valueNames() []string {
 	return slices.Compact(names)
 }
 
+// resultNames lists the block's results: its kind's, then its derived
+// ones, for messages.
+func (b *Block) resultNames() []string {
+	names := b.Kind.resultNames()
+	for _, d := range b.Derive {
+		names = append(names, d.Name)
+	}
+	return names
+}
+
 // decodeDerive reads [derive]: result names with their expressions.
 func (b *Block) decodeDerive(v any) inputerr.List {
 	table, ok := v.(map[string]any)
@@ -207,19 +217,21 @@ func (s *Set) derive(base *Evaluated, opts Options) (*Evaluated, error) {
 			msg := err.Error()
 			var xe *ExprError
 			if errors.As(err, &xe) && xe.Unknown != nil {
-				names := b.valueNames()
+				owner := b
 				if xe.Unknown.Block != "" {
 					if t, ok := s.Lookup(xe.Unknown.Block); ok {
-						names = t.Block.valueNames()
+						owner = t.Block
 					}
 				}
-				if sug := Suggest(xe.Unknown.Name, names); sug != "" {
-					msg += fmt.Sprintf("; did you mean %q?", sug)
-				} else {
+				names := owner.valueNames()
+				switch {
+				case slices.Contains(names, xe.Unknown.Name):
+					// Declared, but not computed or given for these inputs.
+					msg = fmt.Sprintf("%s: block %s has no value for %s with its inputs%s", xe.Unknown, owner.ID, xe.Unknown.Name, meaningAside(owner.Kind.resultMeaning(xe.Unknown.Name)))
+				case Suggest(xe.Unknown.Name, names) != "":
+					msg += fmt.Sprintf("; did you mean %q?", Suggest(xe.Unknown.Name, names))
+				default:
 					msg += "; names here: " + strings.Join(names, ", ")
-				}
-				if _, declared := b.derivation(xe.Unknown.Name); declared && xe.Unknown.Block == "" {
-					msg = fmt.Sprintf("%s is computed with inputs that leave it out", xe.Unknown.Name)
 				}
 			}
 			return nil, fail(msg)

@@ -433,7 +433,7 @@ func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
 		if _, isInput := b.Kind.Input(name); !found && isInput {
-			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
+			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.resultNames(), ", ")))
 			continue
 		}
 		if _, derived := b.derivation(name); derived {
@@ -446,8 +446,8 @@ func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 			continue
 		}
 		if !found {
-			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
-			if s := Suggest(name, b.Kind.resultNames()); s != "" {
+			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.resultNames(), ", "))
+			if s := Suggest(name, b.resultNames()); s != "" {
 				msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, s)
 			}
 			fail(msg)
@@ -527,8 +527,8 @@ func (b *Block) decodeShow(v any) inputerr.List {
 				spec, found = ResultSpec{Name: name, Dim: units.Dimension(-1)}, true
 			}
 			if !found {
-				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
-				if sug := Suggest(name, b.Kind.resultNames()); sug != "" {
+				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.resultNames(), ", "))
+				if sug := Suggest(name, b.resultNames()); sug != "" {
 					msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, sug)
 				}
 				fail(msg)
