@@ -20,6 +20,7 @@ import (
 	"specgen/internal/models"
 	"specgen/internal/render"
 	"specgen/internal/results"
+	"specgen/internal/version"
 )
 
 // StaticDir is the optional folder of a site root copied into the output as is.
@@ -346,6 +347,7 @@ type SiteData struct {
 	Description string
 	Home        string    // URL of the home page, relative to the current page
 	Revision    *Revision // the git commit built from, nil outside git
+	Generator   string    // the specgen that built the site: "specgen v0.1.0"
 }
 
 // PageInfo describes the current page for templates.
@@ -391,7 +393,8 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	}
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision},
+		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
+			Generator: version.Generator()},
 		Page: PageInfo{
 			Title:       p.Title,
 			Heading:     cmp.Or(p.Heading, p.Title),
