@@ -383,6 +383,8 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	out := map[string][]byte{}
 	doc := s.md.Parse(p.body, p.lineOffset)
 	doc.TakeTitle()
+	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
+	doc.RelativeFromRoot(rootPrefix)
 	s.attach(p, doc)
 	if err := s.drawCharts(p, doc, out); err != nil {
 		return nil, err
@@ -391,7 +393,6 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	if err != nil {
 		return nil, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	data := PageData{
 		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
 			Generator: version.Generator()},
