@@ -413,3 +413,44 @@ func TestBrowserLongWords(t *testing.T) {
 		t.Errorf("%s", p)
 	}
 }
+
+// TestBrowserSearchFromDisk: the search box works on a site opened from
+// disk (file://), from a page in a folder: typing finds pages by title,
+// heading and text, and a result leads to the page and heading.
+func TestBrowserSearchFromDisk(t *testing.T) {
+	ctx, problems := browser(t)
+	root := writeSite(t, map[string]string{
+		"content/index.md":          "# Home\n\nThe workshop's machines.\n",
+		"content/pump/index.md":     "# Pump\n\nThe vacuum pump.\n",
+		"content/pump/valves.md":    "# Valves\n\n## Reed springs\n\nSpring steel reeds, cut by hand.\n",
+		"content/bench/receiver.md": "# Receiver\n\nA welded tank.\n",
+	})
+	var out, errb strings.Builder
+	if code := run([]string{"build", "-quiet", "-C", root}, &out, &errb); code != exitOK {
+		t.Fatalf("build: exit %d: %s", code, errb.String())
+	}
+	page := "file://" + filepath.ToSlash(filepath.Join(root, "dist", "bench", "receiver.html"))
+	if err := chromedp.Do(ctx, chromedp.Navigate(page), chromedp.WaitVisible(chromedp.CSS("#sg-search-q"))); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.SendKeys(chromedp.CSS("#sg-search-q"), "reed"),
+		chromedp.WaitVisible(chromedp.CSS(".sg-search-results a"))); err != nil {
+		t.Fatal(err)
+	}
+	found, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`Array.from(document.querySelectorAll(".sg-search-results a")).map(a => a.getAttribute("href") + " " + a.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(found) != 1 || !strings.HasPrefix(found[0], "../pump/valves.html#reed-springs Valves › Reed springs") {
+		t.Errorf("searching reed found %q", found)
+	}
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(".sg-search-results a")), chromedp.WaitVisible(chromedp.CSS("#reed-springs"))); err != nil {
+		t.Fatal(err)
+	}
+	if where, err := chromedp.Run(ctx, chromedp.Location()); err != nil || !strings.HasSuffix(where, "/dist/pump/valves.html#reed-springs") {
+		t.Errorf("the result led to %q (%v)", where, err)
+	}
+	for _, p := range problems() {
+		t.Errorf("%s", p)
+	}
+}

@@ -270,6 +270,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	names := newOutputNames()
 	names.take("results.json", "specgen's own results.json")
+	names.take(searchIndexFile, "specgen's own "+searchIndexFile)
 	for _, name := range slices.Sorted(maps.Keys(fixed)) {
 		names.take(name, "specgen's own "+name)
 		if err := put(name, bytesOf(fixed[name])); err != nil {
@@ -305,11 +306,13 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		return nil
 	}
 	errs := make([]error, len(s.Pages))
+	entries := make([]searchEntry, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
-		files, err := s.renderPage(p)
+		files, entry, err := s.renderPage(p)
+		entries[i] = entry
 		if err != nil {
 			errs[i] = err
 			return
@@ -328,7 +331,10 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 			progress("pages rendered", int(n), len(s.Pages))
 		}
 	})
-	return collect(errs)
+	if err := collect(errs); err != nil {
+		return err
+	}
+	return s.emitHosting(put, names, entries)
 }
 
 // PageData is what a page template receives.
@@ -366,6 +372,9 @@ type PageInfo struct {
 	// Cautions are the caution boxes of every block the page shows or
 	// quotes, for layouts that gather them (the spec layout).
 	Cautions template.HTML
+	// Canonical is the page's full address when specgen.toml gives
+	// base_url, else empty.
+	Canonical string
 }
 
 // Home is the output path of the home page: content/index.md, or the
@@ -378,8 +387,9 @@ func (s *Site) Home() string {
 }
 
 // renderPage lays out one page; it returns the page and the chart data
-// files beside it, keyed by output path.
-func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
+// files beside it, keyed by output path, and the page's entry of the
+// search index.
+func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
 	doc := s.md.Parse(p.body, p.lineOffset)
 	doc.TakeTitle()
@@ -387,27 +397,48 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	doc.RelativeFromRoot(rootPrefix)
 	s.attach(p, doc)
 	if err := s.drawCharts(p, doc, out); err != nil {
-		return nil, err
+		return nil, searchEntry{}, err
 	}
 	body, err := s.md.Render(doc)
 	if err != nil {
-		return nil, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
+	info := PageInfo{
+		Title:       p.Title,
+		Heading:     cmp.Or(p.Heading, p.Title),
+		Description: p.Front.Description,
+		Source:      p.File,
+		URL:         p.Out,
+		Content:     template.HTML(body),
+		TOCCount:    len(doc.Headings(3)),
+		Caution:     s.standardCaution(p),
+		Cautions:    s.pageCautions(p),
+		TOC:         render.Nest(doc.Headings(3)),
+	}
+	if s.Config.BaseURL != "" {
+		info.Canonical = s.Config.BaseURL + href(p.Out)
+	}
+	page, err := s.layout(p, rootPrefix, info)
+	if err != nil {
+		return nil, searchEntry{}, err
+	}
+	out[p.Out] = page
+	return out, newSearchEntry(p, doc), nil
+}
+
+// siteData describes the site to a page whose way up to the site's root
+// is rootPrefix.
+func (s *Site) siteData(rootPrefix string) SiteData {
+	return SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
+		Generator: version.Generator()}
+}
+
+// layout lays out page p, whose way up to the site's root is rootPrefix,
+// with its layout template: info and the site's navigation around it.
+func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error) {
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
-			Generator: version.Generator()},
-		Page: PageInfo{
-			Title:       p.Title,
-			Heading:     cmp.Or(p.Heading, p.Title),
-			Description: p.Front.Description,
-			Source:      p.File,
-			URL:         p.Out,
-			Content:     template.HTML(body),
-			TOCCount:    len(doc.Headings(3)),
-			Caution:     s.standardCaution(p),
-			Cautions:    s.pageCautions(p),
-			TOC:         render.Nest(doc.Headings(3)),
-		},
+		Site:        s.siteData(rootPrefix),
+		Page:        info,
 		Root:        rootPrefix,
 		Nav:         navFor(s.nav, p, rootPrefix),
 		Breadcrumbs: breadcrumbsFor(s.nav, p, rootPrefix),
@@ -431,8 +462,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}
-	out[p.Out] = buf.Bytes()
-	return out, nil
+	return buf.Bytes(), nil
 }
 
 func (s *Site) standardCaution(p *Page) template.HTML {
