@@ -24,6 +24,19 @@ type File struct {
 	// NoSite is set for a revision without the site's content/ (before
 	// the documentation was added): no blocks.
 	NoSite bool `json:"-"`
+	// Commit names the git commit the results were evaluated at ("" when
+	// unknown, as for a results.json file): its hash, and " with
+	// uncommitted changes" for a working tree that differs from it.
+	Commit string `json:"-"`
+	// Quotes are the places in the pages' prose that quote a block's value
+	// (=[id.name]), by "id.name"; nil when unknown.
+	Quotes map[string][]Place `json:"-"`
+}
+
+// Place is a line of a page.
+type Place struct {
+	File string // relative to the site root
+	Line int
 }
 
 // Block is one block in results.json.

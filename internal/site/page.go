@@ -118,6 +118,13 @@ func findPages(root string) ([]string, error) {
 	return rels, nil
 }
 
+// PageOutput is the output path of the page whose source is file
+// ("content/a/b.md" → "a/b.html").
+func PageOutput(file string) string {
+	rel := strings.TrimPrefix(file, ContentDir+"/")
+	return strings.TrimSuffix(rel, path.Ext(rel)) + ".html"
+}
+
 // loadPage reads and parses one page.
 func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
 	file := ContentDir + "/" + rel
@@ -132,7 +139,7 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	if err != nil {
 		return nil, err
 	}
-	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
+	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines}
 	doc := md.Parse(body, offset)
 	p.body, p.lineOffset = body, offset
 	refs := 0

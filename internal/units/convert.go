@@ -43,5 +43,27 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 	return v, nil
 }
 
+// ToSI converts v, written in the unit spelled unit, to the SI value of
+// dimension dim: the inverse of FromSI (a gauge or unmarked pressure adds
+// ambient, Pa).
+func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, error) {
+	u, err := LookupUnit(unit)
+	if err != nil {
+		return 0, err
+	}
+	if !dim.valid() {
+		return 0, newError(unit, ": cannot read unknown "+dim.String())
+	}
+	difference, problem := readAs(u, dim)
+	if problem != "" {
+		return 0, newError(unit, problem)
+	}
+	si := u.toSI(v, difference)
+	if dim == Pressure && u.Ref != Absolute {
+		si += ambient
+	}
+	return si, nil
+}
+
 // finite reports whether v is neither NaN nor infinite.
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

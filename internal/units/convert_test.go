@@ -40,6 +40,11 @@ func TestFromSI(t *testing.T) {
 		if !closeTo(got, c.Want, tol) {
 			t.Errorf("FromSI(%g, %s, %q, %g) = %.10g, want %.10g (%s)", c.SI, c.Dim, c.Unit, c.Ambient, got, c.Want, c.Source)
 		}
+		// ToSI is its inverse: the case's reading back to its SI value (a
+		// gauge reading to within the digits it keeps of the ambient).
+		if si, err := ToSI(c.Want, dim, c.Unit, c.Ambient); err != nil || math.Abs(si-c.SI) > max(tol, 1e-9)*max(math.Abs(c.SI), c.Ambient) {
+			t.Errorf("ToSI(%.10g, %s, %q, %g) = %.10g, %v; want %.10g (%s)", c.Want, c.Dim, c.Unit, c.Ambient, si, err, c.SI, c.Source)
+		}
 		// Round trip: what FromSI shows must parse back to the SI value.
 		text := Format(got, 15) + " " + c.Unit
 		q, err := Parse(text, dim)
