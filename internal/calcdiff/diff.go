@@ -17,11 +17,11 @@ type Diff struct {
 	HeadCommit string `json:"head_commit,omitempty"`
 	// Failing are the head's failed claims and unacknowledged DANGER
 	// cautions, new or not: what fails its check.
-	Failing []Failure   `json:"failing"`
-	Changed []BlockDiff `json:"changed"`
-	Added      []BlockBrief `json:"added"`
-	Removed    []BlockBrief `json:"removed"`
-	Renamed    []Rename     `json:"renamed"`
+	Failing []Failure    `json:"failing"`
+	Changed []BlockDiff  `json:"changed"`
+	Added   []BlockBrief `json:"added"`
+	Removed []BlockBrief `json:"removed"`
+	Renamed []Rename     `json:"renamed"`
 	// NewlyFailing counts claims that held (or did not exist) and now fail;
 	// NewDangers counts DANGER cautions that appeared unacknowledged.
 	NewlyFailing int `json:"newly_failing"`
@@ -81,7 +81,7 @@ type Quote struct {
 
 // ValueChange is an input or result that changed.
 type ValueChange struct {
-	Name   string   `json:"name"`
+	Name   string `json:"name"`
 	Before string `json:"before"` // as shown: text or display
 	After  string `json:"after"`
 	// BeforeValue and AfterValue are the SI values (pressures absolute),
