@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"specgen/internal/calc"
+	"specgen/internal/inputerr"
 	"specgen/internal/models"
 	"specgen/internal/render"
 )
@@ -45,14 +46,21 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "specgen calc:", err)
 		return exitBadInput
 	}
-	b, err := cat.ParseBlock(file, 0, string(src))
-	if err != nil {
-		fmt.Fprintln(stderr, err)
+	b, parseErr := cat.ParseBlock(file, 0, string(src))
+	if b == nil {
+		fmt.Fprintln(stderr, parseErr)
 		return exitBadInput
 	}
+	// A broken block's inputs are checked too: every problem in one run.
 	set, err := cat.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
-	if err != nil {
-		fmt.Fprintln(stderr, err)
+	if parseErr != nil || err != nil {
+		var all inputerr.List
+		for _, e := range []error{parseErr, err} {
+			if e != nil {
+				all = append(all, inputerr.From(e)...)
+			}
+		}
+		fmt.Fprintln(stderr, all.Sorted())
 		return exitBadInput
 	}
 	e, _ := set.Lookup(b.ID)

@@ -210,6 +210,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 			verb = "up to date:"
 		}
 		fmt.Fprintf(stdout, "%s %s in %s\n", verb, count(sum.Pages, "page"), sum.Out)
+		fmt.Fprintln(stdout, tallyLine(sum.Tally))
 	}
 	return exitOK
 }

@@ -40,8 +40,12 @@ type Block struct {
 	// the order its [derive] table names them.
 	Derive        []Derivation
 	pendingClaims []pendingClaim
-	lines         map[string]int // TOML-relative line of each key
-	catalog       *Catalog
+	// Broken marks a block ParseBlock returned with its errors: other
+	// blocks may name it, and Evaluate checks the inputs it could read,
+	// but it is not evaluated, nor is any block that needs it.
+	Broken  bool
+	lines   map[string]int // TOML-relative line of each key
+	catalog *Catalog
 }
 
 // Value is one input as the user wrote it.
@@ -95,8 +99,35 @@ var idPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9_-]*$`)
 var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]*)\s*$`)
 
 // ParseBlock decodes one calc block. file and fenceLine place it for error
-// messages: TOML line k is file line fenceLine+k.
+// messages: TOML line k is file line fenceLine+k. With an error it still
+// returns what it read, marked Broken, when the block names its id, so
+// that every other problem of the site can be found in the same run.
 func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, error) {
+	b, err := c.parseBlock(file, fenceLine, src)
+	if err == nil {
+		return b, nil
+	}
+	if b == nil {
+		b = &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+	}
+	if b.ID == "" || !idPattern.MatchString(b.ID) {
+		// Not even TOML: the id as written, if it can be seen.
+		m := writtenID.FindStringSubmatch(src)
+		if m == nil {
+			return nil, err
+		}
+		b.ID = m[1]
+	}
+	b.Broken = true
+	return b, err
+}
+
+// writtenID finds the id line of a block whose TOML cannot be read.
+var writtenID = regexp.MustCompile(`(?m)^[ \t]*id[ \t]*=[ \t]*"([a-z0-9][a-z0-9_-]*)"[ \t]*(?:#.*)?\r?$`)
+
+// parseBlock decodes one calc block; with an error, the block is what it
+// could read, or nil.
+func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, error) {
 	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
 		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
@@ -147,7 +178,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		}
 	}
 	if len(errs) > 0 || b.Kind == nil {
-		return nil, errs.Sorted()
+		return b, errs.Sorted()
 	}
 
 	keys := make([]string, 0, len(raw))
@@ -217,7 +248,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		}
 	}
 	if err := errs.Capped(MaxBlockErrors, "in this block").Sorted(); err != nil {
-		return nil, err
+		return b, err
 	}
 	return b, nil
 }

@@ -120,6 +120,8 @@ func checkDeriveRefs(b *Block, byID map[string]*Block, ids []string) inputerr.Li
 			}
 			target, ok := byID[r.Block]
 			switch {
+			case ok && target.Kind == nil:
+				// A broken block: what it computes is not known.
 			case !ok:
 				msg := fmt.Sprintf("%s names block %q, which does not exist", r, r.Block)
 				if s := Suggest(r.Block, ids); s != "" {

@@ -3,6 +3,7 @@ package calc
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"runtime"
 	"slices"
@@ -169,7 +170,11 @@ func (e *Evaluated) Failed() bool {
 func (e *Evaluated) Customary() bool { return e.customary }
 
 // Evaluate checks every block of a site together (ids unique, references
-// known and acyclic), then evaluates them in dependency order.
+// known and acyclic), then evaluates them in dependency order. It goes on
+// past a problem as far as the rest does not depend on it: a block with a
+// broken reference, in a circle or Broken is not evaluated, nor is any
+// block that needs it, and every other block is. The error lists every
+// problem found; the set holds the blocks that were evaluated.
 func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if opts.SigFigs == 0 {
 		opts.SigFigs = 3
@@ -190,19 +195,22 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		ids = append(ids, id)
 	}
 	sort.Strings(ids)
+	planned := map[string]*Block{}
 	for _, id := range ids {
-		errs = append(errs, c.checkRefs(byID[id], byID, ids)...)
-		errs = append(errs, checkDeriveRefs(byID[id], byID, ids)...)
+		b := byID[id]
+		if b.Kind == nil {
+			continue // broken before its kind was known: nothing to check
+		}
+		refErrs := append(c.checkRefs(b, byID, ids), checkDeriveRefs(b, byID, ids)...)
+		if len(refErrs) > 0 {
+			errs = append(errs, refErrs...)
+			continue
+		}
+		planned[id] = b
 	}
-	if err := errs.Sorted(); err != nil {
-		return nil, err
-	}
-	pl, err := makePlan(byID, ids)
-	if err != nil {
-		return nil, err
-	}
+	pl := plannable(planned, &errs)
 	linked := map[string]bool{}
-	for _, b := range byID {
+	for _, b := range planned {
 		for _, v := range b.Values {
 			for _, dep := range v.Deps() {
 				linked[dep] = true
@@ -248,6 +256,10 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		for _, i := range run {
 			st, o := level[i], outs[i]
 			b := byID[st.id]
+			if errors.Is(o.err, errBroken) {
+				failed[b.ID] = true
+				continue
+			}
 			if o.err != nil {
 				var list inputerr.List
 				if errors.As(o.err, &list) {
@@ -266,14 +278,64 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		}
 	}
 	set.early = nil
-	if err := errs.Sorted(); err != nil {
-		return nil, err
-	}
 	for _, id := range ids {
-		set.Blocks = append(set.Blocks, set.byID[id])
+		if e, ok := set.byID[id]; ok {
+			set.Blocks = append(set.Blocks, e)
+		}
 	}
 	c.applyRules(set)
+	if err := errs.Sorted(); err != nil {
+		return set, err
+	}
 	return set, nil
+}
+
+// errBroken is what evaluating a Broken block gives once its inputs read
+// without error: it fails without a problem of its own.
+var errBroken = errors.New("block not evaluated: it has problems of its own")
+
+// plannable orders the planned blocks for evaluation. A block that needs
+// one left out is left out too, with no problem of its own; a circle of
+// references is added to errs and its blocks left out.
+func plannable(planned map[string]*Block, errs *inputerr.List) *plan {
+	for {
+		// What needs a block left out is left out, until nothing changes.
+		for changed := true; changed; {
+			changed = false
+			for id, b := range planned {
+				if slices.ContainsFunc(b.needs(), func(d string) bool { return planned[d] == nil }) {
+					delete(planned, id)
+					changed = true
+				}
+			}
+		}
+		ids := slices.Sorted(maps.Keys(planned))
+		pl, circle, err := makePlan(planned, ids)
+		if err == nil {
+			return pl
+		}
+		*errs = append(*errs, inputerr.From(err)...)
+		for _, id := range circle {
+			delete(planned, id)
+		}
+	}
+}
+
+// needs lists the blocks b reads values of: those its inputs quote or
+// link to, and those its [derive] expressions name.
+func (b *Block) needs() []string {
+	var ids []string
+	for _, v := range b.Values {
+		ids = append(ids, v.Deps()...)
+	}
+	for _, d := range b.Derive {
+		for _, r := range d.Expr.Refs() {
+			if r.Block != "" {
+				ids = append(ids, r.Block)
+			}
+		}
+	}
+	return ids
 }
 
 // linkCandidates are the blocks a key of b could name: any other block, of
@@ -300,6 +362,8 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			for _, id := range v.Links {
 				target, ok := byID[id]
 				switch {
+				case ok && target.Kind == nil:
+					// A broken block: what it is, is not known.
 				case !ok:
 					msg := fmt.Sprintf("names block %q, which does not exist", id)
 					if s := Suggest(id, linkCandidates(b, in, byID, ids)); s != "" {
@@ -333,6 +397,9 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 		if target == b {
 			fail(fmt.Sprintf("%q refers to its own block", v.Text))
 			continue
+		}
+		if target.Kind == nil {
+			continue // a broken block: its results are not known
 		}
 		if _, derived := target.derivation(v.RefResult); derived {
 			continue // its dimension is checked when it is read
@@ -523,6 +590,9 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	}
 	if err := errs.Sorted(); err != nil {
 		return nil, err
+	}
+	if b.Broken {
+		return nil, errBroken
 	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
 	in.customary = e.customary

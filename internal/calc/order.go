@@ -47,8 +47,8 @@ type plan struct {
 }
 
 // makePlan orders the steps of the blocks byID (ids sorted), or reports
-// the first circle of references it finds.
-func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
+// the first circle of references it finds, with the ids of its blocks.
+func makePlan(byID map[string]*Block, ids []string) (*plan, []string, error) {
 	p := &plan{early: map[string]bool{}, byID: byID}
 	for _, id := range ids {
 		for _, v := range byID[id].Values {
@@ -69,6 +69,7 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 	depth := map[step]int{}
 	var stack []step
 	var via []string // the key by which each step of stack was entered
+	var inCircle []string
 	circle := func(closing dependency) error {
 		start := 0
 		for i, s := range stack {
@@ -85,6 +86,9 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 			names = append(names, stepLabel(s, out))
 		}
 		names = append(names, names[0])
+		for _, s := range stack[start:] {
+			inCircle = append(inCircle, s.id)
+		}
 		b := byID[stack[len(stack)-1].id]
 		return inputerr.List{{File: b.File, Line: closing.line, Key: closing.key,
 			Msg: "references go round in a circle: " + strings.Join(names, " → ") + "; break the circle by giving one value directly"}}
@@ -122,11 +126,11 @@ func makePlan(byID map[string]*Block, ids []string) (*plan, error) {
 				continue
 			}
 			if err := visit(st, ""); err != nil {
-				return nil, err
+				return nil, inCircle, err
 			}
 		}
 	}
-	return p, nil
+	return p, nil, nil
 }
 
 // deps lists the steps st waits on, in the order of the block's keys: the

@@ -53,6 +53,7 @@ type Summary struct {
 	Out      string // absolute output folder
 	Pages    int
 	Problems []Problem // failed claims and unacknowledged DANGER cautions
+	Tally    Tally     // what the build evaluated, as check counts it
 	Written  bool      // false when Strict refused to write
 	UpToDate bool      // nothing had changed since the last build: nothing was redone
 }
@@ -77,7 +78,14 @@ type Site struct {
 	chartsTotal int
 }
 
-// Load reads a site root: configuration, templates and every page.
+// MaxErrors is how many input problems one run reports; the rest are
+// counted.
+const MaxErrors = 50
+
+// Load reads a site root: configuration, templates and every page. It
+// reports every input problem of the site at once, by file and line (at
+// most MaxErrors): each step goes on past a problem as far as the rest
+// does not depend on it.
 func Load(root string) (*Site, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
@@ -86,51 +94,70 @@ func Load(root string) (*Site, error) {
 	if err != nil {
 		return nil, err
 	}
+	var problems inputerr.List
+	// keep adds an input error to the problems; it returns any other error.
+	keep := func(err error) error {
+		if err == nil || !inputerr.Is(err) {
+			return err
+		}
+		problems = append(problems, inputerr.From(err)...)
+		return nil
+	}
+	reported := func() error { return problems.Capped(MaxErrors, "in this site").Sorted() }
 	cfg, err := LoadConfig(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	lay, err := loadLayouts(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	rels, err := findPages(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
+	}
+	if rels == nil {
+		return nil, reported()
 	}
 	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML))}
-	s.Pages = make([]*Page, len(rels))
+	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
+		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
 	})
-	if err := collect(errs); err != nil {
+	if err := keep(collect(errs)); err != nil {
 		return nil, err
 	}
-	if err := checkOutputClashes(s.Pages); err != nil {
-		return nil, err
-	}
-	var tplErrs inputerr.List
-	for _, p := range s.Pages {
-		if _, err := s.layouts.lookup(p.Front.Template); err != nil {
-			tplErrs = append(tplErrs, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+	for _, p := range pages {
+		if p != nil {
+			s.Pages = append(s.Pages, p)
 		}
 	}
-	if err := tplErrs.Sorted(); err != nil {
+	if err := keep(checkOutputClashes(s.Pages)); err != nil {
 		return nil, err
 	}
-	if err := s.evaluate(); err != nil {
+	if lay != nil {
+		for _, p := range s.Pages {
+			if _, err := lay.lookup(p.Front.Template); err != nil {
+				problems = append(problems, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+			}
+		}
+	}
+	if err := keep(s.evaluate()); err != nil {
 		return nil, err
 	}
 	static, err := readStatic(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	names := map[string]bool{}
 	for name := range static {
 		names[name] = true
 	}
-	if err := s.checkLinks(names).Sorted(); err != nil {
+	if lay != nil {
+		problems = append(problems, s.checkLinks(names)...)
+	}
+	if err := reported(); err != nil {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)
@@ -157,7 +184,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	fp, fpErr := fingerprint(root, out)
 	if fpErr == nil {
 		if m, ok := upToDate(root, out, fp); ok {
-			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, UpToDate: true,
+			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, Tally: m.Tally, UpToDate: true,
 				Written: !opts.Strict || len(m.Problems) == 0}, nil
 		}
 	}
@@ -169,17 +196,17 @@ func Build(root string, opts Options) (*Summary, error) {
 		opts.Progress("pages read", len(s.Pages), len(s.Pages))
 		opts.Progress("blocks evaluated", len(s.Calc.Blocks), len(s.Calc.Blocks))
 	}
-	problems := s.Problems()
+	problems, tally := s.Problems(), s.Tally()
 	if opts.Strict && len(problems) > 0 {
-		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems}, nil
+		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
 	sum, err := s.Write(opts)
 	if err != nil {
 		return nil, err
 	}
-	sum.Problems = problems
+	sum.Problems, sum.Tally = problems, tally
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems)
+		remember(root, out, fp, sum.Pages, problems, tally)
 	}
 	return sum, nil
 }

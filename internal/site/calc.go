@@ -53,9 +53,11 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		b, err := cat.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, inputerr.From(err)...)
-			continue
 		}
-		p.blocks = append(p.blocks, b)
+		// A broken block stays, so that what names it is not blamed too.
+		if b != nil {
+			p.blocks = append(p.blocks, b)
+		}
 	}
 	for _, r := range doc.ValueRefs() {
 		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
@@ -96,7 +98,8 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 }
 
 // evaluate runs every block of the site, then checks the value
-// references and chart fences of every page.
+// references and chart fences of every page, and lists every problem
+// found.
 func (s *Site) evaluate() error {
 	var blocks []*calc.Block
 	s.blockPage = map[string]*Page{}
@@ -121,18 +124,31 @@ func (s *Site) evaluate() error {
 	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
 		Charted: func(id string) bool { return charted[id] }})
+	var errs inputerr.List
 	if err != nil {
-		return inputerr.From(err).Sorted()
+		errs = inputerr.From(err)
 	}
 	s.Calc = set
-	var errs inputerr.List
+	// A value or chart of a block that has problems of its own (or needs
+	// one that has) is not checked: the block's problems are reported.
+	unevaluated := func(id string) bool {
+		_, known := s.blockPage[id]
+		_, evaluated := set.Lookup(id)
+		return known && !evaluated
+	}
 	for _, p := range s.Pages {
 		for _, n := range p.charts {
+			if unevaluated(n.Block) {
+				continue
+			}
 			if err := s.checkChartName(p, n); err != nil {
 				errs = append(errs, err)
 			}
 		}
 		for _, ref := range p.refs {
+			if ref.Problem == "" && unevaluated(ref.Block) {
+				continue
+			}
 			if _, err := s.formatRef(p, ref); err != nil {
 				errs = append(errs, err)
 			}

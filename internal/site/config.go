@@ -145,7 +145,8 @@ func LoadConfig(root string) (Config, error) {
 	text := string(src)
 	md, err := toml.Decode(text, &cfg)
 	if err != nil {
-		return cfg, tomlError(ConfigFile, 0, text, err, "site configuration")
+		// The pages are still read, with the default settings.
+		return DefaultConfig(), tomlError(ConfigFile, 0, text, err, "site configuration")
 	}
 	lines := calc.KeyLines(text)
 	var errs inputerr.List
@@ -169,6 +170,7 @@ func LoadConfig(root string) (Config, error) {
 	if cfg.SigFigs < 2 || cfg.SigFigs > 8 {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["sig_figs"],
 			Msg: fmt.Sprintf("sig_figs: %d is out of range; allowed: 2 to 8 significant figures", cfg.SigFigs)})
+		cfg.SigFigs = DefaultConfig().SigFigs
 	}
 	if strings.TrimSpace(cfg.Title) == "" {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
@@ -186,6 +188,8 @@ func LoadConfig(root string) (Config, error) {
 	cat, err := models.NewCatalog(env)
 	if err != nil {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Msg: err.Error()})
+		// The pages are still read, with the built-in materials.
+		cat, cfg.env = defaultCatalog, models.DefaultEnv()
 	}
 	cfg.catalog = cat
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })

@@ -125,7 +125,9 @@ func PageOutput(file string) string {
 	return strings.TrimSuffix(rel, path.Ext(rel)) + ".html"
 }
 
-// loadPage reads and parses one page.
+// loadPage reads and parses one page. With an input error in its body it
+// still returns the page, with what could be read, so that the site's
+// other problems can be found in the same run.
 func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
 	file := ContentDir + "/" + rel
 	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
@@ -152,12 +154,10 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 		p.titleParts = append(p.titleParts, titlePart{Ref: refs})
 		refs++
 	}
-	if err := readDoc(p, doc, cat); err != nil {
-		return nil, err
-	}
+	docErr := readDoc(p, doc, cat)
 	// Until the values are known, a reference in the title reads as written.
 	p.setHeading(func(i int) string { return p.refs[i].Written })
-	return p, nil
+	return p, docErr
 }
 
 // titlePart is a piece of a page's level-1 heading: text, or (Ref >= 0)
