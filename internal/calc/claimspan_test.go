@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"strings"
 	"testing"
 
 	"specgen/internal/units"
@@ -30,5 +31,35 @@ func TestCompareClaims(t *testing.T) {
 		if got := CompareClaims("r", c.before, c.now, c.dim, DefaultAmbient); got != c.want {
 			t.Errorf("%q → %q: %s, want %s", c.before, c.now, got, c.want)
 		}
+	}
+}
+
+// TestStandardFlowClaim: a claim in standard air is checked on the free
+// air flow at the block's ambient pressure, and says what standard air
+// is. 60 L/min of free air at 101.325 kPa(a) is 60 × 101.325/100 =
+// 60.795 NL/min = 2.147 SCFM (ISO 8778 standard reference atmosphere,
+// 100 kPa(a) and 20 °C, from memory; 1 ft3 = 28.316 846 592 L, NIST SP 811
+// App. B.8).
+func TestStandardFlowClaim(t *testing.T) {
+	c, err := ParseClaim("free_air_delivery", ">= 2.1 SCFM", units.VolumeFlow)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := c.Check(1e-3, units.VolumeFlow, DefaultAmbient, 3)
+	want := `free_air_delivery: claim ">= 2.1 SCFM" holds: computed 2.15 SCFM (SCFM is standard air: dry, 100 kPa(a), 20 °C (the ISO 8778 standard reference atmosphere, from memory), read as free air at the ambient pressure, here 101 kPa(a))`
+	if !r.OK || r.Message != want {
+		t.Errorf("ok %v, %q\nwant %q", r.OK, r.Message, want)
+	}
+}
+
+// TestFractionClaim: a claim in a mixed fraction of an inch is a value, not
+// a range.
+func TestFractionClaim(t *testing.T) {
+	c, err := ParseClaim("bore", "1-1/2 in ± 0.01 in", units.Length)
+	if err != nil || c.Value != 1.5 || c.Unit != "in" {
+		t.Errorf("%+v, %v", c, err)
+	}
+	if _, err := ParseClaim("bore", "20-25 mm", units.Length); err == nil || !strings.Contains(err.Error(), "looks like a range") {
+		t.Errorf("a range written with a hyphen: %v", err)
 	}
 }

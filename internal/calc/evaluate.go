@@ -570,8 +570,8 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 				fail(spec.Name, line, err.Error())
 				continue
 			}
-			if spec.Absolute && q.Unit.Ref != units.Absolute {
-				fail(spec.Name, line, fmt.Sprintf("%q is a gauge pressure; %s takes an absolute pressure: write mbar(a), kPa(a), bar(a), psia, inHg(a), mmHg(a) or torr, e.g. \"20 mbar(a)\"", text, spec.Name))
+			if msg := pressureReadingProblem(spec, q, e.Ambient); msg != "" {
+				fail(spec.Name, line, msg)
 				continue
 			}
 			value = q.Absolute(e.Ambient)

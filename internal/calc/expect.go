@@ -66,7 +66,8 @@ var rangeSplit = regexp.MustCompile(`\s+to\s+|\s*–\s*`)
 
 // looksLikeRange matches "20-25 cm3" and "20..25 cm3": ranges written with a
 // hyphen (which reads as a minus sign) or two dots.
-var looksLikeRange = regexp.MustCompile(`^[+-]?[0-9.]+(?:[eE][+-]?[0-9]+)?\s*(?:-|\.\.)\s*[+-]?[0-9]`)
+// A mixed fraction ("1-1/2 in") is no range.
+var looksLikeRange = regexp.MustCompile(`^[+-]?[0-9.]+(?:[eE][+-]?[0-9]+)?\s*(?:-|\.\.)\s*[+-]?[0-9]+(?:[^0-9/]|$)`)
 
 const claimForms = `"22.5 cm3 ± 2%", "22.5 cm3 ± 0.5 cm3", "20 cm3" (to the precision written), "20 to 25 cm3", ">= 15 L/min", "<= 120 degC"`
 
@@ -318,6 +319,10 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 			c.Result, c.Text, c.band(sig), computed, c.Unit, absolute)
 	default:
 		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
+	}
+	if u, err := units.LookupUnitAs(c.Unit, dim); err == nil && u.Standard {
+		at, _ := display.Value(ambient, units.Pressure, "kPa(a)", ambient, sig)
+		r.Message += fmt.Sprintf(" (%s is %s, here %s)", c.Unit, units.StandardAir, at)
 	}
 	return r
 }

@@ -100,9 +100,14 @@ type InputSpec struct {
 	Optional bool
 	Range    Range
 	Meaning  string // one line
-	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr"):
-	// for vacuum targets, where a gauge reading is a mistake.
+	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr")
+	// or as a vacuum gauge's reading ("25 inHg vac"): for vacuum targets,
+	// where a gauge reading is a mistake.
 	Absolute bool
+	// BelowAmbient marks a pressure input that is below ambient in every
+	// use (a vacuum), where a bare inHg or mmHg could be meant absolute or
+	// as a vacuum gauge reads it, and so is refused. Absolute implies it.
+	BelowAmbient bool
 	// LinkRoles are the roles of the blocks a Link or LinkList input may
 	// name, any one of them; zero allows any block.
 	LinkRoles Role

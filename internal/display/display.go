@@ -26,7 +26,7 @@ func Value(si float64, dim units.Dimension, unit string, ambient float64, sig in
 	if err != nil {
 		return "", err
 	}
-	u, err := units.LookupUnit(unit)
+	u, err := units.LookupUnitAs(unit, dim)
 	if err != nil {
 		return "", err
 	}

@@ -20,7 +20,7 @@ var vacuumKind = calc.Kind{
 		"cylinders", "speed", "polytropic_index"),
 		calc.InputSpec{Name: "vessel_volume", Dim: units.Volume, Range: calc.Between(minVesselVolume, 1e3), Meaning: "internal volume of the vessel pumped down, with its piping, up to 1000 m3"},
 		calc.InputSpec{Name: "target_pressure", Dim: units.Pressure, Absolute: true, Range: positiveUpTo(1e9), Meaning: "absolute pressure the vessel is pumped down to, e.g. \"20 mbar(a)\" or \"15 torr\"; above the ultimate pressure"},
-		calc.InputSpec{Name: "start_pressure", Dim: units.Pressure, Optional: true, Range: positiveUpTo(1e9), Meaning: "vessel pressure when pumping starts, at most ambient; default: ambient"},
+		calc.InputSpec{Name: "start_pressure", Dim: units.Pressure, Optional: true, BelowAmbient: true, Range: positiveUpTo(1e9), Meaning: "vessel pressure when pumping starts, at most ambient; default: ambient"},
 	),
 	Results: []calc.ResultSpec{
 		{Name: "displacement_rate", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "volume all pistons sweep per unit time"},

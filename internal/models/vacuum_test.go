@@ -155,3 +155,22 @@ func TestPumpdownExtremes(t *testing.T) {
 		}
 	}
 }
+
+// TestVacuumGaugeReading: a target written as a US vacuum gauge reads it,
+// "25 inHg vac", is 25 inHg below ambient: the same block as one whose
+// target is that absolute pressure, 101325 − 25 × 3386.389 = 16665.28 Pa
+// (1 inHg = 3386.389 Pa, NIST SP 811 App. B.8, from memory).
+func TestVacuumGaugeReading(t *testing.T) {
+	pot := func(id, target string) string {
+		return "id = \"" + id + "\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\n" +
+			"clearance_ratio = 0.05\nspeed = \"1200 rpm\"\nvessel_volume = \"20 L\"\ntarget_pressure = \"" + target + "\"\n"
+	}
+	set := evaluateSources(t, "content/x.md", []string{pot("gauge", "25 inHg vac"), pot("absolute", "16665.284 Pa(a)")})
+	g, _ := set.Lookup("gauge")
+	a, _ := set.Lookup("absolute")
+	gt, _ := g.Result("pumpdown_time")
+	at, _ := a.Result("pumpdown_time")
+	if math.Abs(gt.Value/at.Value-1) > 1e-6 {
+		t.Errorf("pump-down to 25 inHg vac takes %g s, to 16665.284 Pa(a) %g s", gt.Value, at.Value)
+	}
+}

@@ -6,10 +6,13 @@ import "math"
 // unit. A pressure (dim Pressure) is absolute in SI: gauge and unmarked
 // units subtract ambient (Pa), absolute units do not. Pressure and Stress
 // units are interchangeable, but a stress takes no (a) or (g) mark;
-// temperature units serve for a TemperatureDifference, without offset.
-// A unit of another dimension, or a result that is not finite, is an error.
+// temperature units serve for a TemperatureDifference, without offset. A
+// flow of standard air (SCFM) shows the free-air flow si at ambient as the
+// standard air it is. A spelling that names one unit per dimension
+// ("ft-lb") is read as dim. A unit of another dimension, or a result that
+// is not finite, is an error.
 func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, error) {
-	u, err := LookupUnit(unit)
+	u, err := LookupUnitAs(unit, dim)
 	if err != nil {
 		return 0, err
 	}
@@ -36,6 +39,10 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 	if !difference && u.Offset != 0 && math.Abs(si-u.Offset) <= 1e-12*u.Offset {
 		si = u.Offset
 	}
+	if u.Standard {
+		// Free air at ambient is this much standard air (same temperature).
+		si *= ambient / standardPressure
+	}
 	v := u.fromSI(si, difference)
 	if !finite(v) {
 		return 0, newError(unit, ": the value is out of range in this unit")
@@ -47,7 +54,7 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 // dimension dim: the inverse of FromSI (a gauge or unmarked pressure adds
 // ambient, Pa).
 func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, error) {
-	u, err := LookupUnit(unit)
+	u, err := LookupUnitAs(unit, dim)
 	if err != nil {
 		return 0, err
 	}
@@ -59,8 +66,11 @@ func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, erro
 		return 0, newError(unit, problem)
 	}
 	si := u.toSI(v, difference)
-	if dim == Pressure && u.Ref != Absolute {
+	switch {
+	case dim == Pressure && u.Ref != Absolute:
 		si += ambient
+	case u.Standard:
+		si *= standardPressure / ambient
 	}
 	return si, nil
 }

@@ -31,7 +31,13 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": empty; expected "+want.Article()+" ("+want.Examples()+")")
 	}
 	// U+2212 is the minus sign of typeset text (ISO 80000-1); no unit holds it.
-	numText, rest := SplitNumber(strings.ReplaceAll(text, "\u2212", "-"))
+	numText, rest, problem := splitFraction(strings.ReplaceAll(text, "\u2212", "-"))
+	if problem != "" {
+		return Quantity{}, newError(text, problem)
+	}
+	if numText == "" {
+		numText, rest = SplitNumber(strings.ReplaceAll(text, "\u2212", "-"))
+	}
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text, want))
 	}
@@ -58,7 +64,10 @@ func Parse(s string, want Dimension) (Quantity, error) {
 	if unitText == "" && want != Dimensionless {
 		return Quantity{}, newError(text, ": "+want.Article()+" needs a unit ("+want.Examples()+")")
 	}
-	u, ok := unitIndex[normalize(unitText)]
+	u, ok, why := lookup(normalize(unitText), want)
+	if why != "" {
+		return Quantity{}, newError(text, ": "+quote(unitText)+": "+why)
+	}
 	if !ok {
 		e := newError(text, ": unknown unit "+quote(unitText))
 		e.Suggest = suggest(normalize(unitText), func(u Unit) bool { return fits(u, want) })

@@ -23,6 +23,8 @@ func Pretty(symbol string) string {
 		return "psia"
 	case "psi(d)":
 		return "psid"
+	case "inHg vac", "mmHg vac":
+		return symbol // a word after the unit, not a product
 	}
 	return prettyParts.Replace(symbol)
 }

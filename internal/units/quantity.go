@@ -13,12 +13,16 @@ type Quantity struct {
 	Number string
 }
 
-// Absolute returns the absolute value of a pressure, adding the ambient
-// pressure (Pa) when the unit was gauge or unmarked. For other dimensions
-// it returns Value.
+// Absolute returns the value at the ambient pressure (Pa): a pressure
+// absolute, adding ambient when the unit was gauge or unmarked (or a
+// vacuum reading, whose Value is negative); a flow of standard air as free
+// air at ambient and 20 °C. For other quantities it returns Value.
 func (q Quantity) Absolute(ambient float64) float64 {
-	if q.Dim == Pressure && q.Unit.Ref != Absolute {
+	switch {
+	case q.Dim == Pressure && q.Unit.Ref != Absolute:
 		return q.Value + ambient
+	case q.Unit.Standard:
+		return q.Value * standardPressure / ambient
 	}
 	return q.Value
 }

@@ -23,11 +23,30 @@ const (
 	revolution = 2 * math.Pi // rad
 )
 
+// The standard reference atmosphere of pneumatics (ISO 8778, which ISO 1217
+// takes for its standard flows; quoted from memory): standard air is dry
+// air at 100 kPa absolute and 20 °C. A flow of standard air reads as free
+// air at the ambient pressure of the block, at the same 20 °C.
+const (
+	standardPressure    = 100e3  // Pa absolute
+	standardTemperature = 293.15 // K
+)
+
 // unitDef is one row of the unit table: a canonical symbol and the other
 // spellings (already in normalized form) that mean the same unit.
 type unitDef struct {
 	Unit
 	aliases []string
+}
+
+// standardDef makes the row of a flow of standard air.
+func standardDef(sym string, factor float64, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Standard: true}, aliases}
+}
+
+// vacuumDef makes the row of a vacuum gauge's unit: gauge, read downward.
+func vacuumDef(sym string, factor float64, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: Pressure, Factor: -factor, Ref: Gauge}, aliases}
 }
 
 // def makes a table row for a unit without offset or pressure mark.
@@ -55,7 +74,7 @@ var unitTable = joinDefs(
 		def("mm", Length, 1e-3),
 		def("cm", Length, 1e-2),
 		def("m", Length, 1),
-		def("in", Length, inch),
+		def("in", Length, inch, "in.", "inch", "inches", `"`, "″"),
 		def("ft", Length, foot),
 
 		def("mm2", Area, 1e-6),
@@ -66,19 +85,24 @@ var unitTable = joinDefs(
 
 		def("mm3", Volume, 1e-9),
 		def("cm3", Volume, 1e-6, "cc", "mL", "ml"),
-		def("L", Volume, 1e-3, "l"),
+		def("L", Volume, 1e-3, "l", "litre", "liter", "litres", "liters", "dm3"),
 		def("m3", Volume, 1),
-		def("in3", Volume, inch*inch*inch),
-		def("ft3", Volume, foot*foot*foot),
-		def("gal", Volume, gallon), // US liquid gallon, 231 in3
+		def("in3", Volume, inch*inch*inch, "cu in"),
+		def("ft3", Volume, foot*foot*foot, "cu ft"),
+		def("gal", Volume, gallon, "gallon", "gallons", "US gal", "US gallon"), // US liquid gallon, 231 in3
 
 		def("cm3/s", VolumeFlow, 1e-6, "cc/s", "mL/s", "ml/s"),
-		def("L/min", VolumeFlow, 1e-3/60, "l/min"),
+		def("L/min", VolumeFlow, 1e-3/60, "l/min", "lpm", "LPM"),
 		def("L/s", VolumeFlow, 1e-3, "l/s"),
 		def("m3/h", VolumeFlow, 1.0/3600),
 		def("m3/min", VolumeFlow, 1.0/60),
 		def("m3/s", VolumeFlow, 1),
 		def("cfm", VolumeFlow, foot*foot*foot/60, "ft3/min", "CFM"),
+
+		// Flows of standard air (see standardPressure).
+		standardDef("SCFM", foot*foot*foot/60, "scfm"),
+		standardDef("NL/min", 1e-3/60, "Nl/min", "SLPM", "slpm"),
+		standardDef("Nm3/h", 1.0/3600),
 	},
 	// Pressures. A plain unit reads gauge (specgen's convention for the
 	// workshop habit of reading the dial); marks make it explicit.
@@ -91,6 +115,8 @@ var unitTable = joinDefs(
 	pressureDefs("psi", psi, []string{"PSI", "lbf/in2"}, []string{"psig", "PSIG"}, []string{"psia", "PSIA"}),
 	pressureDefs("inHg", inHg, nil, nil, nil),
 	pressureDefs("mmHg", mmHg, nil, nil, nil),
+	// A vacuum gauge reads down from ambient: "25 inHg vac" is 25 inHg below it.
+	[]unitDef{vacuumDef("inHg vac", inHg, "inHgV", "inHg(v)"), vacuumDef("mmHg vac", mmHg, "mmHgV", "mmHg(v)")},
 	[]unitDef{
 		def("ksi", Pressure, 1000*psi),
 		// The standard atmosphere is absolute by definition.
@@ -129,11 +155,13 @@ var unitTable = joinDefs(
 		def("lbf", Force, poundF),
 		def("kgf", Force, gravity),
 
-		def("N m", Torque, 1, "Nm"),
+		def("N m", Torque, 1, "Nm", "N.m"),
 		def("N mm", Torque, 1e-3, "Nmm"),
 		def("kN m", Torque, 1e3, "kNm"),
-		def("lbf in", Torque, poundF*inch, "in lbf"),
-		def("lbf ft", Torque, poundF*foot, "ft lbf"),
+		// "ft lbf", "ft-lb" and the like read as a torque or an energy as the
+		// key needs (ambiguous, below).
+		def("lbf in", Torque, poundF*inch),
+		def("lbf ft", Torque, poundF*foot),
 
 		def("W", Power, 1),
 		def("kW", Power, 1e3),
@@ -144,6 +172,8 @@ var unitTable = joinDefs(
 		def("MJ", Energy, 1e6),
 		def("Wh", Energy, 3600, "W h"),
 		def("kWh", Energy, 3.6e6, "kW h"),
+		def("ft lbf", Energy, poundF*foot),
+		def("in lbf", Energy, poundF*inch),
 
 		def("g", Mass, 1e-3),
 		def("kg", Mass, 1),

@@ -21,7 +21,14 @@ type Unit struct {
 	Factor float64     // SI = value*Factor + Offset
 	Offset float64     // non-zero only for degC and degF
 	Ref    PressureRef // for pressure units: what the value is measured from
+	// Standard marks a flow of standard air (SCFM, NL/min): its SI value
+	// is that of free air at the ambient pressure (see Quantity.Absolute).
+	Standard bool
 }
+
+// Vacuum reports whether u is a vacuum gauge's unit ("inHg vac"): a gauge
+// unit read downward from ambient, which its negative factor does.
+func (u Unit) Vacuum() bool { return u.Dim == Pressure && u.Factor < 0 }
 
 // toSI converts v written in u to SI. A difference (of temperature) drops
 // the offset.
@@ -49,16 +56,7 @@ func (u Unit) fromSI(si float64, difference bool) float64 {
 // uses ("PSI", "CFM", "RPM"). A failure is an *Error that suggests a
 // near-miss spelling when there is one.
 func LookupUnit(s string) (Unit, error) {
-	key := normalize(s)
-	if u, ok := unitIndex[key]; ok {
-		return u, nil
-	}
-	text := strings.TrimSpace(s)
-	e := newError(text, ": unknown unit")
-	if e.Suggest = suggest(key, nil); e.Suggest != "" {
-		e.msg += "; did you mean " + quote(e.Suggest) + "?"
-	}
-	return Unit{}, e
+	return LookupUnitAs(s, -1)
 }
 
 // normalize rewrites a unit spelling into the form used as a key of
