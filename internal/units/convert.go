@@ -12,16 +12,9 @@ import "math"
 // ("ft-lb") is read as dim. A unit of another dimension, or a result that
 // is not finite, is an error.
 func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, error) {
-	u, err := LookupUnitAs(unit, dim)
+	u, difference, err := unitAs(unit, dim)
 	if err != nil {
 		return 0, err
-	}
-	if !dim.valid() {
-		return 0, newError(unit, ": cannot show unknown "+dim.String())
-	}
-	difference, problem := readAs(u, dim)
-	if problem != "" {
-		return 0, newError(unit, problem)
 	}
 	if dim == Pressure && u.Ref != Absolute {
 		// A gauge pressure within rounding noise of ambient is zero, not
@@ -54,16 +47,9 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 // dimension dim: the inverse of FromSI (a gauge or unmarked pressure adds
 // ambient, Pa).
 func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, error) {
-	u, err := LookupUnitAs(unit, dim)
+	u, difference, err := unitAs(unit, dim)
 	if err != nil {
 		return 0, err
-	}
-	if !dim.valid() {
-		return 0, newError(unit, ": cannot read unknown "+dim.String())
-	}
-	difference, problem := readAs(u, dim)
-	if problem != "" {
-		return 0, newError(unit, problem)
 	}
 	si := u.toSI(v, difference)
 	switch {
@@ -73,6 +59,23 @@ func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, erro
 		si *= standardPressure / ambient
 	}
 	return si, nil
+}
+
+// unitAs is the unit spelled unit read as dim, and whether it reads a
+// difference (see readAs).
+func unitAs(unit string, dim Dimension) (Unit, bool, error) {
+	if !dim.valid() {
+		return Unit{}, false, newError(unit, ": cannot convert unknown "+dim.String())
+	}
+	u, err := LookupUnitAs(unit, dim)
+	if err != nil {
+		return Unit{}, false, err
+	}
+	difference, problem := readAs(u, dim)
+	if problem != "" {
+		return Unit{}, false, newError(unit, problem)
+	}
+	return u, difference, nil
 }
 
 // finite reports whether v is neither NaN nor infinite.
