@@ -53,14 +53,8 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 	}
 	// A broken block's inputs are checked too: every problem in one run.
 	set, err := cat.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
-	if parseErr != nil || err != nil {
-		var all inputerr.List
-		for _, e := range []error{parseErr, err} {
-			if e != nil {
-				all = append(all, inputerr.From(e)...)
-			}
-		}
-		fmt.Fprintln(stderr, all.Sorted())
+	if all := inputerr.Join(parseErr, err); all != nil {
+		fmt.Fprintln(stderr, all)
 		return exitBadInput
 	}
 	e, _ := set.Lookup(b.ID)

@@ -58,11 +58,18 @@ func TestCheckJSONKeepsSigns(t *testing.T) {
 }
 
 // TestAllErrorsAtOnce: one run of check reports every independent mistake
-// of testdata/bad/all-errors-at-once.txtar (four files), each once, sorted
-// by file and line, and nothing that only follows from one of them (the
-// prose quoting the broken block).
+// of testdata/bad/all-errors-*.txtar (in all-errors-at-once, four in four
+// files), each once, sorted by file and line, and nothing that only
+// follows from one of them (prose quoting a broken block, a link to a
+// page that cannot be read).
 func TestAllErrorsAtOnce(t *testing.T) {
-	c := readCase(t, filepath.Join("..", "..", "testdata", "bad", "all-errors-at-once.txtar"))
+	for _, name := range []string{"all-errors-at-once", "all-errors-unreadable-page"} {
+		t.Run(name, func(t *testing.T) { checkAllErrors(t, name) })
+	}
+}
+
+func checkAllErrors(t *testing.T, name string) {
+	c := readCase(t, filepath.Join("..", "..", "testdata", "bad", name+".txtar"))
 	files := map[string]string{}
 	for rel, data := range c.files {
 		files[rel] = string(data)

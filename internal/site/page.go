@@ -44,6 +44,9 @@ type Page struct {
 	// headings, for checking links into it.
 	links   []render.LinkRef
 	anchors map[string]bool
+	// unread marks a page that could not be read (its problem is
+	// reported): it has its place, but no content, headings or blocks.
+	unread bool
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
@@ -134,12 +137,15 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	if err != nil {
 		return nil, err
 	}
+	// A page that cannot be read still has its place, so that links to it
+	// are not blamed as well.
+	unread := &Page{File: file, Rel: rel, Out: PageOutput(file), Title: titleFromName(rel), unread: true}
 	if !utf8.Valid(src) {
-		return nil, &inputerr.Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
+		return unread, &inputerr.Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
 	}
-	fm, lines, body, offset, err := parseFrontMatter(file, src)
-	if err != nil {
-		return nil, err
+	fm, lines, body, offset, fmErr := parseFrontMatter(file, src)
+	if body == nil && fmErr != nil {
+		return unread, fmErr
 	}
 	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines}
 	doc := md.Parse(body, offset)
@@ -157,6 +163,9 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	docErr := readDoc(p, doc, cat)
 	// Until the values are known, a reference in the title reads as written.
 	p.setHeading(func(i int) string { return p.refs[i].Written })
+	if fmErr != nil {
+		return p, inputerr.Join(fmErr, docErr)
+	}
 	return p, docErr
 }
 
