@@ -63,7 +63,7 @@ func TestCheckJSONKeepsSigns(t *testing.T) {
 // follows from one of them (prose quoting a broken block, a link to a
 // page that cannot be read).
 func TestAllErrorsAtOnce(t *testing.T) {
-	for _, name := range []string{"all-errors-at-once", "all-errors-unreadable-page"} {
+	for _, name := range []string{"all-errors-at-once", "all-errors-unreadable-page", "all-errors-derive-of-broken"} {
 		t.Run(name, func(t *testing.T) { checkAllErrors(t, name) })
 	}
 }

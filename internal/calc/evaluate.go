@@ -279,6 +279,10 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	set.early = nil
 	for _, id := range ids {
+		// A block whose later step failed (its [derive]) is incomplete.
+		if failed[id] {
+			delete(set.byID, id)
+		}
 		if e, ok := set.byID[id]; ok {
 			set.Blocks = append(set.Blocks, e)
 		}
