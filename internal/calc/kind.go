@@ -318,6 +318,9 @@ type CautionNote struct {
 	Level   Level
 	Rule    string // our rule id, e.g. "no-delivery"
 	Message string
+	// Result is the result whose value raised it, which a table marks;
+	// empty when what the block is made of, not a figure, raised it.
+	Result string
 	// Acknowledged is the block's reason for accepting this caution, from
 	// its [acknowledge] table; an acknowledged caution is still shown.
 	Acknowledged string

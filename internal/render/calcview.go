@@ -38,7 +38,7 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkSkipChildren, nil
 	}
 	name := esc(n.Block + "." + n.Result)
-	text := esc(groupFigures(n.Shown))
+	text := esc(shownValue(n.Shown))
 	if n.Shown == "" {
 		// Only reachable when a page is rendered without evaluation.
 		text = "=[" + name + "]"
@@ -129,8 +129,8 @@ func writeCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 				cls, word = "sg-claim-failed", "FAILS"
 			}
 			computed := c.Shown
-			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed <q>`,
-				esc(c.Claim.Text), `</q>, computed <strong>`, esc(strings.TrimSpace(computed)), "</strong></li>\n")
+			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed `,
+				keepWithUnit(esc(display.Written(c.Claim.Text))), `, computed <strong>`, keepWithUnit(esc(shownValue(strings.TrimSpace(computed)))), "</strong></li>\n")
 		}
 		ws("</ul>\n")
 	}
@@ -164,18 +164,21 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 	}
 	for _, in := range e.Inputs {
 		value := esc(in.Text)
+		if in.Type == calc.Quantity {
+			value = esc(display.Written(in.Text))
+		}
 		switch {
 		case in.Dim == units.Pressure && in.Type == calc.Quantity:
 			unit := unitOf(in.Text)
 			if in.Default && e.Customary() {
 				unit = units.CustomaryFor(unit)
 			}
-			value = esc(display.PressurePair(in.Value, unit, e.Ambient, e.SigFigs()))
+			value = esc(shownValue(display.PressurePair(in.Value, unit, e.Ambient, e.SigFigs())))
 		case in.Default && e.Customary() && in.Type == calc.Quantity && in.Dim != units.Dimensionless:
 			// A default is written in SI; a customary block reads it in its own units.
 			if q, err := units.Parse(in.Text, in.Dim); err == nil {
 				if s, err := display.Value(in.Value, in.Dim, units.CustomaryFor(q.Unit.Symbol), e.Ambient, e.SigFigs()); err == nil {
-					value = esc(s)
+					value = esc(shownValue(s))
 				}
 			}
 		case len(in.Links) > 0:
@@ -246,13 +249,13 @@ func writeResults(w util.BufWriter, e *calc.Evaluated) {
 		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
 			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
 		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
+		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(shownValue(value))) + `</td><td>`)
 		if r.Trace.Formula != "" {
 			_, _ = w.WriteString(`<details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
 			if r.Trace.Substituted != "" {
 				_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
 			}
-			_, _ = w.WriteString(`<p><code>= ` + esc(value) + `</code></p></details>`)
+			_, _ = w.WriteString(`<p><code>= ` + esc(display.Minus(value)) + `</code></p></details>`)
 		}
 		_, _ = w.WriteString("</td></tr>\n")
 	}
@@ -276,7 +279,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		if errX != nil || errY != nil {
 			continue
 		}
-		_, _ = w.WriteString(`<tr><td class="sg-num">` + groupFigures(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + groupFigures(units.Format(y, e.SigFigs())) + "</td></tr>\n")
+		_, _ = w.WriteString(`<tr><td class="sg-num">` + shownValue(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + shownValue(units.Format(y, e.SigFigs())) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
@@ -294,9 +297,15 @@ func unitOf(text string) string {
 // block's acknowledgement when it has one.
 func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
 	word := c.Level.String()
+	// ANSI Z535 puts the safety-alert symbol before DANGER, WARNING and
+	// CAUTION only: NOTICE is no hazard to persons.
+	icon := `<span class="sg-caution-icon" aria-hidden="true"></span>`
+	if c.Level == calc.Notice {
+		icon = ""
+	}
 	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
-		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
-		`<div class="sg-caution-body"><p class="sg-caution-text">` + keepWithUnit(esc(c.Message)) + `</p>`)
+		`<p class="sg-caution-word">` + icon + word + `</p>` +
+		`<div class="sg-caution-body"><p class="sg-caution-text">` + keepWithUnit(esc(display.Minus(c.Message))) + `</p>`)
 	if c.Acknowledged != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(c.Acknowledged) + `</p>`)
 	}
@@ -331,6 +340,10 @@ func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\
 // breakable lets a long result or input name wrap after its underscores
 // in a narrow column (discharge_<wbr>temperature), not at any letter.
 func breakable(name string) string { return strings.ReplaceAll(esc(name), "_", "_<wbr>") }
+
+// shownValue is a computed value as a page shows it: long whole numbers
+// grouped, negative numbers with a minus sign.
+func shownValue(s string) string { return display.Minus(groupFigures(s)) }
 
 var figure = regexp.MustCompile(`[-\w.]*\d[\w.]*`)
 

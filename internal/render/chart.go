@@ -16,6 +16,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/units"
 )
 
@@ -281,7 +282,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 			if math.Abs(v) < step*1e-9 {
 				v = 0
 			}
-			t.Label = groupDigits(strconv.FormatFloat(v, 'f', decimals, 64))
+			t.Label = display.Minus(groupDigits(strconv.FormatFloat(v, 'f', decimals, 64)))
 		}
 		ticks = append(ticks, t)
 	}

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/inputerr"
 	"specgen/internal/render"
 	"specgen/internal/units"
@@ -336,7 +337,7 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *inputerr.Error) {
 		}
 		return fail("%v", err)
 	}
-	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
+	return refView{Shown: display.Minus(shown), Href: s.blockLink(p, ref.Block)}, nil
 }
 
 // refHint guesses what a malformed inline value meant: "did you mean
