@@ -459,3 +459,10 @@ const StandardVacuumCaution = "A vessel under vacuum carries the full weight of 
 	"Thin sheet, plastic boxes and glass can implode and throw fragments. " +
 	"The figures on this page come from simplified models and are not a certification. " +
 	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
+// StandardCautionStrip is StandardCaution in one line, for a page that
+// quotes figures of a pressure calculation held on another page.
+const StandardCautionStrip = "Compressed air can burst vessels and throw parts; these figures are no certification."
+
+// StandardVacuumCautionStrip is StandardVacuumCaution in one line.
+const StandardVacuumCautionStrip = "A vessel under vacuum can implode and throw fragments; these figures are no certification."

@@ -80,6 +80,7 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	for _, list := range doc.CautionLists() {
+		p.listsCautions = true
 		if list.Content != "" {
 			errs = append(errs, &inputerr.Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
 				Msg: "a cautions fence takes no content (the site fills it with every caution); leave it empty"})
@@ -259,12 +260,12 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 	return template.HTML(b.String())
 }
 
-// pressureCalcs reports whether a page holds, quotes or charts a
-// calculation of a kind that involves pressure, and whether all of those
-// are vacuum calculations.
-func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
+// pressureCalcs reports whether any of the blocks ids is a calculation of
+// a kind that involves pressure, and whether all of those are vacuum
+// calculations.
+func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
 	allVacuum = true
-	for _, id := range s.blocksShown(p) {
+	for _, id := range ids {
 		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
 			any = true
 			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)

@@ -44,6 +44,9 @@ type Page struct {
 	// headings, for checking links into it.
 	links   []render.LinkRef
 	anchors map[string]bool
+	// listsCautions: the page lists every caution of the site, which makes
+	// it the safety page the short standard caution links to.
+	listsCautions bool
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
