@@ -92,6 +92,7 @@ type Evaluated struct {
 	Tables   []Table
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
+	set      *Set    // the blocks evaluated with it, for its charts
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -265,6 +266,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	for _, id := range ids {
 		set.Blocks = append(set.Blocks, set.byID[id])
+		set.byID[id].set = set
 	}
 	c.applyRules(set)
 	return set, nil

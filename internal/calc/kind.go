@@ -341,6 +341,11 @@ type Outcome struct {
 	Cautions []CautionNote
 	Curves   []Curve
 	Tables   []Table
+	// What a chart is drawn with besides: the block's [show] full_range,
+	// its id, and the blocks evaluated with it (nil outside a set).
+	FullRange bool
+	ID        string
+	Set       *Set
 }
 
 // InputError is a problem with one input that its range cannot express,
