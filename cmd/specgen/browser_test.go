@@ -157,7 +157,8 @@ func TestBrowserDemo(t *testing.T) {
 		Height  float64 `json:"height"`
 		Strokes int     `json:"strokes"`
 	}
-	charts, err := chromedp.Run(ctx, chromedp.Evaluate[[]chart](`Array.from(document.querySelectorAll("svg.sg-chart-svg")).map(s => {
+	// Each chart is drawn wide and narrow; the one its width calls for shows.
+	charts, err := chromedp.Run(ctx, chromedp.Evaluate[[]chart](`Array.from(document.querySelectorAll("svg.sg-chart-svg")).filter(s => s.checkVisibility()).map(s => {
 		const r = s.getBoundingClientRect();
 		return {name: s.getAttribute("aria-labelledby").split(" ").map(id => document.getElementById(id).textContent).join(" "),
 			width: r.width, height: r.height, strokes: s.querySelectorAll("path.s0").length};

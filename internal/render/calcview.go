@@ -325,9 +325,9 @@ func writeResult(w util.BufWriter, e *calc.Evaluated, r calc.Result, m resultMar
 	_, _ = w.WriteString(`<tbody class="` + cls + `"><tr><th scope="row"><code>` + breakable(r.Name) + `</code>` + flags + meaning +
 		`</th><td class="sg-num">` + keepWithUnit(esc(shownValue(value))) + "</td></tr>\n")
 	if r.Trace.Formula != "" {
-		_, _ = w.WriteString(`<tr class="sg-work"><td colspan="2"><details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><div class="sg-trace-body"><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
+		_, _ = w.WriteString(`<tr class="sg-work"><td colspan="2"><details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><div class="sg-trace-body"><p><code>` + esc(display.Minus(r.Trace.Formula)) + `</code></p>`)
 		if r.Trace.Substituted != "" {
-			_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
+			_, _ = w.WriteString(`<p><code>` + esc(display.Minus(r.Trace.Substituted)) + `</code></p>`)
 		}
 		_, _ = w.WriteString(`<p><code>= ` + esc(display.Minus(value)) + "</code></p></div></details></td></tr>\n")
 	}

@@ -660,6 +660,9 @@ func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 			}
 			pt = pt.Add(set.Offset)
 			box := set.TextStyle[i].Rectangle(word)
+			// The halo round each word (3 px of the paper's colour) must
+			// not cover its neighbour either.
+			box.Min.X, box.Max.X = box.Min.X-wordGap, box.Max.X+wordGap
 			step := box.Max.Y - box.Min.Y + 1
 			if pt.Y > mid {
 				step = -step
@@ -677,6 +680,9 @@ func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 	}
 }
+
+// wordGap is the room, in points, kept either side of a word on a chart.
+const wordGap = 2.5
 
 func overlapsAny(r vg.Rectangle, rs []vg.Rectangle) bool {
 	for _, o := range rs {

@@ -113,8 +113,9 @@ func TestDecadeTicks(t *testing.T) {
 	}
 }
 
-// No two words of a chart overlap: tick labels, axis titles, process
-// names and mark labels, measured as gonum/plot lays them out.
+// No two words of a chart overlap, nor their halos: tick labels, axis
+// titles, process names and mark labels, measured as gonum/plot lays them
+// out.
 func TestChartWordsApart(t *testing.T) {
 	text := regexp.MustCompile(`<text x="([^"]+)" y="([^"]+)" font-size="([^"]+)">([^<]*)</text>`)
 	type box struct {
@@ -129,7 +130,8 @@ func TestChartWordsApart(t *testing.T) {
 				y, _ := strconv.ParseFloat(m[2], 64)
 				size, _ := strconv.ParseFloat(m[3], 64)
 				w, h, d := chartText.Box(m[4], font.From(plot.DefaultFont, vg.Length(size)))
-				b := box{m[4], x, x + float64(w), y - float64(h-d), y + float64(d)}
+				// The words' halos, 1.5 points either side, must not touch.
+				b := box{m[4], x - 1.5, x + float64(w) + 1.5, y - float64(h-d), y + float64(d)}
 				for _, o := range boxes {
 					if b.minX < o.maxX && o.minX < b.maxX && b.minY < o.maxY && o.minY < b.maxY {
 						t.Errorf("%s: %q overlaps %q", c.Name, b.word, o.word)
