@@ -71,6 +71,9 @@ func (v Value) Deps() []string {
 type Show struct {
 	Outputs []Output
 	Charts  []string
+	// FullRange: charts over an operating condition (a stage's discharge
+	// pressure) span all of it, to dead-head, not the working range.
+	FullRange bool
 }
 
 // Output is one entry of [show] outputs: a result and the unit to show it in.

@@ -93,6 +93,7 @@ type Evaluated struct {
 	Tables   []Table
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
+	set      *Set    // the blocks evaluated with it, for its charts
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -284,6 +285,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			delete(set.byID, id)
 		}
 		if e, ok := set.byID[id]; ok {
+			e.set = set
 			set.Blocks = append(set.Blocks, e)
 		}
 	}

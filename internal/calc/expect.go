@@ -490,9 +490,17 @@ func (b *Block) decodeShow(v any) inputerr.List {
 		key := "show." + k
 		line := b.lineOf(key)
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		if k == "full_range" {
+			full, isBool := table[k].(bool)
+			if !isBool {
+				fail(fmt.Sprintf("%s is not true or false; write full_range = true for charts over the whole range, to dead-head", TOMLText(table[k])))
+			}
+			b.Show.FullRange = full
+			continue
+		}
 		list, isList := table[k].([]any)
 		if k != "outputs" && k != "charts" {
-			fail("unknown key; [show] takes outputs and charts")
+			fail("unknown key; [show] takes outputs, charts and full_range")
 			continue
 		}
 		if !isList {

@@ -326,6 +326,9 @@ type CautionNote struct {
 	Level   Level
 	Rule    string // our rule id, e.g. "no-delivery"
 	Message string
+	// Result is the result whose value raised it, which a table marks;
+	// empty when what the block is made of, not a figure, raised it.
+	Result string
 	// Acknowledged is the block's reason for accepting this caution, from
 	// its [acknowledge] table; an acknowledged caution is still shown.
 	Acknowledged string
@@ -346,6 +349,11 @@ type Outcome struct {
 	Cautions []CautionNote
 	Curves   []Curve
 	Tables   []Table
+	// What a chart is drawn with besides: the block's [show] full_range,
+	// its id, and the blocks evaluated with it (nil outside a set).
+	FullRange bool
+	ID        string
+	Set       *Set
 }
 
 // InputError is a problem with one input that its range cannot express,

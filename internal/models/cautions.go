@@ -91,13 +91,13 @@ func hotDischarge(s *calc.Set) []calc.Raised {
 				e.Show(limit, units.Temperature, "degC"), "typical value: verify for your material")
 			switch {
 			case t2.Value > limit:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: "discharge_temperature", Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
 			case t2.Value > limit-hotMargin:
 				margin := "10 K"
 				if e.WriterUnit(units.Temperature, "degC") == "degF" {
 					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
 				}
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: "discharge_temperature", Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
 			}
 		}
 	}
@@ -111,7 +111,7 @@ func hotAirRule(s *calc.Set) []calc.Raised {
 		if !ok || t2.Value <= hotAir {
 			continue
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "discharge_temperature", Message: fmt.Sprintf(
 			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
 				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
 			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
@@ -140,15 +140,15 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 			factor := units.Format(r.Value, e.SigFigs())
 			switch {
 			case r.Value < 1:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below 1: the part is expected to fail at its working load. Redesign it before it is pressurised.",
 					spec.Name, factor)}})
 			case r.Value < dangerFactor:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below %s: the part is close to failing at its working load. Redesign it before it is pressurised.",
 					spec.Name, factor, units.Format(dangerFactor, 2))}})
 			case r.Value < min:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below the site's minimum of %s for %s. Thicken or strengthen the part, or lower the pressure.",
 					spec.Name, factor, units.Format(min, 2), basis)}})
 			}
@@ -175,7 +175,7 @@ func aboveAllowable(s *calc.Set) []calc.Raised {
 		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
 			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "allowable_pressure", Message: fmt.Sprintf(
 			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
 			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
 	}
@@ -255,7 +255,7 @@ func noRelief(s *calc.Set) []calc.Raised {
 			if len(tooHigh) > 0 {
 				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
 			}
-			out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Danger, Message: msg}})
+			out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Danger, Result: "max_pressure", Message: msg}})
 		}
 	}
 	return out
@@ -284,7 +284,7 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		if named {
 			continue
 		}
-		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Result: "max_pressure", Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
 			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
 	}
@@ -318,7 +318,7 @@ func reliefBelowTarget(s *calc.Set) []calc.Raised {
 			if opens >= target {
 				continue
 			}
-			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Result: "cracking_pressure", Message: fmt.Sprintf(
 				"%s opens at %s, below the %s %s of %s, which it protects: %s never reaches it, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the allowable pressure of the parts it protects; or lower the %s.",
 				v.Block.ID, p.Show(opens, units.Pressure, "bar"), working.Name, p.Show(target, units.Pressure, "bar"), p.Block.ID,
 				p.Block.ID, p.Show(target, units.Pressure, "bar"), working.Name)}})
@@ -369,7 +369,7 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		if r.Value > storedEnergyWarning {
 			level = calc.Warning
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "stored_energy", Message: fmt.Sprintf(
 			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
 			e.Show(r.Value, units.Energy, "kJ"))}})
 	}
@@ -416,7 +416,7 @@ func fastFlywheel(s *calc.Set) []calc.Raised {
 			}
 			why = "its material (" + m.Label + ") is brittle and can burst from casting flaws well below its computed strength"
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: "rim_speed", Message: fmt.Sprintf(
 			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
 			e.Show(v.Value, units.Velocity, "m/s"), e.Show(fastRim, units.Velocity, "m/s"), why)}})
 	}
@@ -430,7 +430,7 @@ func coldExhaust(s *calc.Set) []calc.Raised {
 		if !ok || t.Value >= freezing {
 			continue
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "expansion_temperature", Message: fmt.Sprintf(
 			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
 			e.Show(t.Value, units.Temperature, "degC"))}})
 	}
@@ -459,3 +459,10 @@ const StandardVacuumCaution = "A vessel under vacuum carries the full weight of 
 	"Thin sheet, plastic boxes and glass can implode and throw fragments. " +
 	"The figures on this page come from simplified models and are not a certification. " +
 	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
+// StandardCautionStrip is StandardCaution in one line, for a page that
+// quotes figures of a pressure calculation held on another page.
+const StandardCautionStrip = "Compressed air can burst vessels and throw parts; these figures are no certification."
+
+// StandardVacuumCautionStrip is StandardVacuumCaution in one line.
+const StandardVacuumCautionStrip = "A vessel under vacuum can implode and throw fragments; these figures are no certification."

@@ -228,7 +228,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		out.Curves = compressorCurves(cyc, c, gas, steps)
 	}
 	if !delivers {
-		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Danger, Rule: "no-delivery", Message: fmt.Sprintf(
+		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Danger, Rule: "no-delivery", Result: "volumetric_efficiency", Message: fmt.Sprintf(
 			"The discharge valve never opens: the discharge pressure %s is at or above the dead-head pressure %s "+
 				"(inlet pressure × compression ratio^n), so the cylinder delivers no air and only compresses and "+
 				"re-expands what it traps. Reduce the clearance volume or the discharge pressure.",

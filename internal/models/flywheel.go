@@ -368,7 +368,7 @@ func flywheelChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart
 		Panels: []calc.Panel{{
 			Y:      calc.Axis{Label: "Speed above mean", Dim: units.RotationalSpeed, Unit: "rpm"},
 			Series: []calc.Series{{Name: "crank speed", X: f.torque.X, Y: excess}},
-			Marks:  []calc.Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "+Cs/2"}, {Value: -half, Label: "−Cs/2"}},
+			Marks:  []calc.Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "upper limit"}, {Value: -half, Label: "lower limit"}},
 		}},
 	}, nil
 }

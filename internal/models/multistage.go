@@ -254,7 +254,11 @@ func multistageChart(name string, in *calc.Inputs, _ *calc.Outcome) (*calc.Chart
 			// The intercooler: constant pressure, down to T_ic.
 			pOut := pIn * r
 			staged.X, staged.Y = append(staged.X, pOut), append(staged.Y, m.tic)
-			marks = append(marks, calc.Mark{Value: pOut, Vertical: true, Label: fmt.Sprintf("p_%d", k+1)})
+			label := "interstage"
+			if m.stages > 2 {
+				label = fmt.Sprintf("interstage %d", k+1)
+			}
+			marks = append(marks, calc.Mark{Value: pOut, Vertical: true, Label: label})
 		}
 	}
 	single := calc.Series{Name: "one stage", Style: calc.Dashed}

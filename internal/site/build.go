@@ -17,7 +17,6 @@ import (
 
 	"specgen/internal/calc"
 	"specgen/internal/inputerr"
-	"specgen/internal/models"
 	"specgen/internal/render"
 	"specgen/internal/results"
 	"specgen/internal/version"
@@ -393,9 +392,13 @@ type PageInfo struct {
 	Content     template.HTML
 	TOC         []render.Heading // nested by level
 	TOCCount    int              // headings in the TOC, all levels
-	// Caution is the standard compressed-air caution on pages with a
-	// pressure calculation, else empty.
+	// Caution is the standard compressed-air caution: the box on pages
+	// that hold a pressure calculation, a one-line strip on pages that
+	// only quote or chart one, else empty.
 	Caution template.HTML
+	// Alert says under the title that a block the page shows has a
+	// failed claim or an unacknowledged DANGER, else empty.
+	Alert template.HTML
 	// Cautions are the caution boxes of every block the page shows or
 	// quotes, for layouts that gather them (the spec layout).
 	Cautions template.HTML
@@ -439,6 +442,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 		Content:     template.HTML(body),
 		TOCCount:    len(doc.Headings(3)),
 		Caution:     s.standardCaution(p),
+		Alert:       s.pageAlert(p),
 		Cautions:    s.pageCautions(p),
 		TOC:         render.Nest(doc.Headings(3)),
 	}
@@ -490,17 +494,6 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}
 	return buf.Bytes(), nil
-}
-
-func (s *Site) standardCaution(p *Page) template.HTML {
-	shows, vacuum := s.pressureCalcs(p)
-	switch {
-	case !shows:
-		return ""
-	case vacuum:
-		return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
-	}
-	return template.HTML(render.StandardCautionHTML(models.StandardCaution))
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"specgen/internal/calc"
+	"specgen/internal/display"
 	"specgen/internal/inputerr"
 	"specgen/internal/render"
 	"specgen/internal/units"
@@ -81,6 +82,7 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	for _, list := range doc.CautionLists() {
+		p.listsCautions = true
 		if list.Content != "" {
 			errs = append(errs, &inputerr.Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
 				Msg: "a cautions fence takes no content (the site fills it with every caution); leave it empty"})
@@ -274,12 +276,12 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 	return template.HTML(b.String())
 }
 
-// pressureCalcs reports whether a page holds, quotes or charts a
-// calculation of a kind that involves pressure, and whether all of those
-// are vacuum calculations.
-func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
+// pressureCalcs reports whether any of the blocks ids is a calculation of
+// a kind that involves pressure, and whether all of those are vacuum
+// calculations.
+func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
 	allVacuum = true
-	for _, id := range s.blocksShown(p) {
+	for _, id := range ids {
 		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
 			any = true
 			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)
@@ -352,7 +354,7 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *inputerr.Error) {
 		}
 		return fail("%v", err)
 	}
-	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
+	return refView{Shown: display.Minus(shown), Href: s.blockLink(p, ref.Block)}, nil
 }
 
 // refHint guesses what a malformed inline value meant: "did you mean

@@ -47,6 +47,9 @@ type Page struct {
 	// unread marks a page that could not be read (its problem is
 	// reported): it has its place, but no content, headings or blocks.
 	unread bool
+	// listsCautions: the page lists every caution of the site, which makes
+	// it the safety page the short standard caution links to.
+	listsCautions bool
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
