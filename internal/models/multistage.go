@@ -59,8 +59,15 @@ Assumptions
   pressure to T_ic (default T1: perfect intercooling).
 - Equal stage pressure ratios. With perfect intercooling this is the split
   that needs least total work (set the derivative of the total work with
-  respect to each interstage pressure to zero). With T_ic ≠ T1 it is close to,
-  but not exactly, the optimum.
+  respect to each interstage pressure to zero). With T_ic ≠ T1 equal ratios
+  are close to, but not exactly, the least work: for two stages the same
+  derivative gives T1·r1^((n−1)/n) = T_ic·r2^((n−1)/n), that is
+    r1/r2 = (T_ic/T1)^(n/(n−1))
+  so a warm intercooler (T_ic > T1) moves ratio to the first stage and the
+  best interstage pressure up.
+- This is the ideal split study. The pressures built cylinders run at are
+  where the first stage's delivered mass equals what the next draws in; the
+  machine kind solves them from the stage blocks (specgen explain machine).
 - Air is an ideal gas with R = 287.05 J/(kg K) (dry air, ISO 2533). Above
   about 50 bar real air departs from it by a few per cent and more (its
   compressibility factor; common practice), which is not modelled: the
