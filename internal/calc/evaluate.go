@@ -75,6 +75,9 @@ type InputValue struct {
 	From    string // "=id.result" when the value came from another block
 	Type    InputType
 	Links   []string // the blocks a Link or LinkList input names
+	// Values are the values of a List input written as a list (Value is
+	// the first); nil otherwise.
+	Values []float64
 	// Label says what a Name input's choice stands for; Written is the
 	// text as written when it named the choice another way ("nylon").
 	Label, Written string
@@ -88,12 +91,15 @@ func (e *Evaluated) linked() *Linked {
 		l.Results[r.Name] = r.Value
 	}
 	for _, in := range e.Inputs {
-		switch in.Type {
-		case Quantity:
+		switch {
+		case in.Type == Quantity && in.Values == nil:
 			l.Inputs[in.Name] = in.Value
-		case Name:
+		case in.Type == Name:
 			l.Names[in.Name] = in.Text
 		}
+	}
+	if e.in != nil {
+		l.Links = e.in.links
 	}
 	return l
 }
@@ -455,7 +461,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			e.Ambient = q.Value
 		}
 	}
-	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
+	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	for _, spec := range b.Kind.Inputs {
@@ -505,6 +511,14 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			}
 			in.SetLinks(spec.Name, linked)
 			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Type: spec.Type, Links: v.Links})
+			continue
+		}
+		if given && len(v.Items) > 0 {
+			vs, ok := readList(spec, v, e.Ambient, opts.SigFigs, systems, fail)
+			if ok {
+				e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Value: vs[0], Values: vs, Dim: spec.Dim})
+				in.SetList(spec.Name, vs)
+			}
 			continue
 		}
 		text := spec.Default
@@ -595,6 +609,27 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		return nil, err
 	}
 	return e, nil
+}
+
+// readList parses the items of a List input written as a list, each in
+// range, counting the unit systems they are written in.
+func readList(spec InputSpec, v Value, ambient float64, sigFigs int, systems map[units.UnitSystem]int, fail func(key string, line int, msg string)) ([]float64, bool) {
+	vs := make([]float64, 0, len(v.Items))
+	for _, item := range v.Items {
+		q, err := units.Parse(item, spec.Dim)
+		if err != nil {
+			fail(spec.Name, v.Line, err.Error())
+			return nil, false
+		}
+		value := q.Absolute(ambient)
+		if !spec.Range.Contains(value) {
+			fail(spec.Name, v.Line, fmt.Sprintf("%q is out of range; allowed: %s", item, describeRange(spec, q.Unit.Symbol, ambient, sigFigs)))
+			return nil, false
+		}
+		systems[units.SystemOf(q.Unit.Symbol)]++
+		vs = append(vs, value)
+	}
+	return vs, true
 }
 
 // checkShownComputed checks that every result [show] outputs names was

@@ -100,6 +100,10 @@ type InputSpec struct {
 	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr"):
 	// for vacuum targets, where a gauge reading is a mistake.
 	Absolute bool
+	// List lets a Quantity input take a list of values as well as one
+	// value (a temperature for every intercooler, or one for each); the
+	// model reads them with ValuesOf.
+	List bool
 	// LinkRoles are the roles of the blocks a Link or LinkList input may
 	// name, any one of them; zero allows any block.
 	LinkRoles Role
@@ -164,6 +168,7 @@ type ResultSpec struct {
 type Inputs struct {
 	Ambient float64 // ambient pressure, Pa absolute
 	values  map[string]float64
+	lists   map[string][]float64 // List inputs given as a list
 	given   map[string]bool
 	names   map[string]string
 	links   map[string][]*Linked
@@ -177,7 +182,7 @@ type Inputs struct {
 // NewInputs returns inputs with no values yet, at an ambient pressure (Pa
 // absolute) in the site settings env, for evaluating a kind directly.
 func NewInputs(ambient float64, env any) *Inputs {
-	return &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+	return &Inputs{Ambient: ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: env}
 }
 
@@ -228,6 +233,10 @@ type Linked struct {
 	Inputs   map[string]float64 // SI, with defaults
 	Names    map[string]string
 	Curves   []Curve
+	// Links are the blocks its own Link and LinkList inputs name, by key,
+	// as it saw them: a receiver filled from a machine reaches the
+	// machine's stages through them.
+	Links map[string][]*Linked
 }
 
 // Set stores a value; given says whether the user wrote it (not a default).
@@ -236,12 +245,33 @@ func (in *Inputs) Set(name string, v float64, given bool) {
 	in.given[name] = given
 }
 
+// SetList stores a List input given as a list of SI values.
+func (in *Inputs) SetList(name string, vs []float64) {
+	in.lists[name] = vs
+	in.given[name] = true
+}
+
 // Value returns an input's SI value (0 when absent).
 func (in *Inputs) Value(name string) float64 { return in.values[name] }
+
+// ValuesOf returns a List input's values: the list as given, or its one
+// value; nil when absent.
+func (in *Inputs) ValuesOf(name string) []float64 {
+	if vs, ok := in.lists[name]; ok {
+		return vs
+	}
+	if v, ok := in.values[name]; ok {
+		return []float64{v}
+	}
+	return nil
+}
 
 // Has reports whether the input has a value, given or default.
 func (in *Inputs) Has(name string) bool {
 	if _, ok := in.values[name]; ok {
+		return true
+	}
+	if _, ok := in.lists[name]; ok {
 		return true
 	}
 	_, ok := in.names[name]
