@@ -98,9 +98,7 @@ func (e *Evaluated) linked() *Linked {
 			l.Names[in.Name] = in.Text
 		}
 	}
-	if e.in != nil {
-		l.Links = e.in.links
-	}
+	l.Model = e.in
 	return l
 }
 
@@ -250,7 +248,7 @@ func dependsOnFailed(b *Block, failed map[string]bool) bool {
 func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
 	var out []string
 	for _, id := range ids {
-		if t := byID[id]; t != b && (in.LinkRoles == 0 || t.Kind.Roles&in.LinkRoles != 0) {
+		if t := byID[id]; t != b && in.Accepts(t.Kind) {
 			out = append(out, id)
 		}
 	}
@@ -277,8 +275,8 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 					fail(msg)
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
-				case in.LinkRoles != 0 && target.Kind.Roles&in.LinkRoles == 0:
-					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsWith(in.LinkRoles), " or "))
+				case !in.Accepts(target.Kind):
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsAccepted(in), " or "))
 					if target.Kind.LinkHint != "" {
 						msg += " (" + target.Kind.LinkHint + ")"
 					}

@@ -66,6 +66,15 @@ const (
 // Has reports whether the kind plays every role in r.
 func (k *Kind) Has(r Role) bool { return k.Roles&r == r }
 
+// Accepts reports whether a Link or LinkList input may name a block of
+// kind k.
+func (in InputSpec) Accepts(k *Kind) bool {
+	if in.LinkAll {
+		return k.Has(in.LinkRoles)
+	}
+	return in.LinkRoles == 0 || k.Roles&in.LinkRoles != 0
+}
+
 // WorkingPressure names a kind's working-pressure input and how messages
 // call it ("target pressure").
 type WorkingPressure struct {
@@ -105,8 +114,9 @@ type InputSpec struct {
 	// model reads them with ValuesOf.
 	List bool
 	// LinkRoles are the roles of the blocks a Link or LinkList input may
-	// name, any one of them; zero allows any block.
+	// name, any one of them (every one with LinkAll); zero allows any block.
 	LinkRoles Role
+	LinkAll   bool
 	// Choices lists the values a Name input allows (for messages and
 	// checks); nil allows any non-empty name the model checks itself.
 	Choices func(env any) []string
@@ -233,10 +243,11 @@ type Linked struct {
 	Inputs   map[string]float64 // SI, with defaults
 	Names    map[string]string
 	Curves   []Curve
-	// Links are the blocks its own Link and LinkList inputs name, by key,
-	// as it saw them: a receiver filled from a machine reaches the
-	// machine's stages through them.
-	Links map[string][]*Linked
+	// Model is what its model saw: every input, lists and links
+	// included, for a model that evaluates it again under other
+	// conditions (a receiver filled from a machine re-solves the machine
+	// at each tank pressure). Nil once the block is released.
+	Model *Inputs
 }
 
 // Set stores a value; given says whether the user wrote it (not a default).

@@ -36,7 +36,7 @@ func listCatalog(t *testing.T) *Catalog {
 		Results: []ResultSpec{{Name: "reached", Dim: units.Dimensionless}},
 		Evaluate: func(in *Inputs) (*Outcome, error) {
 			n := 0
-			for _, l := range in.LinkOf("via").Links["of"] {
+			for _, l := range in.LinkOf("via").Model.LinksOf("of") {
 				n += len(l.ID)
 			}
 			return &Outcome{Results: []Result{{Name: "reached", Value: float64(n), Dim: units.Dimensionless}}}, nil
@@ -100,9 +100,9 @@ func TestListInput(t *testing.T) {
 	}
 }
 
-// TestLinkedLinks checks that a block sees, through a block it links to,
-// the blocks that one links to.
-func TestLinkedLinks(t *testing.T) {
+// TestLinkedModel checks that a block sees, through a block it links to,
+// what that block's model saw: here, the blocks it links to.
+func TestLinkedModel(t *testing.T) {
 	set, err := evaluateSrcs(t, listCatalog(t),
 		"id = \"x1\"\nkind = \"test-sum\"\nt = \"300 K\"\n",
 		"id = \"yy2\"\nkind = \"test-sum\"\nt = \"300 K\"\n",
