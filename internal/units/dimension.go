@@ -36,6 +36,9 @@ const (
 	MassFlow
 	SpecificEnergy
 	Inertia
+	// SpecificPower is shaft power per unit of volume flow delivered, J/m3
+	// in SI; kept apart from pressure, which has the same base units.
+	SpecificPower
 )
 
 // dimensionInfo holds the words used for a dimension in messages.
@@ -70,6 +73,7 @@ var dimensions = [...]dimensionInfo{
 	MassFlow:              {"mass flow", "kg/s, g/s, kg/h", "kg/s"},
 	SpecificEnergy:        {"specific energy", "J/kg, kJ/kg", "J/kg"},
 	Inertia:               {"moment of inertia", "kg m2, kg mm2", "kg m2"},
+	SpecificPower:         {"specific power", "kW/(m3/min), W/(L/min), hp/cfm", "J/m3"},
 }
 
 // valid reports whether d is one of the declared dimensions.
