@@ -462,6 +462,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
+	linkedSystems := map[bool]int{}        // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {
@@ -506,6 +507,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			for _, id := range v.Links {
 				src, _ := set.Lookup(id)
 				linked = append(linked, src.linked())
+				linkedSystems[src.customary]++
 			}
 			in.SetLinks(spec.Name, linked)
 			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Type: spec.Type, Links: v.Links})
@@ -571,6 +573,11 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		return nil, err
 	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
+	if systems[units.Customary]+systems[units.Metric] == 0 {
+		// A block that writes no unit (a machine listing its stages) reads
+		// in the units of the blocks it links to, when they agree.
+		e.customary = linkedSystems[true] > 0 && linkedSystems[false] == 0
+	}
 	in.customary = e.customary
 	out, err := b.Kind.Evaluate(in)
 	if err != nil {

@@ -53,6 +53,7 @@ var rules = []calc.Rule{
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
+	{ID: "off-design-stage", Level: calc.Notice, Summary: "a compressor block listed in a machine whose own inlet or discharge pressure lies more than 2 % (absolute) from the pressure the machine runs it at: its own results are for pressures it does not see", Check: offDesignStages},
 }
 
 // material returns the material a Name input of e names.

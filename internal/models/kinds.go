@@ -9,6 +9,7 @@ var kinds = []*calc.Kind{
 	&boltsKind,
 	&compressorKind,
 	&flywheelKind,
+	&machineKind,
 	&motorKind,
 	&multistageKind,
 	&tankKind,
