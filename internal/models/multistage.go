@@ -24,7 +24,7 @@ var multistageKind = calc.Kind{
 	}, append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index"),
 		calc.InputSpec{Name: "intercooled_temperature", Dim: units.Temperature, Optional: true, Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature leaving each intercooler; default: the inlet temperature (perfect intercooling)"},
 		calc.InputSpec{Name: "mass_flow", Dim: units.MassFlow, Optional: true, Range: positiveUpTo(1e3), Meaning: "mass of air compressed per unit time, for total_power; or give supply"},
-		calc.InputSpec{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow; or give mass_flow"},
+		calc.InputSpec{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow, or of a machine block whose mass flow it is; or give mass_flow"},
 	)...),
 	Results: append(append([]calc.ResultSpec{
 		{Name: "stage_pressure_ratio", Dim: units.Dimensionless, Unit: "", Meaning: "delivery over suction pressure of each stage, all equal"},
@@ -82,7 +82,8 @@ Model
   w_1 = n/(n−1)·R·T1·((p2/p1)^((n−1)/n) − 1)     in one stage
   (n = 1: R·T·ln r per stage)
   P = ṁ·w, with ṁ given as mass_flow, or from the supply compressor's free
-  air delivery at its inlet conditions: ṁ = FAD·p_s/(R·T_s).
+  air delivery at its inlet conditions: ṁ = FAD·p_s/(R·T_s), or a supply
+  machine's mass_flow.
   Chart: stages, the air temperature over pressure along the staged path
   (compression, then cooling at constant pressure) against one stage (dashed).`
 
@@ -140,6 +141,9 @@ func readMultistageInput(in *calc.Inputs) (multistageInput, error) {
 	case in.Has("mass_flow"):
 		m.flow = in.Value("mass_flow")
 		m.flowFrom = "ṁ given"
+	case supply != nil && supply.Results["mass_flow"] > 0:
+		m.flow = supply.Results["mass_flow"]
+		m.flowFrom = "ṁ = mass_flow of supply " + supply.ID
 	case supply != nil:
 		fad := supply.Results["free_air_delivery"]
 		ps, ts := supply.Ambient, supply.Inputs["inlet_temperature"]
