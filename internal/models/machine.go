@@ -337,21 +337,74 @@ func (m machine) solve(pd float64) machinePoint {
 	}
 	// What the first stage delivers falls as the trial flow rises, so
 	// the root is bracketed by no flow and its full displacement.
-	lo, hi := 0.0, m.stages[0].draws(m.p1, m.p1, revs)
-	for {
-		mid := (lo + hi) / 2
-		if mid <= lo || mid >= hi {
-			break
-		}
-		if back(mid) > mid {
-			lo = mid
-		} else {
-			hi = mid
-		}
-	}
-	pt.mass = lo
-	back(lo)
+	pt.mass = brentRoot(func(mdot float64) float64 { return back(mdot) - mdot }, 0, m.stages[0].draws(m.p1, m.p1, revs))
+	back(pt.mass)
 	return pt
+}
+
+// brentRoot returns the root of f between a and b, where f changes sign,
+// to the last bits of a double: Brent's method (inverse quadratic
+// interpolation, secant and bisection; R. P. Brent, Algorithms for
+// Minimization without Derivatives, ch. 4, as in Numerical Recipes'
+// zbrent).
+func brentRoot(f func(float64) float64, a, b float64) float64 {
+	fa, fb := f(a), f(b)
+	if fa == 0 {
+		return a
+	}
+	if fb == 0 || fa*fb > 0 {
+		return b
+	}
+	c, fc := b, fb
+	var d, e float64
+	for range 200 {
+		if (fb > 0) == (fc > 0) {
+			c, fc = a, fa
+			d = b - a
+			e = d
+		}
+		if math.Abs(fc) < math.Abs(fb) {
+			a, b, c = b, c, b
+			fa, fb, fc = fb, fc, fb
+		}
+		tol := 2 * 0x1p-52 * math.Abs(b)
+		half := (c - b) / 2
+		if math.Abs(half) <= tol || fb == 0 {
+			return b
+		}
+		if math.Abs(e) >= tol && math.Abs(fa) > math.Abs(fb) {
+			var p, q float64
+			s := fb / fa
+			if a == c {
+				p, q = 2*half*s, 1-s
+			} else {
+				qa, r := fa/fc, fb/fc
+				p = s * (2*half*qa*(qa-r) - (b-a)*(r-1))
+				q = (qa - 1) * (r - 1) * (s - 1)
+			}
+			if p > 0 {
+				q = -q
+			}
+			p = math.Abs(p)
+			if 2*p < math.Min(3*half*q-math.Abs(tol*q), math.Abs(e*q)) {
+				e, d = d, p/q
+			} else {
+				d, e = half, half
+			}
+		} else {
+			d, e = half, half
+		}
+		a, fa = b, fb
+		if math.Abs(d) > tol {
+			b += d
+		} else if half > 0 {
+			b += tol
+		} else {
+			b -= tol
+		}
+		fb = f(b)
+	}
+	return b
 }
 
 // deadHead is the pressure the last stage reaches with the outlet blocked:
@@ -686,4 +739,76 @@ func offDesignStages(s *calc.Set) []calc.Raised {
 		}
 	}
 	return out
+}
+
+// machineFill is a machine filling a receiver, solved again at each tank
+// pressure.
+type machineFill struct {
+	id string
+	m  machine
+}
+
+// fillTolerance is how closely the halves of an interval's fill time must
+// agree with the whole before it is taken.
+const fillTolerance = 1e-10
+
+// fillTime integrates dt = V dp / (R·T1·ṁ(p)) from pa to pb: the tank
+// holds the machine's inlet temperature.
+func (f machineFill) fillTime(v, pa, pb float64) float64 {
+	if pb <= pa {
+		return 0
+	}
+	rate := func(p float64) float64 { return v / (airGasConstant * f.m.t1 * f.m.solve(p).mass) }
+	gauss := func(a, b float64) float64 {
+		mid, half, sum := (a+b)/2, (b-a)/2, 0.0
+		for j, x := range gaussLegendre16[0] {
+			sum += gaussLegendre16[1][j] * rate(mid+half*x)
+		}
+		return half * sum
+	}
+	// Halving where the halves disagree with the whole finds the kinks
+	// where a stage's valves close and the steep rise near dead-head.
+	var refine func(a, b, whole float64, depth int) float64
+	refine = func(a, b, whole float64, depth int) float64 {
+		mid := (a + b) / 2
+		left, right := gauss(a, mid), gauss(mid, b)
+		if depth == 0 || math.Abs(left+right-whole) <= fillTolerance*math.Abs(left+right) {
+			return left + right
+		}
+		return refine(a, mid, left, depth-1) + refine(mid, b, right, depth-1)
+	}
+	return refine(pa, pb, gauss(pa, pb), 40)
+}
+
+// fillWorking is the working of the fill time from a machine.
+func (f machineFill) fillWorking(t tankInput) calc.Trace {
+	bara := display.TraceIn(t.customary, "bar(a)")
+	at := func(p float64) string { return display.Number(f.m.solve(p).mass*1e3, "g/s") }
+	return calc.Trace{
+		Formula: "t = ∫ V dp / (R · T1 · ṁ(p)) from p0 to p2, ṁ(p) the machine's mass flow solved again with the tank pressure p as its discharge (isothermal tank at the first stage's inlet temperature)",
+		Substituted: fmt.Sprintf("= ∫ %s dp / (287.05 J/(kg K) · %s · ṁ(p)) from %s to %s; machine %s: ṁ = %s at the start, %s at the target%s",
+			display.TraceIn(t.customary, "L")(t.volume), display.Number(f.m.t1, "K"), bara(t.start), bara(t.target), f.id, at(t.start), at(t.target), f.openRange(t, bara)),
+	}
+}
+
+// openRange says up to which tank pressure a later stage's valves stand
+// open during the fill, if they do.
+func (f machineFill) openRange(t tankInput, bara func(float64) string) string {
+	opens := func(p float64) bool { return slices.Contains(f.m.solve(p).open, true) }
+	if !opens(t.start) {
+		return ""
+	}
+	if opens(t.target) {
+		return "; the later stages' valves stand open all the way"
+	}
+	lo, hi := t.start, t.target
+	for range 60 {
+		mid := (lo + hi) / 2
+		if opens(mid) {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return "; a later stage's valves stand open up to about " + bara(hi)
 }

@@ -282,3 +282,70 @@ func TestMachineInputErrors(t *testing.T) {
 		wantInputError(t, c.changes, c.key, c.says, site)
 	}
 }
+
+// linkedBlock returns the block e's link input key names.
+func linkedBlock(t *testing.T, set *calc.Set, e *calc.Evaluated, key string) *calc.Evaluated {
+	t.Helper()
+	for _, in := range e.Inputs {
+		if in.Name == key && len(in.Links) == 1 {
+			if l, ok := set.Lookup(in.Links[0]); ok {
+				return l
+			}
+		}
+	}
+	t.Fatalf("block %s links no block in %s", e.Block.ID, key)
+	return nil
+}
+
+// machineMidpointFill integrates dt = V·dp/(R·T1·ṁ(p)) from p0 to p2 by
+// the midpoint rule in equal pressure steps, with ṁ(p) the test's own
+// bisection of the two-stage machine at each tank pressure p.
+func machineMidpointFill(v, p0, p2 float64, m testMachine) float64 {
+	const steps = 20_000
+	h := (p2 - p0) / steps
+	t := 0.0
+	for i := range steps {
+		_, mdot := bisectTwoStage(m, p0+(float64(i)+0.5)*h)
+		t += v * h / (testAirR * m.stages[0].temp * mdot)
+	}
+	return t
+}
+
+// TestMachineFillBounds: a receiver filled by a machine with no
+// intercooler drop fills no slower than from its first stage alone
+// compressing straight into the tank (the first stage then delivers
+// against the tank pressure, never less than against the interstage), and
+// no faster than at the first stage's full displacement,
+// t ≥ V·Δp/(p1·V̇d,1), the tank at the inlet temperature. The single
+// stage's fill is the test's own midpoint integration.
+func TestMachineFillBounds(t *testing.T) {
+	for _, c := range []struct{ start, target string }{
+		{"0 bar", "8 bar"}, {"0 bar", "1 bar"}, {"3 bar", "9 bar"}, {"6 bar", "6.5 bar"},
+	} {
+		set, err := evaluateBlocks(t, []map[string]any{
+			{"id": "lp", "kind": "compressor", "bore": "60 mm", "stroke": "40 mm", "rod_length": "100 mm", "clearance_volume": "4.5 cm3",
+				"speed": "800 rpm", "discharge_pressure": "2.2 bar"},
+			{"id": "hp", "kind": "compressor", "bore": "35 mm", "stroke": "40 mm", "rod_length": "100 mm", "clearance_volume": "1.5 cm3",
+				"speed": "800 rpm", "inlet_pressure": "2.2 bar", "inlet_temperature": "40 degC", "discharge_pressure": "9 bar"},
+			{"id": "bench", "kind": "machine", "stages": []any{"lp", "hp"}},
+			{"id": "rx", "kind": "tank", "volume": "25 L", "pressure": c.target, "start_pressure": c.start, "supply": "bench"},
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		rx, _ := set.Lookup("rx")
+		lp, _ := set.Lookup("lp")
+		fill, _ := rx.Result("fill_time")
+		v, _ := inputValue(t, rx, "volume")
+		p0, _ := inputValue(t, rx, "start_pressure")
+		p2, _ := inputValue(t, rx, "pressure")
+		rate, _ := lp.Result("displacement_rate")
+		cr, _ := lp.Result("clearance_ratio")
+		n, _ := inputValue(t, lp, "polytropic_index")
+		alone := midpointFill(v, p0, p2, rate.Value, cr.Value, n, lp.Ambient)
+		fastest := v * (p2 - p0) / (lp.Ambient * rate.Value)
+		if !(fill.Value <= alone*(1+1e-9) && fill.Value >= fastest) {
+			t.Errorf("%s to %s: fill %g s, want between %g s (full displacement) and %g s (the first stage alone)", c.start, c.target, fill.Value, fastest, alone)
+		}
+	}
+}
