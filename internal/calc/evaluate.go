@@ -462,7 +462,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
-	linkedSystems := map[bool]int{}        // of the blocks it links to, by Customary
+	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {

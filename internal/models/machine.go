@@ -30,9 +30,9 @@ var machineKind = calc.Kind{
 		{Name: "pressure_drop", Dim: units.Stress, Optional: true, List: true, Range: calc.Between(0, 1e8),
 			Meaning: "pressure lost in the intercoolers, one for all or a list with one per intercooler; default: none"},
 	},
-	Results: machineResults(),
-	Charts:  []string{"torque"},
-	Chart:   machineChart,
+	Results:  machineResults(),
+	Charts:   []string{"torque"},
+	Chart:    machineChart,
 	Evaluate: evaluateMachine,
 }
 
