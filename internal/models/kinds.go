@@ -8,6 +8,7 @@ var kinds = []*calc.Kind{
 	&balanceKind,
 	&boltsKind,
 	&compressorKind,
+	&driveKind,
 	&flywheelKind,
 	&machineKind,
 	&motorKind,

@@ -98,7 +98,8 @@ Results
   with stage k reaching top dead centre at its block's phase, or, when no
   stage gives one, at 360°·(k−1)/S. mean_torque = Σ P_i,k/ω;
   peak_torque and energy_fluctuation as the compressor kind. Chart:
-  torque, the sum and each stage over one revolution.
+  torque, the sum and each stage over one revolution, peak and mean
+  marked.
 
 Assumptions and limits
 - The stages' ideal cycles: no valve pressure drop or throttling, no
@@ -681,7 +682,7 @@ func machineChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart,
 		Panels: []calc.Panel{{
 			Y:      calc.Axis{Label: "Torque on the crankshaft", Dim: units.Torque, Unit: "N m"},
 			Series: series,
-			Marks:  []calc.Mark{{Value: out.ResultValue("mean_torque"), Label: "mean"}},
+			Marks:  []calc.Mark{{Value: out.ResultValue("peak_torque"), Label: "peak"}, {Value: out.ResultValue("mean_torque"), Label: "mean"}},
 		}},
 	}, nil
 }

@@ -283,11 +283,12 @@ func TestMachineInputErrors(t *testing.T) {
 	}
 }
 
-// linkedBlock returns the block e's link input key names.
+// linkedBlock returns the block e's link input key names, the first of a
+// list.
 func linkedBlock(t *testing.T, set *calc.Set, e *calc.Evaluated, key string) *calc.Evaluated {
 	t.Helper()
 	for _, in := range e.Inputs {
-		if in.Name == key && len(in.Links) == 1 {
+		if in.Name == key && len(in.Links) > 0 {
 			if l, ok := set.Lookup(in.Links[0]); ok {
 				return l
 			}

@@ -17,7 +17,7 @@ var multistageKind = calc.Kind{
 	Summary:  "N compression stages with intercooling: interstage pressures, discharge temperature, specific work and power against one stage",
 	Doc:      multistageDoc,
 	Roles:    calc.HoldsPressure,
-	LinkHint: "a multistage block has no cylinders: name the compressor block of the stage that delivers",
+	LinkHint: "a multistage block has no cylinders: name the compressor block of the stage that delivers, or the machine block",
 	Inputs: append([]calc.InputSpec{
 		{Name: "stages", Dim: units.Dimensionless, Range: calc.Between(2, maxStages), Meaning: "number of compression stages, a whole number 2 to 6"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the last stage delivers against, up to 1 GPa"},
