@@ -115,9 +115,9 @@ Chart: speed, the crank speed over a revolution,
 // flywheelInput is a flywheel block's inputs in SI.
 type flywheelInput struct {
 	sources  []*calc.Linked
-	names    string // the sources' ids, for traces
-	cs       float64 // given, when sizing
-	diameter float64 // given, when checking
+	names    string     // the sources' ids, for traces
+	cs       float64    // given, when sizing
+	diameter float64    // given, when checking
 	omega    float64    // mean crank speed, rad/s
 	torque   calc.Curve // the source's load torque over one revolution
 	density  float64
