@@ -104,7 +104,8 @@ Torque
   curve; it is not in the results, nor in the peak piston force.
   Curves: pv (one cylinder, with the isothermal compression line dashed for
   comparison); gas_torque, inertia_torque and total_torque (all cylinders,
-  over crank angle).
+  over crank angle). phase plays no part here: a machine block that lists
+  the stage reads it to place the stage on its crank.
 
 Limits
 - When p2 ≥ p_max the discharge valve never opens: volumetric efficiency,

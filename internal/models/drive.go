@@ -105,6 +105,9 @@ the terminals during the start (a long or thin supply cable, a weak
 supply) leaves 81 % of it.
 
 Limits
+- The load's power and torque are its ideal cycle's: valve losses and heat
+  pick-up at suction are not modelled, so a real machine delivers less and
+  needs somewhat more; read motor_load_fraction as a lower bound.
 - The belt's slip and efficiency are fixed figures; both vary with belt
   tension and load. Belt speed above 30 m/s is a WARNING for classical
   V-belt sections (common practice).
@@ -189,19 +192,21 @@ func evaluateDrive(in *calc.Inputs) (*calc.Outcome, error) {
 		rpm               = func(w float64) string { return display.Number(w*30/math.Pi, "rpm") }
 		num               = func(v float64) string { return display.Number(v, "") }
 	)
+	// The speed, ratio and torque come from the drive's own inputs; only
+	// the load fraction and the start need the load.
+	crank := motorSpeed * d1 / d2 * (1 - slip)
+	ratio := d2 / d1
+	belt := motorSpeed * d1 / 2
+	rated := power / motorSpeed
 	ld, err := readLoad(in.LinkOf("load"))
 	if err != nil {
 		return nil, &calc.InputError{Key: "load", Message: err.Error()}
 	}
-	crank := motorSpeed * d1 / d2 * (1 - slip)
 	if math.Abs(ld.omega/crank-1) > speedAgreement {
 		return nil, &calc.InputError{Key: "load", Message: fmt.Sprintf(
 			"%s turns at %s, but the drive turns the crank at %s (%s · %s / %s · (1 − %s)); the blocks of the load must turn at the drive's crank speed, within 0.5 %%: change the pulleys or the load's speed",
 			ld.blocks, rpm(ld.omega), rpm(crank), rpm(motorSpeed), mm(d1), mm(d2), num(slip))}
 	}
-	ratio := d2 / d1
-	belt := motorSpeed * d1 / 2
-	rated := power / motorSpeed
 	fraction := ld.shaft / (etaBelt * power)
 	res := []calc.Result{
 		{Name: "crank_speed", Value: crank, Dim: units.RotationalSpeed, Trace: calc.Trace{Formula: "n_c = n_m · d1/d2 · (1 − s)",

@@ -67,8 +67,9 @@ Model
   stage k's discharge, and stage k+1 draws at that less the intercooler's
   pressure_drop. They are solved, not chosen: for a trial ṁ the suction
   pressure of each stage from the last back follows from its discharge
-  (ṁ_k rises with p_s,k, so one root), and ṁ is found by bisection where
-  the first stage delivers exactly ṁ from the machine's inlet.
+  (ṁ_k rises with p_s,k, so one root, found by Newton's method), and ṁ
+  is found by Brent's method where the first stage delivers exactly ṁ
+  from the machine's inlet.
 - Open valves: when the discharge pressure is so low that a later stage
   would need a pressure ratio below 1 to pass the flow (the tank is nearly
   empty), its valves stand open. Its suction pressure equals its
