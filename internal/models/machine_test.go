@@ -350,3 +350,38 @@ func TestMachineFillBounds(t *testing.T) {
 		}
 	}
 }
+
+// TestMachineReadsInItsStagesUnits: a machine block that writes no unit
+// of its own shows its figures in its stages' units, customary here.
+func TestMachineReadsInItsStagesUnits(t *testing.T) {
+	stage := func(id, bore, inlet, discharge string) map[string]any {
+		b := map[string]any{"id": id, "kind": "compressor", "bore": bore, "stroke": "1.5 in", "rod_length": "4 in",
+			"clearance_volume": "0.2 in3", "speed": "1000 rpm", "discharge_pressure": discharge, "inlet_temperature": "68 degF"}
+		if inlet != "" {
+			b["inlet_pressure"] = inlet
+		}
+		return b
+	}
+	for _, c := range []struct {
+		machine map[string]any
+		want    map[string]string
+	}{
+		{map[string]any{"id": "m", "kind": "machine", "stages": []any{"lp", "hp"}},
+			map[string]string{"free_air_delivery": "cfm", "interstage_pressure_1": "psig", "discharge_temperature_1": "°F", "shaft_power": "hp", "specific_power": "hp/cfm"}},
+		// A unit of its own, metric, takes precedence.
+		{map[string]any{"id": "m", "kind": "machine", "stages": []any{"lp", "hp"}, "pressure_drop": "0.1 bar"},
+			map[string]string{"free_air_delivery": "L/min", "shaft_power": "W"}},
+	} {
+		set, err := evaluateBlocks(t, []map[string]any{stage("lp", "2.5 in", "", "30 psi"), stage("hp", "1.5 in", "30 psi", "125 psi"), c.machine})
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, _ := set.Lookup("m")
+		for name, unit := range c.want {
+			got, err := m.Format(name, "")
+			if err != nil || !strings.HasSuffix(got, " "+unit) {
+				t.Errorf("%v: %s shows as %q (%v), want it in %s", c.machine, name, got, err, unit)
+			}
+		}
+	}
+}
