@@ -164,15 +164,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 	isoPower := z * polytropicWork(c.p1, vi, r, 1) * revs
 	meanTorque := work / (2 * math.Pi)
 
-	cyc := newIndicatorCycle(indicatorCycle{
-		crank:     sliderCrank{r: c.crankRadius, l: c.rod},
-		area:      area,
-		clearance: c.clearanceVolume,
-		p1:        c.p1,
-		p2:        c.p2,
-		n:         c.n,
-		ambient:   c.ambient,
-	})
+	cyc := c.cycleAt(c.p1, c.p2)
 	steps := crankSteps(c.cylinders)
 	gasOne := sampleRevolution(steps, cyc.gasTorque)
 	gas := phaseSum(gasOne, c.cylinders)

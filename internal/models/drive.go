@@ -156,10 +156,7 @@ func readLoad(l *calc.Linked) (driveLoad, error) {
 		}
 		ld.omega, ld.discharge = c.omega, c.p2
 		ld.peakGasTorque = func(p float64) float64 {
-			cyc := newIndicatorCycle(indicatorCycle{crank: sliderCrank{r: c.crankRadius, l: c.rod}, area: math.Pi / 4 * c.bore * c.bore,
-				clearance: c.clearanceVolume, p1: c.p1, p2: p, n: c.n, ambient: c.ambient})
-			steps := crankSteps(c.cylinders)
-			return slices.Max(phaseSum(sampleRevolution(steps, cyc.gasTorque), c.cylinders))
+			return slices.Max(phaseSum(sampleRevolution(crankSteps(c.cylinders), c.cycleAt(c.p1, p).gasTorque), c.cylinders))
 		}
 	}
 	ld.friction = ld.shaft/ld.omega - l.Results["mean_torque"]

@@ -445,15 +445,7 @@ func (m machine) stageTorques(pt machinePoint, steps int) [][]float64 {
 	out := make([][]float64, len(m.stages))
 	for k, s := range m.stages {
 		c := s.cyl
-		cyc := newIndicatorCycle(indicatorCycle{
-			crank:     sliderCrank{r: c.crankRadius, l: c.rod},
-			area:      math.Pi / 4 * c.bore * c.bore,
-			clearance: c.clearanceVolume,
-			p1:        pt.suction[k],
-			p2:        pt.delivery[k],
-			n:         c.n,
-			ambient:   m.ambient,
-		})
+		cyc := c.cycleAt(pt.suction[k], pt.delivery[k])
 		z := float64(c.cylinders)
 		out[k] = sampleRevolution(steps, func(theta float64) float64 {
 			t := 0.0
