@@ -91,7 +91,9 @@ Starting
   torque: its shaft over its indicated power, at its own speed.
   Below 1.2 the start is a WARNING, below 1.0 a DANGER: the motor stalls
   on a loaded start. Without starting_torque the start is not checked and
-  a NOTICE says so.
+  a NOTICE says so. When the start is checked against the discharge
+  pressure while a relief valve on the load, one of its stages or the
+  receiver it fills opens higher, a NOTICE names that valve.
 
 Typical starting torque of small motors, as a multiple of rated torque
 (from memory; the motor's plate or data sheet governs):
@@ -283,4 +285,62 @@ func startPressure(in *calc.Inputs, ld driveLoad) (float64, string, error) {
 		return v.Ambient + v.Results["cracking_pressure"], "where relief valve " + v.ID + " opens", nil
 	}
 	return ld.discharge, "the discharge pressure of " + ld.id, nil
+}
+
+// unnamedRelief raises a NOTICE on a drive whose start is checked against
+// its load's discharge pressure while a relief valve on the load, one of
+// its stages or the receiver it fills opens higher: with the unloader or
+// pressure switch failed, the load starts against that valve's setting.
+func unnamedRelief(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, d := range s.Blocks {
+		in := d.ModelInputs()
+		if _, checked := d.Result("starting_margin"); !checked || in == nil || in.LinkOf("relief") != nil || in.NameOf("unloaded_start") == "true" {
+			continue
+		}
+		ld, err := readLoad(in.LinkOf("load"))
+		if err != nil {
+			continue
+		}
+		fed := map[string]bool{ld.id: true}
+		if m, isMachine, _ := linkedMachine(in.LinkOf("load")); isMachine {
+			for _, st := range m.stages {
+				fed[st.id] = true
+			}
+		}
+		for _, e := range s.Blocks {
+			if l := receiverSupply(e); e.Block.Kind.Has(calc.Receiver) && l != nil && fed[l.ID] {
+				fed[e.Block.ID] = true
+			}
+		}
+		var highest *calc.Evaluated
+		top := ld.discharge
+		for _, v := range s.Blocks {
+			crack, ok := v.Result("cracking_pressure")
+			if !ok || !v.Block.Kind.Has(calc.Relieves) || v.ModelInputs() == nil || v.Ambient+crack.Value <= top {
+				continue
+			}
+			for _, p := range v.ModelInputs().LinksOf("protects") {
+				if fed[p.ID] {
+					highest, top = v, v.Ambient+crack.Value
+					break
+				}
+			}
+		}
+		if highest == nil {
+			continue
+		}
+		out = append(out, calc.Raised{Block: d, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
+			"The start is checked against %s, the discharge pressure of %s, but relief valve %s on it opens at %s: if the pressure switch or the unloader fails, %s starts against that. Name the valve in relief = %q to check that start, or give unloaded_start = true if an unloader vents the cylinders before every start.",
+			d.Show(ld.discharge, units.Pressure, "bar"), ld.id, highest.Block.ID, d.Show(top, units.Pressure, "bar"), ld.id, highest.Block.ID)}})
+	}
+	return out
+}
+
+// receiverSupply is the block a receiver is filled from, or nil.
+func receiverSupply(e *calc.Evaluated) *calc.Linked {
+	if e.ModelInputs() == nil {
+		return nil
+	}
+	return e.ModelInputs().LinkOf("supply")
 }
