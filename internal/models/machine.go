@@ -666,12 +666,20 @@ func machineChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart,
 			ids = append(ids, id)
 		}
 	}
+	m, err := readMachine(in)
+	if err != nil {
+		return nil, err
+	}
+	from := "the first stage's top dead centre"
+	if m.stages[0].phase != 0 {
+		from = "the crank's zero, where the stages' phases are counted from"
+	}
 	nm := display.Described(in.Customary(), "N m")
 	return &calc.Chart{
 		Title: "Crankshaft torque of all stages over one revolution",
-		Desc: fmt.Sprintf("The gas load torque of %s on the one crankshaft, each at the pressures the machine runs it at, over one revolution from the first stage's top dead centre: their sum (solid) peaks at %s against a mean of %s; each stage's own torque is drawn broken.",
-			strings.Join(ids, " and "), nm(out.ResultValue("peak_torque")), nm(out.ResultValue("mean_torque"))),
-		X: calc.Axis{Label: "Crank angle from the first stage's top dead centre", Dim: units.Angle, Unit: "deg"},
+		Desc: fmt.Sprintf("The gas load torque of %s on the one crankshaft, each at the pressures the machine runs it at, over one revolution from %s: their sum (solid) peaks at %s against a mean of %s; each stage's own torque is drawn broken.",
+			strings.Join(ids, " and "), from, nm(out.ResultValue("peak_torque")), nm(out.ResultValue("mean_torque"))),
+		X: calc.Axis{Label: "Crank angle from " + strings.TrimSuffix(from, ", where the stages' phases are counted from"), Dim: units.Angle, Unit: "deg"},
 		Panels: []calc.Panel{{
 			Y:      calc.Axis{Label: "Torque on the crankshaft", Dim: units.Torque, Unit: "N m"},
 			Series: series,

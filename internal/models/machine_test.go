@@ -207,38 +207,57 @@ func TestMachineReference(t *testing.T) {
 
 // TestMachineTorqueSumsStages: with the stage blocks computed at the
 // pressures the machine runs them at, the machine's torque curve is the
-// sum of the stages' own gas torque curves, the second half a turn on
-// (their default phasing), at every published angle.
+// sum of the stages' own gas torque curves, the second one its phase on:
+// half a turn by default, or as its block's phase gives it.
 func TestMachineTorqueSumsStages(t *testing.T) {
-	set, err := evaluateBlocks(t, []map[string]any{
-		{"id": "a", "kind": "compressor", "bore": "50 mm", "stroke": "40 mm", "rod_length": "100 mm", "clearance_ratio": 0.05,
-			"speed": "600 rpm", "inlet_pressure": "1 bar(a)", "discharge_pressure": "2 bar(a)", "inlet_temperature": "300 K"},
-		{"id": "b", "kind": "compressor", "bore": "50 mm", "stroke": "22 mm", "rod_length": "100 mm", "clearance_ratio": 0.05,
-			"speed": "600 rpm", "inlet_pressure": "2 bar(a)", "discharge_pressure": "4 bar(a)", "inlet_temperature": "330 K"},
-		{"id": "m", "kind": "machine", "stages": []any{"a", "b"}},
-	})
-	if err != nil {
-		t.Fatal(err)
-	}
-	curve := func(id, name string) []float64 {
-		e, _ := set.Lookup(id)
-		for _, c := range e.Curves {
-			if c.Name == name {
-				return c.Y
+	for _, c := range []struct {
+		phases []string // of the two stages; none for the default
+		shift  float64  // of the second stage, in turns
+	}{
+		{nil, 0.5},
+		{[]string{"0 deg", "90 deg"}, 0.25},
+		{[]string{"30 deg", "300 deg"}, 0.75},
+	} {
+		a := map[string]any{"id": "a", "kind": "compressor", "bore": "50 mm", "stroke": "40 mm", "rod_length": "100 mm", "clearance_ratio": 0.05,
+			"speed": "600 rpm", "inlet_pressure": "1 bar(a)", "discharge_pressure": "2 bar(a)", "inlet_temperature": "300 K"}
+		b := map[string]any{"id": "b", "kind": "compressor", "bore": "50 mm", "stroke": "22 mm", "rod_length": "100 mm", "clearance_ratio": 0.05,
+			"speed": "600 rpm", "inlet_pressure": "2 bar(a)", "discharge_pressure": "4 bar(a)", "inlet_temperature": "330 K"}
+		if c.phases != nil {
+			a["phase"], b["phase"] = c.phases[0], c.phases[1]
+		}
+		set, err := evaluateBlocks(t, []map[string]any{a, b, {"id": "m", "kind": "machine", "stages": []any{"a", "b"}}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		curve := func(id string) []float64 {
+			e, _ := set.Lookup(id)
+			for _, cv := range e.Curves {
+				if cv.Name == "gas_torque" {
+					return cv.Y
+				}
+			}
+			t.Fatalf("%s has no gas_torque curve", id)
+			return nil
+		}
+		ya, yb, sum := curve("a"), curve("b"), curve("m")
+		m := len(ya) - 1 // samples per turn; the last repeats the first
+		// The machine's curve starts at the first stage's top dead centre.
+		first := 0
+		if c.phases != nil {
+			first = m / 12 // 30°
+			if c.phases[0] == "0 deg" {
+				first = 0
 			}
 		}
-		t.Fatalf("%s has no %s curve", id, name)
-		return nil
-	}
-	a, b, sum := curve("a", "gas_torque"), curve("b", "gas_torque"), curve("m", "gas_torque")
-	half := (len(a) - 1) / 2
-	worst := 0.0
-	for i := range sum {
-		want := a[i] + b[(i-half+2*half)%(2*half)]
-		worst = math.Max(worst, math.Abs(sum[i]-want))
-	}
-	if worst > 1e-9 {
-		t.Errorf("machine torque differs from the stages' sum by up to %g N m", worst)
+		shift := int(math.Round(c.shift * float64(m)))
+		worst := 0.0
+		for i := range sum {
+			want := ya[((i-first)%m+m)%m] + yb[((i-first-shift)%m+m)%m]
+			worst = math.Max(worst, math.Abs(sum[i]-want))
+		}
+		if worst > 1e-9 {
+			t.Errorf("phases %v: machine torque differs from the stages' sum by up to %g N m", c.phases, worst)
+		}
 	}
 }
 
