@@ -55,6 +55,8 @@ type Value struct {
 	RefBlock, RefResult string
 	// Links are the block ids a Link or LinkList input names.
 	Links []string
+	// Items are the values of a List input written as a list, as written.
+	Items []string
 	Line  int // file line
 }
 
@@ -283,6 +285,9 @@ func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 		case Link, LinkList:
 			return b.decodeLinks(spec, line, v)
 		}
+		if items, isList := v.([]any); isList && spec.List {
+			return b.decodeList(spec, line, items)
+		}
 	}
 	switch t := v.(type) {
 	case string:
@@ -309,6 +314,41 @@ func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
 	}
 	return bad("%s is not a quantity; write a string such as \"32 mm\"", TOMLText(v))
+}
+
+// decodeList reads a List input written as a list: quantity strings, or
+// plain numbers for a dimensionless input; references are taken one value
+// at a time, not in a list.
+func (b *Block) decodeList(spec InputSpec, line int, items []any) (Value, *inputerr.Error) {
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
+	}
+	if len(items) == 0 {
+		return bad("an empty list; give one value for all, or a list with one value each (%s)", spec.Dim.Examples())
+	}
+	var texts []string
+	for _, item := range items {
+		var text string
+		switch t := item.(type) {
+		case string:
+			text = strings.TrimSpace(t)
+		case int64:
+			text = strconv.FormatInt(t, 10)
+		case float64:
+			text = strconv.FormatFloat(t, 'g', -1, 64)
+		}
+		switch {
+		case text == "":
+			return bad("%s in the list is not a quantity; write each value as a string with its unit (%s)", TOMLText(item), spec.Dim.Examples())
+		case strings.HasPrefix(text, "="):
+			return bad("%q: a reference stands alone, not in a list; write %s = %q for all, or the values themselves", text, spec.Name, text)
+		}
+		if _, isString := item.(string); !isString && spec.Dim != units.Dimensionless {
+			return bad("%s has no unit; %s takes %s, written as strings such as \"%s %s\"", text, spec.Name, dimPhrase(spec.Dim), text, firstExample(spec.Dim))
+		}
+		texts = append(texts, text)
+	}
+	return Value{Text: strings.Join(texts, ", "), Items: texts, Line: line}, nil
 }
 
 // decodeName reads a Name input: a string, a number written bare (a

@@ -109,6 +109,9 @@ type InputValue struct {
 	From    string // "=id.result" when the value came from another block
 	Type    InputType
 	Links   []string // the blocks a Link or LinkList input names
+	// Values are the values of a List input written as a list (Value is
+	// the first); nil otherwise.
+	Values []float64
 	// Label says what a Name input's choice stands for; Written is the
 	// text as written when it named the choice another way ("nylon").
 	Label, Written string
@@ -122,13 +125,14 @@ func (e *Evaluated) linked() *Linked {
 		l.Results[r.Name] = r.Value
 	}
 	for _, in := range e.Inputs {
-		switch in.Type {
-		case Quantity:
+		switch {
+		case in.Type == Quantity && in.Values == nil:
 			l.Inputs[in.Name] = in.Value
-		case Name:
+		case in.Type == Name:
 			l.Names[in.Name] = in.Text
 		}
 	}
+	l.Model = e.in
 	return l
 }
 
@@ -349,7 +353,7 @@ func (b *Block) needs() []string {
 func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
 	var out []string
 	for _, id := range ids {
-		if t := byID[id]; t != b && (in.LinkRoles == 0 || t.Kind.Roles&in.LinkRoles != 0) {
+		if t := byID[id]; t != b && in.Accepts(t.Kind) {
 			out = append(out, id)
 		}
 	}
@@ -378,8 +382,8 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 					fail(msg)
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
-				case in.LinkRoles != 0 && target.Kind.Roles&in.LinkRoles == 0:
-					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsWith(in.LinkRoles), " or "))
+				case !in.Accepts(target.Kind):
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsAccepted(in), " or "))
 					if target.Kind.LinkHint != "" {
 						msg += " (" + target.Kind.LinkHint + ")"
 					}
@@ -487,9 +491,10 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 			e.Ambient = q.Value
 		}
 	}
-	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
+	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves, linksWithheld: early}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
+	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {
@@ -534,9 +539,18 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 			for _, id := range v.Links {
 				src, _ := set.Lookup(id)
 				linked = append(linked, src.linked())
+				linkedSystems[src.customary]++
 			}
 			in.SetLinks(spec.Name, linked)
 			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Type: spec.Type, Links: v.Links})
+			continue
+		}
+		if given && len(v.Items) > 0 {
+			vs, ok := readList(spec, v, e.Ambient, opts.SigFigs, systems, fail)
+			if ok {
+				e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Value: vs[0], Values: vs, Dim: spec.Dim})
+				in.SetList(spec.Name, vs)
+			}
 			continue
 		}
 		text := spec.Default
@@ -601,6 +615,11 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		return nil, errBroken
 	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
+	if systems[units.Customary]+systems[units.Metric] == 0 {
+		// A block that writes no unit (a machine listing its stages) reads
+		// in the units of the blocks it links to, when they agree.
+		e.customary = linkedSystems[true] > 0 && linkedSystems[false] == 0
+	}
 	in.customary = e.customary
 	out, err := b.Kind.Evaluate(in)
 	if err != nil {
@@ -649,6 +668,27 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		return nil, err
 	}
 	return e, nil
+}
+
+// readList parses the items of a List input written as a list, each in
+// range, counting the unit systems they are written in.
+func readList(spec InputSpec, v Value, ambient float64, sigFigs int, systems map[units.UnitSystem]int, fail func(key string, line int, msg string)) ([]float64, bool) {
+	vs := make([]float64, 0, len(v.Items))
+	for _, item := range v.Items {
+		q, err := units.Parse(item, spec.Dim)
+		if err != nil {
+			fail(spec.Name, v.Line, err.Error())
+			return nil, false
+		}
+		value := q.Absolute(ambient)
+		if !spec.Range.Contains(value) {
+			fail(spec.Name, v.Line, fmt.Sprintf("%q is out of range; allowed: %s", item, describeRange(spec, q.Unit.Symbol, ambient, sigFigs)))
+			return nil, false
+		}
+		systems[units.SystemOf(q.Unit.Symbol)]++
+		vs = append(vs, value)
+	}
+	return vs, true
 }
 
 // checkShownComputed checks that every result [show] outputs names was

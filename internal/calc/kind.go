@@ -69,6 +69,15 @@ const (
 // Has reports whether the kind plays every role in r.
 func (k *Kind) Has(r Role) bool { return k.Roles&r == r }
 
+// Accepts reports whether a Link or LinkList input may name a block of
+// kind k.
+func (in InputSpec) Accepts(k *Kind) bool {
+	if in.LinkAll {
+		return k.Has(in.LinkRoles)
+	}
+	return in.LinkRoles == 0 || k.Roles&in.LinkRoles != 0
+}
+
 // WorkingPressure names a kind's working-pressure input and how messages
 // call it ("target pressure").
 type WorkingPressure struct {
@@ -108,9 +117,14 @@ type InputSpec struct {
 	// use (a vacuum), where a bare inHg or mmHg could be meant absolute or
 	// as a vacuum gauge reads it, and so is refused. Absolute implies it.
 	BelowAmbient bool
+	// List lets a Quantity input take a list of values as well as one
+	// value (a temperature for every intercooler, or one for each); the
+	// model reads them with ValuesOf.
+	List bool
 	// LinkRoles are the roles of the blocks a Link or LinkList input may
-	// name, any one of them; zero allows any block.
+	// name, any one of them (every one with LinkAll); zero allows any block.
 	LinkRoles Role
+	LinkAll   bool
 	// Choices lists the values a Name input allows (for messages and
 	// checks); nil allows any non-empty name the model checks itself.
 	Choices func(env any) []string
@@ -178,6 +192,7 @@ type ResultSpec struct {
 type Inputs struct {
 	Ambient float64 // ambient pressure, Pa absolute
 	values  map[string]float64
+	lists   map[string][]float64 // List inputs given as a list
 	given   map[string]bool
 	names   map[string]string
 	links   map[string][]*Linked
@@ -198,7 +213,7 @@ func (in *Inputs) LinksWithheld() bool { return in.linksWithheld }
 // NewInputs returns inputs with no values yet, at an ambient pressure (Pa
 // absolute) in the site settings env, for evaluating a kind directly.
 func NewInputs(ambient float64, env any) *Inputs {
-	return &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+	return &Inputs{Ambient: ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: env}
 }
 
@@ -249,6 +264,11 @@ type Linked struct {
 	Inputs   map[string]float64 // SI, with defaults
 	Names    map[string]string
 	Curves   []Curve
+	// Model is what its model saw: every input, lists and links
+	// included, for a model that evaluates it again under other
+	// conditions (a receiver filled from a machine re-solves the machine
+	// at each tank pressure). Nil once the block is released.
+	Model *Inputs
 }
 
 // Set stores a value; given says whether the user wrote it (not a default).
@@ -257,12 +277,33 @@ func (in *Inputs) Set(name string, v float64, given bool) {
 	in.given[name] = given
 }
 
+// SetList stores a List input given as a list of SI values.
+func (in *Inputs) SetList(name string, vs []float64) {
+	in.lists[name] = vs
+	in.given[name] = true
+}
+
 // Value returns an input's SI value (0 when absent).
 func (in *Inputs) Value(name string) float64 { return in.values[name] }
+
+// ValuesOf returns a List input's values: the list as given, or its one
+// value; nil when absent.
+func (in *Inputs) ValuesOf(name string) []float64 {
+	if vs, ok := in.lists[name]; ok {
+		return vs
+	}
+	if v, ok := in.values[name]; ok {
+		return []float64{v}
+	}
+	return nil
+}
 
 // Has reports whether the input has a value, given or default.
 func (in *Inputs) Has(name string) bool {
 	if _, ok := in.values[name]; ok {
+		return true
+	}
+	if _, ok := in.lists[name]; ok {
 		return true
 	}
 	_, ok := in.names[name]

@@ -74,7 +74,7 @@ func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit
 		return r.Value, r.Dim, e.DisplayUnit(name), true
 	}
 	for _, in := range e.Inputs {
-		if in.Name == name && in.Type == Quantity {
+		if in.Name == name && in.Type == Quantity && in.Values == nil {
 			unit := ""
 			if q, err := units.Parse(in.Text, in.Dim); err == nil {
 				unit = q.Unit.Symbol

@@ -53,6 +53,12 @@ var rules = []calc.Rule{
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
+	{ID: "motor-overload", Level: calc.Warning, Summary: "a drive whose load needs more power than the motor passes through the belt at its rating times its service factor (raised by the drive model)"},
+	{ID: "start-stall", Level: calc.Danger, Summary: "a drive whose motor starting torque at the crank is under 1.2 times (WARNING) or under (DANGER) the load's torque against the highest pressure it can start against (raised by the drive model)"},
+	{ID: "start-unchecked", Level: calc.Notice, Summary: "a drive without the motor's starting torque, or a load with no torque at start: the start is not checked (raised by the drive model)"},
+	{ID: "start-relief-unnamed", Level: calc.Notice, Summary: "a drive whose start is checked against its load's discharge pressure while a relief valve on the load, its stages or its receiver opens higher, and no unloader is declared", Check: unnamedRelief},
+	{ID: "fast-belt", Level: calc.Warning, Summary: "a belt faster than 30 m/s, the rating of classical V-belt sections (common practice; raised by the drive model)"},
+	{ID: "off-design-stage", Level: calc.Notice, Summary: "a compressor block listed in a machine whose own inlet or discharge pressure lies more than 2 % (absolute) from the pressure the machine runs it at: its own results are for pressures it does not see", Check: offDesignStages},
 }
 
 // material returns the material a Name input of e names.

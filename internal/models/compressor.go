@@ -26,6 +26,8 @@ var compressorKind = calc.Kind{
 		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
 		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 		cylinderInputs("reciprocating_mass")[0],
+		calc.InputSpec{Name: "phase", Dim: units.Angle, Optional: true, Range: calc.Range{Min: 0, Max: 2 * math.Pi, HasMin: true, HasMax: true, MaxOpen: true},
+			Meaning: "crank angle, 0 to under 360°, by which this stage reaches top dead centre after the crank's zero, for a machine block that lists it; default: a machine spaces its stages evenly"},
 	)...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
@@ -102,7 +104,8 @@ Torque
   curve; it is not in the results, nor in the peak piston force.
   Curves: pv (one cylinder, with the isothermal compression line dashed for
   comparison); gas_torque, inertia_torque and total_torque (all cylinders,
-  over crank angle).
+  over crank angle). phase plays no part here: a machine block that lists
+  the stage reads it to place the stage on its crank.
 
 Limits
 - When p2 ≥ p_max the discharge valve never opens: volumetric efficiency,
@@ -161,15 +164,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 	isoPower := z * polytropicWork(c.p1, vi, r, 1) * revs
 	meanTorque := work / (2 * math.Pi)
 
-	cyc := newIndicatorCycle(indicatorCycle{
-		crank:     sliderCrank{r: c.crankRadius, l: c.rod},
-		area:      area,
-		clearance: c.clearanceVolume,
-		p1:        c.p1,
-		p2:        c.p2,
-		n:         c.n,
-		ambient:   c.ambient,
-	})
+	cyc := c.cycleAt(c.p1, c.p2)
 	steps := crankSteps(c.cylinders)
 	gasOne := sampleRevolution(steps, cyc.gasTorque)
 	gas := phaseSum(gasOne, c.cylinders)
@@ -207,7 +202,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "CR = (Vs + Vc) / Vc", Substituted: "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "r = p2 / p1", Substituted: "= " + bara(c.p2) + " / " + bara(c.p1)}},
 		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η_v = 1 − c·(r^(1/n) − 1)", Substituted: "= 1 − " + display.NumberSig(c.clearanceRatio, "", veSig) + "·(" + display.NumberSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
-		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d", Substituted: "= " + num(ve) + " · " + lpm(rate)}},
+		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d" + ownInlet(in, c), Substituted: "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_max = p1 · CR^n", Substituted: "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
 		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
@@ -255,6 +250,17 @@ func clearanceResult(c cylinder, swept float64, cm3 func(float64) string) calc.R
 		t = calc.Trace{Formula: "c (given)", Substituted: "= " + display.Number(c.clearanceRatio, "")}
 	}
 	return calc.Result{Name: "clearance_ratio", Value: c.clearanceRatio, Dim: units.Dimensionless, Trace: t}
+}
+
+// ownInlet says, for a stage drawing above or below ambient (a later
+// stage of a machine, say), that its delivery is air at its own inlet, not
+// at the machine's.
+func ownInlet(in *calc.Inputs, c cylinder) string {
+	if c.p1 == c.ambient {
+		return ""
+	}
+	return fmt.Sprintf(", as volume at this stage's own inlet, %s and %s: for a later stage, not the machine's delivery (a machine block gives that at the first stage's inlet)",
+		display.TraceIn(in.Customary(), "bar(a)")(c.p1), display.TraceIn(in.Customary(), "degC")(c.t1))
 }
 
 // noDelivery annotates a volumetric efficiency that came out at or below zero.

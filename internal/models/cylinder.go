@@ -165,6 +165,13 @@ func readCylinder(in *calc.Inputs) (cylinder, error) {
 	return c, nil
 }
 
+// cycleAt is the cylinder's ideal indicator cycle from suction p1 to
+// discharge p2 (absolute), its crankcase at ambient.
+func (c cylinder) cycleAt(p1, p2 float64) *indicatorCycle {
+	return newIndicatorCycle(indicatorCycle{crank: sliderCrank{r: c.crankRadius, l: c.rod}, area: math.Pi / 4 * c.bore * c.bore,
+		clearance: c.clearanceVolume, p1: p1, p2: p2, n: c.n, ambient: c.ambient})
+}
+
 // polytropicWork returns the work to compress a volume v drawn in at p1
 // through a pressure ratio r along p·V^n = const, with delivery:
 // n/(n−1)·p1·v·(r^((n−1)/n) − 1), or p1·v·ln r when n = 1. Expm1 keeps

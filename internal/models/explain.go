@@ -128,15 +128,19 @@ func inputHint(cat *calc.Catalog, in calc.InputSpec) string {
 	case calc.Name:
 		return "name"
 	}
+	hint := in.Dim.String() + ": " + in.Dim.Examples()
 	if in.Dim == units.Dimensionless {
-		return "number"
+		hint = "number"
 	}
-	return in.Dim.String() + ": " + in.Dim.Examples()
+	if in.List {
+		hint += "; one value, or a list"
+	}
+	return hint
 }
 
 func linkKinds(cat *calc.Catalog, in calc.InputSpec) string {
 	if in.LinkRoles == 0 {
 		return ""
 	}
-	return " (" + strings.Join(cat.KindsWith(in.LinkRoles), ", ") + ")"
+	return " (" + strings.Join(cat.KindsAccepted(in), ", ") + ")"
 }

@@ -68,7 +68,9 @@ type referenceFunc func(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Eval
 var references = map[string]referenceFunc{
 	"balance":    balanceReference,
 	"compressor": compressorReference,
+	"drive":      driveReference,
 	"flywheel":   flywheelReference,
+	"machine":    machineReference,
 	"motor":      motorReference,
 	"multistage": multistageReference,
 	"tank":       tankReference,

@@ -25,7 +25,7 @@ var tankKind = calc.Kind{
 		{Name: "volume", Dim: units.Volume, Range: calc.Between(minVesselVolume, 1e3), Meaning: "internal volume of the receiver, up to 1000 m3"},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "working (target) pressure the receiver is filled to, up to 1 GPa; must be above ambient"},
 		{Name: "start_pressure", Dim: units.Pressure, Default: "0 bar", Range: calc.Between(0, 1e9), Meaning: "pressure in the receiver when filling starts; must be below the target"},
-		{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of the compressor block that fills the receiver; without it fill_time is not computed"},
+		{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of the compressor or machine block that fills the receiver; without it fill_time is not computed"},
 	}, tankWallInputs()...),
 	Results: []calc.ResultSpec{
 		{Name: "fill_time", Dim: units.Time, Unit: "s", Meaning: "time the supply takes from start_pressure to the target pressure (needs supply)"},
@@ -98,6 +98,16 @@ Fill time
   Gauss-Legendre quadrature on steps of at most 0.5 in ln(p).
 - The delivery falls to zero at the supply's dead-head pressure
   p_max = p1·((1 + c)/c)^n; a target at or above it is an error.
+- A machine block as supply: the whole machine fills the tank. At each
+  tank pressure p the machine is solved again with p as its discharge
+  pressure (its interstage pressures move as the tank fills; at first its
+  later stages' valves stand open), and
+    t = ∫ from p0 to p2 of V dp / (R·T1·ṁ(p))
+  with its mass flow ṁ and the first stage's inlet temperature T1 (the
+  tank at that temperature, as above). The integral is taken by 16-point
+  Gauss-Legendre quadrature, halving each interval until the halves agree
+  with the whole to 1e-10. The target must be below the machine's
+  dead-head pressure. The machine's own discharge_pressure plays no part.
 - Without supply there is no fill_time, fill curve or fill table.
   Chart "fill": tank pressure over time. Table: the fill time to each
   whole bar (gauge) from start_pressure, and to the target; above 50 rows
@@ -201,10 +211,19 @@ func (s supplyModel) riseIntegral(ua, ub float64) float64 {
 	return s.n * math.Pow(bigU, s.n-1) / s.c * sum
 }
 
+// filler is what fills a receiver: a compressor's cycle or a machine.
+type filler interface {
+	// fillTime is the time to raise a tank of volume v from pa to pb
+	// (absolute, pa ≤ pb, the supply delivering at pb).
+	fillTime(v, pa, pb float64) float64
+	// fillWorking is the working of the tank's fill time.
+	fillWorking(t tankInput) calc.Trace
+}
+
 // tankInput is a tank block's inputs in SI, pressures absolute.
 type tankInput struct {
 	volume, target, start, ambient float64
-	supply                         *supplyModel
+	supply                         filler
 	customary                      bool // the block is written in US customary units
 }
 
@@ -225,6 +244,18 @@ func readTankInput(in *calc.Inputs) (tankInput, error) {
 		return t, err
 	}
 	if l := in.LinkOf("supply"); l != nil {
+		if m, isMachine, err := linkedMachine(l); isMachine {
+			if err != nil {
+				return t, &calc.InputError{Key: "supply", Message: err.Error()}
+			}
+			if dead := m.deadHead(); t.target >= dead || !(m.solve(t.target).mass > 0) {
+				return t, &calc.InputError{Key: "pressure", Message: fmt.Sprintf(
+					"target pressure %s is at or above the dead-head pressure %s of machine %s: its delivery falls to zero before the receiver gets there; lower the target",
+					pair(t.target), pair(dead), l.ID)}
+			}
+			t.supply = machineFill{id: l.ID, m: m}
+			return t, nil
+		}
 		s, err := readSupply(l)
 		if err != nil {
 			return t, &calc.InputError{Key: "supply", Message: err.Error()}
@@ -234,7 +265,7 @@ func readTankInput(in *calc.Inputs) (tankInput, error) {
 				"target pressure %s is at or above the dead-head pressure %s of supply %s: its delivery falls to zero before the receiver gets there; "+
 					"lower the target or the supply's clearance", pair(t.target), pair(s.pMax), s.id)}
 		}
-		t.supply = &s
+		t.supply = s
 	}
 	return t, nil
 }
@@ -290,13 +321,16 @@ func checkWallInputs(in *calc.Inputs) error {
 
 // fillResult is the fill time with its working.
 func fillResult(t tankInput) calc.Result {
-	s := t.supply
+	return calc.Result{Name: "fill_time", Value: t.supply.fillTime(t.volume, t.start, t.target), Dim: units.Time, Trace: t.supply.fillWorking(t)}
+}
+
+// fillWorking is the working of the fill time from a compressor's cycle.
+func (s supplyModel) fillWorking(t tankInput) calc.Trace {
 	bara := display.TraceIn(t.customary, "bar(a)")
 	litres := display.TraceIn(t.customary, "L")(t.volume)
 	rate := display.TraceIn(t.customary, "L/min")(s.rate)
 	supply := fmt.Sprintf("supply %s: V̇d = %s, c = %s, n = %s, p1 = %s, p_max = %s",
 		s.id, rate, display.Number(s.c, ""), display.Number(s.n, ""), bara(s.p1), bara(s.pMax))
-	r := calc.Result{Name: "fill_time", Value: s.fillTime(t.volume, t.start, t.target), Dim: units.Time}
 	if s.n == 1 {
 		// The closed form runs from p1 up; below p1 the cylinder delivers
 		// its full displacement, a term of its own.
@@ -309,17 +343,14 @@ func fillResult(t tankInput) calc.Result {
 			formula += " + V·(p1 − p0)/(p1·V̇d) below p1, at full displacement"
 			sub += fmt.Sprintf(" + %s·(%s − %s)/(%s · %s)", litres, bara(math.Min(t.target, s.p1)), bara(t.start), bara(s.p1), rate)
 		}
-		r.Trace = calc.Trace{Formula: formula + " (n = 1, isothermal tank at inlet temperature)", Substituted: sub + "; " + supply}
-		return r
+		return calc.Trace{Formula: formula + " (n = 1, isothermal tank at inlet temperature)", Substituted: sub + "; " + supply}
 	}
 	below := ""
 	if t.start < s.p1 {
 		below = fmt.Sprintf("; of which below p1, at full displacement: V·(p1 − p0)/(p1·V̇d) = %s", display.Number(s.fillTime(t.volume, t.start, math.Min(s.p1, t.target)), "s"))
 	}
-	r.Trace = calc.Trace{Formula: "t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)", Substituted: fmt.Sprintf("= ∫ %s dp / (%s · FAD(p)) from %s to %s; %s%s",
+	return calc.Trace{Formula: "t = ∫ V dp / (p1 · V̇d · (1 + c − c·(p/p1)^(1/n))) from p0 to p2 (isothermal tank at inlet temperature)", Substituted: fmt.Sprintf("= ∫ %s dp / (%s · FAD(p)) from %s to %s; %s%s",
 		litres, bara(s.p1), bara(t.start), bara(t.target), supply, below)}
-
-	return r
 }
 
 // fillCurve samples the tank pressure over time at equal pressure steps.

@@ -79,6 +79,9 @@ func tankReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated
 		return midpointFill(v, p0, p2, rate, c, n, p1)
 	case "expansion-work":
 		return expansionWork(v, p2, e.Ambient, 1.4)
+	case "midpoint machine":
+		p0, _ := inputValue(t, e, "start_pressure")
+		return machineMidpointFill(v, p0, p2, readTestMachine(t, set, linkedBlock(t, set, e, "supply")))
 	}
 	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0

@@ -50,13 +50,14 @@ Assumptions
   needs more pressure to pass more flow (the spring compresses further):
   relief valves are set some way below the pressure they must hold down.
 
-With protects (a list of compressor, tank or tube block ids), the valve is a
-relief valve for those blocks. The no-relief caution rule compares its
-opening pressure with each protected part's allowable pressure and each
-compressor's dead-head pressure; the trace lists them. The
-relief-below-target rule cautions when it opens below the working pressure
-of a part it protects (a tank's target pressure, a compressor's discharge
-pressure, a tube's working pressure), which then never gets there.`
+With protects (a list of compressor, machine, tank or tube block ids), the
+valve is a relief valve for those blocks. The no-relief caution rule
+compares its opening pressure with each protected part's allowable pressure
+and each compressor's or machine's dead-head pressure; the trace lists
+them. The relief-below-target rule cautions when it opens below the working
+pressure of a part it protects (a tank's target pressure, a compressor's
+discharge pressure, a machine's discharge pressure, a tube's working
+pressure), which then never gets there.`
 
 // maxCrackingPressure is the highest cracking pressure taken as real: the
 // upper bound of the pressures the other kinds accept.

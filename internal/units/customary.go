@@ -17,7 +17,7 @@ var customaryUnits = map[string]bool{
 	"in": true, "ft": true, "in2": true, "ft2": true, "in3": true, "ft3": true, "gal": true, "cfm": true,
 	"psi": true, "ksi": true, "inHg": true, "degF": true, "degR": true, "lbf": true, "lbf in": true, "lbf ft": true,
 	"hp": true, "lb": true, "lb/ft3": true, "lb/in3": true, "lbf/in": true, "ft/min": true, "ft/s": true,
-	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true, "SCFM": true, "inHg vac": true, "ft lbf": true, "in lbf": true,
+	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true, "SCFM": true, "inHg vac": true, "ft lbf": true, "in lbf": true, "hp/cfm": true,
 }
 
 // neutralUnits are used alike in both systems.
@@ -37,7 +37,7 @@ var metricUnits = map[string]bool{
 	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
 	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
 	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
-	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true, "NL/min": true, "Nm3/h": true,
+	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true, "NL/min": true, "Nm3/h": true, "kW/(m3/min)": true, "W/(L/min)": true, "W/(m3/s)": true,
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)
@@ -63,7 +63,7 @@ var customaryOf = map[string]string{
 	"bar": "psi", "mbar": "psi", "kPa": "psi", "MPa": "psi", "Pa": "psi",
 	"degC": "degF", "N": "lbf", "kN": "lbf", "N m": "lbf ft", "N mm": "lbf in",
 	"W": "hp", "kW": "hp", "g": "lb", "kg": "lb", "kg/m3": "lb/ft3",
-	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in",
+	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in", "kW/(m3/min)": "hp/cfm", "W/(L/min)": "hp/cfm",
 }
 
 // CustomaryFor is the US customary counterpart of a metric display unit,

@@ -38,6 +38,9 @@ const (
 	Inertia
 	PressureDifference // the difference of two pressures: shown marked "bar(d)", "psid", never gauge
 	EnergyPerVolume    // J/m3 in SI: the energy a volume of air costs (power over flow)
+	// SpecificPower is shaft power per unit of volume flow delivered, J/m3
+	// in SI; kept apart from pressure, which has the same base units.
+	SpecificPower
 )
 
 // dimensionInfo holds the words used for a dimension in messages.
@@ -74,6 +77,7 @@ var dimensions = [...]dimensionInfo{
 	Inertia:               {"moment of inertia", "kg m2, kg mm2", "kg m2"},
 	PressureDifference:    {"pressure difference", "bar(d), mbar(d), kPa(d), MPa(d), psid", "Pa(d)"},
 	EnergyPerVolume:       {"energy per volume", "kJ/m3, J/L, kWh/m3", "J/m3"},
+	SpecificPower:         {"specific power", "kW/(m3/min), W/(L/min), hp/cfm", "W/(m3/s)"},
 }
 
 // valid reports whether d is one of the declared dimensions.

@@ -43,6 +43,7 @@ var exponentsOf = [len(dimensions)]Exponents{
 	Inertia:               {2, 1, 0, 0},
 	PressureDifference:    {-1, 1, -2, 0},
 	EnergyPerVolume:       {-1, 1, -2, 0},
+	SpecificPower:         {-1, 1, -2, 0},
 }
 
 // namedOrder is the order in which Named tries the dimensions that share
@@ -51,7 +52,7 @@ var exponentsOf = [len(dimensions)]Exponents{
 // Points on a scale (Pressure, Temperature) are left out: no product or
 // quotient is one.
 var namedOrder = []Dimension{
-	Dimensionless, Length, Area, Volume, VolumeFlow, PressureDifference, Stress, EnergyPerVolume,
+	Dimensionless, Length, Area, Volume, VolumeFlow, PressureDifference, Stress, EnergyPerVolume, SpecificPower,
 	TemperatureDifference, RotationalSpeed, Angle, Force, Energy, Torque, Power, Mass, Density,
 	Stiffness, Time, Velocity, Acceleration, MassFlow, SpecificEnergy, Inertia,
 }

@@ -221,6 +221,13 @@ var unitTable = joinDefs(
 		def("g cm2", Inertia, 1e-7),
 		def("lb ft2", Inertia, pound*foot*foot),
 		def("lb in2", Inertia, pound*inch*inch),
+
+		// Shaft power per unit of free air delivered; kW/(m3/min) and
+		// W/(L/min) are the same size.
+		def("W/(m3/s)", SpecificPower, 1),
+		def("kW/(m3/min)", SpecificPower, 1e3*60, "kW/m3/min"),
+		def("W/(L/min)", SpecificPower, 60/1e-3, "W/L/min"),
+		def("hp/cfm", SpecificPower, horse*60/(foot*foot*foot)),
 	},
 )
 
