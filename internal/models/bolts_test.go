@@ -45,6 +45,10 @@ func TestBoltsReference(t *testing.T) {
 		t.Fatalf("want at least three reference files, found %d (%v)", len(files), err)
 	}
 	for _, f := range files {
+		if isBlockCase(t, f) {
+			t.Run(filepath.Base(f), func(t *testing.T) { runBlockCase(t, f, nil) })
+			continue
+		}
 		t.Run(filepath.Base(f), func(t *testing.T) {
 			var c boltsCase
 			md, err := toml.DecodeFile(f, &c)

@@ -34,6 +34,10 @@ const (
 	fastRim = 30.0 // m/s
 	// freezing: water in the air freezes below 0 °C.
 	freezing = 273.15 // K
+	// rodNear: a rod that passes the bottom of the cylinder wall closer than
+	// this is a WARNING: bearing play, a bent rod and the tolerances of the
+	// bore and the crank take up fractions of a millimetre (common practice).
+	rodNear = 1e-3 // m
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -52,6 +56,7 @@ var rules = []calc.Rule{
 	{ID: "printed-pressure-part", Level: calc.Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", Check: printedPart},
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
+	{ID: "rod-strikes-liner", Level: calc.Danger, Summary: "a connecting rod that touches the bottom edge of the cylinder wall as it swings (DANGER), or passes it closer than 1 mm (WARNING)", Check: rodStrikesLiner},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
 }
 
@@ -433,6 +438,24 @@ func coldExhaust(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
 			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
 			e.Show(t.Value, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func rodStrikesLiner(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		r, ok := e.Result("rod_clearance")
+		if !ok || r.Value >= rodNear {
+			continue
+		}
+		clear := e.Show(r.Value, units.Length, "mm")
+		level, what := calc.Warning, fmt.Sprintf("passes the bottom edge of the cylinder wall with %s to spare, less than %s", clear, e.Show(rodNear, units.Length, "mm"))
+		if r.Value <= 0 {
+			level, what = calc.Danger, fmt.Sprintf("strikes the bottom edge of the cylinder wall as it swings (least clearance %s)", clear)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: "The connecting rod " + what +
+			". A rod that hits the cylinder breaks the liner or itself and can throw the piston: chamfer or notch the bottom of the bore, narrow the rod where it passes, or lengthen the rod."}})
 	}
 	return out
 }

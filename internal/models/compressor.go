@@ -26,6 +26,8 @@ var compressorKind = calc.Kind{
 		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
 		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 		cylinderInputs("reciprocating_mass")[0],
+		calc.InputSpec{Name: "rod_width", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 1), Meaning: "width of the connecting rod in its plane of swing where it passes the bottom edge of the cylinder wall, up to 1 m; give liner_bottom with it for rod_clearance"},
+		calc.InputSpec{Name: "liner_bottom", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 50), Meaning: "distance from the crank axis up to the bottom edge of the cylinder wall (bore or liner), up to 50 m; give rod_width with it"},
 	)...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
@@ -49,6 +51,7 @@ var compressorKind = calc.Kind{
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the steady drive torque without friction"},
 		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
+		{Name: "rod_clearance", Dim: units.Length, Unit: "mm", Meaning: "least gap over a revolution between the swinging rod and the bottom inner corner of the bore, negative where they overlap (with rod_width and liner_bottom)"},
 	},
 	Charts:   compressorCharts,
 	Chart:    compressorChart,
@@ -223,6 +226,14 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
 	}
 
+	swing, hasSwing, err := readRodSwing(in, c)
+	if err != nil {
+		return nil, err
+	}
+	if hasSwing {
+		res = append(res, rodClearanceResult(swing, cust))
+	}
+
 	out := &calc.Outcome{Results: res}
 	if in.WantCurves() {
 		out.Curves = compressorCurves(cyc, c, gas, steps)
@@ -235,6 +246,38 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 			bara(c.p2), bara(pMax))})
 	}
 	return out, nil
+}
+
+// readRodSwing reads rod_width and liner_bottom, which come together;
+// has is false when the block gives neither.
+func readRodSwing(in *calc.Inputs, c cylinder) (s rodSwing, has bool, err error) {
+	switch {
+	case !in.Has("rod_width") && !in.Has("liner_bottom"):
+		return s, false, nil
+	case !in.Has("liner_bottom"):
+		return s, false, &calc.InputError{Key: "rod_width", Message: "is given but liner_bottom is missing: give both for rod_clearance (liner_bottom: the distance from the crank axis up to the bottom edge of the cylinder wall)"}
+	case !in.Has("rod_width"):
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: "is given but rod_width is missing: give both for rod_clearance (rod_width: the rod's width in its plane of swing at the cylinder's bottom edge)"}
+	}
+	s = rodSwing{crank: sliderCrank{r: c.crankRadius, l: c.rod}, bore: c.bore, width: in.Value("rod_width"), h: in.Value("liner_bottom")}
+	if top := c.rod + c.crankRadius; s.h > top {
+		mm := display.TraceIn(in.Customary(), "mm")
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: fmt.Sprintf(
+			"%s is above the wrist pin's highest point, %s from the crank axis (rod length + crank radius): the rod never reaches the bottom of the cylinder wall there; allowed: up to %s",
+			mm(s.h), mm(top), mm(top))}
+	}
+	return s, true, nil
+}
+
+// rodClearanceResult is the least gap between the swinging rod and the
+// bottom corner of the bore, with the crank angle it occurs at.
+func rodClearanceResult(s rodSwing, cust bool) calc.Result {
+	clear, at, _ := s.least()
+	mm := display.TraceIn(cust, "mm")
+	return calc.Result{Name: "rod_clearance", Value: clear, Dim: units.Length, Trace: calc.Trace{
+		Formula: "c = min over θ of dist(corner, rod centreline) − w/2, corners (±D/2, h), crank pin (R·sin θ, R·cos θ), wrist pin (0, R·cos θ + sqrt(L² − R²·sin² θ)), at the crank angles where the rod crosses height h",
+		Substituted: fmt.Sprintf("= %s − %s/2 at θ = %s° from top dead centre (D = %s, h = %s, R = %s, L = %s)",
+			mm(clear+s.width/2), mm(s.width), display.Number(at*180/math.Pi, ""), mm(s.bore), mm(s.h), mm(s.crank.r), mm(s.crank.l))}}
 }
 
 // compressorDischargeTemperature is the temperature at the end of compression: at the

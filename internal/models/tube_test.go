@@ -88,6 +88,10 @@ func TestTubeReference(t *testing.T) {
 		t.Fatalf("want at least three reference files, found %d (%v)", len(files), err)
 	}
 	for _, f := range files {
+		if isBlockCase(t, f) {
+			t.Run(filepath.Base(f), func(t *testing.T) { runBlockCase(t, f, nil) })
+			continue
+		}
 		var c tubeFile
 		md, err := toml.DecodeFile(f, &c)
 		if err != nil {
