@@ -162,27 +162,50 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 	return out
 }
 
+// rating is the pressure a part is rated for, absolute, given its results:
+// its allowable pressure, or its code allowable pressure when that is
+// lower; name names the figure and basis says what it rests on.
+func rating(result func(name string) (float64, bool)) (p float64, name, basis string, ok bool) {
+	p, ok = result("allowable_pressure")
+	if !ok {
+		return 0, "", "", false
+	}
+	name, basis = "allowable pressure", "the burst pressure over the site's minimum factor"
+	if code, ok := result("code_allowable_pressure"); ok && code < p {
+		p, name, basis = code, "code allowable pressure", "the ASME VIII-1 formulas with its joint efficiency"
+	}
+	return p, name, basis, true
+}
+
+// ratingOf is the rating of an evaluated block.
+func ratingOf(e *calc.Evaluated) (p float64, name, basis string, ok bool) {
+	return rating(func(name string) (float64, bool) {
+		r, ok := e.Result(name)
+		return r.Value, ok
+	})
+}
+
 func aboveAllowable(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		allow, ok := e.Result("allowable_pressure")
+		allow, name, basis, ok := ratingOf(e)
 		burst, hasBurst := e.Result("burst_pressure")
 		in, working := e.ModelInputs(), e.Block.Kind.WorkingPressure
 		if !ok || in == nil || working.Key == "" || !in.Has(working.Key) {
 			continue
 		}
 		p := in.Value(working.Key)
-		if p <= allow.Value {
+		if p <= allow {
 			continue
 		}
-		level, why := calc.Warning, "above its allowable pressure"
+		rated := fmt.Sprintf("%s %s (%s)", name, e.Show(allow, units.Pressure, "bar"), basis)
+		level, why := calc.Warning, "above its "+rated
 		// Both pressures are absolute; the margin is on gauge pressure.
 		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
-			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
+			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)+"; its "+rated
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
-			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
-			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
+			"The working pressure %s is %s. Lower the pressure or strengthen the part.", e.Show(p, units.Pressure, "bar"), why)}})
 	}
 	return out
 }
@@ -229,8 +252,8 @@ func noRelief(s *calc.Set) []calc.Raised {
 					exposed = true
 				}
 			}
-			allow, _ := p.Result("allowable_pressure")
-			if !exposed || dead.Value <= allow.Value {
+			allow, name, _, _ := ratingOf(p)
+			if !exposed || dead.Value <= allow {
 				continue
 			}
 			// The relief must open below the part's allowable pressure.
@@ -243,7 +266,7 @@ func noRelief(s *calc.Set) []calc.Raised {
 				set, _ := v.Result("cracking_pressure")
 				// cracking_pressure is a difference across the seat; the
 				// valve vents to ambient, so it opens at ambient + that.
-				if set.Value+v.Ambient <= allow.Value {
+				if set.Value+v.Ambient <= allow {
 					relieved = true
 					break
 				}
@@ -254,9 +277,9 @@ func noRelief(s *calc.Set) []calc.Raised {
 			if relieved {
 				continue
 			}
-			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
-				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), p.Show(allow.Value, units.Pressure, "bar"), p.Block.ID,
-				p.Show(allow.Value, units.Pressure, "bar"), c.Block.ID)
+			msg := fmt.Sprintf("%s can dead-head at %s, above the %s %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
+				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), name, p.Show(allow, units.Pressure, "bar"), p.Block.ID,
+				p.Show(allow, units.Pressure, "bar"), c.Block.ID)
 			if len(tooHigh) > 0 {
 				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
 			}
@@ -374,9 +397,16 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		if r.Value > storedEnergyWarning {
 			level = calc.Warning
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
-			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
-			e.Show(r.Value, units.Energy, "kJ"))}})
+		msg := fmt.Sprintf("The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
+			e.Show(r.Value, units.Energy, "kJ"))
+		test, hasTest := e.Result("test_energy")
+		tnt, _ := e.Result("tnt_equivalent")
+		distance, _ := e.Result("test_distance")
+		if hasTest {
+			msg += fmt.Sprintf(" Prove it with a hydrostatic test, with water, not with air: a pneumatic test would store %s, as much as %s of TNT, and ASME PCC-2 keeps everyone at least %s away while one runs.",
+				e.Show(test.Value, units.Energy, "kJ"), e.Show(tnt.Value, units.Mass, "kg"), e.Show(distance.Value, units.Length, "m"))
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: msg}})
 	}
 	return out
 }

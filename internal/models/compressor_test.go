@@ -104,7 +104,8 @@ func resultMap(out *calc.Outcome) map[string]calc.Result {
 
 // optionalResults are results a kind gives only with optional inputs: a
 // well-formed outcome may leave them out.
-var optionalResults = map[string]bool{"rod_clearance": true}
+var optionalResults = map[string]bool{"rod_clearance": true, "code_allowable_pressure": true,
+	"test_energy": true, "tnt_equivalent": true, "test_distance": true}
 
 // checkWellFormed checks that the outcome has every declared result but the
 // optional ones, in order, each finite and with a trace.

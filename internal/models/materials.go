@@ -40,7 +40,13 @@ type Material struct {
 	PoissonRatio                                   float64
 	// Temperature limits, K. HeatDeflection is 0 for metals.
 	ServiceTemperature, HeatDeflection float64
-	Source                             string // where the typical values come from
+	// AllowableStress is the row's own allowable stress for the code
+	// figures of pressure parts, Pa; 0 to take it from the strengths.
+	// AllowableStressTemperature is the highest metal temperature, K, at
+	// which the ordinary-temperature allowable stress holds; 0 for the
+	// service temperature.
+	AllowableStress, AllowableStressTemperature float64
+	Source                                      string // where the typical values come from
 	// Aliases are other names users write for the material ("nylon" for
 	// pa12); a block may name the material by any of them.
 	Aliases []string
@@ -79,8 +85,9 @@ var materialsTOML string
 type MaterialRow map[string]any
 
 var materialKeys = []string{
-	"aliases", "brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
-	"printable", "service_temperature", "source", "tensile_strength", "yield_strength",
+	"aliases", "allowable_stress", "allowable_stress_temperature", "brittle", "class", "density", "elastic_modulus",
+	"heat_deflection_temperature", "label", "poisson_ratio", "printable", "service_temperature", "source",
+	"tensile_strength", "yield_strength",
 }
 
 // builtinMaterials is materials.toml, read once; a test keeps it valid.
@@ -157,6 +164,14 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 			}
 			fail(key, fmt.Sprintf("yield strength %s is above tensile strength %s; a material yields before it breaks",
 				display.Number(mat.YieldStrength/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
+		}
+		if mat.AllowableStress > mat.TensileStrength && mat.TensileStrength > 0 {
+			key := "allowable_stress"
+			if _, ok := row[key]; !ok {
+				key = "tensile_strength"
+			}
+			fail(key, fmt.Sprintf("allowable stress %s is above tensile strength %s; the code figures divide the tensile strength by a factor",
+				display.Number(mat.AllowableStress/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
 		}
 		if mat.Label == "" {
 			mat.Label = name
@@ -256,6 +271,7 @@ var materialSpans = map[string]struct {
 }{
 	"tensile_strength": {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
 	"yield_strength":   {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
+	"allowable_stress": {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
 	"elastic_modulus":  {1e6, 1.2e12, 1e9, "GPa", "from elastomers to diamond"},
 	"density":          {10, 25e3, 1e3, "g/cm3", "from foams to the densest metals"},
 }
@@ -360,6 +376,10 @@ func (m *Material) set(key string, v any) error {
 		return temperature(&m.ServiceTemperature)
 	case "heat_deflection_temperature":
 		return temperature(&m.HeatDeflection)
+	case "allowable_stress":
+		return quantity(units.Stress, &m.AllowableStress)
+	case "allowable_stress_temperature":
+		return temperature(&m.AllowableStressTemperature)
 	case "poisson_ratio":
 		f, ok := v.(float64)
 		if !ok || f <= 0 || f >= 0.5 {

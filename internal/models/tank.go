@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
@@ -26,15 +27,22 @@ var tankKind = calc.Kind{
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "working (target) pressure the receiver is filled to, up to 1 GPa; must be above ambient"},
 		{Name: "start_pressure", Dim: units.Pressure, Default: "0 bar", Range: calc.Between(0, 1e9), Meaning: "pressure in the receiver when filling starts; must be below the target"},
 		{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of the compressor block that fills the receiver; without it fill_time is not computed"},
-	}, tankWallInputs()...),
-	Results: []calc.ResultSpec{
+	}, append(append(tankWallInputs(),
+		calc.InputSpec{Name: "head", Type: calc.Name, Optional: true, Choices: func(any) []string { return vesselHeads },
+			Meaning: "the heads that close the shell, for code_allowable_pressure: ellipsoidal (2:1), hemispherical, torispherical (crown radius the shell's outside diameter, knuckle 6 %) or flat (welded); bolted is refused: a bolted cover needs its gasket's moment"},
+		calc.InputSpec{Name: "head_thickness", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 5), Meaning: "thickness of the heads as built (after forming), up to 5 m; give it with head"},
+		calc.InputSpec{Name: "flat_head_factor", Dim: units.Dimensionless, Optional: true, Range: calc.Between(minFlatHeadFactor, 1),
+			Meaning: "factor C of a welded flat head (ASME VIII-1 UG-34 sketches, from memory), 0.2 to 1; default 0.33"},
+	), testInputs...)...),
+	Results: append([]calc.ResultSpec{
 		{Name: "fill_time", Dim: units.Time, Unit: "s", Meaning: "time the supply takes from start_pressure to the target pressure (needs supply)"},
 		{Name: "stored_energy", Dim: units.Energy, Unit: "kJ", Meaning: "energy released by an isentropic expansion of the air at the target pressure to ambient"},
 		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore of the shell, Lamé, at the target pressure (with a wall)"},
 		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
 			Meaning: "design strength of the shell over its equivalent stress at the bore, as the tube kind (with a wall)"},
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure of the shell over the site's minimum safety factor, as the tube kind (with a wall)"},
-	},
+		{Name: "code_allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "the least pressure of the thin-shell formulas of ASME VIII-1 (UG-27, and UG-32 or UG-34 for the heads) with the joint efficiency, in the corroded condition (with a metal wall)"},
+	}, testResults...),
 	Charts:   []string{"fill"},
 	Chart:    tankChart,
 	Evaluate: evaluateTank,
@@ -42,7 +50,13 @@ var tankKind = calc.Kind{
 
 // tankWall lists the wall inputs a tank shares with the tube kind:
 // optional, and given all together or not at all.
-var tankWall = []string{"material", "inner_diameter", "wall_thickness", "outer_diameter", "closed_ends"}
+var tankWall = []string{"material", "inner_diameter", "wall_thickness", "outer_diameter", "closed_ends",
+	"joint_efficiency", "corrosion_allowance", "design_temperature"}
+
+// tankJointEfficiency is a receiver's joint efficiency unless given: a
+// welded shell whose seams are not radiographed (ASME VIII-1 Table UW-12,
+// from memory).
+const tankJointEfficiency = "0.70"
 
 // tankWallInputs returns the tube kind's wall inputs, optional on a tank.
 func tankWallInputs() []calc.InputSpec {
@@ -50,6 +64,13 @@ func tankWallInputs() []calc.InputSpec {
 	for _, name := range tankWall {
 		spec, _ := tubeKind.Input(name)
 		spec.Optional = true
+		if name == "joint_efficiency" {
+			spec.Default = tankJointEfficiency
+			spec.Meaning = strings.Replace(spec.Meaning, "joint efficiency E", "joint efficiency E (default 0.70: welded, not radiographed)", 1)
+		}
+		if name == "design_temperature" {
+			spec.Meaning = "metal temperature the code figure is for; default: the supply's discharge temperature, else 20 °C"
+		}
 		if spec.Default != "" {
 			spec.DefaultWith = "material"
 		}
@@ -60,7 +81,7 @@ func tankWallInputs() []calc.InputSpec {
 }
 
 // wallResults are the tube results a tank with a wall reports.
-var wallResults = []string{"hoop_stress", "safety_factor", "allowable_pressure"}
+var wallResults = []string{"hoop_stress", "safety_factor", "allowable_pressure", "code_allowable_pressure"}
 
 // airGamma is the ratio of specific heats of air used for stored energy
 // (ASME PCC-2 Article 501 uses 1.4; from memory).
@@ -251,8 +272,9 @@ func evaluateTank(in *calc.Inputs) (*calc.Outcome, error) {
 		out.Tables = append(out.Tables, fillTable(t))
 	}
 	out.Results = append(out.Results, storedEnergyResult(t))
+	code, hasCode := 0.0, false
 	if in.Has("inner_diameter") {
-		wall, err := evaluateTube(in)
+		wall, err := tankWallOutcome(in)
 		if err != nil {
 			return nil, err
 		}
@@ -260,9 +282,74 @@ func evaluateTank(in *calc.Inputs) (*calc.Outcome, error) {
 			if slices.Contains(wallResults, r.Name) {
 				out.Results = append(out.Results, r)
 			}
+			if r.Name == "code_allowable_pressure" {
+				code, hasCode = r.Value-t.ambient, true
+			}
 		}
 	}
+	test, err := pneumaticTestResults(in, t.volume, t.target-t.ambient, code, hasCode)
+	if err != nil {
+		return nil, err
+	}
+	out.Results = append(out.Results, test...)
 	return out, nil
+}
+
+// tankWallOutcome is the tube kind's outcome for the shell, with the heads
+// among the code figures, at the supply's discharge temperature unless a
+// design temperature is given.
+func tankWallOutcome(in *calc.Inputs) (*calc.Outcome, error) {
+	c, err := readTubeInput(in)
+	if err != nil {
+		return nil, err
+	}
+	temperature := ordinaryTemperature
+	if l := in.LinkOf("supply"); l != nil && l.Results["discharge_temperature"] > 0 {
+		temperature = l.Results["discharge_temperature"]
+	}
+	code, err := readVesselCode(in, c, temperature)
+	if err != nil {
+		return nil, err
+	}
+	head, th, factor, err := readTankHead(in, code.wall)
+	if err != nil {
+		return nil, err
+	}
+	if head != "" && code.noFigure == "" {
+		code.figures = append(code.figures, code.wall.head(head, th, factor))
+	}
+	return tubeOutcome(in, c, code), nil
+}
+
+// readTankHead reads head, head_thickness and flat_head_factor; head is
+// "" when the block names none.
+func readTankHead(in *calc.Inputs, w codeWall) (head string, th, factor float64, err error) {
+	head = in.NameOf("head")
+	mm := display.TraceIn(in.Customary(), "mm")
+	switch {
+	case head == "" && in.Has("head_thickness"):
+		return "", 0, 0, &calc.InputError{Key: "head_thickness", Message: "is given but head is missing: name the heads (" + strings.Join(vesselHeads[:4], ", ") + ")"}
+	case head == "" && in.Has("flat_head_factor"):
+		return "", 0, 0, &calc.InputError{Key: "flat_head_factor", Message: "is given but head is missing: it is C of a welded flat head (head = \"flat\")"}
+	case head == "":
+		return "", 0, 0, nil
+	case head == "bolted":
+		return "", 0, 0, &calc.InputError{Key: "head", Message: "\"bolted\" is refused: a bolted flat cover needs the moment its gasket's load puts on it (the W·h_G/(S·E·d³) term of UG-34 with the gasket loads of Appendix 2), which this model lacks; " +
+			"allowed: " + strings.Join(vesselHeads[:4], ", ") + "; give a bolted cover's bolts as a bolts block"}
+	case !in.Has("head_thickness"):
+		return "", 0, 0, &calc.InputError{Key: "head", Message: fmt.Sprintf("head = %q needs head_thickness, the heads' thickness as built (a length, e.g. \"3 mm\")", head)}
+	case head != "flat" && in.Has("flat_head_factor"):
+		return "", 0, 0, &calc.InputError{Key: "flat_head_factor", Message: fmt.Sprintf("is C of a welded flat head; head = %q takes none", head)}
+	}
+	th, factor = in.Value("head_thickness"), defaultFlatHeadFactor
+	if in.Has("flat_head_factor") {
+		factor = in.Value("flat_head_factor")
+	}
+	if th <= w.ca {
+		return "", 0, 0, &calc.InputError{Key: "head_thickness", Message: fmt.Sprintf(
+			"%s leaves nothing of the head once the corrosion allowance %s is taken off; allowed: more than the corrosion allowance", mm(th), mm(w.ca))}
+	}
+	return head, th, factor, nil
 }
 
 // checkWallInputs asks for the whole wall when part of it is given.
@@ -273,10 +360,15 @@ func checkWallInputs(in *calc.Inputs) error {
 			given = append(given, name)
 		}
 	}
+	whole := "give material, inner_diameter and wall_thickness or outer_diameter for the shell wall, or none of them"
 	if len(given) == 0 {
+		for _, name := range []string{"head", "head_thickness", "flat_head_factor"} {
+			if in.Given(name) {
+				return &calc.InputError{Key: name, Message: "is given but the shell wall is missing: the heads' code figure needs the shell's material and diameter; " + whole}
+			}
+		}
 		return nil
 	}
-	whole := "give material, inner_diameter and wall_thickness or outer_diameter for the shell wall, or none of them"
 	for _, name := range []string{"material", "inner_diameter"} {
 		if !in.Has(name) {
 			return &calc.InputError{Key: given[0], Message: fmt.Sprintf("%s is given but %s is missing: %s", given[0], name, whole)}

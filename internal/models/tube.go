@@ -26,17 +26,21 @@ var tubeKind = calc.Kind{
 		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the wall (specgen explain lists the materials)"},
 		{Name: "closed_ends", Type: calc.Name, Default: "true", Choices: func(any) []string { return []string{"false", "true"} },
 			Meaning: "true when the tube's own wall carries the end load (capped cylinder); false when tie rods or the frame carry it"},
+		vesselInputs[0], vesselInputs[1], vesselInputs[2],
+		{Name: "volume", Dim: units.Volume, Optional: true, Range: calc.Between(minVesselVolume, 1e3), Meaning: "volume the wall holds, up to 1000 m3: gives the pneumatic-test figures (test_energy, tnt_equivalent, test_distance)"},
+		testInputs[0],
 	},
-	Results: []calc.ResultSpec{
+	Results: append([]calc.ResultSpec{
 		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore, Lamé (thick wall): the largest stress in the wall"},
 		{Name: "hoop_stress_thin", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress by the thin-wall formula p·Di/2t, for comparison"},
 		{Name: "axial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "longitudinal stress from the end load (0 for open ends)"},
 		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure"},
 		{Name: "burst_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "pressure at which the wall bursts, Barlow's formula on the outside diameter and tensile strength"},
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure over the site's minimum safety factor for the material"},
+		{Name: "code_allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "the least pressure of the thin-shell formulas of ASME VIII-1 (UG-27) with the joint efficiency, in the corroded condition (metals only)"},
 		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
 			Meaning: "design strength over the equivalent stress at the bore (von Mises against yield; the largest principal stress against tensile strength when the material has no yield point)"},
-	},
+	}, testResults...),
 	Evaluate: evaluateTube,
 }
 
@@ -164,6 +168,41 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 	if err != nil {
 		return nil, err
 	}
+	code, err := readVesselCode(in, c, ordinaryTemperature)
+	if err != nil {
+		return nil, err
+	}
+	out := tubeOutcome(in, c, code)
+	if in.Has("volume") {
+		hasCode := len(code.figures) > 0
+		test, err := pneumaticTestResults(in, in.Value("volume"), c.p, out.ResultValue("code_allowable_pressure")-c.ambient, hasCode)
+		if err != nil {
+			return nil, err
+		}
+		out.Results = append(out.Results, test...)
+	} else if in.Has("test_pressure") {
+		return nil, &calc.InputError{Key: "test_pressure", Message: "is given but volume is missing: the pneumatic-test figures need the volume the wall holds"}
+	}
+	return out, nil
+}
+
+// readVesselCode reads a wall's code inputs and works out its shell
+// figures, at a design temperature of fallback unless one is given.
+func readVesselCode(in *calc.Inputs, c tubeInput, fallback float64) (vesselCode, error) {
+	w, noFigure, err := readCodeWall(in, c, fallback)
+	if err != nil {
+		return vesselCode{}, err
+	}
+	code := vesselCode{wall: w, noFigure: noFigure}
+	if noFigure == "" {
+		code.figures = w.shell()
+	}
+	return code, nil
+}
+
+// tubeOutcome is the wall's stresses, burst and allowable pressures, its
+// code figure and its safety factor.
+func tubeOutcome(in *calc.Inputs, c tubeInput, code vesselCode) *calc.Outcome {
 	var (
 		di, do   = 2 * c.ri, 2 * c.ro
 		ri2, ro2 = c.ri * c.ri, c.ro * c.ro
@@ -205,9 +244,14 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "radial_stress", Value: radial, Dim: units.Stress, Trace: calc.Trace{Formula: "σ_r = −p (at the bore)", Substituted: "= −" + bar(c.p)}},
 		{Name: "burst_pressure", Value: burst + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_burst = 2 · S_u · t / Do (Barlow, outside diameter, tensile strength)", Substituted: "= 2 · " + mpa(c.material.TensileStrength) + " · " + mm(c.t) + " / " + mm(do) + " (" + c.material.Label + ")"}},
 		{Name: "allowable_pressure", Value: allow + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_allow = p_burst / n_min", Substituted: "= " + bar(burst) + " / " + num(c.minFactor) + " (site minimum for " + c.material.Label + ")"}},
-		{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace},
 	}
-	return &calc.Outcome{Results: res}, nil
+	if len(code.figures) > 0 {
+		res = append(res, codeAllowableResult(code.wall, code.figures, c.ambient))
+	} else {
+		res[len(res)-1].Trace.Substituted += "; " + code.noFigure
+	}
+	res = append(res, calc.Result{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace})
+	return &calc.Outcome{Results: res}
 }
 
 // tubeFactor returns the safety factor at the bore and its trace: the
