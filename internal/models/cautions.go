@@ -50,6 +50,7 @@ var rules = []calc.Rule{
 	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
 	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
 	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
+	{ID: "relief-too-small", Level: calc.Danger, Summary: "a relief valve that passes less air at its relieving pressure than the compressors it protects (directly or through the receiver they fill) deliver there", Check: reliefTooSmall},
 	{ID: "relief-below-target", Level: calc.Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", Check: reliefBelowTarget},
 	{ID: "fill-above-rating", Level: calc.Caution, Summary: "a tank filled above the discharge pressure its supply's block is computed at: the stage's forces, temperature and power run above what its block shows", Check: fillAboveRating},
 	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
@@ -315,6 +316,62 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
 			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+	}
+	return out
+}
+
+// reliefTooSmall raises a DANGER on a relief valve whose capacity at its
+// relieving pressure is less than the mass flow the compressors it
+// protects deliver there: those it names, and the supplies of the
+// receivers it names, each counted once.
+func reliefTooSmall(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, v := range s.Blocks {
+		capacity, ok := v.Result("relieving_capacity")
+		p0, _ := v.Result("relieving_pressure")
+		vin := v.ModelInputs()
+		if !ok || vin == nil {
+			continue
+		}
+		var sources []*calc.Linked
+		seen := map[string]bool{}
+		add := func(l *calc.Linked) {
+			if l != nil && l.Roles&calc.Delivers != 0 && !seen[l.ID] {
+				seen[l.ID] = true
+				sources = append(sources, l)
+			}
+		}
+		for _, l := range vin.LinksOf("protects") {
+			add(l)
+			if p, ok := s.Lookup(l.ID); ok && p.Block.Kind.Has(calc.Receiver) && p.ModelInputs() != nil {
+				add(p.ModelInputs().LinkOf("supply"))
+			}
+		}
+		demand := 0.0
+		var ids []string
+		for _, l := range sources {
+			m, err := deliveredMass(l, p0.Value)
+			if err != nil {
+				continue
+			}
+			demand += m
+			ids = append(ids, l.ID)
+		}
+		if len(ids) == 0 || capacity.Value >= demand {
+			continue
+		}
+		p1, t1 := supplyInlet(sources[0])
+		verb := "delivers"
+		if len(ids) > 1 {
+			verb = "deliver"
+		}
+		free := func(m float64) string {
+			return v.Show(m*airGasConstant*t1/p1, units.VolumeFlow, "L/min")
+		}
+		out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+			"%s passes %s (%s of free air) at its relieving pressure %s, less than the %s (%s) that %s %s there. Once it lifts the pressure goes on rising past its set point: fit a valve with a larger seat or lift, or a second valve.",
+			v.Block.ID, v.Show(capacity.Value, units.MassFlow, "g/s"), free(capacity.Value), v.Show(p0.Value, units.Pressure, "bar"),
+			v.Show(demand, units.MassFlow, "g/s"), free(demand), strings.Join(ids, " and "), verb)}})
 	}
 	return out
 }
