@@ -28,6 +28,7 @@ type blockCase struct {
 	Block     string
 	Blocks    []map[string]any
 	Check     []struct {
+		Block     string // "" for the case's block
 		Result    string
 		Basis     string // "" for value; otherwise the test computes the reference
 		Value     string
@@ -109,11 +110,15 @@ func runBlockCase(t *testing.T, f string, reference referenceFunc) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	e, ok := set.Lookup(c.Block)
-	if !ok {
-		t.Fatalf("no block %q", c.Block)
-	}
 	for _, ch := range c.Check {
+		id := c.Block
+		if ch.Block != "" {
+			id = ch.Block
+		}
+		e, ok := set.Lookup(id)
+		if !ok {
+			t.Fatalf("no block %q", id)
+		}
 		r, ok := e.Result(ch.Result)
 		if !ok {
 			t.Errorf("no result %q", ch.Result)
