@@ -25,7 +25,7 @@ var boltsKind = calc.Kind{
 		{Name: "property_class", Type: calc.Name, Choices: propertyClassChoices, Resolve: resolvePropertyClass, Meaning: "property class of metric bolts (ISO 898-1: 4.6 to 12.9, written 8.8 or \"8.8\") or grade of inch bolts (\"SAE 2\", \"SAE 5\", \"SAE 8\", \"A307\", \"A325\", \"A490\"): " + strings.Join(propertyClassChoices(nil), ", ")},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure under the head, gauge unless marked absolute; must be above ambient"},
 		{Name: "pressure_diameter", Dim: units.Length, Range: calc.Between(minPartSize, 10), Meaning: "diameter the pressure acts over: the gasket's mean diameter, or its outer diameter to be safe; up to 10 m"},
-		{Name: "nut_material", Type: calc.Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
+		{Name: "nut_material", Type: calc.Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
 		{Name: "engagement_length", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 1), Meaning: "length of full thread engaged in the nut or tapped hole, at least one pitch; default 0.8 × the nominal diameter for the default nut, required when nut_material is given"},
 	},
 	Results: []calc.ResultSpec{

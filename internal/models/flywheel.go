@@ -23,7 +23,7 @@ var flywheelKind = calc.Kind{
 		{Name: "speed_fluctuation", Dim: units.Dimensionless, Range: calc.Between(1e-4, 0.5),
 			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for belt-driven compressors: common practice)"},
 		{Name: "density", Dim: units.Density, Optional: true, Range: calc.Between(minSolidDensity, 1e5), Meaning: "density of the flywheel material; give density or material"},
-		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
+		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
 		{Name: "thickness", Dim: units.Length, Range: calc.Between(minPartSize, 10), Meaning: "axial thickness of the disc, or axial width of the rim"},
 		{Name: "shape", Type: calc.Name, Default: "disc", Choices: func(any) []string { return []string{"disc", "rim"} },
 			Meaning: "disc: a solid disc of uniform thickness; rim: a ring of radial depth rim_depth with no web or hub"},

@@ -403,10 +403,48 @@ func (m *Materials) Lookup(name string) (Material, error) {
 		return m.byName[resolved], nil
 	}
 	names := m.Names()
-	if s := calc.Suggest(name, names); s != "" {
+	if s := m.Suggest(name); s != "" {
 		return Material{}, fmt.Errorf("unknown material %q; did you mean %q? (materials: %s)", name, s, strings.Join(names, ", "))
 	}
 	return Material{}, fmt.Errorf("unknown material %q; materials: %s (add your own under [materials] in specgen.toml)", name, strings.Join(names, ", "))
+}
+
+// Suggest proposes the material nearest in spelling to a name the table
+// lacks, among those of the class the name is written for: a steel's name
+// ("a36", "1018") gets a metal, never a plastic, and a plastic's a plastic.
+func (m *Materials) Suggest(name string) string {
+	class, known := writtenClass(name)
+	var names []string
+	for _, n := range m.Names() {
+		if !known || m.byName[n].Class == class {
+			names = append(names, n)
+		}
+	}
+	return calc.Suggest(name, names)
+}
+
+// metalName and plasticName match what people write for metals (steel
+// grades such as S235, St37, A36 and 1018, alloys, "ms" for mild steel)
+// and for plastics.
+var (
+	metalName   = regexp.MustCompile(`(?i)steel|stainless|iron|alu|brass|bronze|copper|metal|aisi|astm|^en-|^sa-?[0-9]|^a-?[0-9]|^st?-?[0-9]|^ss|^ms$|^cw|^[0-9]+([.-]|$)`)
+	plasticName = regexp.MustCompile(`(?i)pla|petg|pet|abs|asa|nylon|^pa-?[0-9]|^pc|pmma|acrylic|pvc|pe$|hdpe|pom|acetal|delrin|ptfe|peek|resin|tpu|plastic|polymer|poly`)
+)
+
+// writtenClass is the class of material name is written for, when it says.
+func writtenClass(name string) (MaterialClass, bool) {
+	switch {
+	case metalName.MatchString(name) && !plasticName.MatchString(name):
+		return Metal, true
+	case plasticName.MatchString(name) && !metalName.MatchString(name):
+		return Plastic, true
+	}
+	return "", false
+}
+
+// suggestMaterial is the Suggest of material inputs.
+func suggestMaterial(env any, text string) string {
+	return siteEnv(env).Materials.Suggest(text)
 }
 
 // Names lists the materials, sorted.

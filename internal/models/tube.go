@@ -23,7 +23,7 @@ var tubeKind = calc.Kind{
 		{Name: "outer_diameter", Dim: units.Length, Optional: true, Range: calc.Between(1e-4, 20), Meaning: "outside diameter; give outer_diameter or wall_thickness"},
 		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 5), Meaning: "wall thickness, 1 µm or more and less than the inner radius; give wall_thickness or outer_diameter"},
 		{Name: "pressure", Dim: units.Pressure, Range: calc.Range{Max: maxTubePressure, HasMax: true}, Meaning: "internal pressure, above ambient, up to 1 GPa; the outside is at ambient"},
-		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the wall (specgen explain lists the materials)"},
+		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the wall (specgen explain lists the materials)"},
 		{Name: "closed_ends", Type: calc.Name, Default: "true", Choices: func(any) []string { return []string{"false", "true"} },
 			Meaning: "true when the tube's own wall carries the end load (capped cylinder); false when tie rods or the frame carry it"},
 		vesselInputs[0], vesselInputs[1], vesselInputs[2],

@@ -22,7 +22,7 @@ var valveKind = calc.Kind{
 		{Name: "spring_rate", Dim: units.Stiffness, Range: positiveUpTo(1e9), Meaning: "spring stiffness, force per unit compression"},
 		{Name: "preload", Dim: units.Length, Range: calc.Between(0, 1), Meaning: "how far the spring is compressed with the valve closed, 0 to 1 m"},
 		{Name: "protects", Type: calc.LinkList, Optional: true, LinkRoles: calc.Delivers | calc.PressurePart, Meaning: "ids of the compressors and pressure parts the valve relieves; makes it a relief valve"},
-		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the seat or poppet, for the printed-part caution"},
+		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the seat or poppet, for the printed-part caution"},
 		{Name: "lift", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 1), Meaning: "how far the stop lets the poppet lift, up to 1 m; the lift used is the lesser of this and what the spring allows at the relieving pressure (relief valves)"},
 		{Name: "discharge_coefficient", Dim: units.Dimensionless, Default: "0.6", Range: calc.Range{Min: 0, Max: 1, HasMin: true, HasMax: true, MinOpen: true},
 			Meaning: "discharge coefficient Cd of the open valve, above 0 up to 1; 0.6 for a plain poppet (common practice)"},
