@@ -115,7 +115,22 @@ Limits
   lower bounds on power.
 - The discharge temperature assumes the same n; real discharge temperatures
   depend on cooling. With no delivery it is the peak of the trapped air,
-  T1·CR^(n−1).`
+  T1·CR^(n−1).
+
+Rod swing (with rod_width and liner_bottom)
+  The crank axis is the origin and the line of stroke the y axis: the crank
+  pin is at (R·sin θ, R·cos θ), the wrist pin at (0, R·cos θ + sqrt(L² −
+  R²·sin² θ)), and the bottom inner corners of the bore at (±D/2, h), h the
+  height of the cylinder wall's bottom edge above the crank axis.
+  rod_clearance is the least distance from a corner to the rod's
+  centreline, less half rod_width, over the crank angles at which the
+  centreline crosses height h: sampled every 0.1°, refined by
+  golden-section search, and taken at the angles where either pin passes
+  h. Negative means the rod's outline overlaps the corner. The rod is a
+  strip of constant width there; a rod that widens towards the big end, the
+  crank webs and the counterweights are not checked. The kinematics chart
+  marks the crank angle of the least clearance; the rod-strikes-liner rule
+  raises a DANGER at or below 0 and a WARNING below 1 mm.`
 
 // readCompressor reads a compressor block: its cylinder, then its
 // inlet and discharge pressures.

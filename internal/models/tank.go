@@ -131,15 +131,62 @@ Wall (optional)
   model then runs at the target pressure and the tank reports its
   hoop_stress (Lamé, at the bore), safety_factor and allowable_pressure
   (Barlow burst pressure over the site's minimum factor; specgen explain tube).
-  Heads, nozzles and welds are not checked: a shell that passes is not a
-  vessel that passes.
+  Beside them it reports code_allowable_pressure, the least pressure of the
+  common pressure-vessel formulas (ASME Section VIII Division 1, from
+  memory) for the shell and, with head and head_thickness, its heads, with
+  the joint efficiency E (default 0.70: a welded receiver whose seams are
+  not radiographed) in the corroded condition (walls less
+  corrosion_allowance, inside dimensions plus it; specgen explain tube for
+  the shell and the allowable stress S). Heads, D the inside diameter, R the
+  inside radius, t the head's corroded thickness:
+    ellipsoidal (2:1)  P = 2·S·E·t/(D + 0.2·t)        UG-32(d)
+    hemispherical      P = 2·S·E·t/(R + 0.2·t)        UG-32(f), up to
+                       t = 0.356·R (P = 0.665·S·E); thicker: Appendix 1-3,
+                       P = 2·S·E·(Y − 1)/(Y + 2), Y = ((R + t)/R)³
+    torispherical      P = S·E·t/(0.885·L + 0.1·t)    UG-32(e), crown
+                       radius L the shell's outside diameter (plus the
+                       corrosion allowance), knuckle 6 % of L
+    flat (welded)      P = S·E·(t/d)²/C               UG-34, d = D, C 0.33
+                       unless flat_head_factor gives it (at least 0.20)
+  A bolted flat cover is refused: its thickness depends on the moment of
+  its gasket load (UG-34 with Appendix 2), which the model lacks. The
+  design temperature is the supply's discharge temperature unless given.
+  The rules compare the working pressure and a compressor's dead-head
+  pressure with the lower of allowable_pressure and code_allowable_pressure.
+  Nozzles, openings, supports and weld details are not checked: a vessel
+  that passes here is not a vessel that passes its code. Welding takes the
+  temper out of heat-treated aluminium alloys (6061-T6): a welded one has
+  the strength of its annealed welds, well below its table values.
 
 Stored energy
   E = p2·V/(γ−1) · [1 − (p_a/p2)^((γ−1)/γ)],  γ = 1.4
   the work of an isentropic expansion of the air to ambient p_a, the form
   ASME PCC-2 Article 501 (pneumatic testing) uses in its mandatory appendix
   on stored energy. The trace also shows the isothermal figure p2·V·ln(p2/p_a),
-  the upper bound if the air could take up heat as it expands.`
+  the upper bound if the air could take up heat as it expands.
+
+Pneumatic test (every tank)
+  test_energy, tnt_equivalent and test_distance are the stored energy of a
+  pneumatic test at test_pressure by the equations of ASME PCC-2 Article
+  501, Mandatory Appendices II and III, as the published text states them:
+    E = 2.5 · p_at · V · [1 − (p_a/p_at)^0.286]   J, p_at in Pa(a), V in m³,
+        p_a = 101 000 Pa, p_at = the gauge test pressure + 101 325 Pa
+    TNT = E / 4 266 920 J/kg
+    R = the greater of 30 m (E ≤ 135.5 MJ; 60 m up to 271 MJ) and
+        R_scaled · TNT^(1/3), R_scaled = 20 m/kg^(1/3)
+  A block written in US units takes the US form with its own constants:
+  E = 360 · p_at · V · [...] ft·lbf with psia and ft³, p_a = 14.7 psia,
+  TNT = E / 1 488 617 ft·lbf/lb, R_scaled = 50 ft/lb^(1/3), and 100 ft
+  (200 ft) up to 100 000 000 (200 000 000) ft·lbf (from memory). The two TNT
+  constants differ by about 4 %, and so do the two forms' figures. Some
+  secondary sources write the distance as R_scaled · (2·TNT)^(1/3), a charge
+  doubled for a burst at ground level (26 % farther): check the edition
+  you work to. test_pressure defaults to 1.1 × code_allowable_pressure, or
+  without one 1.1 × the target pressure (the pneumatic test of ASME VIII-1
+  UG-100, from memory). PCC-2's 0.286 and 101 000 Pa stand for 2/7 and the
+  standard atmosphere: from 2 bar(g) up its E is within 1 % of the
+  isentropic expression above (tested). A hydrostatic test stores a small
+  fraction of this: the stored-energy caution recommends one.`
 
 // supplyModel is a compressor block's cycle as a receiver's supply sees it,
 // pressures absolute.

@@ -99,6 +99,38 @@ Burst and allowable pressure
   both yield and tensile strength with their own factors and usually allow
   less. Where a code applies, its allowable governs.
 
+Code figure (metals)
+  code_allowable_pressure is the lesser of the thin-shell formulas of the
+  common pressure-vessel rules (ASME Section VIII Division 1, UG-27, from
+  memory), with the joint efficiency E (joint_efficiency, default 1.0 for
+  a seamless tube; double-welded butt joints take 1.0 fully radiographed,
+  0.85 spot-radiographed, 0.70 not radiographed, Table UW-12) in the
+  corroded condition: t the wall less corrosion_allowance, R the inside
+  radius plus it.
+    circumferential  P = S·E·t/(R + 0.6·t)    up to t = R/2 (P = 0.385·S·E)
+    longitudinal     P = 2·S·E·t/(R − 0.4·t)  up to t = R/2 (P = 1.25·S·E),
+                     only with closed_ends
+  Beyond its limit a thin formula does not apply; the thick-wall figure of
+  Appendix 1-2 stands in for it, P = S·E·(Z − 1)/(Z + 1) and P = S·E·(Z − 1)
+  with Z = ((R + t)/R)², Lamé's pressures for a bore stress of S.
+  The allowable stress S is the material row's own (allowable_stress), or
+  the lesser of S_u/3.5 and 2/3·S_y on the specified minimum strengths, the
+  basis of those rules at ordinary temperatures (UG-23, from memory).
+  No code figure is given, with the reason in allowable_pressure's
+  working, for plastics (the rules cover metals; fibre-reinforced plastic
+  vessels have rules of their own, unreinforced ones none), and above a
+  material's allowable_stress_temperature (aluminium and copper alloys
+  lose strength from about 100 °C) or its service temperature.
+  design_temperature defaults to 20 °C. The rules compare the working
+  pressure, and a compressor's dead-head pressure, with the lower of
+  allowable_pressure and code_allowable_pressure.
+
+Pneumatic test (with volume)
+  With the volume the wall holds, the tube reports test_energy,
+  tnt_equivalent and test_distance as the tank kind does (specgen explain
+  tank): ASME PCC-2 Article 501 at test_pressure, by default 1.1 ×
+  code_allowable_pressure.
+
 Safety factor
   With a yield strength S_y (ductile): n = S_y/σ_vM, von Mises at the bore,
     σ_vM = sqrt(((σ_θ − σ_a)² + (σ_a − σ_r)² + (σ_r − σ_θ)²)/2).

@@ -65,7 +65,29 @@ opening pressure with each protected part's allowable pressure and each
 compressor's dead-head pressure; the trace lists them. The
 relief-below-target rule cautions when it opens below the working pressure
 of a part it protects (a tank's target pressure, a compressor's discharge
-pressure, a tube's working pressure), which then never gets there.`
+pressure, a tube's working pressure), which then never gets there.
+
+Relief capacity (relief valves)
+  p_set = p_amb + Δp                          set_pressure, a gauge pressure
+                                              other blocks may quote
+  p0 = p_set + max(0.1·(p_set − p_amb), 20 kPa)   relieving_pressure: the
+       accumulation for air (ASME VIII-1 UG-125, from memory); 3 psi in a
+       block written in US units
+  h = min(lift, (p0 − p_set)/Δp · x)          a plain spring valve lifts
+       only as far as the accumulation compresses its spring further
+  A = min(π/4·d², π·d·h)                      flow_area: seat or curtain
+  ṁ = Cd·A·p0·sqrt(γ/(R·T0))·(2/(γ+1))^((γ+1)/(2(γ−1)))   when the back
+       pressure p_b = p_amb ≤ 0.5283·p0 (choked), else
+  ṁ = Cd·A·p0·sqrt(2γ/((γ−1)·R·T0)·(x^(2/γ) − x^((γ+1)/γ))), x = p_b/p0
+       relieving_capacity, γ = 1.4, R = 287.05 J/(kg K); Cd 0.6 for a plain
+       poppet unless discharge_coefficient says otherwise (common practice)
+  T0 is relieving_temperature, by default the highest discharge temperature
+  of the compressors the valve protects, else 20 °C. The working also gives
+  the capacity as free air at the protected compressor's inlet. The
+  relief-too-small rule compares ṁ with the mass flow the compressors it
+  protects, and the supplies of the receivers it protects, deliver at p0
+  (their ideal cycles at that discharge pressure). Real valves are rated by
+  test; a certified valve's stamped capacity governs over this figure.`
 
 // maxCrackingPressure is the highest cracking pressure taken as real: the
 // upper bound of the pressures the other kinds accept.

@@ -96,20 +96,29 @@ func readCodeWall(in *calc.Inputs, c tubeInput, fallback float64) (w codeWall, n
 	return w, "", nil
 }
 
-// allowableStress is the allowable stress of a metal at ordinary
-// temperatures: the row's own, or the lesser of tensile/3.5 and 2/3 of
-// yield, with its working.
-func allowableStress(m Material, mpa func(float64) string) (float64, string) {
-	if m.AllowableStress > 0 {
-		return m.AllowableStress, fmt.Sprintf("S = %s (%s: the material row's own)", mpa(m.AllowableStress), m.Label)
+// codeStress is the allowable stress of a metal at ordinary temperatures:
+// the row's own, or the lesser of tensile/3.5 and 2/3 of yield.
+func codeStress(m Material) float64 {
+	switch {
+	case m.AllowableStress > 0:
+		return m.AllowableStress
+	case m.YieldStrength == 0:
+		return m.TensileStrength / codeTensileFactor
 	}
-	s := m.TensileStrength / codeTensileFactor
-	if m.YieldStrength == 0 {
+	return math.Min(m.TensileStrength/codeTensileFactor, codeYieldFraction*m.YieldStrength)
+}
+
+// allowableStress is codeStress with its working.
+func allowableStress(m Material, mpa func(float64) string) (float64, string) {
+	s := codeStress(m)
+	switch {
+	case m.AllowableStress > 0:
+		return s, fmt.Sprintf("S = %s (%s: the material row's own)", mpa(s), m.Label)
+	case m.YieldStrength == 0:
 		return s, fmt.Sprintf("S = S_u/3.5 = %s/3.5 = %s (%s, no yield point)", mpa(m.TensileStrength), mpa(s), m.Label)
 	}
-	sy := codeYieldFraction * m.YieldStrength
-	return math.Min(s, sy), fmt.Sprintf("S = min(S_u/3.5, 2/3·S_y) = min(%s/3.5, 2/3 · %s) = %s (%s)",
-		mpa(m.TensileStrength), mpa(m.YieldStrength), mpa(math.Min(s, sy)), m.Label)
+	return s, fmt.Sprintf("S = min(S_u/3.5, 2/3·S_y) = min(%s/3.5, 2/3 · %s) = %s (%s)",
+		mpa(m.TensileStrength), mpa(m.YieldStrength), mpa(s), m.Label)
 }
 
 // shell returns the cylindrical shell's figures: circumferential stress,
