@@ -456,12 +456,14 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		}
 		msg := fmt.Sprintf("The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
 			e.Show(r.Value, units.Energy, "kJ"))
-		test, hasTest := e.Result("test_energy")
-		tnt, _ := e.Result("tnt_equivalent")
-		distance, _ := e.Result("test_distance")
-		if hasTest {
+		// Shown in the results' own units: a tank's lengths are in mm or
+		// inches, its test distance in metres or feet.
+		test, errE := e.Format("test_energy", "")
+		tnt, errT := e.Format("tnt_equivalent", "")
+		distance, errD := e.Format("test_distance", "")
+		if errE == nil && errT == nil && errD == nil {
 			msg += fmt.Sprintf(" Prove it with a hydrostatic test, with water, not with air: a pneumatic test would store %s, as much as %s of TNT, and ASME PCC-2 keeps everyone at least %s away while one runs.",
-				e.Show(test.Value, units.Energy, "kJ"), e.Show(tnt.Value, units.Mass, "kg"), e.Show(distance.Value, units.Length, "m"))
+				test, tnt, distance)
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: msg}})
 	}

@@ -189,7 +189,7 @@ func (w codeWall) head(name string, th, c float64) codeFigure {
 		// Crown radius the shell's outside diameter, knuckle 6 % of it;
 		// the crown's inside radius grows by the corrosion allowance.
 		l := 2*w.ro + w.ca
-		f = codeFigure{part: "torispherical head (crown radius L = the shell's outside diameter, knuckle 6 % of L)", formula: "S·E·t/(0.885·L + 0.1·t) (UG-32(e))",
+		f = codeFigure{part: "torispherical head", formula: "S·E·t/(0.885·L + 0.1·t), crown radius L the shell's outside diameter, knuckle 6 % of L (UG-32(e))",
 			p: se * t / (0.885*l + 0.1*t)}
 		f.working = fmt.Sprintf("%s · %s/(0.885 · %s + 0.1 · %s)", sub, mm(t), mm(l), mm(t))
 	case "flat":
