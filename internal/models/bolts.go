@@ -65,6 +65,7 @@ type propertyClass struct {
 	unified        bool    // an inch grade, for Unified threads
 	tensileOnly    bool    // no proof load: the factor is on the minimum tensile strength
 	standard       string
+	source         string // where the strengths come from, for traces
 }
 
 // classBand is a class's strength for nominal diameters up to upTo (m; 0
@@ -92,27 +93,27 @@ const ksi = 6.894757293168361e6
 // ASTM A307 grade A, which has no proof load and is taken on its minimum
 // tensile strength (all from memory).
 var propertyClasses = []propertyClass{
-	{name: "4.6", bands: []classBand{{proof: 225e6}}, standard: "ISO 898-1"},
-	{name: "4.8", bands: []classBand{{proof: 310e6}}, standard: "ISO 898-1"},
-	{name: "5.6", bands: []classBand{{proof: 280e6}}, standard: "ISO 898-1"},
-	{name: "5.8", bands: []classBand{{proof: 380e6}}, standard: "ISO 898-1"},
-	{name: "6.8", bands: []classBand{{proof: 440e6}}, standard: "ISO 898-1"},
-	{name: "8.8", bands: []classBand{{upTo: 16e-3, proof: 580e6, within: "d ≤ 16 mm"}, {proof: 600e6, within: "d > 16 mm"}}, standard: "ISO 898-1"},
-	{name: "9.8", bands: []classBand{{proof: 650e6, within: "d ≤ 16 mm"}}, maxDia: 16e-3, sizes: "only up to 16 mm diameter", standard: "ISO 898-1"},
-	{name: "10.9", bands: []classBand{{proof: 830e6}}, standard: "ISO 898-1"},
-	{name: "12.9", bands: []classBand{{proof: 970e6}}, standard: "ISO 898-1"},
+	{name: "4.6", bands: []classBand{{proof: 225e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "4.8", bands: []classBand{{proof: 310e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "5.6", bands: []classBand{{proof: 280e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "5.8", bands: []classBand{{proof: 380e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "6.8", bands: []classBand{{proof: 440e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "8.8", bands: []classBand{{upTo: 16e-3, proof: 580e6, within: "d ≤ 16 mm"}, {proof: 600e6, within: "d > 16 mm"}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "9.8", bands: []classBand{{proof: 650e6, within: "d ≤ 16 mm"}}, maxDia: 16e-3, sizes: "only up to 16 mm diameter", standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "10.9", bands: []classBand{{proof: 830e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "12.9", bands: []classBand{{proof: 970e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
 	{name: "SAE 2", bands: []classBand{{upTo: 0.75 * inch, proof: 55 * ksi, within: "1/4 to 3/4 in"}, {proof: 33 * ksi, within: "over 3/4 to 1-1/2 in"}},
-		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429"},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
 	{name: "SAE 5", bands: []classBand{{upTo: inch, proof: 85 * ksi, within: "1/4 to 1 in"}, {proof: 74 * ksi, within: "over 1 to 1-1/2 in"}},
-		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429"},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
 	{name: "SAE 8", bands: []classBand{{proof: 120 * ksi, within: "1/4 to 1-1/2 in"}},
-		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429"},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
 	{name: "A307", bands: []classBand{{proof: 60 * ksi, within: "1/4 to 4 in"}},
-		minDia: 0.25 * inch, maxDia: 4 * inch, sizes: "from 1/4 to 4 in", unified: true, tensileOnly: true, standard: "ASTM A307"},
+		minDia: 0.25 * inch, maxDia: 4 * inch, sizes: "from 1/4 to 4 in", unified: true, tensileOnly: true, standard: "ASTM A307", source: "ASTM A307 grade A, from memory"},
 	{name: "A325", bands: []classBand{{upTo: inch, proof: 85 * ksi, within: "1/2 to 1 in"}, {proof: 74 * ksi, within: "1-1/8 to 1-1/2 in"}},
-		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A325"},
+		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A325", source: "ASTM A325, from memory"},
 	{name: "A490", bands: []classBand{{proof: 120 * ksi, within: "1/2 to 1-1/2 in"}},
-		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A490"},
+		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A490", source: "ASTM A490, from memory"},
 }
 
 // lookupClass returns class name at nominal diameter d, and the diameters
@@ -380,9 +381,9 @@ func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 	if b.class.within != "" {
 		classNote += ", " + b.class.within
 	}
-	factorTrace := calc.Trace{Formula: "S = S_p / σ (S_p: proof strength, " + b.class.standard + ")", Substituted: "= " + mpa(b.class.proof) + " (" + classNote + ") / " + mpa(stress)}
+	factorTrace := calc.Trace{Formula: "S = S_p / σ (S_p: proof strength, " + b.class.source + ")", Substituted: "= " + mpa(b.class.proof) + " (" + classNote + ") / " + mpa(stress)}
 	if b.class.tensileOnly {
-		factorTrace.Formula = "S = S_u / σ (" + b.class.name + " has no proof load: the factor is on its minimum tensile strength, " + b.class.standard + ")"
+		factorTrace.Formula = "S = S_u / σ (" + b.class.name + " has no proof load: the factor is on its minimum tensile strength, " + b.class.source + ")"
 	}
 	areaTrace := calc.Trace{Formula: "A_s = π/4 · ((d2 + d3)/2)², d2 = d − 0.649519 · P, d3 = d − 1.226869 · P", Substituted: "= π/4 · ((" + mm(d2) + " + " + mm(d3) + ")/2)², " + t.Name + ": d = " + mm(t.D) + ", P = " + mm(t.Pitch)}
 	if t.Unified() {
