@@ -826,13 +826,7 @@ func compressorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evalua
 	if basis != "rod-sweep" {
 		t.Fatalf("unknown basis %q", basis)
 	}
-	in := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("basis rod-sweep needs %s", name)
-		}
-		return v
-	}
+	in := func(name string) float64 { return mustInput(t, e, name) }
 	r, l, half, w, h := in("stroke")/2, in("rod_length"), in("bore")/2, in("rod_width"), in("liner_bottom")
 	least := math.Inf(1)
 	for i := range 3600 {

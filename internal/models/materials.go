@@ -157,21 +157,24 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 					Msg: "a new material needs " + strings.Join(missing, ", ") + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
 			}
 		}
-		if mat.YieldStrength > mat.TensileStrength && mat.TensileStrength > 0 {
-			key := "yield_strength"
+		// A stress above the tensile strength is blamed on the key the row
+		// sets, the stress or else the tensile strength.
+		for _, c := range []struct {
+			key, what, why string
+			value          float64
+		}{
+			{"yield_strength", "yield strength", "a material yields before it breaks", mat.YieldStrength},
+			{"allowable_stress", "allowable stress", "the code figures divide the tensile strength by a factor", mat.AllowableStress},
+		} {
+			if c.value <= mat.TensileStrength || mat.TensileStrength <= 0 {
+				continue
+			}
+			key := c.key
 			if _, ok := row[key]; !ok {
 				key = "tensile_strength"
 			}
-			fail(key, fmt.Sprintf("yield strength %s is above tensile strength %s; a material yields before it breaks",
-				display.Number(mat.YieldStrength/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
-		}
-		if mat.AllowableStress > mat.TensileStrength && mat.TensileStrength > 0 {
-			key := "allowable_stress"
-			if _, ok := row[key]; !ok {
-				key = "tensile_strength"
-			}
-			fail(key, fmt.Sprintf("allowable stress %s is above tensile strength %s; the code figures divide the tensile strength by a factor",
-				display.Number(mat.AllowableStress/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
+			fail(key, fmt.Sprintf("%s %s is above tensile strength %s; %s",
+				c.what, display.Number(c.value/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa"), c.why))
 		}
 		if mat.Label == "" {
 			mat.Label = name

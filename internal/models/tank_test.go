@@ -159,6 +159,16 @@ func inputValue(t *testing.T, e *calc.Evaluated, name string) (float64, bool) {
 	return 0, false
 }
 
+// mustInput returns the SI value of e's input name, which e must have.
+func mustInput(t *testing.T, e *calc.Evaluated, name string) float64 {
+	t.Helper()
+	v, ok := inputValue(t, e, name)
+	if !ok {
+		t.Fatalf("block %s has no input %s", e.Block.ID, name)
+	}
+	return v
+}
+
 // supplyOf returns the cycle of the compressor a tank names as its supply,
 // read from the compressor's evaluated results and inputs.
 func supplyOf(t *testing.T, set *calc.Set, tank *calc.Evaluated) (rate, c, n, p1 float64) {

@@ -22,13 +22,7 @@ func TestValveReference(t *testing.T) {
 // greater of 10 % of its gauge value and 20 kPa.
 func valveReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	in := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("basis %s needs %s", basis, name)
-		}
-		return v
-	}
+	in := func(name string) float64 { return mustInput(t, e, name) }
 	const gamma, gas = 1.4, 287.05
 	d, x := in("seat_diameter"), in("preload")
 	crack := in("spring_rate") * x / (math.Pi / 4 * d * d)
