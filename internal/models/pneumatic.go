@@ -105,7 +105,9 @@ func pneumaticTestResults(in *calc.Inputs, v, working, code float64, hasCode boo
 	pu, vu, eu, mu, lu := unitFactor(f.pressure), unitFactor(f.volume), unitFactor(f.energy), unitFactor(f.mass), unitFactor(f.length)
 	pat := (p + testAtmosphere) / pu
 	vol := v / vu
-	energy := f.coefficient * pat * vol * (1 - math.Pow(f.atmosphere/pat, 0.286))
+	// Within a few pascals of ambient, p_a above p_at (101 325 Pa against
+	// the US form's 14.7 psia) would make E negative: there is nothing.
+	energy := math.Max(0, f.coefficient*pat*vol*(1-math.Pow(f.atmosphere/pat, 0.286)))
 	tnt := energy / f.tnt
 	least := 0.0
 	switch {
