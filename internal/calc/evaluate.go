@@ -514,7 +514,11 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 				}
 				if !contains(choices, text) {
 					msg := fmt.Sprintf("%q is not known; allowed: %s", text, strings.Join(choices, ", "))
-					if s := Suggest(text, choices); s != "" {
+					suggest := Suggest(text, choices)
+					if spec.Suggest != nil {
+						suggest = spec.Suggest(c.env, text)
+					}
+					if s := suggest; s != "" {
 						msg = fmt.Sprintf("%q is not known; did you mean %q? (allowed: %s)", text, s, strings.Join(choices, ", "))
 					}
 					fail(spec.Name, line, msg)

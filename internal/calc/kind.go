@@ -134,6 +134,9 @@ type InputSpec struct {
 	// Label says what a choice stands for, for people ("Mild steel S235"
 	// for "s235"); nil when the choice says it itself.
 	Label func(env any, choice string) string
+	// Suggest proposes a choice for text that is none ("" for none); nil
+	// proposes the nearest by spelling.
+	Suggest func(env any, text string) string
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"math"
 	"path/filepath"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -190,7 +191,7 @@ func TestLookupThread(t *testing.T) {
 		{"M30", `did you mean "M24"?`},
 		{"M1", `did you mean "M2"?`},
 		{"M10x0.75", `did you mean "M10", "M10x1.25" or "M10x1"?`},
-		{"bolt", `write a coarse thread as "M8"`},
+		{"bolt", `write a metric thread as "M8" (coarse) or "M8x1" (fine), a Unified one as "1/4-20"`},
 		// strconv would read these as sizes; ISO 261 writes plain decimals.
 		{"M1e1", `an exponent is not a size; write M, the nominal diameter in mm and, for a fine thread, "x" and the pitch in mm, in plain decimals, as "M8" or "M8x1"`},
 		{"M8x1e0", `an exponent is not a size`},
@@ -340,5 +341,40 @@ func TestBoltsClass98UpTo16(t *testing.T) {
 	r, _ := out.Result("safety_factor")
 	if want := "650 MPa (class 9.8, d ≤ 16 mm)"; !strings.Contains(r.Trace.Substituted, want) {
 		t.Errorf("working %q lacks %q", r.Trace.Substituted, want)
+	}
+}
+
+// TestLookupUnifiedThread: Unified designations as people write them, and
+// mistakes answered with inch threads only, never a metric size (nor a
+// metric designation with an inch one).
+func TestLookupUnifiedThread(t *testing.T) {
+	for _, c := range []struct{ name, want, series string }{
+		{"1/4-20", "1/4-20", "UNC"}, {"1/4-28", "1/4-28", "UNF"}, {"1/4-20 UNC", "1/4-20", "UNC"}, {"1/4-28unf", "1/4-28", "UNF"},
+		{"#10-24", "#10-24", "UNC"}, {"10-32", "#10-32", "UNF"}, {"No. 10-32", "#10-32", "UNF"}, {"1-8", "1-8", "UNC"}, {"1-12", "1-12", "UNF"},
+	} {
+		th, err := LookupThread(c.name)
+		if err != nil || th.Name != c.want || th.Series != c.series {
+			t.Errorf("LookupThread(%q) = %q %s, %v; want %q %s", c.name, th.Name, th.Series, err, c.want, c.series)
+		}
+	}
+	for _, c := range []struct{ name, want string }{
+		{"1/4-24", `did you mean "1/4-20" or "1/4-28"?`},
+		{"3/16-24", `did you mean "#8-32" or "#10-24"?`}, // 3/16 = 0.1875 in lies between #8 (0.164) and #10 (0.190)
+		{"1/4-20 UNF", `1/4-20 is the UNC series, not UNF`},
+		{"1/4x20", `is not a Unified designation; write the size, a hyphen and the threads per inch`},
+		{"#7-32", `did you mean "#6-32" or "#8-32"?`},
+	} {
+		_, err := LookupThread(c.name)
+		switch {
+		case err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "1-12"):
+			t.Errorf("LookupThread(%q): %v; want an error with %s and the Unified table", c.name, err, c.want)
+		case regexp.MustCompile(`"M[0-9]`).MatchString(err.Error()) || strings.Contains(err.Error(), "M24"):
+			t.Errorf("LookupThread(%q): %v; an inch designation is answered with a metric thread", c.name, err)
+		}
+	}
+	for _, name := range []string{"M7", "M30", "m8"} {
+		if _, err := LookupThread(name); err == nil || strings.Contains(err.Error(), "1/4-20") || strings.Contains(err.Error(), "#10") {
+			t.Errorf("LookupThread(%q): %v; a metric designation is answered with an inch thread", name, err)
+		}
 	}
 }

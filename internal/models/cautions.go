@@ -34,6 +34,10 @@ const (
 	fastRim = 30.0 // m/s
 	// freezing: water in the air freezes below 0 °C.
 	freezing = 273.15 // K
+	// rodNear: a rod that passes the bottom of the cylinder wall closer than
+	// this is a WARNING: bearing play, a bent rod and the tolerances of the
+	// bore and the crank take up fractions of a millimetre (common practice).
+	rodNear = 1e-3 // m
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -43,15 +47,17 @@ var rules = []calc.Rule{
 	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of: charred oil in the discharge line, burns", Check: hotAirRule},
 	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
 	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
-	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
-	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
+	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure or, when lower, its code allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
+	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure (or the lower code allowable pressure) of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
 	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
+	{ID: "relief-too-small", Level: calc.Danger, Summary: "a relief valve that passes less air at its relieving pressure than the compressors it protects (directly or through the receiver they fill) deliver there", Check: reliefTooSmall},
 	{ID: "relief-below-target", Level: calc.Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", Check: reliefBelowTarget},
 	{ID: "fill-above-rating", Level: calc.Caution, Summary: "a tank filled above the discharge pressure its supply's block is computed at: the stage's forces, temperature and power run above what its block shows", Check: fillAboveRating},
 	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
 	{ID: "printed-pressure-part", Level: calc.Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", Check: printedPart},
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
+	{ID: "rod-strikes-liner", Level: calc.Danger, Summary: "a connecting rod that touches the bottom edge of the cylinder wall as it swings (DANGER), or passes it closer than 1 mm (WARNING)", Check: rodStrikesLiner},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
 	{ID: "motor-overload", Level: calc.Warning, Summary: "a drive whose load needs more power than the motor passes through the belt at its rating times its service factor (raised by the drive model)"},
 	{ID: "start-stall", Level: calc.Danger, Summary: "a drive whose motor starting torque at the crank is under 1.2 times (WARNING) or under (DANGER) the load's torque against the highest pressure it can start against (raised by the drive model)"},
@@ -163,27 +169,50 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 	return out
 }
 
+// rating is the pressure a part is rated for, absolute, given its results:
+// its allowable pressure, or its code allowable pressure when that is
+// lower; name names the figure and basis says what it rests on.
+func rating(result func(name string) (float64, bool)) (p float64, name, basis string, ok bool) {
+	p, ok = result("allowable_pressure")
+	if !ok {
+		return 0, "", "", false
+	}
+	name, basis = "allowable pressure", "the burst pressure over the site's minimum factor"
+	if code, ok := result("code_allowable_pressure"); ok && code < p {
+		p, name, basis = code, "code allowable pressure", "the ASME VIII-1 formulas with its joint efficiency"
+	}
+	return p, name, basis, true
+}
+
+// ratingOf is the rating of an evaluated block.
+func ratingOf(e *calc.Evaluated) (p float64, name, basis string, ok bool) {
+	return rating(func(name string) (float64, bool) {
+		r, ok := e.Result(name)
+		return r.Value, ok
+	})
+}
+
 func aboveAllowable(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		allow, ok := e.Result("allowable_pressure")
+		allow, name, basis, ok := ratingOf(e)
 		burst, hasBurst := e.Result("burst_pressure")
 		in, working := e.ModelInputs(), e.Block.Kind.WorkingPressure
 		if !ok || in == nil || working.Key == "" || !in.Has(working.Key) {
 			continue
 		}
 		p := in.Value(working.Key)
-		if p <= allow.Value {
+		if p <= allow {
 			continue
 		}
-		level, why := calc.Warning, "above its allowable pressure"
+		rated := fmt.Sprintf("%s %s (%s)", name, e.Show(allow, units.Pressure, "bar"), basis)
+		level, why := calc.Warning, "above its "+rated
 		// Both pressures are absolute; the margin is on gauge pressure.
 		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
-			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
+			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)+"; its "+rated
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "allowable_pressure", Message: fmt.Sprintf(
-			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
-			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
+			"The working pressure %s is %s. Lower the pressure or strengthen the part.", e.Show(p, units.Pressure, "bar"), why)}})
 	}
 	return out
 }
@@ -230,8 +259,8 @@ func noRelief(s *calc.Set) []calc.Raised {
 					exposed = true
 				}
 			}
-			allow, _ := p.Result("allowable_pressure")
-			if !exposed || dead.Value <= allow.Value {
+			allow, name, _, _ := ratingOf(p)
+			if !exposed || dead.Value <= allow {
 				continue
 			}
 			// The relief must open below the part's allowable pressure.
@@ -244,7 +273,7 @@ func noRelief(s *calc.Set) []calc.Raised {
 				set, _ := v.Result("cracking_pressure")
 				// cracking_pressure is a difference across the seat; the
 				// valve vents to ambient, so it opens at ambient + that.
-				if set.Value+v.Ambient <= allow.Value {
+				if set.Value+v.Ambient <= allow {
 					relieved = true
 					break
 				}
@@ -255,9 +284,9 @@ func noRelief(s *calc.Set) []calc.Raised {
 			if relieved {
 				continue
 			}
-			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
-				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), p.Show(allow.Value, units.Pressure, "bar"), p.Block.ID,
-				p.Show(allow.Value, units.Pressure, "bar"), c.Block.ID)
+			msg := fmt.Sprintf("%s can dead-head at %s, above the %s %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
+				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), name, p.Show(allow, units.Pressure, "bar"), p.Block.ID,
+				p.Show(allow, units.Pressure, "bar"), c.Block.ID)
 			if len(tooHigh) > 0 {
 				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
 			}
@@ -293,6 +322,62 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Result: "max_pressure", Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
 			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+	}
+	return out
+}
+
+// reliefTooSmall raises a DANGER on a relief valve whose capacity at its
+// relieving pressure is less than the mass flow the compressors it
+// protects deliver there: those it names, and the supplies of the
+// receivers it names, each counted once.
+func reliefTooSmall(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, v := range s.Blocks {
+		capacity, ok := v.Result("relieving_capacity")
+		p0, _ := v.Result("relieving_pressure")
+		vin := v.ModelInputs()
+		if !ok || vin == nil {
+			continue
+		}
+		var sources []*calc.Linked
+		seen := map[string]bool{}
+		add := func(l *calc.Linked) {
+			if l != nil && l.Roles&calc.Delivers != 0 && !seen[l.ID] {
+				seen[l.ID] = true
+				sources = append(sources, l)
+			}
+		}
+		for _, l := range vin.LinksOf("protects") {
+			add(l)
+			if p, ok := s.Lookup(l.ID); ok && p.Block.Kind.Has(calc.Receiver) && p.ModelInputs() != nil {
+				add(p.ModelInputs().LinkOf("supply"))
+			}
+		}
+		demand := 0.0
+		var ids []string
+		for _, l := range sources {
+			m, err := deliveredMass(l, p0.Value)
+			if err != nil {
+				continue
+			}
+			demand += m
+			ids = append(ids, l.ID)
+		}
+		if len(ids) == 0 || capacity.Value >= demand {
+			continue
+		}
+		p1, t1 := supplyInlet(sources[0])
+		verb := "delivers"
+		if len(ids) > 1 {
+			verb = "deliver"
+		}
+		free := func(m float64) string {
+			return v.Show(m*airGasConstant*t1/p1, units.VolumeFlow, "L/min")
+		}
+		out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+			"%s passes %s (%s of free air) at its relieving pressure %s, less than the %s (%s) that %s %s there. Once it lifts the pressure goes on rising past its set point: fit a valve with a larger seat or lift, or a second valve.",
+			v.Block.ID, v.Show(capacity.Value, units.MassFlow, "g/s"), free(capacity.Value), v.Show(p0.Value, units.Pressure, "bar"),
+			v.Show(demand, units.MassFlow, "g/s"), free(demand), strings.Join(ids, " and "), verb)}})
 	}
 	return out
 }
@@ -375,9 +460,18 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		if r.Value > storedEnergyWarning {
 			level = calc.Warning
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "stored_energy", Message: fmt.Sprintf(
-			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
-			e.Show(r.Value, units.Energy, "kJ"))}})
+		msg := fmt.Sprintf("The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
+			e.Show(r.Value, units.Energy, "kJ"))
+		// Shown in the results' own units: a tank's lengths are in mm or
+		// inches, its test distance in metres or feet.
+		test, errE := e.Format("test_energy", "")
+		tnt, errT := e.Format("tnt_equivalent", "")
+		distance, errD := e.Format("test_distance", "")
+		if errE == nil && errT == nil && errD == nil {
+			msg += fmt.Sprintf(" Prove it with a hydrostatic test, with water, not with air: a pneumatic test would store %s, as much as %s of TNT, and ASME PCC-2 keeps everyone at least %s away while one runs.",
+				test, tnt, distance)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "stored_energy", Message: msg}})
 	}
 	return out
 }
@@ -439,6 +533,24 @@ func coldExhaust(s *calc.Set) []calc.Raised {
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "expansion_temperature", Message: fmt.Sprintf(
 			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
 			e.Show(t.Value, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func rodStrikesLiner(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		r, ok := e.Result("rod_clearance")
+		if !ok || r.Value >= rodNear {
+			continue
+		}
+		clear := e.Show(r.Value, units.Length, "mm")
+		level, what := calc.Warning, fmt.Sprintf("passes the bottom edge of the cylinder wall with %s to spare, less than %s", clear, e.Show(rodNear, units.Length, "mm"))
+		if r.Value <= 0 {
+			level, what = calc.Danger, fmt.Sprintf("strikes the bottom edge of the cylinder wall as it swings (least clearance %s)", clear)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: "The connecting rod " + what +
+			". A rod that hits the cylinder breaks the liner or itself and can throw the piston: chamfer or notch the bottom of the bore, narrow the rod where it passes, or lengthen the rod."}})
 	}
 	return out
 }

@@ -23,11 +23,13 @@ var compressorKind = calc.Kind{
 		"cylinders", "speed"),
 		calc.InputSpec{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
 	), append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency"),
-		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
-		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
+		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
+		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 		cylinderInputs("reciprocating_mass")[0],
 		calc.InputSpec{Name: "phase", Dim: units.Angle, Optional: true, Range: calc.Range{Min: 0, Max: 2 * math.Pi, HasMin: true, HasMax: true, MaxOpen: true},
 			Meaning: "crank angle, 0 to under 360°, by which this stage reaches top dead centre after the crank's zero, for a machine block that lists it; default: a machine spaces its stages evenly"},
+		calc.InputSpec{Name: "rod_width", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 1), Meaning: "width of the connecting rod in its plane of swing where it passes the bottom edge of the cylinder wall, up to 1 m; give liner_bottom with it for rod_clearance"},
+		calc.InputSpec{Name: "liner_bottom", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 50), Meaning: "distance from the crank axis up to the bottom edge of the cylinder wall (bore or liner), up to 50 m; give rod_width with it"},
 	)...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
@@ -51,6 +53,7 @@ var compressorKind = calc.Kind{
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the steady drive torque without friction"},
 		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
+		{Name: "rod_clearance", Dim: units.Length, Unit: "mm", Meaning: "least gap over a revolution between the swinging rod and the bottom inner corner of the bore, negative where they overlap (with rod_width and liner_bottom)"},
 	},
 	Charts:   compressorCharts,
 	Chart:    compressorChart,
@@ -115,7 +118,22 @@ Limits
   lower bounds on power.
 - The discharge temperature assumes the same n; real discharge temperatures
   depend on cooling. With no delivery it is the peak of the trapped air,
-  T1·CR^(n−1).`
+  T1·CR^(n−1).
+
+Rod swing (with rod_width and liner_bottom)
+  The crank axis is the origin and the line of stroke the y axis: the crank
+  pin is at (R·sin θ, R·cos θ), the wrist pin at (0, R·cos θ + sqrt(L² −
+  R²·sin² θ)), and the bottom inner corners of the bore at (±D/2, h), h the
+  height of the cylinder wall's bottom edge above the crank axis.
+  rod_clearance is the least distance from a corner to the rod's
+  centreline, less half rod_width, over the crank angles at which the
+  centreline crosses height h: sampled every 0.1°, refined by
+  golden-section search, and taken at the angles where either pin passes
+  h. Negative means the rod's outline overlaps the corner. The rod is a
+  strip of constant width there; a rod that widens towards the big end, the
+  crank webs and the counterweights are not checked. The kinematics chart
+  marks the crank angle of the least clearance; the rod-strikes-liner rule
+  raises a DANGER at or below 0 and a WARNING below 1 mm.`
 
 // readCompressor reads a compressor block: its cylinder, then its
 // inlet and discharge pressures.
@@ -218,6 +236,14 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
 	}
 
+	swing, hasSwing, err := readRodSwing(in, c)
+	if err != nil {
+		return nil, err
+	}
+	if hasSwing {
+		res = append(res, rodClearanceResult(swing, cust))
+	}
+
 	out := &calc.Outcome{Results: res}
 	if in.WantCurves() {
 		out.Curves = compressorCurves(cyc, c, gas, steps)
@@ -230,6 +256,38 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 			bara(c.p2), bara(pMax))})
 	}
 	return out, nil
+}
+
+// readRodSwing reads rod_width and liner_bottom, which come together;
+// has is false when the block gives neither.
+func readRodSwing(in *calc.Inputs, c cylinder) (s rodSwing, has bool, err error) {
+	switch {
+	case !in.Has("rod_width") && !in.Has("liner_bottom"):
+		return s, false, nil
+	case !in.Has("liner_bottom"):
+		return s, false, &calc.InputError{Key: "rod_width", Message: "is given but liner_bottom is missing: give both for rod_clearance (liner_bottom: the distance from the crank axis up to the bottom edge of the cylinder wall)"}
+	case !in.Has("rod_width"):
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: "is given but rod_width is missing: give both for rod_clearance (rod_width: the rod's width in its plane of swing at the cylinder's bottom edge)"}
+	}
+	s = rodSwing{crank: sliderCrank{r: c.crankRadius, l: c.rod}, bore: c.bore, width: in.Value("rod_width"), h: in.Value("liner_bottom")}
+	if top := c.rod + c.crankRadius; s.h > top {
+		mm := display.TraceIn(in.Customary(), "mm")
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: fmt.Sprintf(
+			"%s is above the wrist pin's highest point, %s from the crank axis (rod length + crank radius): the rod never reaches the bottom of the cylinder wall there; allowed: up to %s",
+			mm(s.h), mm(top), mm(top))}
+	}
+	return s, true, nil
+}
+
+// rodClearanceResult is the least gap between the swinging rod and the
+// bottom corner of the bore, with the crank angle it occurs at.
+func rodClearanceResult(s rodSwing, cust bool) calc.Result {
+	clear, at, _ := s.least()
+	mm := display.TraceIn(cust, "mm")
+	return calc.Result{Name: "rod_clearance", Value: clear, Dim: units.Length, Trace: calc.Trace{
+		Formula: "c = min over θ of dist(corner, rod centreline) − w/2, corners (±D/2, h), crank pin (R·sin θ, R·cos θ), wrist pin (0, R·cos θ + sqrt(L² − R²·sin² θ)), at the crank angles where the rod crosses height h",
+		Substituted: fmt.Sprintf("= %s − %s/2 at θ = %s° from top dead centre (D = %s, h = %s, R = %s, L = %s)",
+			mm(clear+s.width/2), mm(s.width), display.Number(at*180/math.Pi, ""), mm(s.bore), mm(s.h), mm(s.crank.r), mm(s.crank.l))}}
 }
 
 // compressorDischargeTemperature is the temperature at the end of compression: at the

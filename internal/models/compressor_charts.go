@@ -30,7 +30,11 @@ func compressorChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Cha
 	case "temperature":
 		return temperatureChart(c, in, out), nil
 	case "kinematics":
-		return kinematicsChart(c), nil
+		swing, hasSwing, err := readRodSwing(in, c)
+		if err != nil {
+			return nil, err
+		}
+		return kinematicsChart(c, swing, hasSwing, in.Customary()), nil
 	}
 	return nil, fmt.Errorf("no chart %q", name)
 }
@@ -189,7 +193,10 @@ func temperatureChart(c cylinder, in *calc.Inputs, out *calc.Outcome) *calc.Char
 		X: calc.Axis{Label: "Discharge pressure", Dim: units.Pressure, Unit: "bar"}, Panels: []calc.Panel{p}}
 }
 
-func kinematicsChart(c cylinder) *calc.Chart {
+// kinematicsChart draws the piston's motion; with a rod swing it marks the
+// crank angle of the least clearance between the rod and the bottom of the
+// cylinder wall.
+func kinematicsChart(c cylinder, swing rodSwing, hasSwing, customary bool) *calc.Chart {
 	g := sliderCrank{r: c.crankRadius, l: c.rod}
 	const n = 360
 	theta, x, v, a := make([]float64, n+1), make([]float64, n+1), make([]float64, n+1), make([]float64, n+1)
@@ -201,14 +208,22 @@ func kinematicsChart(c cylinder) *calc.Chart {
 		a[i] = g.acceleration(th) * c.omega * c.omega
 	}
 	angle := calc.Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"}
+	desc := "The piston's travel from top dead centre, its velocity and its acceleration over one revolution at constant crank speed, from the exact slider-crank geometry."
+	var marks []calc.Mark
+	if hasSwing {
+		clear, at, _ := swing.least()
+		marks = []calc.Mark{{Value: at, Vertical: true, Label: "least rod clearance"}}
+		desc += fmt.Sprintf(" The vertical line at %s° marks where the swinging rod passes closest to the bottom edge of the cylinder wall, %s away.",
+			display.Number(at*180/math.Pi, ""), display.Described(customary, "mm")(clear))
+	}
 	return &calc.Chart{
 		Title: "Piston position, velocity and acceleration",
-		Desc:  "The piston's travel from top dead centre, its velocity and its acceleration over one revolution at constant crank speed, from the exact slider-crank geometry.",
+		Desc:  desc,
 		X:     angle,
 		Panels: []calc.Panel{
-			{Y: calc.Axis{Label: "Position", Dim: units.Length, Unit: "mm"}, Series: []calc.Series{{Name: "position", X: theta, Y: x}}},
-			{Y: calc.Axis{Label: "Velocity", Dim: units.Velocity, Unit: "m/s"}, Series: []calc.Series{{Name: "velocity", X: theta, Y: v, Style: calc.Dashed}}},
-			{Y: calc.Axis{Label: "Acceleration", Dim: units.Acceleration, Unit: "m/s2"}, Series: []calc.Series{{Name: "acceleration", X: theta, Y: a, Style: calc.DashDot}}},
+			{Y: calc.Axis{Label: "Position", Dim: units.Length, Unit: "mm"}, Series: []calc.Series{{Name: "position", X: theta, Y: x}}, Marks: marks},
+			{Y: calc.Axis{Label: "Velocity", Dim: units.Velocity, Unit: "m/s"}, Series: []calc.Series{{Name: "velocity", X: theta, Y: v, Style: calc.Dashed}}, Marks: marks},
+			{Y: calc.Axis{Label: "Acceleration", Dim: units.Acceleration, Unit: "m/s2"}, Series: []calc.Series{{Name: "acceleration", X: theta, Y: a, Style: calc.DashDot}}, Marks: marks},
 		},
 	}
 }

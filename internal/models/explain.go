@@ -43,7 +43,7 @@ func ExplainCautions(w io.Writer, cat *calc.Catalog) {
 func ExplainMaterials(w io.Writer, env *Env) {
 	fmt.Fprintln(w, "Materials (typical values: verify for your material; add or override under [materials] in specgen.toml):")
 	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
-	fmt.Fprintln(tw, "  name\tclass\ttensile\tyield\tservice limit\tminimum factor\tsource")
+	fmt.Fprintln(tw, "  name\tclass\ttensile\tyield\tcode S\tservice limit\tminimum factor\tsource")
 	for _, name := range env.Materials.Names() {
 		m, _ := env.Materials.Lookup(name)
 		yield := "-"
@@ -54,14 +54,19 @@ func ExplainMaterials(w io.Writer, env *Env) {
 		if m.Printable {
 			class += ", printable"
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s MPa\t%s\t%s °C\t%s\t%s\n", m.Name, class, units.Format(m.TensileStrength/1e6, 3), yield,
+		code := "-"
+		if m.Class != Plastic {
+			code = units.Format(codeStress(m)/1e6, 3) + " MPa"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s MPa\t%s\t%s\t%s °C\t%s\t%s\n", m.Name, class, units.Format(m.TensileStrength/1e6, 3), yield, code,
 			units.Format(m.TemperatureLimit()-273.15, 3), units.Format(env.Safety.MinimumFor(m), 2), m.Source)
 	}
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nservice limit: the continuous-use temperature (common practice), or the heat deflection temperature when lower,")
 	fmt.Fprintln(w, "that the hot-discharge caution holds discharge temperatures against; minimum factor: the site's minimum safety")
 	fmt.Fprintln(w, "factor for the material's class (specgen.toml [safety]); a dash under yield: no yield point, so safety factors")
-	fmt.Fprintln(w, "use the tensile strength.")
+	fmt.Fprintln(w, "use the tensile strength; code S: the allowable stress of the code figures (code_allowable_pressure), the row's")
+	fmt.Fprintln(w, "allowable_stress or the lesser of tensile/3.5 and 2/3 of yield; a dash: a plastic, which gets no code figure.")
 	fmt.Fprintln(w, "\nOther names a block may use (case, spaces and underscores do not matter):")
 	for _, name := range env.Materials.Names() {
 		if m, _ := env.Materials.Lookup(name); len(m.Aliases) > 0 {

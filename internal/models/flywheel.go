@@ -25,7 +25,7 @@ var flywheelKind = calc.Kind{
 		{Name: "diameter", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 10),
 			Meaning: "outside diameter of the disc or rim the builder has, to check the speed fluctuation it holds; or give speed_fluctuation"},
 		{Name: "density", Dim: units.Density, Optional: true, Range: calc.Between(minSolidDensity, 1e5), Meaning: "density of the flywheel material; give density or material"},
-		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
+		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
 		{Name: "thickness", Dim: units.Length, Range: calc.Between(minPartSize, 10), Meaning: "axial thickness of the disc, or axial width of the rim"},
 		{Name: "shape", Type: calc.Name, Default: "disc", Choices: func(any) []string { return []string{"disc", "rim"} },
 			Meaning: "disc: a solid disc of uniform thickness; rim: a ring of radial depth rim_depth with no web or hub"},

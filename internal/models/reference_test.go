@@ -75,6 +75,7 @@ var references = map[string]referenceFunc{
 	"multistage": multistageReference,
 	"tank":       tankReference,
 	"tube":       tubeReference,
+	"valve":      valveReference,
 	"vacuum":     vacuumReference,
 }
 

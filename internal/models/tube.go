@@ -23,20 +23,24 @@ var tubeKind = calc.Kind{
 		{Name: "outer_diameter", Dim: units.Length, Optional: true, Range: calc.Between(1e-4, 20), Meaning: "outside diameter; give outer_diameter or wall_thickness"},
 		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 5), Meaning: "wall thickness, 1 µm or more and less than the inner radius; give wall_thickness or outer_diameter"},
 		{Name: "pressure", Dim: units.Pressure, Range: calc.Range{Max: maxTubePressure, HasMax: true}, Meaning: "internal pressure, above ambient, up to 1 GPa; the outside is at ambient"},
-		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the wall (specgen explain lists the materials)"},
+		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the wall (specgen explain lists the materials)"},
 		{Name: "closed_ends", Type: calc.Name, Default: "true", Choices: func(any) []string { return []string{"false", "true"} },
 			Meaning: "true when the tube's own wall carries the end load (capped cylinder); false when tie rods or the frame carry it"},
+		vesselInputs[0], vesselInputs[1], vesselInputs[2],
+		{Name: "volume", Dim: units.Volume, Optional: true, Range: calc.Between(minVesselVolume, 1e3), Meaning: "volume the wall holds, up to 1000 m3: gives the pneumatic-test figures (test_energy, tnt_equivalent, test_distance)"},
+		testInputs[0],
 	},
-	Results: []calc.ResultSpec{
+	Results: append([]calc.ResultSpec{
 		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore, Lamé (thick wall): the largest stress in the wall"},
 		{Name: "hoop_stress_thin", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress by the thin-wall formula p·Di/2t, for comparison"},
 		{Name: "axial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "longitudinal stress from the end load (0 for open ends)"},
 		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure"},
 		{Name: "burst_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "pressure at which the wall bursts, Barlow's formula on the outside diameter and tensile strength"},
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure over the site's minimum safety factor for the material"},
+		{Name: "code_allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "the least pressure of the thin-shell formulas of ASME VIII-1 (UG-27) with the joint efficiency, in the corroded condition (metals only)"},
 		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
 			Meaning: "design strength over the equivalent stress at the bore (von Mises against yield; the largest principal stress against tensile strength when the material has no yield point)"},
-	},
+	}, testResults...),
 	Evaluate: evaluateTube,
 }
 
@@ -94,6 +98,38 @@ Burst and allowable pressure
   strength; pressure-vessel and piping codes set design stresses from
   both yield and tensile strength with their own factors and usually allow
   less. Where a code applies, its allowable governs.
+
+Code figure (metals)
+  code_allowable_pressure is the lesser of the thin-shell formulas of the
+  common pressure-vessel rules (ASME Section VIII Division 1, UG-27, from
+  memory), with the joint efficiency E (joint_efficiency, default 1.0 for
+  a seamless tube; double-welded butt joints take 1.0 fully radiographed,
+  0.85 spot-radiographed, 0.70 not radiographed, Table UW-12) in the
+  corroded condition: t the wall less corrosion_allowance, R the inside
+  radius plus it.
+    circumferential  P = S·E·t/(R + 0.6·t)    up to t = R/2 (P = 0.385·S·E)
+    longitudinal     P = 2·S·E·t/(R − 0.4·t)  up to t = R/2 (P = 1.25·S·E),
+                     only with closed_ends
+  Beyond its limit a thin formula does not apply; the thick-wall figure of
+  Appendix 1-2 stands in for it, P = S·E·(Z − 1)/(Z + 1) and P = S·E·(Z − 1)
+  with Z = ((R + t)/R)², Lamé's pressures for a bore stress of S.
+  The allowable stress S is the material row's own (allowable_stress), or
+  the lesser of S_u/3.5 and 2/3·S_y on the specified minimum strengths, the
+  basis of those rules at ordinary temperatures (UG-23, from memory).
+  No code figure is given, with the reason in allowable_pressure's
+  working, for plastics (the rules cover metals; fibre-reinforced plastic
+  vessels have rules of their own, unreinforced ones none), and above a
+  material's allowable_stress_temperature (aluminium and copper alloys
+  lose strength from about 100 °C) or its service temperature.
+  design_temperature defaults to 20 °C. The rules compare the working
+  pressure, and a compressor's dead-head pressure, with the lower of
+  allowable_pressure and code_allowable_pressure.
+
+Pneumatic test (with volume)
+  With the volume the wall holds, the tube reports test_energy,
+  tnt_equivalent and test_distance as the tank kind does (specgen explain
+  tank): ASME PCC-2 Article 501 at test_pressure, by default 1.1 ×
+  code_allowable_pressure.
 
 Safety factor
   With a yield strength S_y (ductile): n = S_y/σ_vM, von Mises at the bore,
@@ -164,6 +200,41 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 	if err != nil {
 		return nil, err
 	}
+	code, err := readVesselCode(in, c, ordinaryTemperature)
+	if err != nil {
+		return nil, err
+	}
+	out := tubeOutcome(in, c, code)
+	if in.Has("volume") {
+		hasCode := len(code.figures) > 0
+		test, err := pneumaticTestResults(in, in.Value("volume"), c.p, out.ResultValue("code_allowable_pressure")-c.ambient, hasCode)
+		if err != nil {
+			return nil, err
+		}
+		out.Results = append(out.Results, test...)
+	} else if in.Has("test_pressure") {
+		return nil, &calc.InputError{Key: "test_pressure", Message: "is given but volume is missing: the pneumatic-test figures need the volume the wall holds"}
+	}
+	return out, nil
+}
+
+// readVesselCode reads a wall's code inputs and works out its shell
+// figures, at a design temperature of fallback unless one is given.
+func readVesselCode(in *calc.Inputs, c tubeInput, fallback float64) (vesselCode, error) {
+	w, noFigure, err := readCodeWall(in, c, fallback)
+	if err != nil {
+		return vesselCode{}, err
+	}
+	code := vesselCode{wall: w, noFigure: noFigure}
+	if noFigure == "" {
+		code.figures = w.shell()
+	}
+	return code, nil
+}
+
+// tubeOutcome is the wall's stresses, burst and allowable pressures, its
+// code figure and its safety factor.
+func tubeOutcome(in *calc.Inputs, c tubeInput, code vesselCode) *calc.Outcome {
 	var (
 		di, do   = 2 * c.ri, 2 * c.ro
 		ri2, ro2 = c.ri * c.ri, c.ro * c.ro
@@ -205,9 +276,14 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "radial_stress", Value: radial, Dim: units.Stress, Trace: calc.Trace{Formula: "σ_r = −p (at the bore)", Substituted: "= −" + bar(c.p)}},
 		{Name: "burst_pressure", Value: burst + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_burst = 2 · S_u · t / Do (Barlow, outside diameter, tensile strength)", Substituted: "= 2 · " + mpa(c.material.TensileStrength) + " · " + mm(c.t) + " / " + mm(do) + " (" + c.material.Label + ")"}},
 		{Name: "allowable_pressure", Value: allow + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_allow = p_burst / n_min", Substituted: "= " + bar(burst) + " / " + num(c.minFactor) + " (site minimum for " + c.material.Label + ")"}},
-		{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace},
 	}
-	return &calc.Outcome{Results: res}, nil
+	if len(code.figures) > 0 {
+		res = append(res, codeAllowableResult(code.wall, code.figures, c.ambient))
+	} else {
+		res[len(res)-1].Trace.Substituted += "; " + code.noFigure
+	}
+	res = append(res, calc.Result{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace})
+	return &calc.Outcome{Results: res}
 }
 
 // tubeFactor returns the safety factor at the bore and its trace: the

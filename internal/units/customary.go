@@ -63,7 +63,7 @@ var customaryOf = map[string]string{
 	"bar": "psi", "mbar": "psi", "kPa": "psi", "MPa": "psi", "Pa": "psi",
 	"degC": "degF", "N": "lbf", "kN": "lbf", "N m": "lbf ft", "N mm": "lbf in",
 	"W": "hp", "kW": "hp", "g": "lb", "kg": "lb", "kg/m3": "lb/ft3",
-	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in", "kW/(m3/min)": "hp/cfm", "W/(L/min)": "hp/cfm",
+	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in", "kW/(m3/min)": "hp/cfm", "W/(L/min)": "hp/cfm", "g/s": "lb/h", "kg/s": "lb/h",
 }
 
 // CustomaryFor is the US customary counterpart of a metric display unit,
