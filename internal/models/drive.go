@@ -37,11 +37,11 @@ var driveKind = calc.Kind{
 			Meaning: "id of the relief valve that limits the pressure the load can start against; default: the load's discharge pressure"},
 	},
 	Results: []calc.ResultSpec{
-		{Name: "crank_speed", Dim: units.RotationalSpeed, Unit: "rpm", Meaning: "speed the belt turns the crankshaft at"},
-		{Name: "belt_speed", Dim: units.Velocity, Unit: "m/s", Meaning: "speed of the belt on the motor pulley"},
-		{Name: "ratio", Dim: units.Dimensionless, Unit: "", Meaning: "driven pulley over motor pulley: the speed reduction"},
+		{Name: "crank_speed", Dim: units.RotationalSpeed, Unit: "rpm", Meaning: "speed the belt turns the crankshaft at", WithoutLinks: true},
+		{Name: "belt_speed", Dim: units.Velocity, Unit: "m/s", Meaning: "speed of the belt on the motor pulley", WithoutLinks: true},
+		{Name: "ratio", Dim: units.Dimensionless, Unit: "", Meaning: "driven pulley over motor pulley: the speed reduction", WithoutLinks: true},
 		{Name: "motor_load_fraction", Dim: units.Dimensionless, Unit: "", Meaning: "the load's shaft power over what the motor passes through the belt at its rating"},
-		{Name: "rated_torque", Dim: units.Torque, Unit: "N m", Meaning: "the motor's torque at its rated power and speed"},
+		{Name: "rated_torque", Dim: units.Torque, Unit: "N m", Meaning: "the motor's torque at its rated power and speed", WithoutLinks: true},
 		{Name: "starting_margin", Dim: units.Dimensionless, Unit: "", Meaning: "the motor's starting torque at the crank over the load's torque at start (with starting_torque)"},
 	},
 	Evaluate: evaluateDrive,
@@ -197,6 +197,15 @@ func evaluateDrive(in *calc.Inputs) (*calc.Outcome, error) {
 	ratio := d2 / d1
 	belt := motorSpeed * d1 / 2
 	rated := power / motorSpeed
+	if in.LinksWithheld() {
+		// Quoted by the load's own blocks before the load is evaluated.
+		return &calc.Outcome{Results: []calc.Result{
+			{Name: "crank_speed", Value: crank, Dim: units.RotationalSpeed},
+			{Name: "belt_speed", Value: belt, Dim: units.Velocity},
+			{Name: "ratio", Value: ratio, Dim: units.Dimensionless},
+			{Name: "rated_torque", Value: rated, Dim: units.Torque},
+		}}, nil
+	}
 	ld, err := readLoad(in.LinkOf("load"))
 	if err != nil {
 		return nil, &calc.InputError{Key: "load", Message: err.Error()}
