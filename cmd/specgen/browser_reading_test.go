@@ -11,8 +11,8 @@ import (
 
 	"github.com/chromedp/chromedp"
 
-	"specgen/internal/display"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // demoPages lists the output page of every page of the demo site, so that a

@@ -7,10 +7,10 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/models"
-	"specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 func runCalc(args []string, stdout, stderr io.Writer) int {

@@ -14,9 +14,9 @@ import (
 	"runtime/debug"
 	"syscall"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/site"
-	"specgen/internal/version"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/version"
 )
 
 // Exit statuses.

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calcdiff"
+	"github.com/millrace-workshop/specgen/internal/calcdiff"
 )
 
 // TestMain lets the test binary stand in for specgen when a test runs a

@@ -3,7 +3,7 @@ package calc
 import (
 	"math"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Span is the band of SI values (pressures absolute, at ambient Pa) that

@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 func TestCompareClaims(t *testing.T) {

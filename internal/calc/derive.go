@@ -10,9 +10,9 @@ import (
 	"sort"
 	"strings"
 
-	"specgen/internal/display"
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Derivation is one line of a block's [derive] table: a result the block

@@ -5,8 +5,8 @@ import (
 	"math"
 	"strings"
 
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // ExprValue is a value an expression reads or gives.

@@ -9,7 +9,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // FuzzParseExpr feeds arbitrary text through ParseExpr and, when it parses,

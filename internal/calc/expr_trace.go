@@ -3,8 +3,8 @@ package calc
 import (
 	"strings"
 
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // trace writes node n with every name replaced by its value and unit. abs

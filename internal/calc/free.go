@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"strings"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // anyDimension is the dimension of a free input that quotes another

@@ -6,8 +6,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // listCatalog has a kind whose temperature input takes one value or a

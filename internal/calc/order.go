@@ -3,7 +3,7 @@ package calc
 import (
 	"strings"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // phase is a step in evaluating a block. A reference waits only for the

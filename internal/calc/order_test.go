@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // driveAndLoad is a catalog of two test kinds that refer to each other as

@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"strings"
 
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // pressureReadingProblem says why a pressure as written does not suit the

@@ -8,8 +8,8 @@ import (
 	"net/url"
 	"strings"
 
-	"specgen/internal/render"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // Marker is the hidden first line of the Markdown report, by which a CI

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // stage is a results.json block of a compressor stage whose free air

@@ -1,8 +1,8 @@
 package calcdiff
 
 import (
-	"specgen/internal/calc"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // rewrite tells how a claim's new text bounds the result against its old

@@ -10,7 +10,7 @@ import (
 	"math"
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Value shows an SI value in unit with sig significant figures: "19.7 cm³".

@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // ambient is the ambient pressure of these cases: the ISO 2533 standard

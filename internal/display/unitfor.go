@@ -3,7 +3,7 @@ package display
 import (
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // unitFor are the units a value shows in when nothing else is chosen, for

@@ -3,7 +3,7 @@ package display
 import (
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // TestUnitFor checks the default display units: each can show its

@@ -4,7 +4,7 @@ import (
 	"regexp"
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // hyphenMinus finds a hyphen-minus that is the sign of a number: at the

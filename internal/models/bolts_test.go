@@ -12,9 +12,9 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // iso898Table is one testdata/reference/tables/iso898-1-*.toml file:

@@ -3,7 +3,7 @@ package models
 import (
 	"math"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // pressureRange is the span of discharge pressure (Pa absolute) that a

@@ -10,9 +10,9 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // standardAtmosphere is the ambient pressure of the tests that evaluate a

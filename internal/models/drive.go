@@ -5,9 +5,9 @@ import (
 	"math"
 	"slices"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // driveKind models an electric motor driving a compressor or machine

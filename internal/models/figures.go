@@ -1,6 +1,6 @@
 package models
 
-import "specgen/internal/calc"
+import "github.com/millrace-workshop/specgen/internal/calc"
 
 // figuresKind has no model: its inputs are whatever the block names, and
 // its [derive] table computes from them and from any block of the site.

@@ -6,9 +6,9 @@ import (
 	"slices"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // machineKind couples compressor blocks on one crankshaft by mass

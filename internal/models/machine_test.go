@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // testStage is a machine's stage as the test reads it from the stage

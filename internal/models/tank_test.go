@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // supplyOf returns the cycle of the compressor a tank names as its supply,

@@ -8,7 +8,7 @@ import (
 	"strconv"
 	"strings"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // Thread is a screw thread of the 60° basic profile: ISO general-purpose

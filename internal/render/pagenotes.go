@@ -3,7 +3,7 @@ package render
 import (
 	"strings"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // CautionStripHTML is the one-line form of the standard caution, for a

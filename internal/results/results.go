@@ -6,9 +6,9 @@ import (
 	"fmt"
 	"io"
 
-	"specgen/internal/calc"
-	"specgen/internal/units"
-	"specgen/internal/version"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/version"
 )
 
 // Version is the schema version of results.json.

@@ -10,11 +10,11 @@ import (
 	"sort"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/inputerr"
-	"specgen/internal/render"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // valueRef is an inline value of a page, as written, with its file line.

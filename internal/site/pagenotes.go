@@ -4,9 +4,9 @@ import (
 	"cmp"
 	"html/template"
 
-	"specgen/internal/calc"
-	"specgen/internal/models"
-	"specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 // standardCaution is the standard caution of a page: the full box on a page

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"unicode"
 
-	"specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 // searchIndexFile is the site's search index: a script that hands every
