@@ -342,7 +342,7 @@ func zeroOf(dim units.Dimension) string {
 	if dim == units.Temperature {
 		return "absolute zero"
 	}
-	return "vacuum"
+	return "a perfect vacuum"
 }
 
 // power is base ^ exponent.
