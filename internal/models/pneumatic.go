@@ -64,14 +64,18 @@ var (
 // standard atmosphere, whatever the block's ambient.
 const testAtmosphere = 101325.0 // Pa
 
-// unitFactor is the SI value of one of the unit symbol, a row of the unit
-// table.
-func unitFactor(symbol string) float64 {
-	u, err := units.LookupUnit(symbol)
-	if err != nil {
-		panic("models: no unit " + symbol)
+// factors are the SI values of one of each unit the form's constants are
+// in: pressure, volume, energy, mass and length, rows of the unit table.
+func (f pcc2Form) factors() ([5]float64, error) {
+	var out [5]float64
+	for i, symbol := range []string{f.pressure, f.volume, f.energy, f.mass, f.length} {
+		u, err := units.LookupUnit(symbol)
+		if err != nil {
+			return out, fmt.Errorf("the pneumatic-test formula's unit %q: %v", symbol, err)
+		}
+		out[i] = u.Factor
 	}
-	return u.Factor
+	return out, nil
 }
 
 // pneumaticTestResults are a vessel's test_energy, tnt_equivalent and
@@ -102,7 +106,11 @@ func pneumaticTestResults(in *calc.Inputs, v, working, code float64, hasCode boo
 	if cust {
 		f = pcc2US
 	}
-	pu, vu, eu, mu, lu := unitFactor(f.pressure), unitFactor(f.volume), unitFactor(f.energy), unitFactor(f.mass), unitFactor(f.length)
+	factor, err := f.factors()
+	if err != nil {
+		return nil, err
+	}
+	pu, vu, eu, mu, lu := factor[0], factor[1], factor[2], factor[3], factor[4]
 	pat := (p + testAtmosphere) / pu
 	vol := v / vu
 	// Within a few pascals of ambient, p_a above p_at (101 325 Pa against

@@ -22,8 +22,8 @@ import (
 // memory).
 const (
 	accumulationFraction = 0.10
-	accumulationMetric   = 20e3 // Pa
-	accumulationUS       = 3    // psi
+	accumulationMetric   = 20e3         // Pa
+	accumulationUS       = 3 * 6894.757 // Pa: 3 psi (NIST SP 811 App. B: 1 psi = 6894.757 Pa)
 )
 
 // criticalRatio is the back pressure over stagnation pressure below which
@@ -68,7 +68,7 @@ func readRelief(in *calc.Inputs, crack float64) relief {
 	r := relief{set: in.Ambient + crack, back: in.Ambient, cd: in.Value("discharge_coefficient"), seat: math.Pi / 4 * d * d}
 	least := accumulationMetric
 	if in.Customary() {
-		least = accumulationUS * unitFactor("psi")
+		least = accumulationUS
 	}
 	r.accumulation = math.Max(accumulationFraction*crack, least)
 	r.p0 = r.set + r.accumulation
