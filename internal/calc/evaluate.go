@@ -24,6 +24,10 @@ type Options struct {
 	// curves of the others are dropped as soon as no block needs them, so
 	// that a big site does not hold them all. Nil keeps every curve.
 	Charted func(id string) bool
+	// Outcomes, when set, remembers what the kinds computed, so that a
+	// block whose model sees the same inputs as before is not computed
+	// again.
+	Outcomes OutcomeStore
 }
 
 // Set is every evaluated block of a site.
@@ -625,7 +629,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		e.customary = linkedSystems[true] > 0 && linkedSystems[false] == 0
 	}
 	in.customary = e.customary
-	out, err := b.Kind.Evaluate(in)
+	out, err := runModel(b, in, opts.Outcomes)
 	if err != nil {
 		var ie *InputError
 		if errors.As(err, &ie) {
