@@ -9,6 +9,7 @@ import (
 	"html/template"
 	"io"
 	"maps"
+	"os"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -71,6 +72,8 @@ type Site struct {
 	blockPage map[string]*Page     // block id → the page that holds it
 	cautions  []render.CautionItem // every caution of the site, for caution lists
 	revision  *Revision
+	// outcomes, when set, keeps the models' outcomes between builds.
+	outcomes calc.OutcomeStore
 	// progress hears of charts drawn during render; charts counts them.
 	progress    func(stage string, done, total int)
 	charts      atomic.Int64
@@ -85,7 +88,10 @@ const MaxErrors = 50
 // reports every input problem of the site at once, by file and line (at
 // most MaxErrors): each step goes on past a problem as far as the rest
 // does not depend on it.
-func Load(root string) (*Site, error) {
+func Load(root string) (*Site, error) { return load(root, nil) }
+
+// load is Load, with the models' outcomes kept in outcomes when it is set.
+func load(root string, outcomes calc.OutcomeStore) (*Site, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
 	}
@@ -118,7 +124,7 @@ func Load(root string) (*Site, error) {
 	if rels == nil {
 		return nil, reported()
 	}
-	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML))}
+	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML)), outcomes: outcomes}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
@@ -167,7 +173,9 @@ func Load(root string) (*Site, error) {
 // Build loads the site at root and writes it to the output folder. The
 // previous output stays untouched unless the whole build succeeds. When
 // nothing the build reads has changed since the last build into the same
-// folder, and that output is as it was left, nothing is redone.
+// folder, and that output is as it was left, nothing is redone; otherwise
+// only the files whose inputs changed are made again, and the others are
+// taken over from the last build (see incremental.go).
 func Build(root string, opts Options) (*Summary, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
@@ -181,13 +189,16 @@ func Build(root string, opts Options) (*Summary, error) {
 		return nil, err
 	}
 	fp, fpErr := fingerprint(root, out)
-	if fpErr == nil {
-		if m, ok := upToDate(root, out, fp); ok {
-			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, Tally: m.Tally, UpToDate: true,
-				Written: !opts.Strict || len(m.Problems) == 0}, nil
-		}
+	last := readManifest(root, out)
+	if fpErr == nil && last.upToDate(out, fp) {
+		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
+			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}
-	s, err := Load(root)
+	var outcomes *outcomeStore
+	if ns, err := outcomesNamespace(root); err == nil {
+		outcomes = newOutcomeStore(ns, filepath.Join(root, CacheDir, outcomesDir))
+	}
+	s, err := load(root, storeOrNil(outcomes))
 	if err != nil {
 		return nil, err
 	}
@@ -199,15 +210,26 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, err := s.Write(opts)
+	sum, record, err := s.write(opts, last.reusable(out))
 	if err != nil {
 		return nil, err
 	}
 	sum.Problems, sum.Tally = problems, tally
+	if outcomes != nil {
+		outcomes.prune()
+	}
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems, tally)
+		remember(root, out, fp, sum.Pages, problems, tally, record)
 	}
 	return sum, nil
+}
+
+// storeOrNil is o as a calc.OutcomeStore, nil when o is.
+func storeOrNil(o *outcomeStore) calc.OutcomeStore {
+	if o == nil {
+		return nil
+	}
+	return o
 }
 
 // outputPath resolves the output folder against the site root.
@@ -223,51 +245,90 @@ func outputPath(root, out string) string {
 
 // Write renders every page and swaps the finished output into place.
 func (s *Site) Write(opts Options) (*Summary, error) {
+	sum, _, err := s.write(opts, nil)
+	return sum, err
+}
+
+// write renders the site into a staging folder beside the output and
+// swaps it into place. Files whose inputs are as last recorded are hard
+// links to the last output (copies where the disk has no links), never
+// written through: the last output stays as it was until the swap.
+func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, error) {
 	out := outputPath(s.Root, opts.Out)
 	if err := checkOutputDir(s.Root, out); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	st, err := newStaging(out)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	put := st.create
-	if ctx := opts.Context; ctx != nil {
-		put = func(name string, write func(io.Writer) error) error {
-			if ctx.Err() != nil {
+	interrupted := func() bool { return opts.Context != nil && opts.Context.Err() != nil }
+	to := sink{
+		put: func(name string, write func(io.Writer) error) error {
+			if interrupted() {
 				return ErrInterrupted
 			}
+			// A file kept before its page had to be made again is a link
+			// to the last output: never write through it.
+			_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
 			return st.create(name, write)
-		}
+		},
+		keep: func(name string) bool { return !interrupted() && last.linkInto(st.dir, name) },
 	}
-	err = s.emit(put, opts.Progress)
+	var previous *buildRecord
+	if last != nil {
+		previous = last.record
+	}
+	record, err := s.emit(to, opts.Progress, previous)
+	if err == nil && interrupted() {
+		err = ErrInterrupted
+	}
 	if err != nil {
 		st.abandon()
-		return nil, err
+		return nil, nil, err
 	}
 	if err := st.commit(); err != nil {
 		st.abandon()
-		return nil, err
+		return nil, nil, err
 	}
-	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil
+	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, record, nil
 }
 
 // Render produces every output file in memory, keyed by output path (the
 // preview serves them from there).
 func (s *Site) Render() (map[string][]byte, error) {
-	files := map[string][]byte{}
-	var mu sync.Mutex
-	err := s.emit(func(name string, write func(io.Writer) error) error {
-		var buf bytes.Buffer
-		if err := write(&buf); err != nil {
-			return err
-		}
-		mu.Lock()
-		files[name] = buf.Bytes()
-		mu.Unlock()
-		return nil
-	}, nil)
+	files, _, err := s.renderFiles(nil, nil)
 	return files, err
+}
+
+// renderFiles is Render, taking over from files, the last build's, every
+// file whose inputs are as previous records them.
+func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord) (map[string][]byte, *buildRecord, error) {
+	made := map[string][]byte{}
+	var mu sync.Mutex
+	to := sink{
+		put: func(name string, write func(io.Writer) error) error {
+			var buf bytes.Buffer
+			if err := write(&buf); err != nil {
+				return err
+			}
+			mu.Lock()
+			made[name] = buf.Bytes()
+			mu.Unlock()
+			return nil
+		},
+		keep: func(name string) bool {
+			data, ok := files[name]
+			if ok {
+				mu.Lock()
+				made[name] = data
+				mu.Unlock()
+			}
+			return ok
+		},
+	}
+	record, err := s.emit(to, nil, previous)
+	return made, record, err
 }
 
 // bytesOf is a writer func for data already in memory.
@@ -278,17 +339,32 @@ func bytesOf(data []byte) func(io.Writer) error {
 	}
 }
 
-// emit hands every output file to put, with a func that writes its
-// contents: pages as soon as each is rendered, results.json block by
-// block, so that a big site is never held in memory whole. put may be
-// called from several goroutines. Two files with one name are an error.
-func (s *Site) emit(put func(name string, write func(io.Writer) error) error, progress func(stage string, done, total int)) error {
+// emit hands every output file to the sink: pages as soon as each is
+// rendered, results.json block by block, so that a big site is never held
+// in memory whole. With the record of the last build, every page whose
+// key is as recorded, and results.json when no block changed, is kept
+// rather than made again. put may be called from several goroutines. Two
+// files with one name are an error. It returns this build's record.
+func (s *Site) emit(to sink, progress func(stage string, done, total int), previous *buildRecord) (*buildRecord, error) {
+	put := to.put
 	static, err := readStatic(s.Root)
 	if err != nil {
-		return err
+		return nil, err
 	}
-	if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
-		return err
+	renderFP, err := renderFingerprint(s.Root)
+	if err != nil {
+		return nil, err
+	}
+	if previous != nil && previous.Render != renderFP {
+		previous = nil
+	}
+	blocks := s.blockDigests()
+	resultsKey := blocks.all
+	record := &buildRecord{Render: renderFP, Results: resultsKey, Pages: make(map[string]pageRecord, len(s.Pages))}
+	if previous == nil || previous.Results != resultsKey || !to.keep("results.json") {
+		if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
+			return nil, err
+		}
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
 	for name, data := range s.layouts.assets {
@@ -300,15 +376,15 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	for _, name := range slices.Sorted(maps.Keys(fixed)) {
 		names.take(name, "specgen's own "+name)
 		if err := put(name, bytesOf(fixed[name])); err != nil {
-			return err
+			return nil, err
 		}
 	}
 	for _, name := range slices.Sorted(maps.Keys(static)) {
 		if other, ok := names.take(name, StaticDir+"/"+name); !ok {
-			return &inputerr.Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
+			return nil, &inputerr.Error{File: StaticDir + "/" + name, Msg: fmt.Sprintf("its output %s clashes with %s; rename the file", name, other)}
 		}
 		if err := put(name, bytesOf(static[name])); err != nil {
-			return err
+			return nil, err
 		}
 	}
 	// Pages take their names in order before rendering in parallel, so
@@ -320,7 +396,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		}
 	}
 	if err := clashes.Sorted(); err != nil {
-		return err
+		return nil, err
 	}
 	claim := func(p *Page, name string) error {
 		if name == p.Out {
@@ -333,24 +409,40 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	errs := make([]error, len(s.Pages))
 	entries := make([]searchEntry, len(s.Pages))
+	records := make([]pageRecord, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
-		files, entry, err := s.renderPage(p)
-		entries[i] = entry
-		if err != nil {
-			errs[i] = err
-			return
-		}
-		for _, name := range slices.Sorted(maps.Keys(files)) {
-			if err := claim(p, name); err != nil {
+		key := s.pageKey(p, renderFP, blocks)
+		if rec, ok := previous.page(p.File, key); ok && keepAll(to, rec.Files) {
+			for _, name := range rec.Files {
+				if err := claim(p, name); err != nil {
+					errs[i] = err
+					return
+				}
+			}
+			entries[i], records[i] = rec.Search, rec
+			for range chartDataNames(p) {
+				s.chartDrawn()
+			}
+		} else {
+			files, entry, err := s.renderPage(p)
+			entries[i] = entry
+			if err != nil {
 				errs[i] = err
 				return
 			}
-			if err := put(name, bytesOf(files[name])); err != nil {
-				errs[i] = err
-				return
+			records[i] = pageRecord{Key: key, Files: slices.Sorted(maps.Keys(files)), Search: entry}
+			for _, name := range records[i].Files {
+				if err := claim(p, name); err != nil {
+					errs[i] = err
+					return
+				}
+				if err := put(name, bytesOf(files[name])); err != nil {
+					errs[i] = err
+					return
+				}
 			}
 		}
 		if n := rendered.Add(1); progress != nil {
@@ -358,9 +450,34 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		}
 	})
 	if err := collect(errs); err != nil {
-		return err
+		return nil, err
 	}
-	return s.emitHosting(put, names, entries)
+	for i, p := range s.Pages {
+		record.Pages[p.File] = records[i]
+	}
+	return record, s.emitHosting(put, names, entries)
+}
+
+// keepAll keeps every one of a page's files from the last build, or
+// reports false when one cannot be kept (the page is then made again,
+// writing over the ones kept).
+func keepAll(to sink, names []string) bool {
+	for _, name := range names {
+		if !to.keep(name) {
+			return false
+		}
+	}
+	return true
+}
+
+// page is the record of page file in the last build when it was made
+// from what key says, the page's inputs now.
+func (r *buildRecord) page(file, key string) (pageRecord, bool) {
+	if r == nil {
+		return pageRecord{}, false
+	}
+	rec, ok := r.Pages[file]
+	return rec, ok && rec.Key == key
 }
 
 // PageData is what a page template receives.
@@ -433,28 +550,35 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	if err != nil {
 		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
-	info := PageInfo{
-		Title:       p.Title,
-		Heading:     cmp.Or(p.Heading, p.Title),
-		Description: p.Front.Description,
-		Source:      p.File,
-		URL:         p.Out,
-		Content:     template.HTML(body),
-		TOCCount:    len(doc.Headings(3)),
-		Caution:     s.standardCaution(p),
-		Alert:       s.pageAlert(p),
-		Cautions:    s.pageCautions(p),
-		TOC:         render.Nest(doc.Headings(3)),
-	}
-	if s.Config.BaseURL != "" {
-		info.Canonical = s.Config.BaseURL + href(p.Out)
-	}
+	info := s.pageInfo(p)
+	info.Content = template.HTML(body)
+	info.TOCCount = len(doc.Headings(3))
+	info.TOC = render.Nest(doc.Headings(3))
 	page, err := s.layout(p, rootPrefix, info)
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
 	return out, newSearchEntry(p, doc), nil
+}
+
+// pageInfo describes page p to its template, all but what its Markdown
+// renders to (Content and the TOC).
+func (s *Site) pageInfo(p *Page) PageInfo {
+	info := PageInfo{
+		Title:       p.Title,
+		Heading:     cmp.Or(p.Heading, p.Title),
+		Description: p.Front.Description,
+		Source:      p.File,
+		URL:         p.Out,
+		Caution:     s.standardCaution(p),
+		Alert:       s.pageAlert(p),
+		Cautions:    s.pageCautions(p),
+	}
+	if s.Config.BaseURL != "" {
+		info.Canonical = s.Config.BaseURL + href(p.Out)
+	}
+	return info
 }
 
 // siteData describes the site to a page whose way up to the site's root
@@ -467,6 +591,21 @@ func (s *Site) siteData(rootPrefix string) SiteData {
 // layout lays out page p, whose way up to the site's root is rootPrefix,
 // with its layout template: info and the site's navigation around it.
 func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error) {
+	data := s.pageData(p, rootPrefix, info)
+	tpl, err := s.layouts.lookup(p.Front.Template)
+	if err != nil {
+		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
+	}
+	var buf bytes.Buffer
+	if err := tpl.Execute(&buf, data); err != nil {
+		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
+	}
+	return buf.Bytes(), nil
+}
+
+// pageData is what page p's template gets: info and the site's
+// navigation around it.
+func (s *Site) pageData(p *Page, rootPrefix string, info PageInfo) PageData {
 	data := PageData{
 		Site:        s.siteData(rootPrefix),
 		Page:        info,
@@ -485,15 +624,7 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 			data.Next = &Link{Title: s.reading[i+1].Title, URL: href(rootPrefix + s.reading[i+1].Out)}
 		}
 	}
-	tpl, err := s.layouts.lookup(p.Front.Template)
-	if err != nil {
-		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
-	}
-	var buf bytes.Buffer
-	if err := tpl.Execute(&buf, data); err != nil {
-		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
-	}
-	return buf.Bytes(), nil
+	return data
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a

@@ -20,10 +20,11 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 2
+const cacheFormat = 3
 
 // manifest records one build: what went in (a fingerprint of every input
-// and of the specgen binary) and what came out.
+// and of the specgen binary), what came out, and what each page's output
+// was made from.
 type manifest struct {
 	Format      int                   `json:"format"`
 	Fingerprint string                `json:"fingerprint"`
@@ -31,6 +32,7 @@ type manifest struct {
 	Problems    []Problem             `json:"problems"`
 	Tally       Tally                 `json:"tally"`
 	Files       map[string]outputFile `json:"files"`
+	Record      *buildRecord          `json:"record"`
 }
 
 // outputFile is what a written file looked like, to notice later edits.
@@ -125,20 +127,29 @@ func manifestPath(root, out string) string {
 	return filepath.Join(root, CacheDir, fmt.Sprintf("build-v%d-%s.json", cacheFormat, hex.EncodeToString(sum[:8])))
 }
 
-// upToDate returns the manifest of the last build into out when nothing
-// it read has changed and its output is as it left it.
-func upToDate(root, out, fp string) (*manifest, bool) {
+// readManifest reads the manifest of the last build into out, nil when
+// there is none this specgen can read.
+func readManifest(root, out string) *manifest {
 	b, err := os.ReadFile(manifestPath(root, out))
 	if err != nil {
-		return nil, false
+		return nil
 	}
 	var m manifest
-	if json.Unmarshal(b, &m) != nil || m.Format != cacheFormat || m.Fingerprint != fp {
-		return nil, false
+	if json.Unmarshal(b, &m) != nil || m.Format != cacheFormat {
+		return nil
+	}
+	return &m
+}
+
+// upToDate reports whether nothing the last build read has changed (its
+// fingerprint is fp) and its output in out is as it left it.
+func (m *manifest) upToDate(out, fp string) bool {
+	if m == nil || m.Fingerprint != fp {
+		return false
 	}
 	seen := 0
 	ok := true
-	err = filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
+	err := filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || !ok {
 			return err
 		}
@@ -148,23 +159,95 @@ func upToDate(root, out, fp string) (*manifest, bool) {
 		rel, _ := filepath.Rel(out, p)
 		want, listed := m.Files[filepath.ToSlash(rel)]
 		info, ierr := d.Info()
-		if !listed || ierr != nil || info.Size() != want.Size || info.ModTime().UnixNano() != want.ModTime {
+		if !listed || ierr != nil || !want.is(info) {
 			ok = false
 			return nil
 		}
 		seen++
 		return nil
 	})
-	if err != nil || !ok || seen != len(m.Files) {
-		return nil, false
+	return err == nil && ok && seen == len(m.Files)
+}
+
+// is reports whether a file is as it was recorded.
+func (f outputFile) is(info fs.FileInfo) bool {
+	return info.Mode().IsRegular() && info.Size() == f.Size && info.ModTime().UnixNano() == f.ModTime
+}
+
+// lastOutput is the output folder of the last build with its manifest:
+// the files an incremental build may take over.
+type lastOutput struct {
+	dir    string
+	files  map[string]outputFile
+	record *buildRecord
+}
+
+// reusable is the last build's output in out, nil when there is nothing
+// to take over.
+func (m *manifest) reusable(out string) *lastOutput {
+	if m == nil || m.Record == nil {
+		return nil
 	}
-	return &m, true
+	return &lastOutput{dir: out, files: m.Files, record: m.Record}
+}
+
+// linkInto takes the last build's file name into the staging folder dir:
+// a hard link, or a copy where the disk has none. It reports false when
+// the file is no longer as the last build left it.
+func (l *lastOutput) linkInto(dir, name string) bool {
+	if l == nil {
+		return false
+	}
+	want, ok := l.files[name]
+	if !ok {
+		return false
+	}
+	from := filepath.Join(l.dir, filepath.FromSlash(name))
+	info, err := os.Lstat(from)
+	if err != nil || !want.is(info) {
+		return false
+	}
+	to := filepath.Join(dir, filepath.FromSlash(name))
+	if os.MkdirAll(filepath.Dir(to), 0o755) != nil {
+		return false
+	}
+	_ = os.Remove(to)
+	if os.Link(from, to) == nil {
+		return true
+	}
+	return copyFile(from, to) == nil
+}
+
+// copyFile copies a file, keeping its modification time, so that the
+// copy is recorded as the last build recorded the original.
+func copyFile(from, to string) error {
+	src, err := os.Open(from)
+	if err != nil {
+		return err
+	}
+	defer src.Close()
+	info, err := src.Stat()
+	if err != nil {
+		return err
+	}
+	dst, err := os.OpenFile(to, os.O_CREATE|os.O_WRONLY|os.O_EXCL, 0o644)
+	if err != nil {
+		return err
+	}
+	_, err = io.Copy(dst, src)
+	if cerr := dst.Close(); err == nil {
+		err = cerr
+	}
+	if err != nil {
+		return err
+	}
+	return os.Chtimes(to, info.ModTime(), info.ModTime())
 }
 
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
-func remember(root, out, fp string, pages int, problems []Problem, tally Tally) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}}
+func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord) {
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}, Record: record}
 	err := filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() {
 			return err

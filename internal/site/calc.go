@@ -125,7 +125,7 @@ func (s *Site) evaluate() error {
 		}
 	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
-		Charted: func(id string) bool { return charted[id] }})
+		Charted: func(id string) bool { return charted[id] }, Outcomes: s.outcomes})
 	var errs inputerr.List
 	if err != nil {
 		errs = inputerr.From(err)

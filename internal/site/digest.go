@@ -1,0 +1,207 @@
+package site
+
+import (
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
+	"hash"
+	"math"
+	"reflect"
+	"slices"
+	"strings"
+
+	"github.com/millrace-workshop/specgen/internal/calc"
+)
+
+// digest hashes values of any type, field by field, so that an
+// incremental build can tell whether what a page's output was made from
+// has changed. It walks every field, unexported ones too, so that a field
+// added later is covered without a word here.
+type digest struct {
+	h   hash.Hash
+	buf []byte
+	// seen numbers the pointers already walked, which guards against
+	// cycles and keeps a shared value from being hashed twice.
+	seen map[uintptr]int
+	// placeless leaves out where the engine's values were written (the
+	// File and Line fields of package calc's types): what a block shows
+	// on other pages does not depend on where it stands on its own.
+	placeless bool
+}
+
+func newDigest() *digest { return &digest{h: sha256.New(), seen: map[uintptr]int{}} }
+
+// Types a digest does not walk into. A Kind is part of the specgen binary,
+// identified by its name; a Set, Catalog or model Inputs reach blocks
+// that a block's component digest covers (componentDigests).
+var (
+	kindType    = reflect.TypeFor[*calc.Kind]()
+	skippedType = map[reflect.Type]bool{
+		reflect.TypeFor[*calc.Set]():     true,
+		reflect.TypeFor[*calc.Catalog](): true,
+		reflect.TypeFor[*calc.Inputs]():  true,
+	}
+	floatsType = reflect.TypeFor[[]float64]()
+	// calcPackage and placeField name the fields a placeless digest
+	// leaves out.
+	calcPackage = reflect.TypeFor[calc.Block]().PkgPath()
+	placeField  = map[string]bool{"File": true, "Line": true, "line": true, "lines": true}
+)
+
+func (d *digest) flush() {
+	d.h.Write(d.buf)
+	d.buf = d.buf[:0]
+}
+
+// sum is the digest of everything added, in hex.
+func (d *digest) sum() string {
+	d.flush()
+	return hex.EncodeToString(d.h.Sum(nil))
+}
+
+func (d *digest) num(v uint64) {
+	d.buf = binary.LittleEndian.AppendUint64(d.buf, v)
+	if len(d.buf) > 8192 {
+		d.flush()
+	}
+}
+
+func (d *digest) str(s string) {
+	d.num(uint64(len(s)))
+	if len(s) > 4096 {
+		d.flush()
+		d.h.Write([]byte(s))
+		return
+	}
+	d.buf = append(d.buf, s...)
+}
+
+// add hashes the values, one after the other.
+func (d *digest) add(values ...any) *digest {
+	for _, v := range values {
+		d.value(reflect.ValueOf(v))
+	}
+	return d
+}
+
+func (d *digest) value(v reflect.Value) {
+	if !v.IsValid() {
+		d.str("<nil>")
+		return
+	}
+	t := v.Type()
+	if skippedType[t] {
+		return
+	}
+	switch t.Kind() {
+	case reflect.Bool:
+		if v.Bool() {
+			d.num(1)
+		} else {
+			d.num(0)
+		}
+	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64:
+		d.num(uint64(v.Int()))
+	case reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64, reflect.Uintptr:
+		d.num(v.Uint())
+	case reflect.Float32, reflect.Float64:
+		d.num(math.Float64bits(v.Float()))
+	case reflect.Complex64, reflect.Complex128:
+		c := v.Complex()
+		d.num(math.Float64bits(real(c)))
+		d.num(math.Float64bits(imag(c)))
+	case reflect.String:
+		d.str(v.String())
+	case reflect.Array:
+		for i := range v.Len() {
+			d.value(v.Index(i))
+		}
+	case reflect.Slice:
+		d.slice(v)
+	case reflect.Map:
+		d.mapValue(v)
+	case reflect.Struct:
+		d.str(t.String())
+		for i := range v.NumField() {
+			if d.placeless && t.PkgPath() == calcPackage && placeField[t.Field(i).Name] {
+				continue
+			}
+			d.value(v.Field(i))
+		}
+	case reflect.Pointer:
+		d.pointer(v)
+	case reflect.Interface:
+		if v.IsNil() {
+			d.str("<nil>")
+			return
+		}
+		d.str(v.Elem().Type().String())
+		d.value(v.Elem())
+	default:
+		// Functions and channels are code, which the binary's hash covers.
+	}
+}
+
+func (d *digest) slice(v reflect.Value) {
+	if v.IsNil() {
+		d.str("<nil>")
+		return
+	}
+	d.num(uint64(v.Len()))
+	if v.Type() == floatsType && v.CanInterface() {
+		for _, f := range v.Interface().([]float64) {
+			d.num(math.Float64bits(f))
+		}
+		return
+	}
+	if v.Type().Elem().Kind() == reflect.Uint8 {
+		d.str(string(v.Bytes()))
+		return
+	}
+	for i := range v.Len() {
+		d.value(v.Index(i))
+	}
+}
+
+func (d *digest) mapValue(v reflect.Value) {
+	if v.IsNil() {
+		d.str("<nil>")
+		return
+	}
+	// Keys in a fixed order: each by its own digest.
+	type entry struct {
+		key string
+		val reflect.Value
+	}
+	entries := make([]entry, 0, v.Len())
+	it := v.MapRange()
+	for it.Next() {
+		k := newDigest()
+		k.value(it.Key())
+		entries = append(entries, entry{k.sum(), it.Value()})
+	}
+	slices.SortFunc(entries, func(a, b entry) int { return strings.Compare(a.key, b.key) })
+	d.num(uint64(len(entries)))
+	for _, e := range entries {
+		d.str(e.key)
+		d.value(e.val)
+	}
+}
+
+func (d *digest) pointer(v reflect.Value) {
+	if v.IsNil() {
+		d.str("<nil>")
+		return
+	}
+	if v.Type() == kindType {
+		d.str("kind " + v.Elem().FieldByName("Name").String())
+		return
+	}
+	if n, ok := d.seen[v.Pointer()]; ok {
+		d.str("seen")
+		d.num(uint64(n))
+		return
+	}
+	d.seen[v.Pointer()] = len(d.seen)
+	d.value(v.Elem())
+}

@@ -1,0 +1,199 @@
+package site
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"io"
+	"io/fs"
+	"maps"
+	"os"
+	"path/filepath"
+	"slices"
+	"sort"
+	"strings"
+
+	"github.com/millrace-workshop/specgen/internal/calc"
+)
+
+// buildRecord is what one build's output was made from, so that the next
+// build keeps every file whose inputs have not changed.
+type buildRecord struct {
+	// Render is the fingerprint of what every page is rendered with
+	// (renderFingerprint); another one keeps nothing.
+	Render string `json:"render"`
+	// Results is the key of results.json: every block as evaluated.
+	Results string                `json:"results"`
+	Pages   map[string]pageRecord `json:"pages"` // by source file
+}
+
+// pageRecord is what one page's render produced.
+type pageRecord struct {
+	Key    string      `json:"key"`    // pageKey
+	Files  []string    `json:"files"`  // its output files, sorted
+	Search searchEntry `json:"search"` // its entry of the search index
+}
+
+// sink receives a build's output files.
+type sink struct {
+	// put writes a file; it may be called from several goroutines.
+	put func(name string, write func(io.Writer) error) error
+	// keep takes a file as the last build left it, or reports false
+	// (there was no last build, or the file is no longer as it was).
+	keep func(name string) bool
+}
+
+// renderFingerprint hashes what every page is rendered with besides its
+// own inputs: the specgen binary (templates embedded in it included),
+// specgen.toml and the site's templates/.
+func renderFingerprint(root string) (string, error) {
+	self, err := binaryHash()
+	if err != nil {
+		return "", err
+	}
+	h := sha256.New()
+	h.Write([]byte("specgen " + self + "\n"))
+	paths := []string{filepath.Join(root, ConfigFile)}
+	_ = filepath.WalkDir(filepath.Join(root, TemplatesDir), func(p string, d fs.DirEntry, err error) error {
+		if err == nil && !d.IsDir() {
+			paths = append(paths, p)
+		}
+		return nil
+	})
+	sort.Strings(paths)
+	for _, p := range paths {
+		data, err := os.ReadFile(p)
+		if os.IsNotExist(err) {
+			continue
+		}
+		if err != nil {
+			return "", err
+		}
+		rel, _ := filepath.Rel(root, p)
+		d := newDigest().add(filepath.ToSlash(rel), data)
+		h.Write([]byte(d.sum()))
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// outcomesNamespace identifies the catalog the models' outcomes belong
+// to: the specgen binary and specgen.toml (materials, settings).
+func outcomesNamespace(root string) (string, error) {
+	self, err := binaryHash()
+	if err != nil {
+		return "", err
+	}
+	config, err := os.ReadFile(filepath.Join(root, ConfigFile))
+	if err != nil && !os.IsNotExist(err) {
+		return "", err
+	}
+	return newDigest().add(self, config).sum(), nil
+}
+
+// blockDigests are the digests of every evaluated block: own, of what
+// its table, charts and values show and where it stands; connected, of
+// what every block connected to it by quotes, links and [derive] names,
+// in either direction, shows wherever it stands: a block's charts and
+// cautions may read those (a relief valve's setting marks the chart of
+// the stage it protects). all covers every block with its place, the
+// key of results.json.
+type blockDigests struct {
+	own, connected map[string]string
+	all            string
+}
+
+func (s *Site) blockDigests() blockDigests {
+	n := len(s.Calc.Blocks)
+	own, placeless := make([]string, n), make([]string, n)
+	calc.Parallel(n, func(i int) {
+		own[i] = newDigest().add(s.Calc.Blocks[i]).sum()
+		d := newDigest()
+		d.placeless = true
+		placeless[i] = d.add(s.Calc.Blocks[i]).sum()
+	})
+	parent := map[string]string{}
+	var find func(id string) string
+	find = func(id string) string {
+		p, ok := parent[id]
+		if !ok || p == id {
+			parent[id] = id
+			return id
+		}
+		root := find(p)
+		parent[id] = root
+		return root
+	}
+	join := func(a, b string) { parent[find(a)] = find(b) }
+	for _, e := range s.Calc.Blocks {
+		find(e.Block.ID)
+		for _, v := range e.Block.Values {
+			for _, id := range v.Deps() {
+				join(e.Block.ID, id)
+			}
+		}
+		for _, d := range e.Block.Derive {
+			for _, r := range d.Expr.Refs() {
+				if r.Block != "" {
+					join(e.Block.ID, r.Block)
+				}
+			}
+		}
+	}
+	members := map[string][]int{}
+	all := newDigest()
+	out := blockDigests{own: make(map[string]string, n), connected: make(map[string]string, n)}
+	for i, e := range s.Calc.Blocks {
+		root := find(e.Block.ID)
+		members[root] = append(members[root], i)
+		all.add(e.Block.ID, own[i])
+		out.own[e.Block.ID] = own[i]
+	}
+	byComponent := map[string]string{}
+	for root, list := range members {
+		d := newDigest()
+		for _, i := range list {
+			d.add(s.Calc.Blocks[i].Block.ID, placeless[i])
+		}
+		byComponent[root] = d.sum()
+	}
+	for _, e := range s.Calc.Blocks {
+		out.connected[e.Block.ID] = byComponent[find(e.Block.ID)]
+	}
+	out.all = all.sum()
+	return out
+}
+
+// pageKey is the digest of everything page p's output files and search
+// entry are made from, render the fingerprint of what all pages are
+// rendered with: its source; what its template
+// gets besides its Markdown (navigation, titles, previous and next, its
+// cautions and alerts); and what its Markdown is rendered with (the
+// blocks it holds and charts with those connected to them, each inline
+// value as shown, the links to blocks, the site's cautions when it lists
+// them). It reads what renderPage reads, and must keep doing so.
+func (s *Site) pageKey(p *Page, render string, blocks blockDigests) string {
+	d := newDigest()
+	d.add(render, p.File, p.Out, p.Front, p.lineOffset, p.body, p.listsCautions)
+	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
+	d.add(s.pageData(p, rootPrefix, s.pageInfo(p)))
+	for _, b := range p.blocks {
+		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
+		for _, key := range slices.Sorted(maps.Keys(b.Values)) {
+			for _, id := range b.Values[key].Deps() {
+				d.add(id, s.blockLink(p, id))
+			}
+		}
+	}
+	for _, ref := range p.refs {
+		v, _ := s.formatRef(p, ref)
+		d.add(ref, v)
+	}
+	for _, n := range p.charts {
+		d.add(n, blocks.connected[n.Block])
+	}
+	if p.listsCautions {
+		for _, it := range s.cautions {
+			d.add(it, s.blockLink(p, it.Block))
+		}
+	}
+	return d.sum()
+}

@@ -1,0 +1,247 @@
+package site
+
+import (
+	"bytes"
+	"io/fs"
+	"maps"
+	"os"
+	"path/filepath"
+	"slices"
+	"strings"
+	"syscall"
+	"testing"
+
+	"github.com/millrace-workshop/specgen/templates"
+)
+
+// incrementalSite is a small site in which every kind of dependency
+// between pages occurs: a stage (lp) charted on its page, a receiver it
+// fills (rx) quoting its delivery, a relief valve (rv) protecting both,
+// whose setting marks the stage's delivery chart, a figures block (fig)
+// deriving from the stage, a second compressor (hp) whose value a page's
+// title and another folder's page quote, and a page listing every caution.
+var incrementalSite = map[string]string{
+	"specgen.toml":     "title = \"Test workshop\"\n",
+	"static/logo.txt":  "logo\n",
+	"content/index.md": "+++\ntitle = \"Workshop\"\n+++\n# Workshop\n\nThe home page.\n",
+	"content/safety.md": "+++\ntitle = \"Safety\"\norder = 9\n+++\n# Safety\n\n```cautions\n```\n",
+	"content/a/index.md": "# Section A\n\nThe other compressor sweeps =[hp.swept_volume cm3].\n",
+	"content/a/stage.md": "+++\ntitle = \"Stage\"\norder = 1\n+++\n# Stage\n\n```calc\nid = \"lp\"\nkind = \"compressor\"\ntitle = \"Low stage\"\n" +
+		"bore = \"32 mm\"\nstroke = \"28 mm\"\nrod_length = \"70 mm\"\nclearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n\n" +
+		"[show]\ncharts = [\"pv\", \"delivery\"]\n```\n",
+	"content/a/tank.md": "+++\ntitle = \"Receiver\"\norder = 2\n+++\n# Receiver\n\nThe stage delivers =[lp.free_air_delivery L/min].\n\n" +
+		"```calc\nid = \"rx\"\nkind = \"tank\"\ntitle = \"Receiver\"\nvolume = \"10 L\"\npressure = \"6 bar\"\nsupply = \"lp\"\n```\n",
+	"content/b/relief.md": "+++\ntitle = \"Relief\"\norder = 1\n+++\n# Relief valve\n\n```calc\nid = \"rv\"\nkind = \"valve\"\ntitle = \"Relief valve\"\n" +
+		"seat_diameter = \"6 mm\"\nspring_rate = \"12 N/mm\"\npreload = \"2.4 mm\"\nprotects = [\"lp\", \"rx\"]\n```\n",
+	"content/b/notes.md": "+++\ntitle = \"Notes\"\norder = 2\n+++\n# Notes\n\n```calc\nid = \"fig\"\nkind = \"figures\"\ntitle = \"Figures\"\n" +
+		"sweep = \"=lp.swept_volume\"\n\n[derive]\ndouble = \"2 * sweep\"\n```\n\nThe figure is =[fig.double cm3].\n",
+	"content/b/motor.md": "+++\norder = 3\n+++\n# Motor of =[hp.swept_volume cm3]\n\n```calc\nid = \"hp\"\nkind = \"compressor\"\ntitle = \"Second compressor\"\n" +
+		"bore = \"25 mm\"\nstroke = \"20 mm\"\nrod_length = \"60 mm\"\nclearance_volume = \"1 cm3\"\nspeed = \"600 rpm\"\ndischarge_pressure = \"3 bar\"\n```\n",
+}
+
+// The site's pages, by output.
+var incrementalPages = []string{"index.html", "safety.html", "a/index.html", "a/stage.html", "a/tank.html",
+	"b/relief.html", "b/notes.html", "b/motor.html"}
+
+// siteEdit changes a file of a site: replaces old with new in it, writes
+// it whole (old == ""), or deletes it (new == "" too).
+type siteEdit struct{ file, old, new string }
+
+func (e siteEdit) apply(t *testing.T, root string) {
+	t.Helper()
+	p := filepath.Join(root, filepath.FromSlash(e.file))
+	switch {
+	case e.old == "" && e.new == "":
+		if err := os.Remove(p); err != nil {
+			t.Fatal(err)
+		}
+		return
+	case e.old == "":
+		writeFile(t, p, e.new)
+		return
+	}
+	b, err := os.ReadFile(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(b, []byte(e.old)) {
+		t.Fatalf("%s does not hold %q", e.file, e.old)
+	}
+	writeFile(t, p, strings.Replace(string(b), e.old, e.new, 1))
+}
+
+// pageOverride is the default page template with a line of the site's own.
+func pageOverride(t *testing.T) string {
+	b, err := fs.ReadFile(templates.FS, "page.html")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return strings.Replace(string(b), "</body>", "<p>Printed by the workshop.</p></body>", 1)
+}
+
+// TestIncrementalNeverStale edits the site in each way a page's output can
+// depend on another file, builds again over the last build, builds the
+// edited site afresh elsewhere, and compares every file byte for byte. It
+// also checks that exactly the pages that depend on the edit were made
+// again: the others are the last build's files (hard links to them).
+func TestIncrementalNeverStale(t *testing.T) {
+	component := []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/notes.html"}
+	cases := []struct {
+		name   string
+		setup  []siteEdit // before the first build
+		edits  []siteEdit
+		remade []string // page outputs made again; nil: every page
+	}{
+		{name: "page prose", edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}},
+			remade: []string{"b/notes.html"}},
+		{name: "a value another folder's page and a title quote", edits: []siteEdit{{"content/b/motor.md", `stroke = "20 mm"`, `stroke = "22 mm"`}},
+			// motor's title is in folder b's navigation and safety's
+			// previous link; the caution list shows hp's dead-head.
+			remade: []string{"a/index.html", "b/motor.html", "b/relief.html", "b/notes.html", "safety.html"}},
+		{name: "a quoted, linked and derived-from block", edits: []siteEdit{{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}},
+			remade: component},
+		{name: "a relief setting the stage's chart marks", edits: []siteEdit{{"content/b/relief.md", `preload = "2.4 mm"`, `preload = "2.6 mm"`}},
+			remade: component},
+		{name: "a prose edit that leaves the value as shown", edits: []siteEdit{{"content/a/stage.md", "# Stage\n", "# Stage\n\nWith a new gasket.\n"}},
+			remade: []string{"a/stage.html"}},
+		{name: "a title in the navigation", edits: []siteEdit{{"content/a/tank.md", `title = "Receiver"`, `title = "Air receiver"`}},
+			// Folder b comes first ("B" before "Section A"): safety
+			// follows the receiver in reading order.
+			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "safety.html"}},
+		{name: "an order", edits: []siteEdit{{"content/a/tank.md", "order = 2", "order = 0"}},
+			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "safety.html"}},
+		// Folder b has no index.md: its first page is its link everywhere.
+		{name: "the order of a folder's first page", edits: []siteEdit{{"content/b/notes.md", "order = 2", "order = 0"}}},
+		{name: "a new page", edits: []siteEdit{{"content/a/new.md", "", "+++\ntitle = \"New\"\norder = 3\n+++\n# New\n\nNew page.\n"}},
+			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "a/new.html", "safety.html"}},
+		{name: "a deleted page", edits: []siteEdit{{"content/b/notes.md", "", ""}},
+			// fig leaves lp's component.
+			remade: []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/motor.html"}},
+		{name: "a caution disappears", edits: []siteEdit{{"content/a/tank.md", `volume = "10 L"`, `volume = "0.05 L"`}},
+			remade: append([]string{"safety.html"}, component...)},
+		{name: "a caution appears", setup: []siteEdit{{"content/a/tank.md", `volume = "10 L"`, `volume = "0.05 L"`}},
+			edits:  []siteEdit{{"content/a/tank.md", `volume = "0.05 L"`, `volume = "10 L"`}},
+			remade: append([]string{"safety.html"}, component...)},
+		{name: "a static file", edits: []siteEdit{{"static/logo.txt", "logo", "new logo"}}, remade: []string{}},
+		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
+		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			root := t.TempDir()
+			for name, text := range incrementalSite {
+				writeFile(t, filepath.Join(root, filepath.FromSlash(name)), text)
+			}
+			for _, e := range c.setup {
+				e.apply(t, root)
+			}
+			if _, err := Build(root, Options{}); err != nil {
+				t.Fatal(err)
+			}
+			before := inodes(t, filepath.Join(root, DefaultOut))
+			for _, e := range c.edits {
+				e.apply(t, root)
+			}
+			sum, err := Build(root, Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if sum.UpToDate {
+				t.Fatal("the edit was not noticed")
+			}
+			cold := t.TempDir()
+			if err := os.CopyFS(cold, os.DirFS(root)); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.RemoveAll(filepath.Join(cold, CacheDir)); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.RemoveAll(filepath.Join(cold, DefaultOut)); err != nil {
+				t.Fatal(err)
+			}
+			if _, err := Build(cold, Options{}); err != nil {
+				t.Fatal(err)
+			}
+			sameTree(t, filepath.Join(root, DefaultOut), filepath.Join(cold, DefaultOut))
+			after := inodes(t, filepath.Join(root, DefaultOut))
+			pages := slices.Clone(incrementalPages)
+			for _, e := range c.edits {
+				if out := PageOutput(e.file); strings.HasPrefix(e.file, ContentDir+"/") && !slices.Contains(pages, out) {
+					pages = append(pages, out)
+				}
+			}
+			for _, page := range pages {
+				ino, ok := after[page]
+				if !ok {
+					continue // deleted
+				}
+				want := c.remade == nil || slices.Contains(c.remade, page)
+				if remade := ino != before[page]; remade != want {
+					t.Errorf("%s: made again = %v, want %v", page, remade, want)
+				}
+			}
+		})
+	}
+}
+
+// inodes maps every file of an output folder to its inode: a page kept
+// from the last build keeps its inode.
+func inodes(t *testing.T, dir string) map[string]uint64 {
+	t.Helper()
+	out := map[string]uint64{}
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		info, err := d.Info()
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		if st, ok := info.Sys().(*syscall.Stat_t); ok {
+			out[filepath.ToSlash(rel)] = st.Ino
+		}
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// sameTree fails unless folders a and b hold the same files with the same
+// bytes.
+func sameTree(t *testing.T, a, b string) {
+	t.Helper()
+	read := func(dir string) map[string][]byte {
+		files := map[string][]byte{}
+		err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+			if err != nil || d.IsDir() {
+				return err
+			}
+			data, err := os.ReadFile(p)
+			rel, _ := filepath.Rel(dir, p)
+			files[filepath.ToSlash(rel)] = data
+			return err
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return files
+	}
+	fa, fb := read(a), read(b)
+	for _, name := range slices.Sorted(maps.Keys(fa)) {
+		other, ok := fb[name]
+		switch {
+		case !ok:
+			t.Errorf("%s: only in the incremental build", name)
+		case !bytes.Equal(fa[name], other):
+			t.Errorf("%s: the incremental build differs from a fresh one (stale)", name)
+		}
+	}
+	for name := range fb {
+		if _, ok := fa[name]; !ok {
+			t.Errorf("%s: missing from the incremental build", name)
+		}
+	}
+}
