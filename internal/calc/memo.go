@@ -44,7 +44,8 @@ func runModel(b *Block, in *Inputs, store OutcomeStore) (*Outcome, error) {
 	}
 	key := in.digest(b.Kind.Name)
 	if m, ok := store.Outcome(key); ok {
-		in.Ambient, in.values, in.lists, in.given, in.names = m.Ambient, m.Values, m.Lists, m.Given, m.Names
+		// A store may give an empty map back as nil.
+		in.Ambient, in.values, in.lists, in.given, in.names = m.Ambient, orEmpty(m.Values), orEmpty(m.Lists), orEmpty(m.Given), orEmpty(m.Names)
 		return &Outcome{Results: m.Results, Cautions: m.Cautions, Curves: m.Curves, Tables: m.Tables}, nil
 	}
 	out, err := b.Kind.Evaluate(in)
@@ -54,6 +55,13 @@ func runModel(b *Block, in *Inputs, store OutcomeStore) (*Outcome, error) {
 	store.Keep(key, &Memo{Results: out.Results, Cautions: out.Cautions, Curves: out.Curves, Tables: out.Tables,
 		Ambient: in.Ambient, Values: maps.Clone(in.values), Lists: maps.Clone(in.lists), Given: maps.Clone(in.given), Names: maps.Clone(in.names)})
 	return out, nil
+}
+
+func orEmpty[V any](m map[string]V) map[string]V {
+	if m == nil {
+		return map[string]V{}
+	}
+	return m
 }
 
 // digest identifies what a model of kind sees in in: every value, list,

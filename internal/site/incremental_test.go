@@ -21,10 +21,10 @@ import (
 // deriving from the stage, a second compressor (hp) whose value a page's
 // title and another folder's page quote, and a page listing every caution.
 var incrementalSite = map[string]string{
-	"specgen.toml":     "title = \"Test workshop\"\n",
-	"static/logo.txt":  "logo\n",
-	"content/index.md": "+++\ntitle = \"Workshop\"\n+++\n# Workshop\n\nThe home page.\n",
-	"content/safety.md": "+++\ntitle = \"Safety\"\norder = 9\n+++\n# Safety\n\n```cautions\n```\n",
+	"specgen.toml":       "title = \"Test workshop\"\n",
+	"static/logo.txt":    "logo\n",
+	"content/index.md":   "+++\ntitle = \"Workshop\"\n+++\n# Workshop\n\nThe home page.\n",
+	"content/safety.md":  "+++\ntitle = \"Safety\"\norder = 9\n+++\n# Safety\n\n```cautions\n```\n",
 	"content/a/index.md": "# Section A\n\nThe other compressor sweeps =[hp.swept_volume cm3].\n",
 	"content/a/stage.md": "+++\ntitle = \"Stage\"\norder = 1\n+++\n# Stage\n\n```calc\nid = \"lp\"\nkind = \"compressor\"\ntitle = \"Low stage\"\n" +
 		"bore = \"32 mm\"\nstroke = \"28 mm\"\nrod_length = \"70 mm\"\nclearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n\n" +
