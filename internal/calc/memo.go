@@ -4,10 +4,13 @@ import (
 	"crypto/sha256"
 	"encoding/binary"
 	"encoding/hex"
+	"errors"
 	"hash"
 	"maps"
 	"math"
 	"slices"
+
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // OutcomeStore remembers what kinds computed, so that a block whose model
@@ -185,4 +188,76 @@ func (d *digester) linked(l *Linked) {
 		d.flag(c.Dashed)
 	}
 	d.inputs(l.Model)
+}
+
+// MarshalBinary writes a curve with its points as their bits, which gob
+// would write one by one: an outcome store keeps thousands of points a
+// block. TestCurveBinary fails when Curve gains a field this leaves out.
+func (c Curve) MarshalBinary() ([]byte, error) {
+	b := make([]byte, 0, 64+len(c.Name)+8*(len(c.X)+len(c.Y)))
+	b = binary.AppendUvarint(b, uint64(len(c.Name)))
+	b = append(b, c.Name...)
+	b = binary.AppendVarint(b, int64(c.XDim))
+	b = binary.AppendVarint(b, int64(c.YDim))
+	if c.Dashed {
+		b = append(b, 1)
+	} else {
+		b = append(b, 0)
+	}
+	for _, vs := range [][]float64{c.X, c.Y} {
+		b = binary.AppendUvarint(b, uint64(len(vs)))
+		for _, v := range vs {
+			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
+		}
+	}
+	return b, nil
+}
+
+// errCurveData is the error of a curve's bits that do not read back.
+var errCurveData = errors.New("curve data cut short")
+
+// UnmarshalBinary reads what MarshalBinary wrote.
+func (c *Curve) UnmarshalBinary(b []byte) error {
+	uvarint := func() (uint64, bool) {
+		v, n := binary.Uvarint(b)
+		if n <= 0 {
+			return 0, false
+		}
+		b = b[n:]
+		return v, true
+	}
+	varint := func() (int64, bool) {
+		v, n := binary.Varint(b)
+		if n <= 0 {
+			return 0, false
+		}
+		b = b[n:]
+		return v, true
+	}
+	n, ok := uvarint()
+	if !ok || uint64(len(b)) < n {
+		return errCurveData
+	}
+	c.Name, b = string(b[:n]), b[n:]
+	x, okX := varint()
+	y, okY := varint()
+	if !okX || !okY || len(b) < 1 {
+		return errCurveData
+	}
+	c.XDim, c.YDim, c.Dashed, b = units.Dimension(x), units.Dimension(y), b[0] == 1, b[1:]
+	for _, vs := range []*[]float64{&c.X, &c.Y} {
+		n, ok := uvarint()
+		if !ok || uint64(len(b))/8 < n {
+			return errCurveData
+		}
+		*vs = make([]float64, n)
+		for i := range *vs {
+			(*vs)[i] = math.Float64frombits(binary.LittleEndian.Uint64(b[8*i:]))
+		}
+		b = b[8*n:]
+	}
+	if len(b) != 0 {
+		return errCurveData
+	}
+	return nil
 }

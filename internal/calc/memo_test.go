@@ -116,3 +116,33 @@ func mustLookup(t *testing.T, s *Set, id string) *Evaluated {
 	}
 	return e
 }
+
+// TestCurveBinary checks that a curve reads back as it was written, and
+// that MarshalBinary writes every field Curve has.
+func TestCurveBinary(t *testing.T) {
+	c := Curve{Name: "pv", XDim: 3, YDim: 7, X: []float64{0, 1.5e-6, -2}, Y: []float64{101325, 6e5, 0.25}, Dashed: true}
+	b, err := c.MarshalBinary()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var back Curve
+	if err := back.UnmarshalBinary(b); err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(back, c) {
+		t.Errorf("read back %+v, want %+v", back, c)
+	}
+	if err := back.UnmarshalBinary(b[:len(b)-3]); err == nil {
+		t.Error("curve data cut short was read without an error")
+	}
+	written := []string{"Name", "XDim", "YDim", "X", "Y", "Dashed"}
+	typ := reflect.TypeFor[Curve]()
+	if typ.NumField() != len(written) {
+		t.Errorf("Curve has %d fields; MarshalBinary writes %v: write the new one too", typ.NumField(), written)
+	}
+	for _, name := range written {
+		if _, ok := typ.FieldByName(name); !ok {
+			t.Errorf("Curve has no field %s, which MarshalBinary writes", name)
+		}
+	}
+}

@@ -71,7 +71,9 @@ type Site struct {
 	Calc      *calc.Set
 	blockPage map[string]*Page     // block id → the page that holds it
 	cautions  []render.CautionItem // every caution of the site, for caution lists
-	revision  *Revision
+	// listingPages list every caution of the site, in page order.
+	listingPages []*Page
+	revision     *Revision
 	// outcomes, when set, keeps the models' outcomes between builds.
 	outcomes calc.OutcomeStore
 	// progress hears of charts drawn during render; charts counts them.
@@ -167,6 +169,11 @@ func load(root string, outcomes calc.OutcomeStore) (*Site, error) {
 	}
 	s.nav, s.reading = buildNav(s.Pages)
 	s.revision = revisionOf(root)
+	for _, p := range s.Pages {
+		if p.listsCautions {
+			s.listingPages = append(s.listingPages, p)
+		}
+	}
 	return s, nil
 }
 
@@ -196,7 +203,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	}
 	var outcomes *outcomeStore
 	if ns, err := outcomesNamespace(root); err == nil {
-		outcomes = newOutcomeStore(ns, filepath.Join(root, CacheDir, outcomesDir))
+		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
 	}
 	s, err := load(root, storeOrNil(outcomes))
 	if err != nil {
@@ -216,7 +223,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	}
 	sum.Problems, sum.Tally = problems, tally
 	if outcomes != nil {
-		outcomes.prune()
+		_ = outcomes.save(filepath.Join(root, CacheDir))
 	}
 	if fpErr == nil {
 		remember(root, out, fp, sum.Pages, problems, tally, record)

@@ -12,6 +12,8 @@ import (
 	"path/filepath"
 	"sort"
 	"sync"
+
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // CacheDir is the folder of a site root where specgen remembers its last
@@ -64,28 +66,42 @@ func fingerprint(root, out string) (string, error) {
 		})
 	}
 	sort.Strings(paths)
-	for _, p := range paths {
-		info, err := os.Lstat(p)
-		if errors.Is(err, fs.ErrNotExist) {
-			continue
+	// Files are hashed in parallel, each on its own, then in order.
+	sums := make([]string, len(paths))
+	errs := make([]error, len(paths))
+	calc.Parallel(len(paths), func(i int) { sums[i], errs[i] = fileDigest(root, paths[i]) })
+	for i := range paths {
+		if errs[i] != nil {
+			return "", errs[i]
 		}
+		h.Write([]byte(sums[i]))
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// fileDigest hashes a file's path from the root, mode and contents; a
+// missing file hashes to "".
+func fileDigest(root, p string) (string, error) {
+	info, err := os.Lstat(p)
+	if errors.Is(err, fs.ErrNotExist) {
+		return "", nil
+	}
+	if err != nil {
+		return "", err
+	}
+	h := sha256.New()
+	rel, _ := filepath.Rel(root, p)
+	fmt.Fprintf(h, "file %s %v ", filepath.ToSlash(rel), info.Mode())
+	if info.Mode().IsRegular() {
+		f, err := os.Open(p)
 		if err != nil {
 			return "", err
 		}
-		rel, _ := filepath.Rel(root, p)
-		fmt.Fprintf(h, "file %s %v ", filepath.ToSlash(rel), info.Mode())
-		if info.Mode().IsRegular() {
-			f, err := os.Open(p)
-			if err != nil {
-				return "", err
-			}
-			_, err = io.Copy(h, f)
-			f.Close()
-			if err != nil {
-				return "", err
-			}
+		_, err = io.Copy(h, f)
+		f.Close()
+		if err != nil {
+			return "", err
 		}
-		h.Write([]byte{0})
 	}
 	return hex.EncodeToString(h.Sum(nil)), nil
 }
@@ -208,14 +224,15 @@ func (l *lastOutput) linkInto(dir, name string) bool {
 		return false
 	}
 	to := filepath.Join(dir, filepath.FromSlash(name))
-	if os.MkdirAll(filepath.Dir(to), 0o755) != nil {
-		return false
+	err = os.Link(from, to)
+	if errors.Is(err, fs.ErrNotExist) {
+		// The staging folder lacks the file's folder yet.
+		if os.MkdirAll(filepath.Dir(to), 0o755) != nil {
+			return false
+		}
+		err = os.Link(from, to)
 	}
-	_ = os.Remove(to)
-	if os.Link(from, to) == nil {
-		return true
-	}
-	return copyFile(from, to) == nil
+	return err == nil || copyFile(from, to) == nil
 }
 
 // copyFile copies a file, keeping its modification time, so that the

@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"slices"
 	"strings"
+	"unsafe"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
@@ -33,13 +34,18 @@ func newDigest() *digest { return &digest{h: sha256.New(), seen: map[uintptr]int
 
 // Types a digest does not walk into. A Kind is part of the specgen binary,
 // identified by its name; a Set, Catalog or model Inputs reach blocks
-// that a block's component digest covers (componentDigests).
+// that a block's connected digest covers (blockDigests). Curves are what
+// the model drew from the inputs it saw, which the block's inputs and the
+// blocks connected to it give: hashing thousands of points again would
+// tell nothing more.
 var (
 	kindType    = reflect.TypeFor[*calc.Kind]()
+	blockType   = reflect.TypeFor[*calc.Block]()
 	skippedType = map[reflect.Type]bool{
 		reflect.TypeFor[*calc.Set]():     true,
 		reflect.TypeFor[*calc.Catalog](): true,
 		reflect.TypeFor[*calc.Inputs]():  true,
+		reflect.TypeFor[[]calc.Curve]():  true,
 	}
 	floatsType = reflect.TypeFor[[]float64]()
 	// calcPackage and placeField name the fields a placeless digest
@@ -149,8 +155,12 @@ func (d *digest) slice(v reflect.Value) {
 	}
 	d.num(uint64(v.Len()))
 	if v.Type() == floatsType && v.CanInterface() {
-		for _, f := range v.Interface().([]float64) {
-			d.num(math.Float64bits(f))
+		// The bits as they lie in memory: a digest is compared on the
+		// machine that made it only.
+		fs := v.Interface().([]float64)
+		if len(fs) > 0 {
+			d.flush()
+			d.h.Write(unsafe.Slice((*byte)(unsafe.Pointer(&fs[0])), len(fs)*8))
 		}
 		return
 	}
@@ -168,7 +178,17 @@ func (d *digest) mapValue(v reflect.Value) {
 		d.str("<nil>")
 		return
 	}
-	// Keys in a fixed order: each by its own digest.
+	d.num(uint64(v.Len()))
+	if v.Type().Key().Kind() == reflect.String {
+		keys := v.MapKeys()
+		slices.SortFunc(keys, func(a, b reflect.Value) int { return strings.Compare(a.String(), b.String()) })
+		for _, k := range keys {
+			d.str(k.String())
+			d.value(v.MapIndex(k))
+		}
+		return
+	}
+	// Other keys in a fixed order: each by its own digest.
 	type entry struct {
 		key string
 		val reflect.Value
@@ -181,7 +201,6 @@ func (d *digest) mapValue(v reflect.Value) {
 		entries = append(entries, entry{k.sum(), it.Value()})
 	}
 	slices.SortFunc(entries, func(a, b entry) int { return strings.Compare(a.key, b.key) })
-	d.num(uint64(len(entries)))
 	for _, e := range entries {
 		d.str(e.key)
 		d.value(e.val)
@@ -193,8 +212,19 @@ func (d *digest) pointer(v reflect.Value) {
 		d.str("<nil>")
 		return
 	}
-	if v.Type() == kindType {
+	switch v.Type() {
+	case kindType:
 		d.str("kind " + v.Elem().FieldByName("Name").String())
+		return
+	case blockType:
+		// A block is what its source says, read by the catalog (the
+		// binary and specgen.toml, which every build's fingerprint
+		// covers): its decoded fields follow from these.
+		b := v.Interface().(*calc.Block)
+		d.add(b.ID, b.Source, b.Broken)
+		if !d.placeless {
+			d.add(b.File, b.Line)
+		}
 		return
 	}
 	if n, ok := d.seen[v.Pointer()]; ok {

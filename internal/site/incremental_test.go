@@ -6,11 +6,13 @@ import (
 	"maps"
 	"os"
 	"path/filepath"
+	"reflect"
 	"slices"
 	"strings"
 	"syscall"
 	"testing"
 
+	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/templates"
 )
 
@@ -243,5 +245,68 @@ func sameTree(t *testing.T, a, b string) {
 		if _, ok := fa[name]; !ok {
 			t.Errorf("%s: missing from the incremental build", name)
 		}
+	}
+}
+
+// TestMemoIsPlainData keeps the models' memos copyable and storable:
+// exported fields only, and no interfaces, functions or channels, which
+// neither the store's copy nor gob could keep.
+func TestMemoIsPlainData(t *testing.T) {
+	seen := map[reflect.Type]bool{}
+	var check func(t2 reflect.Type, path string)
+	check = func(t2 reflect.Type, path string) {
+		if seen[t2] {
+			return
+		}
+		seen[t2] = true
+		switch t2.Kind() {
+		case reflect.Interface, reflect.Func, reflect.Chan, reflect.UnsafePointer:
+			t.Errorf("%s is a %s", path, t2.Kind())
+		case reflect.Pointer, reflect.Slice, reflect.Array:
+			check(t2.Elem(), path+"[]")
+		case reflect.Map:
+			check(t2.Key(), path+" key")
+			check(t2.Elem(), path+" value")
+		case reflect.Struct:
+			for i := range t2.NumField() {
+				f := t2.Field(i)
+				if !f.IsExported() {
+					t.Errorf("%s.%s is unexported", path, f.Name)
+				}
+				check(f.Type, path+"."+f.Name)
+			}
+		}
+	}
+	check(reflect.TypeFor[calc.Memo](), "Memo")
+}
+
+// TestOutcomeStoreRoundTrip checks that what a build saves, the next one
+// reads back as it was, and copies that are its own.
+func TestOutcomeStoreRoundTrip(t *testing.T) {
+	dir := t.TempDir()
+	m := &calc.Memo{Results: []calc.Result{{Name: "swept_volume", Value: 2.25e-5, Trace: calc.Trace{Formula: "Vs = A · s"}}},
+		Curves: []calc.Curve{{Name: "pv", X: []float64{1, 2}, Y: []float64{3, 4}}},
+		Values: map[string]float64{"bore": 0.032}, Given: map[string]bool{"bore": true}}
+	o := newOutcomeStore("ns")
+	o.Keep("k", m)
+	m.Curves[0].X[0] = 99 // the caller's change is not the store's
+	if err := o.save(dir); err != nil {
+		t.Fatal(err)
+	}
+	back := readOutcomeStore(dir, "ns")
+	got, ok := back.Outcome("k")
+	if !ok {
+		t.Fatal("the saved outcome was not read back")
+	}
+	m.Curves[0].X[0] = 1
+	if !reflect.DeepEqual(got, m) {
+		t.Errorf("read back %+v, want %+v", got, m)
+	}
+	got.Results[0].Value = 0
+	if again, _ := back.Outcome("k"); again.Results[0].Value != 2.25e-5 {
+		t.Error("a copy handed out shares its values with the store")
+	}
+	if _, ok := readOutcomeStore(dir, "other").Outcome("k"); ok {
+		t.Error("outcomes of another catalog were served")
 	}
 }

@@ -30,8 +30,8 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 		return ""
 	}
 	safety := ""
-	for _, q := range s.Pages {
-		if q.listsCautions && q != p {
+	for _, q := range s.listingPages {
+		if q != p {
 			safety = relativeURL(p.Out, q.Out)
 			break
 		}
