@@ -8,14 +8,10 @@ import (
 	"os"
 	"os/signal"
 	"strings"
-	"time"
 
 	"github.com/millrace-workshop/specgen/internal/preview"
 	"github.com/millrace-workshop/specgen/internal/site"
 )
-
-// previewDebounce gathers the burst of events one save makes.
-const previewDebounce = 150 * time.Millisecond
 
 func runPreview(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("preview", "preview [-C dir] [-addr 127.0.0.1:8080] [-public] [-allow-host NAME]...\n\n"+
@@ -58,7 +54,7 @@ func servePreview(ctx context.Context, dir, addr string, stdout, stderr io.Write
 	logger := log.New(stderr, "specgen preview: ", 0)
 	p := preview.New(dir, logger, opts...)
 	go func() {
-		if err := p.Watch(ctx, previewDebounce); err != nil {
+		if err := p.Watch(ctx, preview.Debounce); err != nil {
 			logger.Printf("not watching for changes: %v", err)
 		}
 	}()

@@ -21,6 +21,7 @@ import (
 // overlay with the error over the last good site.
 type Server struct {
 	root     string
+	session  *site.Session // builds, each keeping what the last one made and the edit left alone
 	logger   *log.Logger
 	mu       sync.RWMutex
 	files    map[string][]byte // last good build
@@ -57,7 +58,7 @@ func Public() Option {
 
 // New builds the site at root once.
 func New(root string, logger *log.Logger, opts ...Option) *Server {
-	p := &Server{root: root, logger: logger, changed: make(chan struct{}), refused: map[string]bool{}}
+	p := &Server{root: root, session: site.NewSession(root), logger: logger, changed: make(chan struct{}), refused: map[string]bool{}}
 	for _, o := range opts {
 		o(p)
 	}
@@ -65,16 +66,11 @@ func New(root string, logger *log.Logger, opts ...Option) *Server {
 	return p
 }
 
-// rebuild builds the site; on failure the last good files stay.
+// rebuild builds the site, making again only what the edits since the
+// last build touched; on failure the last good files stay.
 func (p *Server) rebuild() {
 	start := time.Now()
-	var files map[string][]byte
-	home := "index.html"
-	s, err := site.Load(p.root)
-	if err == nil {
-		home = s.Home()
-		files, err = s.Render()
-	}
+	files, home, err := p.session.Build()
 	p.mu.Lock()
 	if err == nil {
 		p.files, p.home, p.goodBuild = files, home, p.builds+1

@@ -13,6 +13,11 @@ import (
 	"github.com/millrace-workshop/specgen/internal/site"
 )
 
+// Debounce is how long after a change the preview waits for more before
+// it rebuilds: one save makes a burst of events (write, chmod, an editor's
+// rename) within a few milliseconds.
+const Debounce = 50 * time.Millisecond
+
 // Watch rebuilds on changes to content/, templates/, static/ and
 // specgen.toml until ctx ends. Changes within debounce are one rebuild.
 func (p *Server) Watch(ctx context.Context, debounce time.Duration) error {
