@@ -18,6 +18,8 @@ func readAs(u Unit, want Dimension) (difference bool, problem string) {
 			return false, " is a gauge pressure; " + stressTakes()
 		case Absolute:
 			return false, " is an absolute pressure; " + stressTakes()
+		case Vacuum:
+			return false, " is a vacuum reading; " + stressTakes()
 		}
 		return false, ""
 	case want == Pressure && u.Dim == Stress:

@@ -4,7 +4,9 @@ import "math"
 
 // FromSI converts si, an SI value of dimension dim, to the unit spelled
 // unit. A pressure (dim Pressure) is absolute in SI: gauge and unmarked
-// units subtract ambient (Pa), absolute units do not. Pressure and Stress
+// units subtract ambient (Pa), absolute units do not, vacuum units read
+// ambient minus it. A normal volume flow unit takes si as already at its
+// reference state (see NormalFlow). Pressure and Stress
 // units are interchangeable, but a stress takes no (a) or (g) mark;
 // temperature units serve for a TemperatureDifference, without offset.
 // A unit of another dimension, or a result that is not finite, is an error.
@@ -27,6 +29,9 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 			si = ambient
 		}
 		si -= ambient
+		if u.Ref == Vacuum {
+			si = -si
+		}
 	}
 	if !finite(si) {
 		return 0, newError(unit, ": the value to show is not a finite number")

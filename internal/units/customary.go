@@ -17,13 +17,14 @@ var customaryUnits = map[string]bool{
 	"in": true, "ft": true, "in2": true, "ft2": true, "in3": true, "ft3": true, "gal": true, "cfm": true,
 	"psi": true, "ksi": true, "inHg": true, "degF": true, "degR": true, "lbf": true, "lbf in": true, "lbf ft": true,
 	"hp": true, "lb": true, "lb/ft3": true, "lb/in3": true, "lbf/in": true, "ft/min": true, "ft/s": true,
-	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true,
+	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true, "inHg vac": true,
 }
 
 // neutralUnits are used alike in both systems.
 var neutralUnits = map[string]bool{
 	"": true, "%": true, "rpm": true, "rev/s": true, "rad/s": true, "rad": true, "deg": true,
 	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true,
+	"Hz": true, "Torr L/s": true,
 }
 
 // metricUnits are the metric symbols of the unit table. Every symbol of
@@ -37,6 +38,7 @@ var metricUnits = map[string]bool{
 	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
 	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
 	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
+	"Nl/min": true, "Nm3/h": true, "l/min ANR": true, "Pa m3/s": true, "mbar L/s": true,
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)

@@ -36,6 +36,7 @@ const (
 	MassFlow
 	SpecificEnergy
 	Inertia
+	Throughput // a gas flow as pressure times volume per time, such as a leak
 )
 
 // dimensionInfo holds the words used for a dimension in messages.
@@ -70,6 +71,7 @@ var dimensions = [...]dimensionInfo{
 	MassFlow:              {"mass flow", "kg/s, g/s, kg/h", "kg/s"},
 	SpecificEnergy:        {"specific energy", "J/kg, kJ/kg", "J/kg"},
 	Inertia:               {"moment of inertia", "kg m2, kg mm2", "kg m2"},
+	Throughput:            {"gas throughput", "mbar L/s, Pa m3/s, Torr L/s", "Pa m3/s"},
 }
 
 // valid reports whether d is one of the declared dimensions.

@@ -2,6 +2,7 @@ package units
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -35,7 +36,7 @@ func TestDimensionWords(t *testing.T) {
 		}
 	}
 	bad := Dimension(len(dimensions))
-	if bad.String() != "Dimension(24)" || bad.Examples() != "" || DefaultUnit(bad) != "" {
+	if bad.String() != "Dimension("+strconv.Itoa(len(dimensions))+")" || bad.Examples() != "" || DefaultUnit(bad) != "" {
 		t.Errorf("undeclared dimension: %q, %q, %q", bad.String(), bad.Examples(), DefaultUnit(bad))
 	}
 	if _, err := Parse("1 m", bad); err == nil {

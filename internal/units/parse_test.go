@@ -63,7 +63,7 @@ func TestParseErrors(t *testing.T) {
 }
 
 func TestPressureRef(t *testing.T) {
-	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute}
+	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute, "vacuum": Vacuum, "unsettled": Unsettled}
 	var file struct {
 		Case []struct {
 			Text     string

@@ -21,6 +21,8 @@ func Pretty(symbol string) string {
 		return "psig" // the trade's spelling in the US
 	case "psi(a)":
 		return "psia"
+	case "inHg vac", "l/min ANR":
+		return symbol // the trade's spelling, with its space
 	}
 	return prettyParts.Replace(symbol)
 }

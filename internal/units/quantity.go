@@ -14,11 +14,18 @@ type Quantity struct {
 }
 
 // Absolute returns the absolute value of a pressure, adding the ambient
-// pressure (Pa) when the unit was gauge or unmarked. For other dimensions
-// it returns Value.
+// pressure (Pa) when the unit was gauge, unmarked or unsettled, and
+// subtracting the value from it for a vacuum unit. For other dimensions it
+// returns Value.
 func (q Quantity) Absolute(ambient float64) float64 {
-	if q.Dim == Pressure && q.Unit.Ref != Absolute {
-		return q.Value + ambient
+	if q.Dim != Pressure {
+		return q.Value
 	}
-	return q.Value
+	switch q.Unit.Ref {
+	case Absolute:
+		return q.Value
+	case Vacuum:
+		return ambient - q.Value
+	}
+	return q.Value + ambient
 }

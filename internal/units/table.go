@@ -23,6 +23,20 @@ const (
 	revolution = 2 * math.Pi // rad
 )
 
+// Reference states of normal volume flows (from memory): DIN 1343 normal
+// conditions, 0 °C and 101 325 Pa; ISO 8778 standard reference atmosphere
+// (ANR), 20 °C and 100 kPa (its 65 % relative humidity is not modelled:
+// flows convert as dry air, by mass).
+var (
+	din1343 = GasState{Pressure: atm, Temperature: celsius0}
+	iso8778 = GasState{Pressure: 1e5, Temperature: celsius0 + 20}
+)
+
+// normalFlow makes a table row for a normal volume flow unit at state.
+func normalFlow(sym string, factor float64, state GasState, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Normal: state}, aliases}
+}
+
 // unitDef is one row of the unit table: a canonical symbol and the other
 // spellings (already in normalized form) that mean the same unit.
 type unitDef struct {
@@ -79,11 +93,23 @@ var unitTable = joinDefs(
 		def("m3/min", VolumeFlow, 1.0/60),
 		def("m3/s", VolumeFlow, 1),
 		def("cfm", VolumeFlow, foot*foot*foot/60, "ft3/min", "CFM"),
+		normalFlow("Nl/min", 1e-3/60, din1343, "NL/min"),
+		normalFlow("Nm3/h", 1.0/3600, din1343),
+		normalFlow("l/min ANR", 1e-3/60, iso8778, "L/min ANR", "l/min(ANR)", "L/min(ANR)"),
+
+		def("Pa m3/s", Throughput, 1),
+		def("mbar L/s", Throughput, 100*1e-3, "mbar l/s"),
+		def("Torr L/s", Throughput, torr*1e-3, "Torr l/s", "torr L/s", "torr l/s"),
 	},
 	// Pressures. A plain unit reads gauge (specgen's convention for the
 	// workshop habit of reading the dial); marks make it explicit.
 	pressureDefs("Pa", 1, []string{"N/m2"}, nil, nil),
-	pressureDefs("hPa", 100, nil, nil, nil),
+	// hPa is absolute in weather reports and gauge on some dials: unsettled.
+	[]unitDef{
+		{Unit{Symbol: "hPa", Dim: Pressure, Factor: 100, Ref: Unsettled}, nil},
+		{Unit{Symbol: "hPa(g)", Dim: Pressure, Factor: 100, Ref: Gauge}, nil},
+		{Unit{Symbol: "hPa(a)", Dim: Pressure, Factor: 100, Ref: Absolute}, nil},
+	},
 	pressureDefs("kPa", 1e3, nil, []string{"kPag"}, []string{"kPaa"}),
 	pressureDefs("MPa", 1e6, nil, nil, nil),
 	pressureDefs("bar", 1e5, nil, []string{"barg"}, []string{"bara"}),
@@ -97,6 +123,8 @@ var unitTable = joinDefs(
 		{Unit{Symbol: "atm", Dim: Pressure, Factor: atm, Ref: Absolute}, nil},
 		// The torr is a vacuum unit, read from zero: absolute.
 		{Unit{Symbol: "torr", Dim: Pressure, Factor: torr, Ref: Absolute}, []string{"Torr"}},
+		// Inches of mercury vacuum, as a US vacuum gauge reads: down from ambient.
+		{Unit{Symbol: "inHg vac", Dim: Pressure, Factor: inHg, Ref: Vacuum}, []string{"in Hg vac", "inHgV"}},
 
 		// Stress-only units; read as a pressure they are plain (gauge).
 		def("N/mm2", Stress, 1e6),
@@ -110,6 +138,8 @@ var unitTable = joinDefs(
 		// min⁻¹ is the rotational speed of European nameplates (DIN 1301).
 		def("rpm", RotationalSpeed, revolution/60, "r/min", "rev/min", "RPM", "1/min", "min 1"),
 		def("rev/s", RotationalSpeed, revolution, "r/s"),
+		// A rotational frequency: one revolution per second.
+		def("Hz", RotationalSpeed, revolution),
 		def("rad/s", RotationalSpeed, 1),
 
 		def("rad", Angle, 1),

@@ -12,7 +12,21 @@ const (
 	Gauge
 	// Absolute is marked absolute ("bar(a)", "psia") or absolute by nature ("atm", "torr").
 	Absolute
+	// Vacuum is measured down from ambient, as a vacuum gauge reads: "27
+	// inHg vac" is 27 inHg below the atmosphere.
+	Vacuum
+	// Unsettled is an unmarked unit the trade reads either way: "hPa" is
+	// absolute in weather reports and gauge on some dials. The caller
+	// decides: absolute where only an absolute pressure makes sense, else
+	// it needs its mark.
+	Unsettled
 )
+
+// GasState is a pressure (Pa, absolute) and a temperature (K) that a volume
+// of air is measured at.
+type GasState struct {
+	Pressure, Temperature float64
+}
 
 // Unit is one spelling of a unit.
 type Unit struct {
@@ -21,6 +35,16 @@ type Unit struct {
 	Factor float64     // SI = value*Factor + Offset
 	Offset float64     // non-zero only for degC and degF
 	Ref    PressureRef // for pressure units: what the value is measured from
+	// Normal is the reference state of a normal volume flow unit
+	// ("Nl/min" at 0 °C and 1013.25 mbar); zero for other units.
+	Normal GasState
+}
+
+// NormalFlow takes si, a volume flow (m3/s) of air measured at, by mass to
+// the reference state of the normal flow unit u: the SI value that FromSI
+// then shows in u.
+func NormalFlow(si float64, at GasState, u Unit) float64 {
+	return si * at.Pressure / u.Normal.Pressure * u.Normal.Temperature / at.Temperature
 }
 
 // toSI converts v written in u to SI. A difference (of temperature) drops
