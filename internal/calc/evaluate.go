@@ -136,6 +136,22 @@ func (e *Evaluated) Failed() bool {
 // units, and so shows its results in them.
 func (e *Evaluated) Customary() bool { return e.customary }
 
+// HoldsVacuum reports whether the block works below ambient: its kind
+// holds vacuum, or the working pressure it is given is below its ambient
+// (a tube pumped down).
+func (e *Evaluated) HoldsVacuum() bool {
+	if e.Block.Kind.Has(HoldsVacuum) {
+		return true
+	}
+	key := e.Block.Kind.WorkingPressure.Key
+	for _, in := range e.Inputs {
+		if key != "" && in.Name == key {
+			return in.Value < e.Ambient
+		}
+	}
+	return false
+}
+
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order.
 func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
@@ -447,8 +463,8 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		switch {
 		case err != nil:
 			fail("ambient_pressure", b.Ambient.Line, err.Error())
-		case q.Unit.Ref != units.Absolute:
-			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"14.7 psia\"", b.Ambient.Text))
+		case q.Unit.Ref != units.Absolute && q.Unit.Ref != units.Unsettled:
+			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"1013 hPa\", \"14.7 psia\"", b.Ambient.Text))
 		case q.Value < 1e3 || q.Value > 2e5:
 			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q is not an atmosphere a workshop sees; allowed: 10 kPa(a) to 200 kPa(a)", b.Ambient.Text))
 		default:
@@ -537,11 +553,14 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 				fail(spec.Name, line, err.Error())
 				continue
 			}
-			if spec.Absolute && q.Unit.Ref != units.Absolute {
-				fail(spec.Name, line, fmt.Sprintf("%q is a gauge pressure; %s takes an absolute pressure: write mbar(a), kPa(a), bar(a), psia, inHg(a), mmHg(a) or torr, e.g. \"20 mbar(a)\"", text, spec.Name))
+			value = q.Absolute(e.Ambient)
+			if problem := pressureMark(spec, q); problem != "" {
+				fail(spec.Name, line, fmt.Sprintf("%q %s", text, problem))
 				continue
 			}
-			value = q.Absolute(e.Ambient)
+			if spec.Absolute && q.Unit.Ref == units.Unsettled {
+				value = q.Value
+			}
 			shownUnit = q.Unit.Symbol
 			if given {
 				systems[units.SystemOf(q.Unit.Symbol)]++
@@ -589,12 +608,41 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		if !ok {
 			return nil, inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
-		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
+		fail := func(msg string) error {
+			return inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: msg}}
+		}
+		if why := c.MarkFor(r.Value, r.Dim, e.Ambient, b.Kind.Has(HoldsVacuum), opts.SigFigs); why != "" {
+			return nil, fail(why)
+		}
+		si, err := e.siIn(r, c.Unit)
+		if err != nil {
+			return nil, fail(fmt.Sprintf("%q: %v", c.Text, err))
+		}
+		e.Claims = append(e.Claims, c.Check(si, r.Dim, e.Ambient, opts.SigFigs))
 	}
 	if err := checkShownComputed(e); err != nil {
 		return nil, err
 	}
 	return e, nil
+}
+
+// pressureMark says what is wrong with the mark of a pressure written for
+// an input, or "". An input that takes an absolute pressure (a vacuum
+// target) takes it marked absolute, as a gauge or vacuum reading (converted
+// with the block's ambient), or in hPa, which is read absolute there; a
+// plain unit, read gauge, is refused there as a likely slip. Elsewhere hPa
+// needs its mark.
+func pressureMark(spec InputSpec, q units.Quantity) string {
+	if q.Dim != units.Pressure {
+		return ""
+	}
+	switch {
+	case spec.Absolute && q.Unit.Ref == units.Unmarked:
+		return fmt.Sprintf("is a plain %s, which reads gauge; %s takes an absolute pressure: write it marked absolute (mbar(a), kPa(a), bar(a), psia, inHg(a), torr), e.g. \"20 mbar(a)\", or as a gauge reading below ambient, e.g. \"-900 mbar(g)\" or \"27 inHg vac\"", q.Unit.Symbol, spec.Name)
+	case !spec.Absolute && q.Unit.Ref == units.Unsettled:
+		return fmt.Sprintf("is in plain %s, which is read absolute in weather reports and gauge on some dials; write %s(a) or %s(g)", q.Unit.Symbol, q.Unit.Symbol, q.Unit.Symbol)
+	}
+	return ""
 }
 
 // checkShownComputed checks that every result [show] outputs names was
@@ -604,7 +652,11 @@ func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
 	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
-		if _, found := e.Result(o.Name); found {
+		if r, found := e.Result(o.Name); found {
+			if _, err := e.siIn(r, o.Unit); err != nil {
+				errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+					Msg: fmt.Sprintf("%q: %v", o.Name+" "+o.Unit, err)})
+			}
 			continue
 		}
 		written := o.Name

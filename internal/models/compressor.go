@@ -207,7 +207,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "CR = (Vs + Vc) / Vc", Substituted: "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "r = p2 / p1", Substituted: "= " + bara(c.p2) + " / " + bara(c.p1)}},
 		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η_v = 1 − c·(r^(1/n) − 1)", Substituted: "= 1 − " + display.NumberSig(c.clearanceRatio, "", veSig) + "·(" + display.NumberSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
-		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d", Substituted: "= " + num(ve) + " · " + lpm(rate)}},
+		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Gas: units.GasState{Pressure: c.p1, Temperature: c.t1}, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d", Substituted: "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_max = p1 · CR^n", Substituted: "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
 		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
