@@ -22,11 +22,8 @@ var compressorKind = calc.Kind{
 	Inputs: append(append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed"),
 		calc.InputSpec{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
-	), append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency"),
-		calc.InputSpec{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
-		calc.InputSpec{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
-		cylinderInputs("reciprocating_mass")[0],
-	)...),
+	), cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency",
+		"head_material", "valve_material", "reciprocating_mass")...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},

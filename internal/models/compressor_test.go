@@ -686,7 +686,7 @@ func TestTracesWorkOutNearCancellation(t *testing.T) {
 		"id = \"blower\"\nkind = \"compressor\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
 			"clearance_ratio = 0.05\ninlet_pressure = \"1 bar(a)\"\ndischarge_pressure = \"1.012345 bar(a)\"\n",
 		"id = \"pump\"\nkind = \"vacuum\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
-			"clearance_volume = \"3.9 cm3\"\nvessel_volume = \"10 L\"\ntarget_pressure = \"19 mbar(a)\"\n",
+			"clearance_volume = \"3.9 cm3\"\nvessel_volume = \"10 L\"\ntarget_pressure = \"47.4 mbar(a)\"\n",
 		"id = \"air\"\nkind = \"motor\"\nambient_pressure = \"1 bar(a)\"\n" + cyl +
 			"clearance_ratio = 0.05\nsupply_pressure = \"2 bar(a)\"\ncutoff = 0.17\npolytropic_index = 1\n",
 	}
@@ -720,9 +720,9 @@ func TestTracesWorkOutNearCancellation(t *testing.T) {
 	} else {
 		t.Errorf("force trace %q: %d numbers", f.Trace.Substituted, len(v))
 	}
-	// S = V̇d · (1 − c·((p_a/p)^(1/n) − 1)): L/min, mbar(a); c = 3.9 cm³ /
+	// S = V̇d · (1 − c·((p_d/p)^(1/m) − 1)): L/min, mbar(a); c = 3.9 cm³ /
 	// 78.54 cm³ = 0.049656 and the ultimate pressure is 1000 mbar(a) ·
-	// (c/(1 + c))^1.3 = 18.94 mbar(a).
+	// c/(1 + c) = 47.31 mbar(a) (m = 1).
 	s := result("pump", "target_pumping_speed")
 	if v := traceNumbers(t, s); len(v) == 8 {
 		check(s, v[0]/6e4*(v[1]-v[2]*(math.Pow(v[3]/v[4], v[5]/v[6])-v[7])))
