@@ -40,7 +40,7 @@ const (
 var rules = []calc.Rule{
 	{ID: "no-delivery", Level: calc.Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
 	{ID: "over-expansion", Level: calc.Notice, Summary: "an air motor whose air expands below ambient before the exhaust opens, so the end of each stroke takes work back (raised by the motor model)"},
-	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of: charred oil in the discharge line, burns", Check: hotAirRule},
+	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of, from a compressor stage or a vacuum pump at its target: charred oil in the discharge line, burns", Check: hotAirRule},
 	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
 	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
 	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
@@ -111,9 +111,15 @@ func hotAirRule(s *calc.Set) []calc.Raised {
 		if !ok || t2.Value <= hotAir {
 			continue
 		}
+		what, remedy := "The air leaves the cylinder at %s", "split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler."
+		if e.Block.Kind.Has(calc.HoldsVacuum) {
+			// A vacuum pump compresses from the vessel to the atmosphere:
+			// the lower the vessel, the hotter the little air it moves.
+			what = "With the vessel at the target pressure the air leaves the cylinder at %s, and hotter still below it"
+			remedy = "pump down in two stages or to a higher target, guard the head, and keep the exhaust line metal and its silencer clear of the hot air."
+		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
-			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
-				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
+			what+", above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+remedy,
 			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
 	}
 	return out
