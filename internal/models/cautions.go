@@ -34,6 +34,9 @@ const (
 	fastRim = 30.0 // m/s
 	// freezing: water in the air freezes below 0 °C.
 	freezing = 273.15 // K
+	// bucklingFactor is the factor on a wall's elastic collapse pressure,
+	// checked against the site's minimum for buckling.
+	bucklingFactor = "external_safety_factor"
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -42,7 +45,7 @@ var rules = []calc.Rule{
 	{ID: "over-expansion", Level: calc.Notice, Summary: "an air motor whose air expands below ambient before the exhaust opens, so the end of each stroke takes work back (raised by the motor model)"},
 	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of, from a compressor stage or a vacuum pump at its target: charred oil in the discharge line, burns", Check: hotAirRule},
 	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
-	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
+	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum for its material, or for buckling (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
 	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
 	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
 	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
@@ -137,11 +140,13 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 				continue
 			}
 			m, hasMaterial := material(e, spec.FactorMaterial)
-			min := envOf(e.ModelInputs()).Safety.MinimumFactorMetal
-			basis := "metal"
-			if hasMaterial {
-				min = envOf(e.ModelInputs()).Safety.MinimumFor(m)
-				basis = m.Label
+			safety := envOf(e.ModelInputs()).Safety
+			min, basis := safety.MinimumFactorMetal, "metal"
+			switch {
+			case spec.Name == bucklingFactor:
+				min, basis = safety.MinimumFactorBuckling, "elastic buckling"
+			case hasMaterial:
+				min, basis = safety.MinimumFor(m), m.Label
 			}
 			factor := units.Format(r.Value, e.SigFigs())
 			switch {
