@@ -11,6 +11,7 @@ var kinds = []*calc.Kind{
 	&flywheelKind,
 	&motorKind,
 	&multistageKind,
+	&plateKind,
 	&tankKind,
 	&tubeKind,
 	&vacuumKind,

@@ -211,3 +211,41 @@ func TestPumpdownExtremes(t *testing.T) {
 		}
 	}
 }
+
+// TestHPaAmbient: plain hPa, as a barometer reads, is taken absolute for
+// the block's ambient pressure.
+func TestHPaAmbient(t *testing.T) {
+	set, err := evaluateBlocks(t, benchPot(map[string]any{"ambient_pressure": "950 hPa", "target_pressure": "100 hPa"}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("pot")
+	target, _ := inputValue(t, e, "target_pressure")
+	if e.Ambient != 95000 || target != 10000 {
+		t.Errorf("ambient %g Pa, target %g Pa; want 95 000 and 10 000 (1 hPa = 100 Pa)", e.Ambient, target)
+	}
+}
+
+// TestNormalFlows: flows shown or claimed in normal units are taken by
+// mass from the state each is measured at. The pot's speed at the start is
+// drawn at 1 atm and 20 °C: 94.24778 L/min · 1 · 273.15/293.15 = 87.8180
+// Nl/min (DIN 1343: 0 °C, 1 atm), and at 900 mbar(a) 94.24778 · 90 000/101 325
+// · 273.15/293.15 · η_v; in l/min ANR (ISO 8778: 20 °C, 1 bar) the start
+// speed is 94.24778 · 1.01325 = 95.4966 l/min ANR. Clearance ratio 1e-6 keeps
+// η_v at 1 to 1e-6.
+func TestNormalFlows(t *testing.T) {
+	set, err := evaluateBlocks(t, benchPot(map[string]any{"clearance_ratio": 0.000001, "target_pressure": "100 mbar(a)",
+		"expect": map[string]any{"pumping_speed": "87.82 Nl/min ± 0.01"}}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := set.Lookup("pot")
+	if len(e.Claims) != 1 || !e.Claims[0].OK {
+		t.Errorf("claim in Nl/min: %+v", e.Claims)
+	}
+	for unit, want := range map[string]string{"Nl/min": "87.8 Nl/min", "l/min ANR": "95.5 l/min ANR", "L/min": "94.2 L/min"} {
+		if got, err := e.Format("pumping_speed", unit); err != nil || got != want {
+			t.Errorf("pumping_speed in %s: %q, %v; want %q", unit, got, err, want)
+		}
+	}
+}

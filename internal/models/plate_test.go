@@ -1,0 +1,59 @@
+package models
+
+import (
+	"math"
+	"testing"
+
+	"specgen/internal/calc"
+)
+
+// navierLoop sums Navier's series for the centre of a simply supported
+// a × b plate under load q with rigidity d and Poisson's ratio nu, over
+// every odd m and n up to 4001, by sin(mπ/2)·sin(nπ/2) directly: the test's
+// own loop, written apart from the model's. It returns the deflection and
+// the larger bending moment per unit width.
+func navierLoop(a, b, q, d, nu float64) (w, moment float64) {
+	var mx, my float64
+	for m := 1; m <= 4001; m += 2 {
+		for n := 1; n <= 4001; n += 2 {
+			s := math.Sin(float64(m)*math.Pi/2) * math.Sin(float64(n)*math.Pi/2)
+			k := math.Pow(float64(m)/a, 2) + math.Pow(float64(n)/b, 2)
+			w += s / (float64(m*n) * k * k)
+			mx += s * (math.Pow(float64(m)/a, 2) + nu*math.Pow(float64(n)/b, 2)) / (float64(m*n) * k * k)
+			my += s * (nu*math.Pow(float64(m)/a, 2) + math.Pow(float64(n)/b, 2)) / (float64(m*n) * k * k)
+		}
+	}
+	return 16 * q / (math.Pow(math.Pi, 6) * d) * w, 16 * q / math.Pow(math.Pi, 4) * math.Max(mx, my)
+}
+
+// plateReference computes "navier-deflection" and "navier-stress" from the
+// block's inputs by the test's own loop.
+func plateReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+	t.Helper()
+	get := func(name string) float64 {
+		v, ok := inputValue(t, e, name)
+		if !ok {
+			t.Fatalf("block %s has no input %s", e.Block.ID, name)
+		}
+		return v
+	}
+	m, err := DefaultEnv().Materials.Lookup(e.ModelInputs().NameOf("material"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	th := get("thickness")
+	d := m.ElasticModulus * th * th * th / (12 * (1 - m.PoissonRatio*m.PoissonRatio))
+	w, moment := navierLoop(get("length"), get("width"), get("pressure_difference"), d, m.PoissonRatio)
+	switch basis {
+	case "navier-deflection":
+		return w
+	case "navier-stress":
+		return 6 * moment / (th * th)
+	}
+	t.Fatalf("unknown basis %q", basis)
+	return 0
+}
+
+func TestPlateReference(t *testing.T) {
+	runBlockCases(t, "plate", 4, plateReference)
+}
