@@ -54,7 +54,8 @@ var rules = []calc.Rule{
 	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
 	{ID: "printed-pressure-part", Level: calc.Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", Check: printedPart},
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
-	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
+	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose exhaust air (mass-averaged, after the blowdown) leaves below 0 °C, where moisture freezes; not when the expansion ends below ambient, which over-expansion covers", Check: coldExhaust},
+	{ID: "dead-centre", Level: calc.Caution, Summary: "an air motor that can stop where no inlet is open with leverage on the crank (a single cylinder at top dead centre or after cut-off): it will not start on air, and starts suddenly when moved", Check: deadCentre},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
 }
 
@@ -437,13 +438,35 @@ func fastFlywheel(s *calc.Set) []calc.Raised {
 func coldExhaust(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		t, ok := e.Result("expansion_temperature")
-		if !ok || t.Value >= freezing {
+		t, ok := e.Result("exhaust_temperature")
+		pe, hasPe := e.Result("expansion_pressure")
+		te, _ := e.Result("expansion_temperature")
+		// Expanded below ambient, air flows in when the exhaust opens: the
+		// over-expansion NOTICE says what to change.
+		if !ok || t.Value >= freezing || (hasPe && pe.Value < e.Ambient) {
 			continue
 		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
-			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
-			e.Show(t.Value, units.Temperature, "degC"))}})
+			"The exhaust air leaves at about %s, mass-averaged over the blowdown when the exhaust opens and the exhaust stroke (the air in the cylinder is %s at bottom dead centre; warm cylinder walls make both less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air, or warm it; changing the cut-off warms the exhaust little.",
+			e.Show(t.Value, units.Temperature, "degC"), e.Show(te.Value, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func deadCentre(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		t, ok := e.Result("start_torque")
+		in := e.ModelInputs()
+		if !ok || t.Value > 0 || in == nil {
+			continue
+		}
+		where := "at some crank angles no inlet is open with leverage on the crank: the cut-off leaves gaps between the cylinders' admissions"
+		if in.Value("cylinders") == 1 {
+			where = "a single cylinder has dead centres: at top dead centre the rod gives no leverage, and from cut-off to bottom dead centre the inlet is shut"
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "The motor can stop where it will not start on air: " + where + ". " +
+			"Moved past that point by hand, it starts at once and with full torque: turn it by its load or a bar, never by the crank or belt, with guards in place, or shut and vent the supply first. A flywheel carries it past in running; more cylinders with overlapping admission let it start anywhere."}})
 	}
 	return out
 }
