@@ -56,7 +56,7 @@ var rules = []calc.Rule{
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose exhaust air (mass-averaged, after the blowdown) leaves below 0 °C, where moisture freezes; not when the expansion ends below ambient, which over-expansion covers", Check: coldExhaust},
 	{ID: "dead-centre", Level: calc.Caution, Summary: "an air motor that can stop where no inlet is open with leverage on the crank (a single cylinder at top dead centre or after cut-off): it will not start on air, and starts suddenly when moved", Check: deadCentre},
-	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
+	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode; on a vacuum pump, naming the wall and lid blocks on its page that check them, or saying none does; on a glass or acrylic wall or lid, the shield it needs", Check: vacuumVessel},
 }
 
 // material returns the material a Name input of e names.
@@ -143,9 +143,11 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 			m, hasMaterial := material(e, spec.FactorMaterial)
 			safety := envOf(e.ModelInputs()).Safety
 			min, basis := safety.MinimumFactorMetal, "metal"
+			remedy := "Thicken or strengthen the part, or lower the pressure."
 			switch {
 			case spec.Name == bucklingFactor:
 				min, basis = safety.MinimumFactorBuckling, "elastic buckling"
+				remedy = "Thicken the wall or add stiffening rings (a shorter length between them), or use a vessel rated for full vacuum."
 			case hasMaterial:
 				min, basis = safety.MinimumFor(m), m.Label
 			}
@@ -161,8 +163,8 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 					spec.Name, factor, units.Format(dangerFactor, 2))}})
 			case r.Value < min:
 				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
-					"%s is %s, below the site's minimum of %s for %s. Thicken or strengthen the part, or lower the pressure.",
-					spec.Name, factor, units.Format(min, 2), basis)}})
+					"%s is %s, below the site's minimum of %s for %s. %s",
+					spec.Name, factor, units.Format(min, 2), basis, remedy)}})
 			}
 		}
 	}
@@ -391,10 +393,9 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 func printedPart(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		isPart := false
-		if _, ok := e.Result("allowable_pressure"); ok {
-			isPart = true
-		}
+		// A rated pressure part, or a wall or lid under a pressure difference.
+		_, isPart := e.Result("allowable_pressure")
+		isPart = isPart || e.Block.Kind.Has(calc.Wall)
 		// nut_material is the part a head's bolts thread into: printed, its
 		// threads carry the whole head load.
 		for _, key := range []string{"material", "head_material", "valve_material", "nut_material"} {
@@ -474,12 +475,56 @@ func deadCentre(s *calc.Set) []calc.Raised {
 func vacuumVessel(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		if !e.Block.Kind.Has(calc.HoldsVacuum) {
-			continue
+		switch {
+		case e.Block.Kind.Has(calc.Wall):
+			if note, ok := brittleLid(e); ok {
+				out = append(out, calc.Raised{Block: e, Note: note})
+			}
+		case e.Block.Kind.Has(calc.HoldsVacuum):
+			out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded. " + wallsChecked(s, e)}})
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded."}})
 	}
 	return out
+}
+
+// vacuumWall reports whether w is a wall or lid that may carry a vacuum: a
+// wall pumped below ambient, or a lid given only the difference across it.
+func vacuumWall(w *calc.Evaluated) bool {
+	return w.Block.Kind.Has(calc.Wall) && (w.HoldsVacuum() || w.Block.Kind.WorkingPressure.Key == "")
+}
+
+// wallsChecked names the wall and lid blocks on the page of the vacuum
+// block e, with their safety factors, or says that none checks them.
+func wallsChecked(s *calc.Set, e *calc.Evaluated) string {
+	var named []string
+	for _, w := range s.Blocks {
+		if w.Block.File != e.Block.File || !vacuumWall(w) {
+			continue
+		}
+		var factors []string
+		for _, spec := range w.Block.Kind.Results {
+			if r, ok := w.Result(spec.Name); ok && spec.Factor {
+				factors = append(factors, strings.ReplaceAll(spec.Name, "_", " ")+" "+units.Format(r.Value, w.SigFigs()))
+			}
+		}
+		named = append(named, fmt.Sprintf("%s (%s: %s)", w.Block.ID, w.Block.Kind.Name, strings.Join(factors, ", ")))
+	}
+	if len(named) == 0 {
+		return "No wall or lid block on this page checks them: give the vessel's walls a tube block with its pressure below ambient and its lids or windows plate blocks, or name the rating the vessel was bought to."
+	}
+	return "The walls and lids this page checks: " + strings.Join(named, "; ") + "."
+}
+
+// brittleLid is the implosion caution of a wall or lid of glass or a
+// brittle plastic (acrylic) that may carry a vacuum.
+func brittleLid(w *calc.Evaluated) (calc.CautionNote, bool) {
+	m, ok := material(w, "material")
+	if !ok || !m.Brittle || m.Class == Metal || !vacuumWall(w) {
+		return calc.CautionNote{}, false
+	}
+	return calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		"%s is %s, which breaks without warning at a scratch or a flaw: under vacuum it implodes and throws sharp fragments at speed. Shield it with a polycarbonate cover or a fine mesh guard, keep faces away from it while it is pumped down, let the air back in slowly, and replace it when it is scratched or crazed.",
+		w.Block.ID, m.Label)}, true
 }
 
 // StandardCaution is shown on every page with a pressure calculation.

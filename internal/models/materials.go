@@ -24,6 +24,7 @@ type MaterialClass string
 const (
 	Plastic MaterialClass = "plastic"
 	Metal   MaterialClass = "metal"
+	Glass   MaterialClass = "glass"
 )
 
 // Material is one engineering material with typical properties in SI.
@@ -338,8 +339,8 @@ func (m *Material) set(key string, v any) error {
 		if err := text(&c); err != nil {
 			return err
 		}
-		if c != string(Plastic) && c != string(Metal) {
-			return fmt.Errorf("%q is not a class; allowed: plastic, metal", c)
+		if c != string(Plastic) && c != string(Metal) && c != string(Glass) {
+			return fmt.Errorf("%q is not a class; allowed: plastic, metal, glass", c)
 		}
 		m.Class = MaterialClass(c)
 	case "aliases":
