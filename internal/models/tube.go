@@ -34,7 +34,7 @@ var tubeKind = calc.Kind{
 		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore, Lamé (thick wall): the largest stress in the wall"},
 		{Name: "hoop_stress_thin", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress by the thin-wall formula p·Di/2t, for comparison"},
 		{Name: "axial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "longitudinal stress from the end load (0 for open ends)"},
-		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure"},
+		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure inside (0 under outside pressure)"},
 		{Name: "burst_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "pressure at which the wall bursts, Barlow's formula on the outside diameter and tensile strength (under internal pressure)"},
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure over the site's minimum safety factor for the material (under internal pressure)"},
 		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
