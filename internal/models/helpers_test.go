@@ -83,3 +83,14 @@ func catalogWith(t testing.TB, env *Env) *calc.Catalog {
 	}
 	return c
 }
+
+// requiredInput returns the SI value of e's input name, given or default,
+// and fails the test when the block has none.
+func requiredInput(t *testing.T, e *calc.Evaluated, name string) float64 {
+	t.Helper()
+	v, ok := inputValue(t, e, name)
+	if !ok {
+		t.Fatalf("block %s has no input %s", e.Block.ID, name)
+	}
+	return v
+}

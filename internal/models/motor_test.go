@@ -72,13 +72,7 @@ func stepExhaust(pe, te, pa, ta, v0, v2 float64) float64 {
 // and "energy-balance", the exhaust temperature by stepExhaust.
 func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
-	}
+	get := func(name string) float64 { return requiredInput(t, e, name) }
 	bore := get("bore")
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {

@@ -30,13 +30,7 @@ func navierLoop(a, b, q, d, nu float64) (w, moment float64) {
 // block's inputs by the test's own loop.
 func plateReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
-	}
+	get := func(name string) float64 { return requiredInput(t, e, name) }
 	m, err := DefaultEnv().Materials.Lookup(e.ModelInputs().NameOf("material"))
 	if err != nil {
 		t.Fatal(err)

@@ -58,13 +58,7 @@ func shoelacePower(swept, c, n, m, p, pd, z, revs float64) float64 {
 // the start to the target.
 func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 {
-		v, ok := inputValue(t, e, name)
-		if !ok {
-			t.Fatalf("block %s has no input %s", e.Block.ID, name)
-		}
-		return v
-	}
+	get := func(name string) float64 { return requiredInput(t, e, name) }
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {
 		stroke = 2 * get("crank_radius")
