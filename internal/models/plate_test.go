@@ -2,6 +2,7 @@ package models
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"specgen/internal/calc"
@@ -50,4 +51,27 @@ func plateReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) 
 
 func TestPlateReference(t *testing.T) {
 	runBlockCases(t, "plate", 4, plateReference)
+}
+
+// TestPlateLargeDeflectionNote: a plate that sags more than half its
+// thickness says that its small-deflection figures overstate the stress.
+// Acrylic Ø300 mm, 3 mm, simply supported, 1 bar: D = 3.2e9 · 0.003³/(12 ·
+// (1 − 0.37²)) = 8.342 N·m, w = 5.37 · 1e5 · 0.15⁴/(64 · 8.342 · 1.37)
+// = 372 mm, far past 1.5 mm; at 40 mm, (3/40)³ of that: 0.157 mm, under 20 mm.
+func TestPlateLargeDeflectionNote(t *testing.T) {
+	for _, c := range []struct {
+		thickness string
+		note      bool
+	}{{"3 mm", true}, {"40 mm", false}} {
+		set, err := evaluateBlocks(t, []map[string]any{{"id": "lid", "kind": "plate", "shape": "circular", "diameter": "300 mm",
+			"thickness": c.thickness, "material": "acrylic", "pressure_difference": "1 bar"}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, _ := set.Lookup("lid")
+		w, _ := e.Result("max_deflection")
+		if got := strings.Contains(w.Trace.Substituted, "NOTE: more than half the thickness"); got != c.note {
+			t.Errorf("%s: deflection %g m, NOTE %v, want %v (%s)", c.thickness, w.Value, got, c.note, w.Trace.Substituted)
+		}
+	}
 }
