@@ -1,4 +1,4 @@
-module specgen
+module github.com/millrace-workshop/specgen
 
 go 1.26
 

@@ -7,9 +7,9 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/models"
-	"specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 func runCalc(args []string, stdout, stderr io.Writer) int {

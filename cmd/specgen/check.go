@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"io"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // checkReport is the -format json output of check.

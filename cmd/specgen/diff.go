@@ -6,10 +6,10 @@ import (
 	"os"
 	"strings"
 
-	"specgen/internal/calcdiff"
-	"specgen/internal/inputerr"
-	"specgen/internal/results"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/calcdiff"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 func runDiff(args []string, stdout, stderr io.Writer) int {

@@ -14,8 +14,8 @@ import (
 	"runtime/debug"
 	"syscall"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // Exit statuses.

@@ -10,8 +10,8 @@ import (
 	"strings"
 	"time"
 
-	"specgen/internal/preview"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/preview"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // previewDebounce gathers the burst of events one save makes.

@@ -14,7 +14,7 @@ import (
 	"testing"
 	"time"
 
-	"specgen/internal/preview"
+	"github.com/millrace-workshop/specgen/internal/preview"
 )
 
 // syncBuffer is a bytes.Buffer safe for the preview's goroutines.

@@ -13,8 +13,8 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Block is one decoded calculation block: a fenced code block whose info

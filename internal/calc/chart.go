@@ -3,7 +3,7 @@ package calc
 import (
 	"fmt"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Chart is the data of one chart a block can show, in SI units; render

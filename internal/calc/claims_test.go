@@ -8,7 +8,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // claimRow is one [[case]] of testdata/claims/*.toml: a claim as a page

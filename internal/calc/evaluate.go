@@ -11,9 +11,9 @@ import (
 	"strings"
 	"sync"
 
-	"specgen/internal/display"
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Options are the site-wide settings of an evaluation.

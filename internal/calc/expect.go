@@ -10,9 +10,9 @@ import (
 	"strings"
 	"unicode"
 
-	"specgen/internal/display"
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Claim is one line of a block's [expect] table: what the prose says a

@@ -4,7 +4,7 @@ import (
 	"math"
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // FuzzParseClaim checks that ParseClaim never panics, that a parsed claim

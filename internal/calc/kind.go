@@ -5,7 +5,7 @@ import (
 	"math"
 	"sort"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Kind is one engineering model: the inputs it takes, the results it gives

@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // TestNonFiniteResultNamesInputs checks that a block whose inputs pass

@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"strings"
 
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // How a block's values are shown: which unit each takes, chosen from what

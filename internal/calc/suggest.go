@@ -3,7 +3,7 @@ package calc
 import (
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Suggest returns the candidate closest to s by edit distance, or "" when

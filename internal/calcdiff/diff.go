@@ -6,7 +6,7 @@ import (
 	"slices"
 	"sort"
 
-	"specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // Diff is what changed in a site's calculations between two evaluations.

@@ -3,7 +3,7 @@ package calcdiff
 import (
 	"testing"
 
-	"specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // TestRelativeChangeOverflow checks that a change too large for float64

@@ -11,9 +11,9 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/results"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // ResultsAt evaluates the site at root as it was at a git revision, in a

@@ -11,7 +11,7 @@ import (
 	"strconv"
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Value shows an SI value in unit with sig significant figures: "19.7 cm³".

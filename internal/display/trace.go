@@ -4,7 +4,7 @@ import (
 	"math"
 	"strings"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // TraceFigures is the number of significant figures of a trace's numbers.

@@ -3,9 +3,9 @@ package models
 import (
 	"fmt"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // balanceKind sizes the crank counterweight of a single-cylinder machine

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // pistonHarmonic returns the amplitude of harmonic k of the inertia force

@@ -5,9 +5,9 @@ import (
 	"math"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // boltsKind models the bolts that hold a cylinder head (or any cover)

@@ -5,8 +5,8 @@ import (
 	"slices"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Thresholds of the rules, with their basis.

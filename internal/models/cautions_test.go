@@ -8,7 +8,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // cautionCase is one file of testdata/cautions: blocks evaluated together

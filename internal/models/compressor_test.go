@@ -13,9 +13,9 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // standardAtmosphere is the ambient pressure of the reference cases unless

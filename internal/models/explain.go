@@ -6,8 +6,8 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"specgen/internal/calc"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // ExplainKinds writes the list of kinds with their one-line summaries.

@@ -7,9 +7,9 @@ import (
 	"strconv"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // flywheelKind sizes a flywheel, a solid disc or a rim, to hold the speed

@@ -7,8 +7,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // flywheelReference computes the bases of the flywheel cases: the source

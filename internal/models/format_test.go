@@ -4,8 +4,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // TestFormatValueMarksPressures checks that a pressure asked for in an

@@ -6,8 +6,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // stageTOML is a valid compressor block: bore 28 mm, stroke 32 mm.

@@ -5,8 +5,8 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // wantInputError evaluates the blocks site(changes) builds and checks that

@@ -1,6 +1,6 @@
 package models
 
-import "specgen/internal/calc"
+import "github.com/millrace-workshop/specgen/internal/calc"
 
 // kinds is every model specgen knows; a new kind is added here and in its
 // own file.

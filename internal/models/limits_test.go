@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // TestBlockLimits checks that an oversized block fails at once with one

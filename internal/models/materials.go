@@ -11,10 +11,10 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/inputerr"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // MaterialClass sorts materials for safety factors and cautions.

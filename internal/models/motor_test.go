@@ -4,7 +4,7 @@ import (
 	"math"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // pvArea is the area enclosed by one motor cylinder's ideal indicator

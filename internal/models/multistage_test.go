@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // testAirR is the specific gas constant of dry air, J/(kg K), as the

@@ -4,9 +4,9 @@ import (
 	"fmt"
 	"math"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // plateKind models a flat plate or lid under a uniform pressure difference:

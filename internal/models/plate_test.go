@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // navierLoop sums Navier's series for the centre of a simply supported

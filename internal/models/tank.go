@@ -7,9 +7,9 @@ import (
 
 	"gonum.org/v1/gonum/integrate/quad"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // tankKind models an air receiver: the time its supply takes to fill it,

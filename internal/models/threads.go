@@ -8,7 +8,7 @@ import (
 	"strconv"
 	"strings"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // Thread is an ISO general-purpose metric screw thread (ISO 68-1 basic

@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // midpointPumpdown integrates dt = −V·dp/(p·S(p)) from p0 down to p by the

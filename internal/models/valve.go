@@ -5,9 +5,9 @@ import (
 	"math"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // valveKind models a spring-loaded poppet or ball valve: a check valve, or,

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"net"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // CheckAddr refuses an address that is not on the loopback

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"sync"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // hosts decides which Host (and Origin) a request may name. A page on

@@ -13,7 +13,7 @@ import (
 	"sync"
 	"time"
 
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // Server builds a site into memory, serves it, and rebuilds when its

@@ -10,7 +10,7 @@ import (
 
 	"github.com/fsnotify/fsnotify"
 
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // Watch rebuilds on changes to content/, templates/, static/ and

@@ -7,10 +7,10 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/models"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 const stageBlock = `id = "low"

@@ -6,9 +6,9 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"specgen/internal/calc"
-	"specgen/internal/display"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // WriteText writes an evaluated block as plain text for a terminal:

@@ -10,7 +10,7 @@ import (
 	"reflect"
 	"strings"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // Read reads a results.json file. A file that is not one, or of another

@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"io"
 
-	"specgen/internal/calc"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // Version is the schema version of results.json.

@@ -8,8 +8,8 @@ import (
 	"reflect"
 	"testing"
 
-	"specgen/internal/results"
-	"specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/site"
 )
 
 // TestWriteMatchesWholeEncoding: results.json written block by block is

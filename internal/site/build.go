@@ -15,11 +15,11 @@ import (
 	"sync"
 	"sync/atomic"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/models"
-	"specgen/internal/render"
-	"specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // StaticDir is the optional folder of a site root copied into the output as is.

@@ -10,10 +10,10 @@ import (
 	"sort"
 	"strings"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/render"
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 // valueRef is an inline value of a page, as written, with its file line.

@@ -16,9 +16,9 @@ import (
 
 	"github.com/BurntSushi/toml"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/models"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/models"
 )
 
 // ConfigFile is the optional site configuration at the site root.

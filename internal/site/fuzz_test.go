@@ -10,7 +10,7 @@ import (
 	"testing"
 	"unicode/utf8"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // pageSeeds are pages that exercise front matter, calc blocks, claims,

@@ -8,8 +8,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/inputerr"
-	"specgen/templates"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/templates"
 )
 
 // Init writes a new site into dir: specgen.toml, a home page and an

@@ -10,7 +10,7 @@ import (
 	"slices"
 	"strings"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // checkLinks reports every link or image of a page, relative or from the

@@ -9,7 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // OutputMarker is the file that marks a folder as specgen's output. specgen

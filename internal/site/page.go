@@ -10,9 +10,9 @@ import (
 	"strings"
 	"unicode/utf8"
 
-	"specgen/internal/calc"
-	"specgen/internal/inputerr"
-	"specgen/internal/render"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 // ContentDir is the folder of a site root that holds the pages.

@@ -3,7 +3,7 @@ package site
 import (
 	"sort"
 
-	"specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // Problem is a failed claim or a danger-level caution: something that

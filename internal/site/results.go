@@ -1,8 +1,8 @@
 package site
 
 import (
-	"specgen/internal/calc"
-	"specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // Results returns the contents of results.json.

@@ -7,7 +7,7 @@ import (
 	"io/fs"
 	"os"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // CheckRoot says plainly when the site root (the -C folder) is missing or

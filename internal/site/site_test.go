@@ -19,7 +19,7 @@ import (
 	"strings"
 	"testing"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/")

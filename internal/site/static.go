@@ -7,7 +7,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
 
 // readStatic reads every file under static/, keyed by its output path.

@@ -13,9 +13,9 @@ import (
 	"strconv"
 	"strings"
 
-	"specgen/internal/inputerr"
-	"specgen/internal/render"
-	"specgen/templates"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
+	"github.com/millrace-workshop/specgen/internal/render"
+	"github.com/millrace-workshop/specgen/templates"
 )
 
 // TemplatesDir is the optional folder of a site root whose files replace

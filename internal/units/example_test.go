@@ -3,7 +3,7 @@ package units_test
 import (
 	"fmt"
 
-	"specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/units"
 )
 
 func ExampleParse() {
