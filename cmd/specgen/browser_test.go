@@ -157,7 +157,8 @@ func TestBrowserDemo(t *testing.T) {
 		Height  float64 `json:"height"`
 		Strokes int     `json:"strokes"`
 	}
-	charts, err := chromedp.Run(ctx, chromedp.Evaluate[[]chart](`Array.from(document.querySelectorAll("svg.sg-chart-svg")).map(s => {
+	// Each chart is drawn wide and narrow; the one its width calls for shows.
+	charts, err := chromedp.Run(ctx, chromedp.Evaluate[[]chart](`Array.from(document.querySelectorAll("svg.sg-chart-svg")).filter(s => s.checkVisibility()).map(s => {
 		const r = s.getBoundingClientRect();
 		return {name: s.getAttribute("aria-labelledby").split(" ").map(id => document.getElementById(id).textContent).join(" "),
 			width: r.width, height: r.height, strokes: s.querySelectorAll("path.s0").length};
@@ -323,21 +324,8 @@ func TestBrowserPhoneWidth(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 900)); err != nil {
 		t.Fatal(err)
 	}
-	// Every page of the demo, so that a new one is checked too.
-	var pagesToCheck []string
-	content := filepath.Join("..", "..", "content")
-	err := filepath.WalkDir(content, func(p string, d os.DirEntry, err error) error {
-		if err == nil && !d.IsDir() && strings.HasSuffix(p, ".md") {
-			rel, _ := filepath.Rel(content, p)
-			pagesToCheck = append(pagesToCheck, strings.TrimSuffix(filepath.ToSlash(rel), ".md")+".html")
-		}
-		return err
-	})
-	if err != nil || len(pagesToCheck) < 10 {
-		t.Fatalf("demo pages: %v (%d found)", err, len(pagesToCheck))
-	}
 	tables := 0
-	for _, pageName := range pagesToCheck {
+	for _, pageName := range demoPages(t) {
 		if err := chromedp.Do(ctx, chromedp.Navigate(base+pageName), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
 			t.Fatalf("%s: %v", pageName, err)
 		}
@@ -408,6 +396,47 @@ func TestBrowserLongWords(t *testing.T) {
 		if s.Page > s.Viewport {
 			t.Errorf("at %d px the page is %v px wide: a long word does not wrap", width, s.Page)
 		}
+	}
+	for _, p := range problems() {
+		t.Errorf("%s", p)
+	}
+}
+
+// TestBrowserSearchFromDisk: the search box works on a site opened from
+// disk (file://), from a page in a folder: typing finds pages by title,
+// heading and text, and a result leads to the page and heading.
+func TestBrowserSearchFromDisk(t *testing.T) {
+	ctx, problems := browser(t)
+	root := writeSite(t, map[string]string{
+		"content/index.md":          "# Home\n\nThe workshop's machines.\n",
+		"content/pump/index.md":     "# Pump\n\nThe vacuum pump.\n",
+		"content/pump/valves.md":    "# Valves\n\n## Reed springs\n\nSpring steel reeds, cut by hand.\n",
+		"content/bench/receiver.md": "# Receiver\n\nA welded tank.\n",
+	})
+	var out, errb strings.Builder
+	if code := run([]string{"build", "-quiet", "-C", root}, &out, &errb); code != exitOK {
+		t.Fatalf("build: exit %d: %s", code, errb.String())
+	}
+	page := "file://" + filepath.ToSlash(filepath.Join(root, "dist", "bench", "receiver.html"))
+	if err := chromedp.Do(ctx, chromedp.Navigate(page), chromedp.WaitVisible(chromedp.CSS("#sg-search-q"))); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.SendKeys(chromedp.CSS("#sg-search-q"), "reed"),
+		chromedp.WaitVisible(chromedp.CSS(".sg-search-results a"))); err != nil {
+		t.Fatal(err)
+	}
+	found, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`Array.from(document.querySelectorAll(".sg-search-results a")).map(a => a.getAttribute("href") + " " + a.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(found) != 1 || !strings.HasPrefix(found[0], "../pump/valves.html#reed-springs Valves › Reed springs") {
+		t.Errorf("searching reed found %q", found)
+	}
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(".sg-search-results a")), chromedp.WaitVisible(chromedp.CSS("#reed-springs"))); err != nil {
+		t.Fatal(err)
+	}
+	if where, err := chromedp.Run(ctx, chromedp.Location()); err != nil || !strings.HasSuffix(where, "/dist/pump/valves.html#reed-springs") {
+		t.Errorf("the result led to %q (%v)", where, err)
 	}
 	for _, p := range problems() {
 		t.Errorf("%s", p)

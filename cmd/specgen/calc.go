@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/inputerr"
 	"github.com/millrace-workshop/specgen/internal/models"
 	"github.com/millrace-workshop/specgen/internal/render"
 )
@@ -45,14 +46,15 @@ func runCalc(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "specgen calc:", err)
 		return exitBadInput
 	}
-	b, err := cat.ParseBlock(file, 0, string(src))
-	if err != nil {
-		fmt.Fprintln(stderr, err)
+	b, parseErr := cat.ParseBlock(file, 0, string(src))
+	if b == nil {
+		fmt.Fprintln(stderr, parseErr)
 		return exitBadInput
 	}
+	// A broken block's inputs are checked too: every problem in one run.
 	set, err := cat.Evaluate([]*calc.Block{b}, calc.Options{SigFigs: *sig})
-	if err != nil {
-		fmt.Fprintln(stderr, err)
+	if all := inputerr.Join(parseErr, err); all != nil {
+		fmt.Fprintln(stderr, all)
 		return exitBadInput
 	}
 	e, _ := set.Lookup(b.ID)

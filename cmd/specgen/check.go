@@ -87,9 +87,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 	} else {
 		printProblems(stdout, problems)
 		printProblems(stdout, notices)
-		fmt.Fprintf(stdout, "%s, %s, %s (%d failed), %s (%d DANGER not acknowledged)\n",
-			count(tally.Pages, "page"), count(tally.Blocks, "block"), count(tally.Claims, "claim"), tally.FailedClaims,
-			count(tally.Cautions, "caution"), tally.Dangers)
+		fmt.Fprintln(stdout, tallyLine(tally))
 	}
 	if len(problems) > 0 {
 		return exitFailed
@@ -102,6 +100,13 @@ func writeJSON(w io.Writer, v any) error {
 	enc.SetIndent("", "  ")
 	enc.SetEscapeHTML(false) // messages hold "<=" and "->": keep them readable
 	return enc.Encode(v)
+}
+
+// tallyLine is the one-line summary check and build end with.
+func tallyLine(t site.Tally) string {
+	return fmt.Sprintf("%s, %s, %s (%d failed), %s (%d DANGER not acknowledged)",
+		count(t.Pages, "page"), count(t.Blocks, "block"), count(t.Claims, "claim"), t.FailedClaims,
+		count(t.Cautions, "caution"), t.Dangers)
 }
 
 // count writes "1 block", "2 blocks".

@@ -158,6 +158,8 @@ func TestUsage(t *testing.T) {
 		{[]string{"build", "-nosuchflag"}, exitBadInput, "flag provided but not defined"},
 		{[]string{"build", "stray"}, exitBadInput, `unexpected argument "stray"`},
 		{[]string{"version"}, exitOK, "specgen "},
+		{[]string{"--version"}, exitOK, "specgen "},
+		{[]string{"-version"}, exitOK, "specgen "},
 		{[]string{"help", "help"}, exitOK, "Usage: specgen help [COMMAND]"},
 		{[]string{"help", "diff"}, exitOK, "BASE and HEAD"},
 		{[]string{"help", "init"}, exitOK, "Usage: specgen init DIR"},

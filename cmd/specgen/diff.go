@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"net/url"
 	"os"
 	"strings"
 
@@ -16,9 +17,13 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("diff", "diff [-C dir] [-format markdown|json] BASE [HEAD]", stderr)
 	dir := fs.String("C", ".", "site root: the folder holding content/")
 	format := fs.String("format", "markdown", "output format: markdown or json")
+	previewURL := fs.String("preview-url", "", "address of HEAD's built site (https://...): each block links to its table there")
+	maxBytes := fs.Int("max-bytes", 0, "cap the Markdown at this many bytes (a host's comment limit), leaving out whole blocks; 0: no cap")
+	full := fs.String("full", "", "also write the whole Markdown report, uncapped, to this file")
 	fs.Usage = func() {
-		fmt.Fprintln(fs.Output(), "Usage: specgen diff [-C dir] [-format markdown|json] BASE [HEAD]")
+		fmt.Fprintln(fs.Output(), "Usage: specgen diff [-C dir] [-format markdown|json] [-preview-url URL] [-max-bytes N -full FILE] BASE [HEAD]")
 		fmt.Fprintln(fs.Output(), "\nBASE and HEAD are git revisions (HEAD defaults to the working tree) or two results.json files.")
+		fmt.Fprintln(fs.Output(), "The Markdown starts with HEAD's failed claims and DANGER cautions, new or not.")
 		fmt.Fprintln(fs.Output(), "Exit status 1 when a claim newly fails or a DANGER caution newly appears.\n\nOptions:")
 		fs.PrintDefaults()
 	}
@@ -28,6 +33,22 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 	}
 	if *format != "markdown" && *format != "json" {
 		fmt.Fprintf(stderr, "specgen diff: -format %q is not allowed; allowed: markdown, json\n", *format)
+		return exitBadInput
+	}
+	if u, err := url.Parse(*previewURL); *previewURL != "" && (err != nil || (u.Scheme != "http" && u.Scheme != "https") || u.Host == "") {
+		fmt.Fprintf(stderr, "specgen diff: -preview-url %q is not allowed; give the address of the built site, e.g. https://example.org/pr-42/\n", *previewURL)
+		return exitBadInput
+	}
+	if *maxBytes < 0 || (*maxBytes > 0 && *maxBytes < 1000) {
+		fmt.Fprintf(stderr, "specgen diff: -max-bytes %d is not allowed; allowed: 0 (no cap) or 1000 and more\n", *maxBytes)
+		return exitBadInput
+	}
+	if *format == "json" && (*maxBytes > 0 || *full != "") {
+		fmt.Fprintln(stderr, "specgen diff: -max-bytes and -full shape the Markdown report; -format json is never capped")
+		return exitBadInput
+	}
+	if *maxBytes > 0 && *full == "" {
+		fmt.Fprintln(stderr, "specgen diff: -max-bytes leaves blocks out; give -full FILE for the whole report, which the capped one names")
 		return exitBadInput
 	}
 	if len(pos) < 1 || len(pos) > 2 {
@@ -70,7 +91,24 @@ func runDiff(args []string, stdout, stderr io.Writer) int {
 			return report(stderr, err)
 		}
 	} else {
-		d.WriteMarkdown(stdout)
+		opts := calcdiff.MarkdownOptions{PreviewURL: *previewURL}
+		if *full != "" {
+			f, err := os.Create(*full)
+			if err != nil {
+				return report(stderr, err)
+			}
+			err = d.WriteMarkdown(f, opts)
+			if cerr := f.Close(); err == nil {
+				err = cerr
+			}
+			if err != nil {
+				return report(stderr, err)
+			}
+		}
+		opts.MaxBytes, opts.Rest = *maxBytes, *full
+		if err := d.WriteMarkdown(stdout, opts); err != nil {
+			return report(stderr, err)
+		}
 	}
 	if d.Failed() {
 		return exitFailed

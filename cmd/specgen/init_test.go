@@ -23,6 +23,10 @@ func TestInitBuildsCleanly(t *testing.T) {
 			t.Fatalf("%v: exit %d, stderr %q", args, code, errb.String())
 		}
 	}
+	ignore, err := os.ReadFile(filepath.Join(dir, ".gitignore"))
+	if err != nil || !strings.Contains(string(ignore), "\n/dist/\n/.specgen-cache/\n") {
+		t.Errorf(".gitignore leaves out the output or the cache folder: %q, %v", ignore, err)
+	}
 	page, err := os.ReadFile(filepath.Join(dir, "dist", "first-stage.html"))
 	if err != nil {
 		t.Fatal(err)

@@ -16,6 +16,7 @@ import (
 
 	"github.com/millrace-workshop/specgen/internal/inputerr"
 	"github.com/millrace-workshop/specgen/internal/site"
+	"github.com/millrace-workshop/specgen/internal/version"
 )
 
 // Exit statuses.
@@ -69,9 +70,12 @@ func run(args []string, stdout, stderr io.Writer) int {
 		return exitBadInput
 	}
 	name := args[0]
-	if name == "-h" || name == "-help" || name == "--help" {
+	switch name {
+	case "-h", "-help", "--help":
 		usage(stdout)
 		return exitOK
+	case "-version", "--version":
+		return runVersion(args[1:], stdout, stderr)
 	}
 	for _, c := range commands() {
 		if c.name == name {
@@ -206,48 +210,20 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 			verb = "up to date:"
 		}
 		fmt.Fprintf(stdout, "%s %s in %s\n", verb, count(sum.Pages, "page"), sum.Out)
+		fmt.Fprintln(stdout, tallyLine(sum.Tally))
 	}
 	return exitOK
 }
 
 func runVersion(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("version", "version", stderr)
+	fs := newFlags("version", "version   (or specgen --version)\n\n"+
+		"Prints the release this specgen was built from (v0.1.0), or for a build from source the commit, with\n"+
+		"+dirty when the source had uncommitted changes.", stderr)
 	if code := parseFlags(fs, args); code >= 0 {
 		return code
 	}
-	fmt.Fprintln(stdout, "specgen", version())
+	fmt.Fprintln(stdout, version.Generator())
 	return exitOK
-}
-
-// version is the module version when built by "go install", else the VCS
-// revision that go build stamps, else "devel".
-func version() string {
-	info, ok := debug.ReadBuildInfo()
-	if !ok {
-		return "devel"
-	}
-	if v := info.Main.Version; v != "" && v != "(devel)" {
-		return v
-	}
-	rev, dirty := "", false
-	for _, s := range info.Settings {
-		switch s.Key {
-		case "vcs.revision":
-			rev = s.Value
-		case "vcs.modified":
-			dirty = s.Value == "true"
-		}
-	}
-	if rev == "" {
-		return "devel"
-	}
-	if len(rev) > 12 {
-		rev = rev[:12]
-	}
-	if dirty {
-		rev += "+changes"
-	}
-	return "devel " + rev
 }
 
 func runHelp(args []string, stdout, stderr io.Writer) int {

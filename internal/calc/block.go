@@ -36,8 +36,16 @@ type Block struct {
 	// Acknowledge maps caution rule ids to the block's reason for
 	// accepting them.
 	Acknowledge map[string]string
-	lines       map[string]int // TOML-relative line of each key
-	catalog     *Catalog
+	// Derive lists the results the block computes with expressions, in
+	// the order its [derive] table names them.
+	Derive        []Derivation
+	pendingClaims []pendingClaim
+	// Broken marks a block ParseBlock returned with its errors: other
+	// blocks may name it, and Evaluate checks the inputs it could read,
+	// but it is not evaluated, nor is any block that needs it.
+	Broken  bool
+	lines   map[string]int // TOML-relative line of each key
+	catalog *Catalog
 }
 
 // Value is one input as the user wrote it.
@@ -47,6 +55,8 @@ type Value struct {
 	RefBlock, RefResult string
 	// Links are the block ids a Link or LinkList input names.
 	Links []string
+	// Items are the values of a List input written as a list, as written.
+	Items []string
 	Line  int // file line
 }
 
@@ -63,6 +73,9 @@ func (v Value) Deps() []string {
 type Show struct {
 	Outputs []Output
 	Charts  []string
+	// FullRange: charts over an operating condition (a stage's discharge
+	// pressure) span all of it, to dead-head, not the working range.
+	FullRange bool
 }
 
 // Output is one entry of [show] outputs: a result and the unit to show it in.
@@ -72,7 +85,7 @@ type Output struct {
 }
 
 // commonKeys are the keys every block takes besides its kind's inputs.
-var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "expect", "show", "acknowledge"}
+var commonKeys = []string{"id", "kind", "title", "ambient_pressure", "derive", "expect", "show", "acknowledge"}
 
 // Limits on one block, far above any real block, so that a runaway or
 // generated block fails quickly with one clear message.
@@ -91,8 +104,35 @@ var idPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9_-]*$`)
 var refPattern = regexp.MustCompile(`^=\s*([a-z0-9][a-z0-9_-]*)\.([a-z][a-z0-9_]*)\s*$`)
 
 // ParseBlock decodes one calc block. file and fenceLine place it for error
-// messages: TOML line k is file line fenceLine+k.
+// messages: TOML line k is file line fenceLine+k. With an error it still
+// returns what it read, marked Broken, when the block names its id, so
+// that every other problem of the site can be found in the same run.
 func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, error) {
+	b, err := c.parseBlock(file, fenceLine, src)
+	if err == nil {
+		return b, nil
+	}
+	if b == nil {
+		b = &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+	}
+	if b.ID == "" || !idPattern.MatchString(b.ID) {
+		// Not even TOML: the id as written, if it can be seen.
+		m := writtenID.FindStringSubmatch(src)
+		if m == nil {
+			return nil, err
+		}
+		b.ID = m[1]
+	}
+	b.Broken = true
+	return b, err
+}
+
+// writtenID finds the id line of a block whose TOML cannot be read.
+var writtenID = regexp.MustCompile(`(?m)^[ \t]*id[ \t]*=[ \t]*"([a-z0-9][a-z0-9_-]*)"[ \t]*(?:#.*)?\r?$`)
+
+// parseBlock decodes one calc block; with an error, the block is what it
+// could read, or nil.
+func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, error) {
 	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
 		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
@@ -143,7 +183,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		}
 	}
 	if len(errs) > 0 || b.Kind == nil {
-		return nil, errs.Sorted()
+		return b, errs.Sorted()
 	}
 
 	keys := make([]string, 0, len(raw))
@@ -151,6 +191,12 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		keys = append(keys, k)
 	}
 	sort.Strings(keys)
+	if b.Kind.FreeInputs {
+		// The block's own inputs join a copy of its kind.
+		k := *b.Kind
+		k.Inputs = slices.Clone(k.Inputs)
+		b.Kind = &k
+	}
 	allowed := append(append([]string{}, commonKeys...), b.Kind.inputNames()...)
 	for _, key := range keys {
 		v := raw[key]
@@ -168,6 +214,17 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		case "acknowledge":
 			errs = append(errs, b.decodeAcknowledge(v)...)
 			continue
+		case "derive":
+			errs = append(errs, b.decodeDerive(v)...)
+			continue
+		}
+		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" && b.Kind.FreeInputs {
+			spec, err := b.freeInput(key, v)
+			if err != nil {
+				errs = append(errs, err)
+				continue
+			}
+			b.Kind.Inputs = append(b.Kind.Inputs, spec)
 		}
 		if _, isInput := b.Kind.Input(key); !isInput && key != "ambient_pressure" {
 			msg := fmt.Sprintf("unknown key for kind %s; allowed: %s", b.Kind.Name, strings.Join(allowed, ", "))
@@ -196,7 +253,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		}
 	}
 	if err := errs.Capped(MaxBlockErrors, "in this block").Sorted(); err != nil {
-		return nil, err
+		return b, err
 	}
 	return b, nil
 }
@@ -228,6 +285,9 @@ func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 		case Link, LinkList:
 			return b.decodeLinks(spec, line, v)
 		}
+		if items, isList := v.([]any); isList && spec.List {
+			return b.decodeList(spec, line, items)
+		}
 	}
 	switch t := v.(type) {
 	case string:
@@ -254,6 +314,41 @@ func (b *Block) decodeValue(key string, v any) (Value, *inputerr.Error) {
 		return Value{Text: strconv.FormatFloat(t, 'g', -1, 64), Line: line}, nil
 	}
 	return bad("%s is not a quantity; write a string such as \"32 mm\"", TOMLText(v))
+}
+
+// decodeList reads a List input written as a list: quantity strings, or
+// plain numbers for a dimensionless input; references are taken one value
+// at a time, not in a list.
+func (b *Block) decodeList(spec InputSpec, line int, items []any) (Value, *inputerr.Error) {
+	bad := func(format string, args ...any) (Value, *inputerr.Error) {
+		return Value{}, &inputerr.Error{File: b.File, Line: line, Key: spec.Name, Msg: fmt.Sprintf(format, args...)}
+	}
+	if len(items) == 0 {
+		return bad("an empty list; give one value for all, or a list with one value each (%s)", spec.Dim.Examples())
+	}
+	var texts []string
+	for _, item := range items {
+		var text string
+		switch t := item.(type) {
+		case string:
+			text = strings.TrimSpace(t)
+		case int64:
+			text = strconv.FormatInt(t, 10)
+		case float64:
+			text = strconv.FormatFloat(t, 'g', -1, 64)
+		}
+		switch {
+		case text == "":
+			return bad("%s in the list is not a quantity; write each value as a string with its unit (%s)", TOMLText(item), spec.Dim.Examples())
+		case strings.HasPrefix(text, "="):
+			return bad("%q: a reference stands alone, not in a list; write %s = %q for all, or the values themselves", text, spec.Name, text)
+		}
+		if _, isString := item.(string); !isString && spec.Dim != units.Dimensionless {
+			return bad("%s has no unit; %s takes %s, written as strings such as \"%s %s\"", text, spec.Name, dimPhrase(spec.Dim), text, firstExample(spec.Dim))
+		}
+		texts = append(texts, text)
+	}
+	return Value{Text: strings.Join(texts, ", "), Items: texts, Line: line}, nil
 }
 
 // decodeName reads a Name input: a string, a number written bare (a

@@ -62,11 +62,11 @@ func (c *Catalog) Kind(name string) (*Kind, bool) {
 // KindNames lists the kinds, sorted.
 func (c *Catalog) KindNames() []string { return c.names }
 
-// KindsWith lists the kinds that play any of the roles in r, sorted.
-func (c *Catalog) KindsWith(r Role) []string {
+// KindsAccepted lists the kinds a Link or LinkList input may name, sorted.
+func (c *Catalog) KindsAccepted(in InputSpec) []string {
 	var names []string
 	for _, n := range c.names {
-		if c.kinds[n].Roles&r != 0 {
+		if in.Accepts(c.kinds[n]) {
 			names = append(names, n)
 		}
 	}

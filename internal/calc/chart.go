@@ -15,6 +15,9 @@ type Chart struct {
 	Ambient float64
 	X       Axis
 	Panels  []Panel
+	// EdgeNote is a word at the far end of the x axis for what lies beyond
+	// it: "dead-head 69.5 bar(g) →".
+	EdgeNote string
 }
 
 // Axis is one axis: what it measures and the unit it is shown in.
@@ -80,7 +83,8 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 	if e.in == nil {
 		return nil, fmt.Errorf("block %s: its chart data was released", e.Block.ID)
 	}
-	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: e.Curves, Cautions: e.Cautions})
+	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: e.Curves, Cautions: e.Cautions,
+		FullRange: e.Block.Show.FullRange, ID: e.Block.ID, Set: e.set})
 	if err != nil {
 		return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)
 	}

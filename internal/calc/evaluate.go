@@ -3,6 +3,7 @@ package calc
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"runtime"
 	"slices"
@@ -29,13 +30,45 @@ type Options struct {
 type Set struct {
 	Blocks []*Evaluated // sorted by id
 	byID   map[string]*Evaluated
-	opts   Options
+	// early holds, while the set is evaluated, the early outcomes of the
+	// blocks whose WithoutLinks results others quote.
+	early map[string]*Evaluated
+	opts  Options
 }
 
 // Lookup returns the evaluated block with the given id.
 func (s *Set) Lookup(id string) (*Evaluated, bool) {
 	e, ok := s.byID[id]
 	return e, ok
+}
+
+// quoted is the outcome a quote "=id.name" reads: the early one for a
+// result its kind gives without links, when the block has one.
+func (s *Set) quoted(v Value) *Evaluated {
+	if e, ok := s.early[v.RefBlock]; ok {
+		if spec, ok := e.Block.Kind.ResultSpec(v.RefResult); ok && spec.WithoutLinks {
+			return e
+		}
+	}
+	e, _ := s.Lookup(v.RefBlock)
+	return e
+}
+
+// sameAsEarly checks that the results a block's kind declares WithoutLinks
+// came out of the full evaluation as they did of the early one, which
+// other blocks read: a kind whose such result did depend on its links
+// would give two answers.
+func (s *Set) sameAsEarly(e *Evaluated) error {
+	first, ok := s.early[e.Block.ID]
+	if !ok {
+		return nil
+	}
+	for _, r := range first.Results {
+		if full, _ := e.Result(r.Name); full.Value != r.Value {
+			return fmt.Errorf("block %s: kind %s gives %s = %g without its links and %g with them; a result marked WithoutLinks must not depend on them", e.Block.ID, e.Block.Kind.Name, r.Name, r.Value, full.Value)
+		}
+	}
+	return nil
 }
 
 // IDs lists every block id, sorted.
@@ -60,6 +93,7 @@ type Evaluated struct {
 	Tables   []Table
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
+	set      *Set    // the blocks evaluated with it, for its charts
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -75,6 +109,9 @@ type InputValue struct {
 	From    string // "=id.result" when the value came from another block
 	Type    InputType
 	Links   []string // the blocks a Link or LinkList input names
+	// Values are the values of a List input written as a list (Value is
+	// the first); nil otherwise.
+	Values []float64
 	// Label says what a Name input's choice stands for; Written is the
 	// text as written when it named the choice another way ("nylon").
 	Label, Written string
@@ -88,13 +125,14 @@ func (e *Evaluated) linked() *Linked {
 		l.Results[r.Name] = r.Value
 	}
 	for _, in := range e.Inputs {
-		switch in.Type {
-		case Quantity:
+		switch {
+		case in.Type == Quantity && in.Values == nil:
 			l.Inputs[in.Name] = in.Value
-		case Name:
+		case in.Type == Name:
 			l.Names[in.Name] = in.Text
 		}
 	}
+	l.Model = e.in
 	return l
 }
 
@@ -153,7 +191,11 @@ func (e *Evaluated) HoldsVacuum() bool {
 }
 
 // Evaluate checks every block of a site together (ids unique, references
-// known and acyclic), then evaluates them in dependency order.
+// known and acyclic), then evaluates them in dependency order. It goes on
+// past a problem as far as the rest does not depend on it: a block with a
+// broken reference, in a circle or Broken is not evaluated, nor is any
+// block that needs it, and every other block is. The error lists every
+// problem found; the set holds the blocks that were evaluated.
 func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	if opts.SigFigs == 0 {
 		opts.SigFigs = 3
@@ -174,53 +216,71 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 		ids = append(ids, id)
 	}
 	sort.Strings(ids)
+	planned := map[string]*Block{}
 	for _, id := range ids {
-		errs = append(errs, c.checkRefs(byID[id], byID, ids)...)
+		b := byID[id]
+		if b.Kind == nil {
+			continue // broken before its kind was known: nothing to check
+		}
+		refErrs := append(c.checkRefs(b, byID, ids), checkDeriveRefs(b, byID, ids)...)
+		if len(refErrs) > 0 {
+			errs = append(errs, refErrs...)
+			continue
+		}
+		planned[id] = b
 	}
-	if err := errs.Sorted(); err != nil {
-		return nil, err
-	}
-	order, err := dependencyOrder(byID, ids)
-	if err != nil {
-		return nil, err
-	}
-	// Blocks of one level depend only on blocks of lower levels, so each
-	// level is evaluated in parallel.
+	pl := plannable(planned, &errs)
 	linked := map[string]bool{}
-	for _, b := range order {
+	for _, b := range planned {
 		for _, v := range b.Values {
 			for _, dep := range v.Deps() {
 				linked[dep] = true
 			}
 		}
 	}
+	set.early = map[string]*Evaluated{}
 	failed := map[string]bool{}
-	for _, level := range levels(order) {
+	for _, level := range pl.levels {
 		type outcome struct {
 			e   *Evaluated
 			err error
 		}
 		outs := make([]outcome, len(level))
 		var run []int
-		for i, b := range level {
-			if dependsOnFailed(b, failed) {
-				failed[b.ID] = true
+		for i, st := range level {
+			if failed[st.id] || slices.ContainsFunc(pl.deps(st), func(d dependency) bool { return failed[d.id] }) {
+				failed[st.id] = true
 				continue
 			}
 			run = append(run, i)
 		}
 		Parallel(len(run), func(j int) {
 			i := run[j]
-			b := level[i]
+			st := level[i]
+			b := byID[st.id]
+			switch st.phase {
+			case early:
+				outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, false, true)
+				return
+			case derived:
+				base, _ := set.Lookup(b.ID)
+				outs[i].e, outs[i].err = set.derive(base, opts)
+				return
+			}
 			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
-			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want)
+			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want, false)
 			// Drop curves at once: a level can hold thousands of blocks.
 			if outs[i].err == nil && !want {
 				outs[i].e.Curves = nil
 			}
 		})
 		for _, i := range run {
-			b, o := level[i], outs[i]
+			st, o := level[i], outs[i]
+			b := byID[st.id]
+			if errors.Is(o.err, errBroken) {
+				failed[b.ID] = true
+				continue
+			}
 			if o.err != nil {
 				var list inputerr.List
 				if errors.As(o.err, &list) {
@@ -231,28 +291,77 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 				failed[b.ID] = true
 				continue
 			}
+			if st.phase == early {
+				set.early[b.ID] = o.e
+				continue
+			}
 			set.byID[b.ID] = o.e
 		}
 	}
-	if err := errs.Sorted(); err != nil {
-		return nil, err
-	}
+	set.early = nil
 	for _, id := range ids {
-		set.Blocks = append(set.Blocks, set.byID[id])
+		// A block whose later step failed (its [derive]) is incomplete.
+		if failed[id] {
+			delete(set.byID, id)
+		}
+		if e, ok := set.byID[id]; ok {
+			e.set = set
+			set.Blocks = append(set.Blocks, e)
+		}
 	}
 	c.applyRules(set)
+	if err := errs.Sorted(); err != nil {
+		return set, err
+	}
 	return set, nil
 }
 
-func dependsOnFailed(b *Block, failed map[string]bool) bool {
+// errBroken is what evaluating a Broken block gives once its inputs read
+// without error: it fails without a problem of its own.
+var errBroken = errors.New("block not evaluated: it has problems of its own")
+
+// plannable orders the planned blocks for evaluation. A block that needs
+// one left out is left out too, with no problem of its own; a circle of
+// references is added to errs and its blocks left out.
+func plannable(planned map[string]*Block, errs *inputerr.List) *plan {
+	for {
+		// What needs a block left out is left out, until nothing changes.
+		for changed := true; changed; {
+			changed = false
+			for id, b := range planned {
+				if slices.ContainsFunc(b.needs(), func(d string) bool { return planned[d] == nil }) {
+					delete(planned, id)
+					changed = true
+				}
+			}
+		}
+		ids := slices.Sorted(maps.Keys(planned))
+		pl, circle, err := makePlan(planned, ids)
+		if err == nil {
+			return pl
+		}
+		*errs = append(*errs, inputerr.From(err)...)
+		for _, id := range circle {
+			delete(planned, id)
+		}
+	}
+}
+
+// needs lists the blocks b reads values of: those its inputs quote or
+// link to, and those its [derive] expressions name.
+func (b *Block) needs() []string {
+	var ids []string
 	for _, v := range b.Values {
-		for _, id := range v.Deps() {
-			if failed[id] {
-				return true
+		ids = append(ids, v.Deps()...)
+	}
+	for _, d := range b.Derive {
+		for _, r := range d.Expr.Refs() {
+			if r.Block != "" {
+				ids = append(ids, r.Block)
 			}
 		}
 	}
-	return false
+	return ids
 }
 
 // linkCandidates are the blocks a key of b could name: any other block, of
@@ -260,7 +369,7 @@ func dependsOnFailed(b *Block, failed map[string]bool) bool {
 func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string) []string {
 	var out []string
 	for _, id := range ids {
-		if t := byID[id]; t != b && (in.LinkRoles == 0 || t.Kind.Roles&in.LinkRoles != 0) {
+		if t := byID[id]; t != b && in.Accepts(t.Kind) {
 			out = append(out, id)
 		}
 	}
@@ -279,6 +388,8 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			for _, id := range v.Links {
 				target, ok := byID[id]
 				switch {
+				case ok && target.Kind == nil:
+					// A broken block: what it is, is not known.
 				case !ok:
 					msg := fmt.Sprintf("names block %q, which does not exist", id)
 					if s := Suggest(id, linkCandidates(b, in, byID, ids)); s != "" {
@@ -287,8 +398,8 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 					fail(msg)
 				case target == b:
 					fail(fmt.Sprintf("names its own block %q", id))
-				case in.LinkRoles != 0 && target.Kind.Roles&in.LinkRoles == 0:
-					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsWith(in.LinkRoles), " or "))
+				case !in.Accepts(target.Kind):
+					msg := fmt.Sprintf("block %q is a %s; %s takes a %s block", id, target.Kind.Name, key, strings.Join(c.KindsAccepted(in), " or "))
 					if target.Kind.LinkHint != "" {
 						msg += " (" + target.Kind.LinkHint + ")"
 					}
@@ -313,6 +424,12 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			fail(fmt.Sprintf("%q refers to its own block", v.Text))
 			continue
 		}
+		if target.Kind == nil {
+			continue // a broken block: its results are not known
+		}
+		if _, derived := target.derivation(v.RefResult); derived {
+			continue // its dimension is checked when it is read
+		}
 		spec, ok := target.Kind.result(v.RefResult)
 		if inSpec, isInput := target.Kind.Input(v.RefResult); !ok && isInput {
 			if inSpec.Type != Quantity {
@@ -330,7 +447,7 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 			continue
 		}
 		in, _ := b.Kind.Input(key)
-		if spec.Dim != in.Dim {
+		if in.Dim != anyDimension && spec.Dim != in.Dim {
 			fail(fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(spec.Dim), key, dimPhrase(in.Dim)))
 		}
 	}
@@ -344,27 +461,6 @@ func sortedValueKeys(b *Block) []string {
 	}
 	sort.Strings(keys)
 	return keys
-}
-
-// levels groups blocks in dependency order by depth: a block with no
-// references is on level 0, any other one level above its deepest reference.
-func levels(order []*Block) [][]*Block {
-	depth := map[string]int{}
-	var out [][]*Block
-	for _, b := range order {
-		d := 0
-		for _, v := range b.Values {
-			for _, dep := range v.Deps() {
-				d = max(d, depth[dep]+1)
-			}
-		}
-		depth[b.ID] = d
-		for len(out) <= d {
-			out = append(out, nil)
-		}
-		out[d] = append(out[d], b)
-	}
-	return out
 }
 
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
@@ -388,71 +484,11 @@ func Parallel(n int, f func(i int)) {
 	wg.Wait()
 }
 
-// dependencyOrder sorts blocks so that each comes after the blocks it
-// refers to; a cycle is an error that names every block on it.
-func dependencyOrder(byID map[string]*Block, ids []string) ([]*Block, error) {
-	const (
-		unseen = iota
-		active
-		done
-	)
-	state := map[string]int{}
-	var order []*Block
-	var stack []string
-	var visit func(id string) error
-	visit = func(id string) error {
-		switch state[id] {
-		case done:
-			return nil
-		case active:
-			start := 0
-			for i, s := range stack {
-				if s == id {
-					start = i
-				}
-			}
-			cycle := append(append([]string{}, stack[start:]...), id)
-			b := byID[stack[len(stack)-1]]
-			key, line := refKeyTo(b, id)
-			return inputerr.List{{File: b.File, Line: line, Key: key,
-				Msg: "references go round in a circle: " + strings.Join(cycle, " → ") + "; break the circle by giving one value directly"}}
-		}
-		state[id] = active
-		stack = append(stack, id)
-		b := byID[id]
-		for _, key := range sortedValueKeys(b) {
-			for _, ref := range b.Values[key].Deps() {
-				if err := visit(ref); err != nil {
-					return err
-				}
-			}
-		}
-		stack = stack[:len(stack)-1]
-		state[id] = done
-		order = append(order, b)
-		return nil
-	}
-	for _, id := range ids {
-		if err := visit(id); err != nil {
-			return nil, err
-		}
-	}
-	return order, nil
-}
-
-// refKeyTo finds the key of b that refers to block id.
-func refKeyTo(b *Block, id string) (string, int) {
-	for _, key := range sortedValueKeys(b) {
-		if v := b.Values[key]; contains(v.Deps(), id) {
-			return key, v.Line
-		}
-	}
-	return "", b.Line
-}
-
 // evaluateBlock reads a block's inputs (references from set), runs its
 // model and checks its claims.
-func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves bool) (*Evaluated, error) {
+// evaluateBlock reads a block's inputs and runs its model; early runs it
+// without the block's links, for the results marked WithoutLinks only.
+func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, early bool) (*Evaluated, error) {
 	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
 	var errs inputerr.List
 	fail := func(key string, line int, msg string) {
@@ -471,9 +507,10 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			e.Ambient = q.Value
 		}
 	}
-	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, given: map[string]bool{},
-		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves}
+	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
+		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves, linksWithheld: early}
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
+	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
 		v, given := b.Values[spec.Name]
 		switch spec.Type {
@@ -493,7 +530,11 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 				}
 				if !contains(choices, text) {
 					msg := fmt.Sprintf("%q is not known; allowed: %s", text, strings.Join(choices, ", "))
-					if s := Suggest(text, choices); s != "" {
+					suggest := Suggest(text, choices)
+					if spec.Suggest != nil {
+						suggest = spec.Suggest(c.env, text)
+					}
+					if s := suggest; s != "" {
 						msg = fmt.Sprintf("%q is not known; did you mean %q? (allowed: %s)", text, s, strings.Join(choices, ", "))
 					}
 					fail(spec.Name, line, msg)
@@ -511,16 +552,25 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			e.Inputs = append(e.Inputs, iv)
 			continue
 		case Link, LinkList:
-			if !given {
+			if !given || early {
 				continue
 			}
 			var linked []*Linked
 			for _, id := range v.Links {
 				src, _ := set.Lookup(id)
 				linked = append(linked, src.linked())
+				linkedSystems[src.customary]++
 			}
 			in.SetLinks(spec.Name, linked)
 			e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Type: spec.Type, Links: v.Links})
+			continue
+		}
+		if given && len(v.Items) > 0 {
+			vs, ok := readList(spec, v, e.Ambient, opts.SigFigs, systems, fail)
+			if ok {
+				e.Inputs = append(e.Inputs, InputValue{Name: spec.Name, Text: v.Text, Value: vs[0], Values: vs, Dim: spec.Dim})
+				in.SetList(spec.Name, vs)
+			}
 			continue
 		}
 		text := spec.Default
@@ -534,10 +584,17 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 		var value float64
 		var shownUnit string
 		if given && v.RefBlock != "" {
-			src, _ := set.Lookup(v.RefBlock)
-			si, _, unit, found := src.Quantity(v.RefResult)
+			src := set.quoted(v)
+			si, dim, unit, found := src.Quantity(v.RefResult)
 			if !found {
 				fail(spec.Name, line, fmt.Sprintf("%q: block %s has no value for %s (an optional input it leaves out)", v.Text, v.RefBlock, v.RefResult))
+				continue
+			}
+			if spec.Dim == anyDimension {
+				iv.Dim = dim
+			} else if dim != spec.Dim {
+				// Only a derived value's dimension is first known here.
+				fail(spec.Name, line, fmt.Sprintf("%q is %s; %s takes %s", v.Text, dimPhrase(dim), spec.Name, dimPhrase(spec.Dim)))
 				continue
 			}
 			value = si
@@ -553,11 +610,11 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 				fail(spec.Name, line, err.Error())
 				continue
 			}
-			value = q.Absolute(e.Ambient)
-			if problem := pressureMark(spec, q); problem != "" {
-				fail(spec.Name, line, fmt.Sprintf("%q %s", text, problem))
+			if msg := pressureReadingProblem(spec, q, e.Ambient); msg != "" {
+				fail(spec.Name, line, msg)
 				continue
 			}
+			value = q.Absolute(e.Ambient)
 			if spec.Absolute && q.Unit.Ref == units.Unsettled {
 				value = q.Value
 			}
@@ -577,7 +634,15 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	if err := errs.Sorted(); err != nil {
 		return nil, err
 	}
+	if b.Broken {
+		return nil, errBroken
+	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
+	if systems[units.Customary]+systems[units.Metric] == 0 {
+		// A block that writes no unit (a machine listing its stages) reads
+		// in the units of the blocks it links to, when they agree.
+		e.customary = linkedSystems[true] > 0 && linkedSystems[false] == 0
+	}
 	in.customary = e.customary
 	out, err := b.Kind.Evaluate(in)
 	if err != nil {
@@ -601,8 +666,20 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 			return nil, fmt.Errorf("block %s: kind %s raised caution %q, which it does not list in Raises", b.ID, b.Kind.Name, c.Rule)
 		}
 	}
+	if early {
+		e.Results = nil
+		for _, r := range out.Results {
+			if spec, ok := b.Kind.ResultSpec(r.Name); ok && spec.WithoutLinks {
+				e.Results = append(e.Results, r)
+			}
+		}
+		return e, nil
+	}
 	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
 	e.in = in
+	if err := set.sameAsEarly(e); err != nil {
+		return nil, err
+	}
 	for _, c := range b.Expect {
 		r, ok := e.Result(c.Result)
 		if !ok {
@@ -626,23 +703,25 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves boo
 	return e, nil
 }
 
-// pressureMark says what is wrong with the mark of a pressure written for
-// an input, or "". An input that takes an absolute pressure (a vacuum
-// target) takes it marked absolute, as a gauge or vacuum reading (converted
-// with the block's ambient), or in hPa, which is read absolute there; a
-// plain unit, read gauge, is refused there as a likely slip. Elsewhere hPa
-// needs its mark.
-func pressureMark(spec InputSpec, q units.Quantity) string {
-	if q.Dim != units.Pressure {
-		return ""
+// readList parses the items of a List input written as a list, each in
+// range, counting the unit systems they are written in.
+func readList(spec InputSpec, v Value, ambient float64, sigFigs int, systems map[units.UnitSystem]int, fail func(key string, line int, msg string)) ([]float64, bool) {
+	vs := make([]float64, 0, len(v.Items))
+	for _, item := range v.Items {
+		q, err := units.Parse(item, spec.Dim)
+		if err != nil {
+			fail(spec.Name, v.Line, err.Error())
+			return nil, false
+		}
+		value := q.Absolute(ambient)
+		if !spec.Range.Contains(value) {
+			fail(spec.Name, v.Line, fmt.Sprintf("%q is out of range; allowed: %s", item, describeRange(spec, q.Unit.Symbol, ambient, sigFigs)))
+			return nil, false
+		}
+		systems[units.SystemOf(q.Unit.Symbol)]++
+		vs = append(vs, value)
 	}
-	switch {
-	case spec.Absolute && q.Unit.Ref == units.Unmarked:
-		return fmt.Sprintf("is a plain %s, which reads gauge; %s takes an absolute pressure: write it marked absolute (mbar(a), kPa(a), bar(a), psia, inHg(a), torr), e.g. \"20 mbar(a)\", or as a gauge reading below ambient, e.g. \"-900 mbar(g)\" or \"27 inHg vac\"", q.Unit.Symbol, spec.Name)
-	case !spec.Absolute && q.Unit.Ref == units.Unsettled:
-		return fmt.Sprintf("is in plain %s, which is read absolute in weather reports and gauge on some dials; write %s(a) or %s(g)", q.Unit.Symbol, q.Unit.Symbol, q.Unit.Symbol)
-	}
-	return ""
+	return vs, true
 }
 
 // checkShownComputed checks that every result [show] outputs names was
@@ -652,11 +731,14 @@ func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
 	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
-		if r, found := e.Result(o.Name); found {
+		r, found := e.Result(o.Name)
+		if found {
 			if _, err := e.siIn(r, o.Unit); err != nil {
 				errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
 					Msg: fmt.Sprintf("%q: %v", o.Name+" "+o.Unit, err)})
 			}
+		}
+		if _, derived := b.derivation(o.Name); found || derived {
 			continue
 		}
 		written := o.Name

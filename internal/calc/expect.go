@@ -66,7 +66,8 @@ var rangeSplit = regexp.MustCompile(`\s+to\s+|\s*–\s*`)
 
 // looksLikeRange matches "20-25 cm3" and "20..25 cm3": ranges written with a
 // hyphen (which reads as a minus sign) or two dots.
-var looksLikeRange = regexp.MustCompile(`^[+-]?[0-9.]+(?:[eE][+-]?[0-9]+)?\s*(?:-|\.\.)\s*[+-]?[0-9]`)
+// A mixed fraction ("1-1/2 in") is no range.
+var looksLikeRange = regexp.MustCompile(`^[+-]?[0-9.]+(?:[eE][+-]?[0-9]+)?\s*(?:-|\.\.)\s*[+-]?[0-9]+(?:[^0-9/]|$)`)
 
 const claimForms = `"22.5 cm3 ± 2%", "22.5 cm3 ± 0.5 cm3", "20 cm3" (to the precision written), "20 to 25 cm3", ">= 15 L/min", "<= 120 degC"`
 
@@ -332,6 +333,10 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	default:
 		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
 	}
+	if u, err := units.LookupUnitAs(c.Unit, dim); err == nil && u.Standard() {
+		at, _ := display.Value(ambient, units.Pressure, "kPa(a)", ambient, sig)
+		r.Message += fmt.Sprintf(" (%s is %s, here %s)", c.Unit, u.ReferenceAir(), at)
+	}
 	return r
 }
 
@@ -464,12 +469,21 @@ func (b *Block) decodeExpect(v any) ([]Claim, inputerr.List) {
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
 		spec, found := b.Kind.result(name)
 		if _, isInput := b.Kind.Input(name); !found && isInput {
-			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.Kind.resultNames(), ", ")))
+			fail(fmt.Sprintf("%s is an input of kind %s, set above [expect]; claims are about results: %s", name, b.Kind.Name, strings.Join(b.resultNames(), ", ")))
+			continue
+		}
+		if _, derived := b.derivation(name); derived {
+			// Its dimension, which the claim is read in, comes with its value.
+			if text, isString := table[name].(string); isString {
+				b.pendingClaims = append(b.pendingClaims, pendingClaim{name: name, text: text, line: line})
+			} else {
+				fail(fmt.Sprintf("%s is not a claim; write a string such as %s", TOMLText(table[name]), claimForms))
+			}
 			continue
 		}
 		if !found {
-			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
-			if s := Suggest(name, b.Kind.resultNames()); s != "" {
+			msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.resultNames(), ", "))
+			if s := Suggest(name, b.resultNames()); s != "" {
 				msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, s)
 			}
 			fail(msg)
@@ -507,9 +521,17 @@ func (b *Block) decodeShow(v any) inputerr.List {
 		key := "show." + k
 		line := b.lineOf(key)
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg}) }
+		if k == "full_range" {
+			full, isBool := table[k].(bool)
+			if !isBool {
+				fail(fmt.Sprintf("%s is not true or false; write full_range = true for charts over the whole range, to dead-head", TOMLText(table[k])))
+			}
+			b.Show.FullRange = full
+			continue
+		}
 		list, isList := table[k].([]any)
 		if k != "outputs" && k != "charts" {
-			fail("unknown key; [show] takes outputs and charts")
+			fail("unknown key; [show] takes outputs, charts and full_range")
 			continue
 		}
 		if !isList {
@@ -544,16 +566,20 @@ func (b *Block) decodeShow(v any) inputerr.List {
 				name, unit = name[:i], name[i:]
 			}
 			spec, found := b.Kind.result(name)
+			if _, derived := b.derivation(name); derived {
+				// Its unit is checked once its dimension is known.
+				spec, found = ResultSpec{Name: name, Dim: units.Dimension(-1)}, true
+			}
 			if !found {
-				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.Kind.resultNames(), ", "))
-				if sug := Suggest(name, b.Kind.resultNames()); sug != "" {
+				msg := fmt.Sprintf("kind %s has no result %q; results: %s", b.Kind.Name, name, strings.Join(b.resultNames(), ", "))
+				if sug := Suggest(name, b.resultNames()); sug != "" {
 					msg = fmt.Sprintf("kind %s has no result %q; did you mean %q?", b.Kind.Name, name, sug)
 				}
 				fail(msg)
 				continue
 			}
 			unit = strings.TrimSpace(unit)
-			if unit != "" {
+			if unit != "" && spec.Dim >= 0 {
 				if _, err := units.FromSI(1, spec.Dim, unit, 0); err != nil {
 					fail(fmt.Sprintf("%s: %v; %s is %s", name, err, name, dimPhrase(spec.Dim)))
 					continue

@@ -27,6 +27,9 @@ type Kind struct {
 	// Raises lists the caution rules the model raises itself while it
 	// evaluates (each a row of the rule table).
 	Raises []string
+	// FreeInputs lets a block give any key as an input, its dimension read
+	// from the value written: a kind of figures with no model of its own.
+	FreeInputs bool
 	// LinkHint is added to the message when a block names one of this
 	// kind where a link takes another: what to name instead.
 	LinkHint string
@@ -71,6 +74,15 @@ const (
 // Has reports whether the kind plays every role in r.
 func (k *Kind) Has(r Role) bool { return k.Roles&r == r }
 
+// Accepts reports whether a Link or LinkList input may name a block of
+// kind k.
+func (in InputSpec) Accepts(k *Kind) bool {
+	if in.LinkAll {
+		return k.Has(in.LinkRoles)
+	}
+	return in.LinkRoles == 0 || k.Roles&in.LinkRoles != 0
+}
+
 // WorkingPressure names a kind's working-pressure input and how messages
 // call it ("target pressure").
 type WorkingPressure struct {
@@ -108,9 +120,18 @@ type InputSpec struct {
 	// ambient converts; a plain unit, which reads gauge, is refused there
 	// as a likely slip.
 	Absolute bool
+	// BelowAmbient marks a pressure input that is below ambient in every
+	// use (a vacuum), where a bare inHg or mmHg could be meant absolute or
+	// as a vacuum gauge reads it, and so is refused. Absolute implies it.
+	BelowAmbient bool
+	// List lets a Quantity input take a list of values as well as one
+	// value (a temperature for every intercooler, or one for each); the
+	// model reads them with ValuesOf.
+	List bool
 	// LinkRoles are the roles of the blocks a Link or LinkList input may
-	// name, any one of them; zero allows any block.
+	// name, any one of them (every one with LinkAll); zero allows any block.
 	LinkRoles Role
+	LinkAll   bool
 	// Choices lists the values a Name input allows (for messages and
 	// checks); nil allows any non-empty name the model checks itself.
 	Choices func(env any) []string
@@ -120,6 +141,9 @@ type InputSpec struct {
 	// Label says what a choice stands for, for people ("Mild steel S235"
 	// for "s235"); nil when the choice says it itself.
 	Label func(env any, choice string) string
+	// Suggest proposes a choice for text that is none ("" for none); nil
+	// proposes the nearest by spelling.
+	Suggest func(env any, text string) string
 }
 
 // Range bounds an input's SI value. A zero Range allows every finite value.
@@ -165,6 +189,12 @@ type ResultSpec struct {
 	// "" means a ductile metal (steel bolts).
 	Factor         bool
 	FactorMaterial string
+	// WithoutLinks marks a result the model computes from the block's own
+	// inputs alone, without the blocks its Link inputs name: another block
+	// may quote it even where the block links back to that one (a drive's
+	// crank speed, quoted by the stage it drives, whose power the drive
+	// reads). The model gives these when Inputs.LinksWithheld.
+	WithoutLinks bool
 }
 
 // Inputs holds a block's validated input values in SI units, pressures
@@ -172,6 +202,7 @@ type ResultSpec struct {
 type Inputs struct {
 	Ambient float64 // ambient pressure, Pa absolute
 	values  map[string]float64
+	lists   map[string][]float64 // List inputs given as a list
 	given   map[string]bool
 	names   map[string]string
 	links   map[string][]*Linked
@@ -180,12 +211,19 @@ type Inputs struct {
 	noCurves bool
 	// customary: the block is written in US customary units.
 	customary bool
+	// linksWithheld: an early evaluation, with no Link inputs, for the
+	// results marked WithoutLinks.
+	linksWithheld bool
 }
+
+// LinksWithheld reports an early evaluation: the block's Link inputs are
+// not given, and only the results marked WithoutLinks are wanted.
+func (in *Inputs) LinksWithheld() bool { return in.linksWithheld }
 
 // NewInputs returns inputs with no values yet, at an ambient pressure (Pa
 // absolute) in the site settings env, for evaluating a kind directly.
 func NewInputs(ambient float64, env any) *Inputs {
-	return &Inputs{Ambient: ambient, values: map[string]float64{}, given: map[string]bool{},
+	return &Inputs{Ambient: ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: env}
 }
 
@@ -236,6 +274,11 @@ type Linked struct {
 	Inputs   map[string]float64 // SI, with defaults
 	Names    map[string]string
 	Curves   []Curve
+	// Model is what its model saw: every input, lists and links
+	// included, for a model that evaluates it again under other
+	// conditions (a receiver filled from a machine re-solves the machine
+	// at each tank pressure). Nil once the block is released.
+	Model *Inputs
 }
 
 // Set stores a value; given says whether the user wrote it (not a default).
@@ -244,12 +287,33 @@ func (in *Inputs) Set(name string, v float64, given bool) {
 	in.given[name] = given
 }
 
+// SetList stores a List input given as a list of SI values.
+func (in *Inputs) SetList(name string, vs []float64) {
+	in.lists[name] = vs
+	in.given[name] = true
+}
+
 // Value returns an input's SI value (0 when absent).
 func (in *Inputs) Value(name string) float64 { return in.values[name] }
+
+// ValuesOf returns a List input's values: the list as given, or its one
+// value; nil when absent.
+func (in *Inputs) ValuesOf(name string) []float64 {
+	if vs, ok := in.lists[name]; ok {
+		return vs
+	}
+	if v, ok := in.values[name]; ok {
+		return []float64{v}
+	}
+	return nil
+}
 
 // Has reports whether the input has a value, given or default.
 func (in *Inputs) Has(name string) bool {
 	if _, ok := in.values[name]; ok {
+		return true
+	}
+	if _, ok := in.lists[name]; ok {
 		return true
 	}
 	_, ok := in.names[name]
@@ -317,6 +381,9 @@ type CautionNote struct {
 	Level   Level
 	Rule    string // our rule id, e.g. "no-delivery"
 	Message string
+	// Result is the result whose value raised it, which a table marks;
+	// empty when what the block is made of, not a figure, raised it.
+	Result string
 	// Acknowledged is the block's reason for accepting this caution, from
 	// its [acknowledge] table; an acknowledged caution is still shown.
 	Acknowledged string
@@ -337,6 +404,11 @@ type Outcome struct {
 	Cautions []CautionNote
 	Curves   []Curve
 	Tables   []Table
+	// What a chart is drawn with besides: the block's [show] full_range,
+	// its id, and the blocks evaluated with it (nil outside a set).
+	FullRange bool
+	ID        string
+	Set       *Set
 }
 
 // InputError is a problem with one input that its range cannot express,

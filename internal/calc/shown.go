@@ -31,6 +31,24 @@ func (e *Evaluated) DisplayUnit(name string) string {
 		}
 		return spec.Unit
 	}
+	if r, ok := e.Result(name); ok { // a derived result
+		if r.Dim == units.Time {
+			return display.DurationUnit(r.Value)
+		}
+		return display.UnitFor(r.Dim, e.customary)
+	}
+	return ""
+}
+
+// Meaning says what a result is, for its row of the table: the kind's
+// words, or for a derived result its expression.
+func (e *Evaluated) Meaning(name string) string {
+	if spec, ok := e.Block.Kind.result(name); ok {
+		return spec.Meaning
+	}
+	if d, ok := e.Block.derivation(name); ok {
+		return "derived: " + d.Source
+	}
 	return ""
 }
 
@@ -53,19 +71,20 @@ func (e *Evaluated) Format(name, unit string) (string, error) {
 	return display.Value(si, dim, unit, e.Ambient, e.sigFigs)
 }
 
-// siIn is r's SI value as unit reads it: a volume flow shown in a normal
-// unit (Nl/min) is first taken by mass from the state it is measured at to
-// the unit's reference state; a flow with no such state (a swept volume)
-// cannot be.
+// siIn is r's SI value as unit reads it: a volume flow shown in a unit of
+// standard or normal air (SCFM, Nl/min) is first taken by mass from the
+// state it is measured at to free air at the block's ambient, which the
+// unit then reads by mass at its reference state; a flow with no such
+// state (a swept volume) cannot be.
 func (e *Evaluated) siIn(r Result, unit string) (float64, error) {
 	u, err := units.LookupUnit(unit)
-	if err != nil || u.Normal == (units.GasState{}) || r.Dim != units.VolumeFlow {
+	if err != nil || !u.Standard() || r.Dim != units.VolumeFlow {
 		return r.Value, nil
 	}
 	if r.Gas == (units.GasState{}) {
 		return 0, fmt.Errorf("the model gives %s no pressure and temperature its volume is measured at (a swept volume has none), and %s takes air by mass to its reference state; show it in L/min or m3/h", r.Name, unit)
 	}
-	return units.NormalFlow(r.Value, r.Gas, u), nil
+	return units.AsFreeAir(r.Value, r.Gas, e.Ambient), nil
 }
 
 // Quantity returns a result, or else a quantity input, of the block: its
@@ -77,7 +96,7 @@ func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit
 		return r.Value, r.Dim, e.DisplayUnit(name), true
 	}
 	for _, in := range e.Inputs {
-		if in.Name == name && in.Type == Quantity {
+		if in.Name == name && in.Type == Quantity && in.Values == nil {
 			unit := ""
 			if q, err := units.Parse(in.Text, in.Dim); err == nil {
 				unit = q.Unit.Symbol

@@ -11,11 +11,17 @@ import (
 
 // Diff is what changed in a site's calculations between two evaluations.
 type Diff struct {
-	Base, Head string       `json:"-"`
-	Changed    []BlockDiff  `json:"changed"`
-	Added      []BlockBrief `json:"added"`
-	Removed    []BlockBrief `json:"removed"`
-	Renamed    []Rename     `json:"renamed"`
+	Base, Head string `json:"-"`
+	// BaseCommit and HeadCommit name the commits compared, when known.
+	BaseCommit string `json:"base_commit,omitempty"`
+	HeadCommit string `json:"head_commit,omitempty"`
+	// Failing are the head's failed claims and unacknowledged DANGER
+	// cautions, new or not: what fails its check.
+	Failing []Failure    `json:"failing"`
+	Changed []BlockDiff  `json:"changed"`
+	Added   []BlockBrief `json:"added"`
+	Removed []BlockBrief `json:"removed"`
+	Renamed []Rename     `json:"renamed"`
 	// NewlyFailing counts claims that held (or did not exist) and now fail;
 	// NewDangers counts DANGER cautions that appeared unacknowledged.
 	NewlyFailing int `json:"newly_failing"`
@@ -25,11 +31,26 @@ type Diff struct {
 	Notes []string `json:"notes,omitempty"`
 }
 
-// BlockBrief names a block.
+// BlockBrief names a block and where it is.
 type BlockBrief struct {
 	ID   string `json:"id"`
 	Kind string `json:"kind"`
 	Page string `json:"page"`
+	Line int    `json:"line"` // of the block's opening fence
+}
+
+// briefOf names block b.
+func briefOf(b results.Block) BlockBrief {
+	return BlockBrief{ID: b.ID, Kind: b.Kind, Page: b.Page, Line: b.Line}
+}
+
+// Failure is a failed claim or an unacknowledged DANGER caution of the
+// head.
+type Failure struct {
+	BlockBrief
+	Type    string `json:"type"` // "claim" or "caution"
+	Name    string `json:"name"` // the claimed result, or the caution's rule
+	Message string `json:"message"`
 }
 
 // Rename is a block whose id changed while its kind and inputs did not.
@@ -46,14 +67,28 @@ type BlockDiff struct {
 	Results  []ValueChange   `json:"results"`
 	Claims   []ClaimChange   `json:"claims"`
 	Cautions []CautionChange `json:"cautions"`
+	// Quoted are the places in the head's prose that quote a value of the
+	// block that changed.
+	Quoted []Quote `json:"quoted,omitempty"`
+}
+
+// Quote is a place in a page's prose that quotes a changed value.
+type Quote struct {
+	Name string `json:"name"` // the input or result quoted
+	Page string `json:"page"`
+	Line int    `json:"line"`
 }
 
 // ValueChange is an input or result that changed.
 type ValueChange struct {
-	Name   string   `json:"name"`
-	Before string   `json:"before"` // as shown: text or display
-	After  string   `json:"after"`
-	Change *float64 `json:"relative_change,omitempty"` // (after − before)/|before| of the SI values (pressures absolute)
+	Name   string `json:"name"`
+	Before string `json:"before"` // as shown: text or display
+	After  string `json:"after"`
+	// BeforeValue and AfterValue are the SI values (pressures absolute),
+	// nil on the side where the value is missing.
+	BeforeValue *float64 `json:"before_value"`
+	AfterValue  *float64 `json:"after_value"`
+	Change      *float64 `json:"relative_change,omitempty"` // (after − before)/|before| of the SI values (pressures absolute)
 	// Absolute marks a change taken on an absolute scale, which a gauge
 	// or Celsius reading does not share: Unit says which.
 	Absolute bool `json:"absolute,omitempty"`
@@ -76,12 +111,24 @@ func absoluteScale(unit string) string {
 	return ""
 }
 
-// ClaimChange is a claim whose verdict changed, or that came or went.
+// ClaimChange is a claim whose verdict or text changed, or that came or
+// went.
 type ClaimChange struct {
-	Name   string `json:"name"`
-	Claim  string `json:"claim"`
-	Status string `json:"status"` // "newly fails", "newly holds", "added", "removed"
-	After  string `json:"message"`
+	Name  string `json:"name"`
+	Claim string `json:"claim"` // as the head writes it (the base, for a removed claim)
+	// Status is "newly fails", "newly holds", "added", "removed", or for a
+	// claim whose text alone changed, its Rewrite.
+	Status string `json:"status"`
+	OK     bool   `json:"ok"` // whether Claim holds
+	// Before is the claim as the base wrote it, when its text changed,
+	// and BeforeOK whether it held there.
+	Before   string `json:"before,omitempty"`
+	BeforeOK *bool  `json:"before_ok,omitempty"`
+	// Rewrite says how a changed text bounds the result: "weakened" (it
+	// allows every value the old one did, and more), "strengthened"
+	// (fewer) or "changed".
+	Rewrite string `json:"rewrite,omitempty"`
+	After   string `json:"message"`
 }
 
 // CautionChange is a caution that appeared or went, or whose acknowledgement
@@ -103,7 +150,8 @@ func (d *Diff) Empty() bool {
 
 // Compare computes the changes from base to head.
 func Compare(base, head *results.File) *Diff {
-	d := &Diff{Changed: []BlockDiff{}, Added: []BlockBrief{}, Removed: []BlockBrief{}, Renamed: []Rename{}}
+	d := &Diff{Failing: failuresOf(head), Changed: []BlockDiff{}, Added: []BlockBrief{}, Removed: []BlockBrief{}, Renamed: []Rename{},
+		BaseCommit: base.Commit, HeadCommit: head.Commit}
 	old, cur := byID(base), byID(head)
 	var added, removed []string
 	for _, id := range slices.Sorted(maps.Keys(cur)) {
@@ -140,7 +188,7 @@ func Compare(base, head *results.File) *Diff {
 			continue
 		}
 		b := cur[id]
-		d.Added = append(d.Added, BlockBrief{ID: id, Kind: b.Kind, Page: b.Page})
+		d.Added = append(d.Added, briefOf(b))
 		for _, c := range b.Expect {
 			if !c.OK {
 				d.NewlyFailing++
@@ -154,7 +202,7 @@ func Compare(base, head *results.File) *Diff {
 	}
 	for _, id := range removed {
 		if !renamedFrom[id] {
-			d.Removed = append(d.Removed, BlockBrief{ID: id, Kind: old[id].Kind, Page: old[id].Page})
+			d.Removed = append(d.Removed, briefOf(old[id]))
 		}
 	}
 	pairs := map[string]string{} // head id → base id
@@ -166,10 +214,51 @@ func Compare(base, head *results.File) *Diff {
 	maps.Copy(pairs, renamedTo)
 	for _, id := range slices.Sorted(maps.Keys(pairs)) {
 		if bd, changed := compareBlock(old[pairs[id]], cur[id], d); changed {
+			bd.Quoted = quotesOf(bd, head.Quotes)
 			d.Changed = append(d.Changed, bd)
 		}
 	}
 	return d
+}
+
+// failuresOf lists the failed claims and unacknowledged DANGER cautions of
+// f, by block id.
+func failuresOf(f *results.File) []Failure {
+	out := []Failure{}
+	for _, b := range f.Blocks {
+		for _, c := range b.Expect {
+			if !c.OK {
+				out = append(out, Failure{BlockBrief: briefOf(b), Type: "claim", Name: c.Name, Message: c.Message})
+			}
+		}
+		for _, c := range b.Cautions {
+			if c.Level == "DANGER" && c.Acknowledged == "" {
+				out = append(out, Failure{BlockBrief: briefOf(b), Type: "caution", Name: c.Rule, Message: c.Message})
+			}
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool { return out[i].ID < out[j].ID })
+	return out
+}
+
+// quotesOf lists the places that quote a changed input or result of the
+// block, by page and line.
+func quotesOf(bd BlockDiff, quotes map[string][]results.Place) []Quote {
+	var out []Quote
+	for _, changes := range [][]ValueChange{bd.Inputs, bd.Results} {
+		for _, c := range changes {
+			for _, p := range quotes[bd.ID+"."+c.Name] {
+				out = append(out, Quote{Name: c.Name, Page: p.File, Line: p.Line})
+			}
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool {
+		if out[i].Page != out[j].Page {
+			return out[i].Page < out[j].Page
+		}
+		return out[i].Line < out[j].Line
+	})
+	return out
 }
 
 func byID(f *results.File) map[string]results.Block {
@@ -193,14 +282,15 @@ func sameInputs(a, b results.Block) bool {
 }
 
 func compareBlock(a, b results.Block, d *Diff) (BlockDiff, bool) {
-	bd := BlockDiff{BlockBrief: BlockBrief{ID: b.ID, Kind: b.Kind, Page: b.Page}}
+	bd := BlockDiff{BlockBrief: briefOf(b)}
 	for _, name := range unionKeys(a.Inputs, b.Inputs) {
 		x, inA := a.Inputs[name]
 		y, inB := b.Inputs[name]
 		if inA && inB && x.Text == y.Text && x.Value == y.Value {
 			continue
 		}
-		bd.Inputs = append(bd.Inputs, ValueChange{Name: name, Before: textOr(x.Text, inA), After: textOr(y.Text, inB)})
+		bd.Inputs = append(bd.Inputs, ValueChange{Name: name, Before: textOr(x.Text, inA), After: textOr(y.Text, inB),
+			BeforeValue: valueOr(x.Value, inA), AfterValue: valueOr(y.Value, inB)})
 	}
 	for _, name := range unionKeys(a.Results, b.Results) {
 		x, inA := a.Results[name]
@@ -208,7 +298,8 @@ func compareBlock(a, b results.Block, d *Diff) (BlockDiff, bool) {
 		if inA && inB && sameNumber(x.Value, y.Value) {
 			continue
 		}
-		vc := ValueChange{Name: name, Before: textOr(x.Display, inA), After: textOr(y.Display, inB)}
+		vc := ValueChange{Name: name, Before: textOr(x.Display, inA), After: textOr(y.Display, inB),
+			BeforeValue: valueOr(x.Value, inA), AfterValue: valueOr(y.Value, inB)}
 		if inA && inB {
 			vc.Change = relativeChange(x, y)
 			vc.Unit = y.Unit
@@ -224,24 +315,32 @@ func compareBlock(a, b results.Block, d *Diff) (BlockDiff, bool) {
 	for _, c := range b.Expect {
 		newClaims[c.Name] = true
 		was, existed := oldClaims[c.Name]
+		cc := ClaimChange{Name: c.Name, Claim: c.Claim, OK: c.OK, After: c.Message}
+		if existed && was.Claim != c.Claim {
+			cc.Before, cc.BeforeOK = was.Claim, &was.OK
+			cc.Rewrite = rewrite(was.Claim, c.Claim, c.Name, b.Results[c.Name].Unit)
+		}
 		switch {
 		case !existed:
-			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "added", After: c.Message})
+			cc.Status = "added"
 			if !c.OK {
 				d.NewlyFailing++
 			}
 		case was.OK && !c.OK:
-			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "newly fails", After: c.Message})
+			cc.Status = "newly fails"
 			d.NewlyFailing++
 		case !was.OK && c.OK:
-			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "newly holds", After: c.Message})
-		case was.Claim != c.Claim:
-			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "reworded", After: c.Message})
+			cc.Status = "newly holds"
+		case cc.Before != "":
+			cc.Status = cc.Rewrite
+		default:
+			continue
 		}
+		bd.Claims = append(bd.Claims, cc)
 	}
 	for _, c := range a.Expect {
 		if !newClaims[c.Name] {
-			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "removed", After: c.Message})
+			bd.Claims = append(bd.Claims, ClaimChange{Name: c.Name, Claim: c.Claim, Status: "removed", OK: c.OK, After: c.Message})
 		}
 	}
 	key := func(c results.Caution) string { return c.Level + "\x00" + c.Rule }
@@ -294,6 +393,13 @@ func relativeChange(x, y results.Result) *float64 {
 // so that floating-point noise between machines is not a change.
 func sameNumber(x, y float64) bool {
 	return x == y || math.Abs(x-y) <= 1e-12*math.Max(math.Abs(x), math.Abs(y))
+}
+
+func valueOr(v float64, present bool) *float64 {
+	if !present {
+		return nil
+	}
+	return &v
 }
 
 func textOr(s string, present bool) string {

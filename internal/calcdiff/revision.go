@@ -35,9 +35,11 @@ func ResultsAt(root, rev string) (*results.File, error) {
 		return nil, &inputerr.Error{Msg: fmt.Sprintf("%s is not in a git repository, so revisions cannot be compared; give two results.json files instead", root)}
 	}
 	top = strings.TrimSpace(top)
-	if _, err := git(abs, "rev-parse", "--verify", "--quiet", rev+"^{commit}"); err != nil {
+	commit, err := git(abs, "rev-parse", "--verify", "--quiet", "--short=12", rev+"^{commit}")
+	if err != nil {
 		return nil, &inputerr.Error{Msg: fmt.Sprintf("%q is not a revision of this repository (a commit, branch or tag, e.g. HEAD~1 or main)", rev)}
 	}
+	commit = strings.TrimSpace(commit)
 	rel, err := filepath.Rel(realPath(top), realPath(abs))
 	if err != nil {
 		return nil, err
@@ -67,7 +69,7 @@ func ResultsAt(root, rev string) (*results.File, error) {
 	// A revision from before the site existed has no blocks, so a pull
 	// request that adds the documentation shows every block as added.
 	if info, err := os.Stat(filepath.Join(tmp, rel, site.ContentDir)); err != nil || !info.IsDir() {
-		return &results.File{Version: results.Version, NoSite: true}, nil
+		return &results.File{Version: results.Version, NoSite: true, Commit: commit}, nil
 	}
 	s, err := site.Load(filepath.Join(tmp, rel))
 	if err != nil {
@@ -78,6 +80,7 @@ func ResultsAt(root, rev string) (*results.File, error) {
 		return nil, err
 	}
 	f := s.Results()
+	f.Commit = commit
 	return &f, nil
 }
 

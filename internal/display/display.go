@@ -28,7 +28,7 @@ func Value(si float64, dim units.Dimension, unit string, ambient float64, sig in
 	if err != nil {
 		return "", err
 	}
-	u, err := units.LookupUnit(unit)
+	u, err := units.LookupUnitAs(unit, dim)
 	if err != nil {
 		return "", err
 	}
@@ -99,10 +99,7 @@ func PressureFigures(abs float64, unit string, ambient float64, sig int) int {
 			return math.NaN()
 		}
 		shown, _ := strconv.ParseFloat(units.Format(v, figs), 64)
-		if u.Ref == units.Vacuum {
-			shown = -shown
-		}
-		return shown * u.Factor
+		return shown * u.Factor // a vacuum unit's factor is negative
 	}
 	figs := sig
 	for more := sig + 1; more <= 8; more++ {

@@ -75,6 +75,18 @@ func (l List) Capped(n int, where string) List {
 	return append(l[:n:n], &Error{File: last.File, Line: last.Line, Msg: fmt.Sprintf("... and %d more problems %s, not shown", rest, where)})
 }
 
+// Join lists the input problems of errs, nil ones left out, sorted by
+// place; nil when there are none.
+func Join(errs ...error) error {
+	var all List
+	for _, err := range errs {
+		if err != nil {
+			all = append(all, From(err)...)
+		}
+	}
+	return all.Sorted()
+}
+
 // Is reports whether err is a problem with the user's input (exit status 2)
 // rather than a failure of the machine (disk, permissions).
 func Is(err error) bool {

@@ -37,7 +37,7 @@ func pistonHarmonic(k int, m, r, l, omega float64) float64 {
 // balanceReference computes the "harmonic 1" and "harmonic 2" bases: the
 // first and second harmonic of the exact inertia force of the balance
 // block's reciprocating mass on its source's crank.
-func balanceReference(t *testing.T, basis string, set *calc.Set, e *calc.Evaluated) float64 {
+func balanceReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
 	var src *calc.Evaluated
 	for _, in := range e.Inputs {
@@ -61,18 +61,14 @@ func balanceReference(t *testing.T, basis string, set *calc.Set, e *calc.Evaluat
 	if !ok || !given {
 		t.Fatalf("block %s: no crank radius or reciprocating mass", e.Block.ID)
 	}
-	switch basis {
+	switch ch.Basis {
 	case "harmonic 1":
 		return pistonHarmonic(1, m, r, l, omega)
 	case "harmonic 2":
 		return pistonHarmonic(2, m, r, l, omega)
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestBalanceReference(t *testing.T) {
-	runBlockCases(t, "balance", 2, balanceReference)
 }
 
 // TestPistonHarmonic checks the test's own Fourier analysis. The rod term

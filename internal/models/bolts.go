@@ -20,20 +20,20 @@ var boltsKind = calc.Kind{
 	Doc:     boltsDoc,
 	Roles:   calc.HoldsPressure,
 	Inputs: []calc.InputSpec{
-		{Name: "thread", Type: calc.Name, Meaning: "ISO metric thread, M2 to M24: coarse as \"M8\", fine as \"M8x1\" (the table is under Threads above)"},
+		{Name: "thread", Type: calc.Name, Meaning: "ISO metric thread, M2 to M24: coarse as \"M8\", fine as \"M8x1\"; or Unified inch thread, #4 to 1 in: UNC as \"1/4-20\", UNF as \"1/4-28\" (the tables are under Threads above)"},
 		{Name: "count", Dim: units.Dimensionless, Range: calc.Between(1, maxBolts), Meaning: "number of bolts sharing the head load, a whole number from 1 to 1000"},
-		{Name: "property_class", Type: calc.Name, Choices: propertyClassChoices, Meaning: "ISO 898-1 property class of the bolts: " + strings.Join(propertyClassChoices(nil), ", ") + " (8.8 or \"8.8\")"},
+		{Name: "property_class", Type: calc.Name, Choices: propertyClassChoices, Resolve: resolvePropertyClass, Meaning: "property class of metric bolts (ISO 898-1: 4.6 to 12.9, written 8.8 or \"8.8\") or grade of inch bolts (\"SAE 2\", \"SAE 5\", \"SAE 8\", \"A307\", \"A325\", \"A490\"): " + strings.Join(propertyClassChoices(nil), ", ")},
 		{Name: "pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure under the head, gauge unless marked absolute; must be above ambient"},
 		{Name: "pressure_diameter", Dim: units.Length, Range: calc.Between(minPartSize, 10), Meaning: "diameter the pressure acts over: the gasket's mean diameter, or its outer diameter to be safe; up to 10 m"},
-		{Name: "nut_material", Type: calc.Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
+		{Name: "nut_material", Type: calc.Name, Default: defaultNutMaterial, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material the bolts thread into: the nut, or the head or cylinder for a tapped hole; give engagement_length with it"},
 		{Name: "engagement_length", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 1), Meaning: "length of full thread engaged in the nut or tapped hole, at least one pitch; default 0.8 × the nominal diameter for the default nut, required when nut_material is given"},
 	},
 	Results: []calc.ResultSpec{
 		{Name: "head_load", Dim: units.Force, Unit: "N", Meaning: "force of the gauge pressure on the head over the pressure diameter"},
 		{Name: "load_per_bolt", Dim: units.Force, Unit: "N", Meaning: "head load shared equally by the bolts"},
-		{Name: "tensile_stress_area", Dim: units.Area, Unit: "mm2", Meaning: "tensile stress area of one bolt's thread (ISO 898-1)"},
+		{Name: "tensile_stress_area", Dim: units.Area, Unit: "mm2", Meaning: "tensile stress area of one bolt's thread (ISO 898-1; ASME B1.1 for Unified threads)"},
 		{Name: "bolt_stress", Dim: units.Stress, Unit: "MPa", Meaning: "tensile stress in one bolt from the pressure load, preload not included"},
-		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Meaning: "proof strength of the property class over the bolt stress", Factor: true},
+		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Meaning: "proof strength of the property class over the bolt stress (A307: its minimum tensile strength)", Factor: true},
 		{Name: "strip_safety_factor", Dim: units.Dimensionless, Unit: "", Meaning: "shear strength of the internal thread over the load per bolt", Factor: true, FactorMaterial: "nut_material"},
 	},
 	Evaluate: evaluateBolts,
@@ -55,58 +55,95 @@ const (
 	shearOverTensile = 0.6
 )
 
-// propertyClass is one ISO 898-1 property class with its proof strength,
-// Pa. Class 8.8 is stronger above 16 mm: big holds it for d > bigFromDia.
-// Class 9.8 exists only up to 16 mm: maxDia.
+// propertyClass is a property class or grade of bolts: its strength by
+// band of nominal diameter, the sizes it is made in, and its thread family.
 type propertyClass struct {
-	name       string
-	proof      float64 // proof strength S_p,nom
-	big        *propertyClass
-	bigFromDia float64 // m
-	maxDia     float64 // m; 0 when the class has no upper size
+	name           string
+	bands          []classBand
+	minDia, maxDia float64 // m; 0 when the class has no lower or upper size
+	sizes          string  // the sizes it is made in, for messages
+	unified        bool    // an inch grade, for Unified threads
+	tensileOnly    bool    // no proof load: the factor is on the minimum tensile strength
+	standard       string
+	source         string // where the strengths come from, for traces
 }
 
-// propertyClasses are the proof strengths of ISO 898-1:2013, Table 3
-// (from memory).
+// classBand is a class's strength for nominal diameters up to upTo (m; 0
+// for the rest): the proof strength, or for a tensile-only grade the
+// minimum tensile strength.
+type classBand struct {
+	upTo   float64
+	proof  float64
+	within string // the band's diameters, for traces ("" for all)
+}
+
+// classAt is a class at one diameter: its strength there and the band's
+// diameters.
+type classAt struct {
+	propertyClass
+	proof  float64
+	within string
+}
+
+// ksi is 1000 lbf/in² in pascals (NIST SP 811).
+const ksi = 6.894757293168361e6
+
+// propertyClasses are the proof strengths of ISO 898-1:2013, Table 3, and
+// of the inch grades: SAE J429 grades 2, 5 and 8, ASTM A325 and A490, and
+// ASTM A307 grade A, which has no proof load and is taken on its minimum
+// tensile strength (all from memory).
 var propertyClasses = []propertyClass{
-	{name: "4.6", proof: 225e6},
-	{name: "4.8", proof: 310e6},
-	{name: "5.6", proof: 280e6},
-	{name: "5.8", proof: 380e6},
-	{name: "6.8", proof: 440e6},
-	{name: "8.8", proof: 580e6, bigFromDia: 16e-3, big: &propertyClass{name: "8.8", proof: 600e6}},
-	{name: "9.8", proof: 650e6, maxDia: 16e-3},
-	{name: "10.9", proof: 830e6},
-	{name: "12.9", proof: 970e6},
+	{name: "4.6", bands: []classBand{{proof: 225e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "4.8", bands: []classBand{{proof: 310e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "5.6", bands: []classBand{{proof: 280e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "5.8", bands: []classBand{{proof: 380e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "6.8", bands: []classBand{{proof: 440e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "8.8", bands: []classBand{{upTo: 16e-3, proof: 580e6, within: "d ≤ 16 mm"}, {proof: 600e6, within: "d > 16 mm"}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "9.8", bands: []classBand{{proof: 650e6, within: "d ≤ 16 mm"}}, maxDia: 16e-3, sizes: "only up to 16 mm diameter", standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "10.9", bands: []classBand{{proof: 830e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "12.9", bands: []classBand{{proof: 970e6}}, standard: "ISO 898-1", source: "ISO 898-1 Table 3, from memory"},
+	{name: "SAE 2", bands: []classBand{{upTo: 0.75 * inch, proof: 55 * ksi, within: "1/4 to 3/4 in"}, {proof: 33 * ksi, within: "over 3/4 to 1-1/2 in"}},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
+	{name: "SAE 5", bands: []classBand{{upTo: inch, proof: 85 * ksi, within: "1/4 to 1 in"}, {proof: 74 * ksi, within: "over 1 to 1-1/2 in"}},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
+	{name: "SAE 8", bands: []classBand{{proof: 120 * ksi, within: "1/4 to 1-1/2 in"}},
+		minDia: 0.25 * inch, maxDia: 1.5 * inch, sizes: "from 1/4 to 1-1/2 in", unified: true, standard: "SAE J429", source: "SAE J429, from memory"},
+	{name: "A307", bands: []classBand{{proof: 60 * ksi, within: "1/4 to 4 in"}},
+		minDia: 0.25 * inch, maxDia: 4 * inch, sizes: "from 1/4 to 4 in", unified: true, tensileOnly: true, standard: "ASTM A307", source: "ASTM A307 grade A, from memory"},
+	{name: "A325", bands: []classBand{{upTo: inch, proof: 85 * ksi, within: "1/2 to 1 in"}, {proof: 74 * ksi, within: "1-1/8 to 1-1/2 in"}},
+		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A325", source: "ASTM A325, from memory"},
+	{name: "A490", bands: []classBand{{proof: 120 * ksi, within: "1/2 to 1-1/2 in"}},
+		minDia: 0.5 * inch, maxDia: 1.5 * inch, sizes: "from 1/2 to 1-1/2 in", unified: true, standard: "ASTM A490", source: "ASTM A490, from memory"},
 }
 
-// lookupClass returns the strengths of class name for a bolt of nominal
-// diameter d, and the diameter range they hold for ("" when all). A bolt
-// above the class's largest size is found too: readBoltsInput refuses it.
-func lookupClass(name string, d float64) (propertyClass, string, bool) {
+// lookupClass returns class name at nominal diameter d, and the diameters
+// its strength holds for ("" when all). A bolt outside the class's sizes
+// is found too: readBoltsInput refuses it.
+func lookupClass(name string, d float64) (classAt, string, bool) {
 	for _, c := range propertyClasses {
 		if c.name != name {
 			continue
 		}
-		switch {
-		case c.maxDia > 0:
-			return c, "d ≤ " + display.Number(c.maxDia*1e3, "mm"), true
-		case c.big == nil:
-			return c, "", true
-		case d > c.bigFromDia*(1+1e-9):
-			return *c.big, "d > " + display.Number(c.bigFromDia*1e3, "mm"), true
-		default:
-			return c, "d ≤ " + display.Number(c.bigFromDia*1e3, "mm"), true
+		for _, b := range c.bands {
+			if b.upTo == 0 || d <= b.upTo*(1+1e-9) {
+				return classAt{propertyClass: c, proof: b.proof, within: b.within}, b.within, true
+			}
 		}
 	}
-	return propertyClass{}, "", false
+	return classAt{}, "", false
 }
 
-// classesFor lists the property classes made in nominal diameter d.
-func classesFor(d float64) []string {
+// fits reports whether the class is made for thread t: of its family and
+// within its sizes.
+func (c propertyClass) fits(t Thread) bool {
+	return c.unified == t.Unified() && t.D >= c.minDia*(1-1e-9) && (c.maxDia == 0 || t.D <= c.maxDia*(1+1e-9))
+}
+
+// classesFor lists the property classes made for thread t.
+func classesFor(t Thread) []string {
 	var names []string
 	for _, c := range propertyClasses {
-		if c.maxDia == 0 || d <= c.maxDia*(1+1e-9) {
+		if c.fits(t) {
 			names = append(names, c.name)
 		}
 	}
@@ -120,6 +157,23 @@ func propertyClassChoices(any) []string {
 		names[i] = c.name
 	}
 	return names
+}
+
+// resolvePropertyClass reads the ways people write an inch grade: "SAE5",
+// "sae 5", "Grade 5", "SAE J429 Grade 5", "ASTM A325", "a325".
+func resolvePropertyClass(_ any, text string) (string, bool) {
+	n := strings.ToUpper(strings.Join(strings.Fields(text), ""))
+	n = strings.TrimPrefix(strings.TrimPrefix(n, "ASTM"), "SAEJ429")
+	n = strings.TrimPrefix(strings.TrimPrefix(n, "SAE"), "GRADE")
+	if n == "2" || n == "5" || n == "8" {
+		return "SAE " + n, true
+	}
+	for _, c := range propertyClasses {
+		if c.unified && c.name == n {
+			return n, true
+		}
+	}
+	return "", false
 }
 
 const boltsDoc = `The bolts kind checks the z bolts that hold a cylinder head, cover or end
@@ -155,6 +209,23 @@ Bolt (ISO 898-1)
   The proof strength is the stress a bolt carries without lasting set; the
   factor is on it, not on the ultimate strength.
 
+Bolt (Unified inch threads, ASME B1.1)
+  A_s = 0.7854 · (D − 0.9743/n)²    D the basic major diameter in inches,
+  n the threads per inch: the area at the mean of the pitch diameter
+  (D − 0.649519/n) and the minor diameter (D − 1.299038/n), for every grade.
+  Inch grades (from memory; ksi, proof strength S_p, or for A307 the
+  minimum tensile strength, which the factor is then on: A307 has no proof
+  load):
+    SAE J429 grade 2 ("SAE 2")  1/4 to 3/4 in: 55; over 3/4 to 1-1/2 in: 33
+    SAE J429 grade 5 ("SAE 5")  1/4 to 1 in: 85; over 1 to 1-1/2 in: 74
+    SAE J429 grade 8 ("SAE 8")  1/4 to 1-1/2 in: 120
+    ASTM A325 ("A325")          1/2 to 1 in: 85; 1-1/8 to 1-1/2 in: 74
+    ASTM A490 ("A490")          1/2 to 1-1/2 in: 120
+    ASTM A307 grade A ("A307")  1/4 to 4 in: 60 (minimum tensile strength)
+  A grade outside its sizes, an inch grade on a metric thread or an ISO
+  class on an inch one is refused with the classes that fit. "Grade 5",
+  "SAE5" and "ASTM A325" name the same grades.
+
 Thread stripping (the nut or tapped hole)
   The internal thread strips along the cylinder at the bolt's major
   diameter. Its shear area over the engaged length L_e is the internal-thread
@@ -184,13 +255,21 @@ Threads
   M14x1.5, M16x1.5, M18x1.5, M20x1.5, M22x1.5, M24x2. Other pitches are not
   in the table and are refused: check the designation against the drawing.
   Sizes are plain decimals ("M8.0" is M8, "M8x1.0" is M8x1); exponents,
-  signs and leading zeros ("M1e1", "M+8", "M08") are refused.`
+  signs and leading zeros ("M1e1", "M+8", "M08") are refused.
+  Unified (ASME B1.1, from memory; the size, a hyphen, the threads per inch,
+  optionally the series: "1/4-20" or "1/4-20 UNC"): UNC #4-40, #5-40, #6-32,
+  #8-32, #10-24, #12-24, 1/4-20, 5/16-18, 3/8-16, 7/16-14, 1/2-13, 9/16-12,
+  5/8-11, 3/4-10, 7/8-9, 1-8. UNF #4-48, #5-44, #6-40, #8-36, #10-32,
+  #12-28, 1/4-28, 5/16-24, 3/8-24, 7/16-20, 1/2-20, 9/16-18, 5/8-18, 3/4-16,
+  7/8-14, 1-12. Number sizes have D = 0.060 + 0.013·N in ("#10" is 0.190
+  in). A designation that is neither is answered with threads of its own
+  family only: a metric size for an M-designation, an inch size for an
+  inch one.`
 
 // boltsInput is a bolts block's inputs in SI.
 type boltsInput struct {
 	thread     Thread
-	class      propertyClass
-	classRange string
+	class      classAt
 	count      int
 	gauge      float64 // Pa
 	diameter   float64 // pressure diameter
@@ -207,17 +286,15 @@ func readBoltsInput(in *calc.Inputs) (boltsInput, error) {
 		return b, &calc.InputError{Key: "thread", Message: err.Error()}
 	}
 	b.thread = t
-	c, dr, ok := lookupClass(in.NameOf("property_class"), t.D)
+	c, _, ok := lookupClass(in.NameOf("property_class"), t.D)
 	if !ok {
 		return b, &calc.InputError{Key: "property_class", Message: fmt.Sprintf("%q is not known; allowed: %s",
 			in.NameOf("property_class"), strings.Join(propertyClassChoices(nil), ", "))}
 	}
-	if c.maxDia > 0 && t.D > c.maxDia*(1+1e-9) {
-		return b, &calc.InputError{Key: "property_class", Message: fmt.Sprintf(
-			"%q is made only up to %s diameter (ISO 898-1), and %s is %s; allowed for %s: %s",
-			c.name, display.Number(c.maxDia*1e3, "mm"), t.Name, display.Number(t.D*1e3, "mm"), t.Name, strings.Join(classesFor(t.D), ", "))}
+	if err := checkClassFits(c.propertyClass, t); err != nil {
+		return b, err
 	}
-	b.class, b.classRange = c, dr
+	b.class = c
 	z := in.Value("count")
 	if z != math.Trunc(z) {
 		return b, &calc.InputError{Key: "count", Message: fmt.Sprintf("%s is not a whole number of bolts", units.Format(z, 6))}
@@ -252,6 +329,32 @@ func readBoltsInput(in *calc.Inputs) (boltsInput, error) {
 	return b, nil
 }
 
+// checkClassFits refuses a class made for the other thread family or
+// outside its sizes, naming the classes made for the thread.
+func checkClassFits(c propertyClass, t Thread) error {
+	if c.fits(t) {
+		return nil
+	}
+	allowed := "allowed for " + t.Name + ": " + strings.Join(classesFor(t), ", ")
+	size := display.Number(t.D*1e3, "mm")
+	if t.Unified() {
+		size = display.Number(t.D/inch, "in")
+	}
+	if len(classesFor(t)) == 0 {
+		allowed = "no grade of the table is made for " + t.Name + ": the inch grades start at 1/4 in (SAE J429, ASTM A307)"
+	}
+	var why string
+	switch {
+	case c.unified && !t.Unified():
+		why = fmt.Sprintf("%q is an inch grade (%s) for Unified threads, and %s is a metric thread", c.name, c.standard, t.Name)
+	case !c.unified && t.Unified():
+		why = fmt.Sprintf("%q is an ISO 898-1 property class for metric threads, and %s is a Unified inch thread", c.name, t.Name)
+	default:
+		why = fmt.Sprintf("%q is made %s (%s), and %s is %s", c.name, c.sizes, c.standard, t.Name, size)
+	}
+	return &calc.InputError{Key: "property_class", Message: why + "; " + allowed}
+}
+
 func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 	b, err := readBoltsInput(in)
 	if err != nil {
@@ -272,8 +375,21 @@ func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 	mm, mm2, mpa := display.TraceIn(cust, "mm"), display.TraceIn(cust, "mm2"), display.TraceIn(cust, "MPa")
 	newton, bar := display.TraceIn(cust, "N"), display.TraceIn(cust, "bar")
 	classNote := "class " + b.class.name
-	if b.classRange != "" {
-		classNote += ", " + b.classRange
+	if b.class.unified {
+		classNote = b.class.name
+	}
+	if b.class.within != "" {
+		classNote += ", " + b.class.within
+	}
+	factorTrace := calc.Trace{Formula: "S = S_p / σ (S_p: proof strength, " + b.class.source + ")", Substituted: "= " + mpa(b.class.proof) + " (" + classNote + ") / " + mpa(stress)}
+	if b.class.tensileOnly {
+		factorTrace.Formula = "S = S_u / σ (" + b.class.name + " has no proof load: the factor is on its minimum tensile strength, " + b.class.source + ")"
+	}
+	areaTrace := calc.Trace{Formula: "A_s = π/4 · ((d2 + d3)/2)², d2 = d − 0.649519 · P, d3 = d − 1.226869 · P", Substituted: "= π/4 · ((" + mm(d2) + " + " + mm(d3) + ")/2)², " + t.Name + ": d = " + mm(t.D) + ", P = " + mm(t.Pitch)}
+	if t.Unified() {
+		tpi := display.Number(inch/t.Pitch, "")
+		areaTrace = calc.Trace{Formula: "A_s = 0.7854 · (D − 0.9743/n)² (ASME B1.1; D in inches, n threads per inch)",
+			Substituted: "= 0.7854 · (" + display.Number(t.D/inch, "in") + " − 0.9743/" + tpi + ")², " + t.Name + " " + t.Series}
 	}
 	leNote := ""
 	if b.defaultLe {
@@ -282,9 +398,9 @@ func evaluateBolts(in *calc.Inputs) (*calc.Outcome, error) {
 	res := []calc.Result{
 		{Name: "head_load", Value: load, Dim: units.Force, Trace: calc.Trace{Formula: "F = p_g · π/4 · D_p²", Substituted: "= " + bar(b.gauge) + " · π/4 · (" + mm(b.diameter) + ")²"}},
 		{Name: "load_per_bolt", Value: perOne, Dim: units.Force, Trace: calc.Trace{Formula: "F_b = F / z", Substituted: "= " + newton(load) + " / " + display.Number(z, "")}},
-		{Name: "tensile_stress_area", Value: as, Dim: units.Area, Trace: calc.Trace{Formula: "A_s = π/4 · ((d2 + d3)/2)², d2 = d − 0.649519 · P, d3 = d − 1.226869 · P", Substituted: "= π/4 · ((" + mm(d2) + " + " + mm(d3) + ")/2)², " + t.Name + ": d = " + mm(t.D) + ", P = " + mm(t.Pitch)}},
+		{Name: "tensile_stress_area", Value: as, Dim: units.Area, Trace: areaTrace},
 		{Name: "bolt_stress", Value: stress, Dim: units.Stress, Trace: calc.Trace{Formula: "σ = F_b / A_s", Substituted: "= " + newton(perOne) + " / " + mm2(as)}},
-		{Name: "safety_factor", Value: b.class.proof / stress, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "S = S_p / σ (S_p: proof strength, ISO 898-1)", Substituted: "= " + mpa(b.class.proof) + " (" + classNote + ") / " + mpa(stress)}},
+		{Name: "safety_factor", Value: b.class.proof / stress, Dim: units.Dimensionless, Trace: factorTrace},
 		{Name: "strip_safety_factor", Value: tau * shear / perOne, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "S_strip = 0.6 · R_m · A_t / F_b, A_t = π · d · L_e · (1/2 + 0.57735 · (d − d2)/P)", Substituted: "= 0.6 · " + mpa(b.nut.TensileStrength) + " (" + b.nut.Label + ") · " + mm2(shear) + " / " + newton(perOne) +
 			", A_t = π · " + mm(t.D) + " · " + mm(b.engagement) + leNote + " · " + display.Number(t.internalToothFraction(), "")}},
 	}

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"math"
 	"path/filepath"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -16,9 +17,9 @@ import (
 	"github.com/millrace-workshop/specgen/internal/units"
 )
 
-// boltsCase is one testdata/reference/bolts/*.toml file: tabulated values
-// of a standard, or a worked case with inputs as a user writes them.
-type boltsCase struct {
+// iso898Table is one testdata/reference/tables/iso898-1-*.toml file:
+// values ISO 898-1 tabulates.
+type iso898Table struct {
 	Source     string
 	FromMemory bool `toml:"from_memory"`
 	Note       string
@@ -33,20 +34,16 @@ type boltsCase struct {
 		ProofStrength string `toml:"proof_strength"`
 		ProofLoad     string `toml:"proof_load"`
 	}
-	// Materials are rows over the built-in table for this case.
-	Materials map[string]MaterialRow
-	Inputs    map[string]any
-	Check     []struct{ Result, Value, Tolerance string }
 }
 
-func TestBoltsReference(t *testing.T) {
-	files, err := filepath.Glob("../../testdata/reference/bolts/*.toml")
-	if err != nil || len(files) < 3 {
-		t.Fatalf("want at least three reference files, found %d (%v)", len(files), err)
+func TestISO898Tables(t *testing.T) {
+	files, err := filepath.Glob("../../testdata/reference/tables/iso898-1-*.toml")
+	if err != nil || len(files) < 2 {
+		t.Fatalf("want the stress-area and proof-strength tables, found %d files (%v)", len(files), err)
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			var c boltsCase
+			var c iso898Table
 			md, err := toml.DecodeFile(f, &c)
 			if err != nil {
 				t.Fatal(err)
@@ -54,20 +51,14 @@ func TestBoltsReference(t *testing.T) {
 			if un := md.Undecoded(); len(un) > 0 {
 				t.Fatalf("unknown keys %v", un)
 			}
-			if c.Source == "" || c.Note == "" {
-				t.Fatal("a case needs a source and a note")
-			}
-			if len(c.Area)+len(c.Strength)+len(c.Check) == 0 {
-				t.Fatal("a case needs area, strength or check rows")
+			if c.Source == "" || c.Note == "" || len(c.Area)+len(c.Strength) == 0 {
+				t.Fatal("a table needs a source, a note and area or strength rows")
 			}
 			for _, row := range c.Area {
 				checkStressArea(t, row.Thread, row.Value, c.Source)
 			}
 			for _, row := range c.Strength {
 				checkProofStrength(t, row.Class, row.Thread, row.ProofStrength, row.ProofLoad, c.Source)
-			}
-			if len(c.Check) > 0 {
-				checkBoltsCase(t, c)
 			}
 		})
 	}
@@ -140,20 +131,6 @@ func testSteel() MaterialRow {
 		"density": "7.85 g/cm3", "service_temperature": "300 degC"}
 }
 
-// mustMaterials returns the built-in table with rows over it.
-func mustMaterials(t *testing.T, rows map[string]MaterialRow) *Materials {
-	t.Helper()
-	base, err := DefaultMaterials()
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := base.With(rows, nil, "")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return m
-}
-
 // evaluateBoltsBlock runs inputs through the whole path a page's block
 // takes: TOML decoding, defaults, name checks, the model, the caution rules.
 func evaluateBoltsBlock(t *testing.T, inputs map[string]any, env *Env) (*calc.Evaluated, error) {
@@ -173,46 +150,6 @@ func evaluateBoltsBlock(t *testing.T, inputs map[string]any, env *Env) (*calc.Ev
 	}
 	e, _ := set.Lookup("head")
 	return e, nil
-}
-
-func checkBoltsCase(t *testing.T, c boltsCase) {
-	t.Helper()
-	env := &Env{Materials: mustMaterials(t, c.Materials), Safety: DefaultSafety}
-	e, err := evaluateBoltsBlock(t, c.Inputs, env)
-	if err != nil {
-		t.Fatal(err)
-	}
-	checkBoltsWellFormed(t, e.Results)
-	for _, ch := range c.Check {
-		r, ok := e.Result(ch.Result)
-		if !ok {
-			t.Errorf("no result %q", ch.Result)
-			continue
-		}
-		want := mustParse(t, ch.Value, r.Dim)
-		tol := tolerance(t, ch.Tolerance, r.Dim, want)
-		if math.Abs(r.Value-want) > tol {
-			t.Errorf("%s = %.6g SI, want %s = %.6g SI ± %.3g (%s)", ch.Result, r.Value, ch.Value, want, tol, c.Source)
-		}
-	}
-}
-
-// checkBoltsWellFormed checks that every declared result is there, in
-// order, finite and with a trace.
-func checkBoltsWellFormed(t *testing.T, res []calc.Result) {
-	t.Helper()
-	if len(res) != len(boltsKind.Results) {
-		t.Fatalf("%d results, %d declared", len(res), len(boltsKind.Results))
-	}
-	for i, spec := range boltsKind.Results {
-		r := res[i]
-		if r.Name != spec.Name || r.Dim != spec.Dim || !finite(r.Value) || r.Value <= 0 {
-			t.Errorf("result %d is %s (%v) = %g; declared %s (%v), positive", i, r.Name, r.Dim, r.Value, spec.Name, spec.Dim)
-		}
-		if r.Trace.Formula == "" || !strings.HasPrefix(r.Trace.Substituted, "= ") {
-			t.Errorf("%s has trace %q / %q", r.Name, r.Trace.Formula, r.Trace.Substituted)
-		}
-	}
 }
 
 // TestThreadProfile checks the stripping area's tooth fraction against the
@@ -254,7 +191,7 @@ func TestLookupThread(t *testing.T) {
 		{"M30", `did you mean "M24"?`},
 		{"M1", `did you mean "M2"?`},
 		{"M10x0.75", `did you mean "M10", "M10x1.25" or "M10x1"?`},
-		{"bolt", `write a coarse thread as "M8"`},
+		{"bolt", `write a metric thread as "M8" (coarse) or "M8x1" (fine), a Unified one as "1/4-20"`},
 		// strconv would read these as sizes; ISO 261 writes plain decimals.
 		{"M1e1", `an exponent is not a size; write M, the nominal diameter in mm and, for a fine thread, "x" and the pitch in mm, in plain decimals, as "M8" or "M8x1"`},
 		{"M8x1e0", `an exponent is not a size`},
@@ -404,5 +341,40 @@ func TestBoltsClass98UpTo16(t *testing.T) {
 	r, _ := out.Result("safety_factor")
 	if want := "650 MPa (class 9.8, d ≤ 16 mm)"; !strings.Contains(r.Trace.Substituted, want) {
 		t.Errorf("working %q lacks %q", r.Trace.Substituted, want)
+	}
+}
+
+// TestLookupUnifiedThread: Unified designations as people write them, and
+// mistakes answered with inch threads only, never a metric size (nor a
+// metric designation with an inch one).
+func TestLookupUnifiedThread(t *testing.T) {
+	for _, c := range []struct{ name, want, series string }{
+		{"1/4-20", "1/4-20", "UNC"}, {"1/4-28", "1/4-28", "UNF"}, {"1/4-20 UNC", "1/4-20", "UNC"}, {"1/4-28unf", "1/4-28", "UNF"},
+		{"#10-24", "#10-24", "UNC"}, {"10-32", "#10-32", "UNF"}, {"No. 10-32", "#10-32", "UNF"}, {"1-8", "1-8", "UNC"}, {"1-12", "1-12", "UNF"},
+	} {
+		th, err := LookupThread(c.name)
+		if err != nil || th.Name != c.want || th.Series != c.series {
+			t.Errorf("LookupThread(%q) = %q %s, %v; want %q %s", c.name, th.Name, th.Series, err, c.want, c.series)
+		}
+	}
+	for _, c := range []struct{ name, want string }{
+		{"1/4-24", `did you mean "1/4-20" or "1/4-28"?`},
+		{"3/16-24", `did you mean "#8-32" or "#10-24"?`}, // 3/16 = 0.1875 in lies between #8 (0.164) and #10 (0.190)
+		{"1/4-20 UNF", `1/4-20 is the UNC series, not UNF`},
+		{"1/4x20", `is not a Unified designation; write the size, a hyphen and the threads per inch`},
+		{"#7-32", `did you mean "#6-32" or "#8-32"?`},
+	} {
+		_, err := LookupThread(c.name)
+		switch {
+		case err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "1-12"):
+			t.Errorf("LookupThread(%q): %v; want an error with %s and the Unified table", c.name, err, c.want)
+		case regexp.MustCompile(`"M[0-9]`).MatchString(err.Error()) || strings.Contains(err.Error(), "M24"):
+			t.Errorf("LookupThread(%q): %v; an inch designation is answered with a metric thread", c.name, err)
+		}
+	}
+	for _, name := range []string{"M7", "M30", "m8"} {
+		if _, err := LookupThread(name); err == nil || strings.Contains(err.Error(), "1/4-20") || strings.Contains(err.Error(), "#10") {
+			t.Errorf("LookupThread(%q): %v; a metric designation is answered with an inch thread", name, err)
+		}
 	}
 }

@@ -37,6 +37,10 @@ const (
 	// bucklingFactor is the factor on a wall's elastic collapse pressure,
 	// checked against the site's minimum for buckling.
 	bucklingFactor = "external_safety_factor"
+	// rodNear: a rod that passes the bottom of the cylinder wall closer than
+	// this is a WARNING: bearing play, a bent rod and the tolerances of the
+	// bore and the crank take up fractions of a millimetre (common practice).
+	rodNear = 1e-3 // m
 )
 
 // rules is every caution rule, in the order they are applied.
@@ -46,9 +50,10 @@ var rules = []calc.Rule{
 	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of, from a compressor stage or a vacuum pump at its target: charred oil in the discharge line, burns", Check: hotAirRule},
 	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
 	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum for its material, or for buckling (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
-	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
-	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
+	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure or, when lower, its code allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
+	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure (or the lower code allowable pressure) of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
 	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
+	{ID: "relief-too-small", Level: calc.Danger, Summary: "a relief valve that passes less air at its relieving pressure than the compressors it protects (directly or through the receiver they fill) deliver there", Check: reliefTooSmall},
 	{ID: "relief-below-target", Level: calc.Caution, Summary: "a relief valve that opens below the working pressure of a part it protects (a tank's target, a compressor's discharge pressure, a tube's pressure): the part never gets there and the valve blows off continuously", Check: reliefBelowTarget},
 	{ID: "fill-above-rating", Level: calc.Caution, Summary: "a tank filled above the discharge pressure its supply's block is computed at: the stage's forces, temperature and power run above what its block shows", Check: fillAboveRating},
 	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
@@ -56,7 +61,14 @@ var rules = []calc.Rule{
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
 	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose exhaust air (mass-averaged, after the blowdown) leaves below 0 °C, where moisture freezes; not when the expansion ends below ambient, which over-expansion covers", Check: coldExhaust},
 	{ID: "dead-centre", Level: calc.Caution, Summary: "an air motor that can stop where no inlet is open with leverage on the crank (a single cylinder at top dead centre or after cut-off): it will not start on air, and starts suddenly when moved", Check: deadCentre},
+	{ID: "rod-strikes-liner", Level: calc.Danger, Summary: "a connecting rod that touches the bottom edge of the cylinder wall as it swings (DANGER), or passes it closer than 1 mm (WARNING)", Check: rodStrikesLiner},
 	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode; on a vacuum pump, naming the wall and lid blocks on its page that check them, or saying none does; on a glass or acrylic wall or lid, the shield it needs", Check: vacuumVessel},
+	{ID: "motor-overload", Level: calc.Warning, Summary: "a drive whose load needs more power than the motor passes through the belt at its rating times its service factor (raised by the drive model)"},
+	{ID: "start-stall", Level: calc.Danger, Summary: "a drive whose motor starting torque at the crank is under 1.2 times (WARNING) or under (DANGER) the load's torque against the highest pressure it can start against (raised by the drive model)"},
+	{ID: "start-unchecked", Level: calc.Notice, Summary: "a drive without the motor's starting torque, or a load with no torque at start: the start is not checked (raised by the drive model)"},
+	{ID: "start-relief-unnamed", Level: calc.Notice, Summary: "a drive whose start is checked against its load's discharge pressure while a relief valve on the load, its stages or its receiver opens higher, and no unloader is declared", Check: unnamedRelief},
+	{ID: "fast-belt", Level: calc.Warning, Summary: "a belt faster than 30 m/s, the rating of classical V-belt sections (common practice; raised by the drive model)"},
+	{ID: "off-design-stage", Level: calc.Notice, Summary: "a compressor block listed in a machine whose own inlet or discharge pressure lies more than 2 % (absolute) from the pressure the machine runs it at: its own results are for pressures it does not see", Check: offDesignStages},
 }
 
 // material returns the material a Name input of e names.
@@ -95,13 +107,13 @@ func hotDischarge(s *calc.Set) []calc.Raised {
 				e.Show(limit, units.Temperature, "degC"), "typical value: verify for your material")
 			switch {
 			case t2.Value > limit:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: "discharge_temperature", Message: "Above the limit: " + msg + ". The part will soften or creep under pressure; use a material rated above the discharge temperature, cool the stage, or lower its pressure ratio."}})
 			case t2.Value > limit-hotMargin:
 				margin := "10 K"
 				if e.WriterUnit(units.Temperature, "degC") == "degF" {
 					margin = "18 °F (10 K)" // a difference: 1 K is 1.8 °F
 				}
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: "discharge_temperature", Message: "Within " + margin + " of the limit: " + msg + ". Allow for hot spots at the discharge valve, which run hotter than the mean."}})
 			}
 		}
 	}
@@ -122,7 +134,7 @@ func hotAirRule(s *calc.Set) []calc.Raised {
 			what = "With the vessel at the target pressure the air leaves the cylinder at %s, and hotter still below it"
 			remedy = "pump down in two stages or to a higher target, guard the head, and keep the exhaust line metal and its silencer clear of the hot air."
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "discharge_temperature", Message: fmt.Sprintf(
 			what+", above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+remedy,
 			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
 	}
@@ -154,15 +166,15 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 			factor := units.Format(r.Value, e.SigFigs())
 			switch {
 			case r.Value < 1:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below 1: the part is expected to fail at its working load. Redesign it before it is pressurised.",
 					spec.Name, factor)}})
 			case r.Value < dangerFactor:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Danger, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below %s: the part is close to failing at its working load. Redesign it before it is pressurised.",
 					spec.Name, factor, units.Format(dangerFactor, 2))}})
 			case r.Value < min:
-				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: spec.Name, Message: fmt.Sprintf(
 					"%s is %s, below the site's minimum of %s for %s. %s",
 					spec.Name, factor, units.Format(min, 2), basis, remedy)}})
 			}
@@ -171,27 +183,50 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 	return out
 }
 
+// rating is the pressure a part is rated for, absolute, given its results:
+// its allowable pressure, or its code allowable pressure when that is
+// lower; name names the figure and basis says what it rests on.
+func rating(result func(name string) (float64, bool)) (p float64, name, basis string, ok bool) {
+	p, ok = result("allowable_pressure")
+	if !ok {
+		return 0, "", "", false
+	}
+	name, basis = "allowable pressure", "the burst pressure over the site's minimum factor"
+	if code, ok := result("code_allowable_pressure"); ok && code < p {
+		p, name, basis = code, "code allowable pressure", "the ASME VIII-1 formulas with its joint efficiency"
+	}
+	return p, name, basis, true
+}
+
+// ratingOf is the rating of an evaluated block.
+func ratingOf(e *calc.Evaluated) (p float64, name, basis string, ok bool) {
+	return rating(func(name string) (float64, bool) {
+		r, ok := e.Result(name)
+		return r.Value, ok
+	})
+}
+
 func aboveAllowable(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		allow, ok := e.Result("allowable_pressure")
+		allow, name, basis, ok := ratingOf(e)
 		burst, hasBurst := e.Result("burst_pressure")
 		in, working := e.ModelInputs(), e.Block.Kind.WorkingPressure
 		if !ok || in == nil || working.Key == "" || !in.Has(working.Key) {
 			continue
 		}
 		p := in.Value(working.Key)
-		if p <= allow.Value {
+		if p <= allow {
 			continue
 		}
-		level, why := calc.Warning, "above its allowable pressure"
+		rated := fmt.Sprintf("%s %s (%s)", name, e.Show(allow, units.Pressure, "bar"), basis)
+		level, why := calc.Warning, "above its "+rated
 		// Both pressures are absolute; the margin is on gauge pressure.
 		if hasBurst && p-e.Ambient > (burst.Value-e.Ambient)/dangerFactor {
-			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)
+			level, why = calc.Danger, "above its burst pressure over "+units.Format(dangerFactor, 2)+"; its "+rated
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
-			"The working pressure %s is %s (allowable %s, the burst pressure over the site's minimum factor). Lower the pressure or strengthen the part.",
-			e.Show(p, units.Pressure, "bar"), why, e.Show(allow.Value, units.Pressure, "bar"))}})
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "allowable_pressure", Message: fmt.Sprintf(
+			"The working pressure %s is %s. Lower the pressure or strengthen the part.", e.Show(p, units.Pressure, "bar"), why)}})
 	}
 	return out
 }
@@ -238,8 +273,8 @@ func noRelief(s *calc.Set) []calc.Raised {
 					exposed = true
 				}
 			}
-			allow, _ := p.Result("allowable_pressure")
-			if !exposed || dead.Value <= allow.Value {
+			allow, name, _, _ := ratingOf(p)
+			if !exposed || dead.Value <= allow {
 				continue
 			}
 			// The relief must open below the part's allowable pressure.
@@ -252,7 +287,7 @@ func noRelief(s *calc.Set) []calc.Raised {
 				set, _ := v.Result("cracking_pressure")
 				// cracking_pressure is a difference across the seat; the
 				// valve vents to ambient, so it opens at ambient + that.
-				if set.Value+v.Ambient <= allow.Value {
+				if set.Value+v.Ambient <= allow {
 					relieved = true
 					break
 				}
@@ -263,13 +298,13 @@ func noRelief(s *calc.Set) []calc.Raised {
 			if relieved {
 				continue
 			}
-			msg := fmt.Sprintf("%s can dead-head at %s, above the allowable pressure %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
-				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), p.Show(allow.Value, units.Pressure, "bar"), p.Block.ID,
-				p.Show(allow.Value, units.Pressure, "bar"), c.Block.ID)
+			msg := fmt.Sprintf("%s can dead-head at %s, above the %s %s of %s. Fit a relief valve set below %s: a valve block that protects %s.",
+				c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), name, p.Show(allow, units.Pressure, "bar"), p.Block.ID,
+				p.Show(allow, units.Pressure, "bar"), c.Block.ID)
 			if len(tooHigh) > 0 {
 				msg += " The named relief is set too high (" + strings.Join(tooHigh, "; ") + ")."
 			}
-			out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Danger, Message: msg}})
+			out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Danger, Result: "max_pressure", Message: msg}})
 		}
 	}
 	return out
@@ -298,9 +333,65 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		if named {
 			continue
 		}
-		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: c, Note: calc.CautionNote{Level: calc.Notice, Result: "max_pressure", Message: fmt.Sprintf(
 			"No relief valve is named for %s, which can dead-head at %s with its outlet blocked. Every compressor needs a relief valve set below the rating of the weakest part it can pressurise (common practice); describe it in a valve block with protects = [\"%s\"].",
 			c.Block.ID, c.Show(dead.Value, units.Pressure, "bar"), c.Block.ID)}})
+	}
+	return out
+}
+
+// reliefTooSmall raises a DANGER on a relief valve whose capacity at its
+// relieving pressure is less than the mass flow the compressors it
+// protects deliver there: those it names, and the supplies of the
+// receivers it names, each counted once.
+func reliefTooSmall(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, v := range s.Blocks {
+		capacity, ok := v.Result("relieving_capacity")
+		p0, _ := v.Result("relieving_pressure")
+		vin := v.ModelInputs()
+		if !ok || vin == nil {
+			continue
+		}
+		var sources []*calc.Linked
+		seen := map[string]bool{}
+		add := func(l *calc.Linked) {
+			if l != nil && l.Roles&calc.Delivers != 0 && !seen[l.ID] {
+				seen[l.ID] = true
+				sources = append(sources, l)
+			}
+		}
+		for _, l := range vin.LinksOf("protects") {
+			add(l)
+			if p, ok := s.Lookup(l.ID); ok && p.Block.Kind.Has(calc.Receiver) && p.ModelInputs() != nil {
+				add(p.ModelInputs().LinkOf("supply"))
+			}
+		}
+		demand := 0.0
+		var ids []string
+		for _, l := range sources {
+			m, err := deliveredMass(l, p0.Value)
+			if err != nil {
+				continue
+			}
+			demand += m
+			ids = append(ids, l.ID)
+		}
+		if len(ids) == 0 || capacity.Value >= demand {
+			continue
+		}
+		p1, t1 := supplyInlet(sources[0])
+		verb := "delivers"
+		if len(ids) > 1 {
+			verb = "deliver"
+		}
+		free := func(m float64) string {
+			return v.Show(m*airGasConstant*t1/p1, units.VolumeFlow, "L/min")
+		}
+		out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Danger, Message: fmt.Sprintf(
+			"%s passes %s (%s of free air) at its relieving pressure %s, less than the %s (%s) that %s %s there. Once it lifts the pressure goes on rising past its set point: fit a valve with a larger seat or lift, or a second valve.",
+			v.Block.ID, v.Show(capacity.Value, units.MassFlow, "g/s"), free(capacity.Value), v.Show(p0.Value, units.Pressure, "bar"),
+			v.Show(demand, units.MassFlow, "g/s"), free(demand), strings.Join(ids, " and "), verb)}})
 	}
 	return out
 }
@@ -332,7 +423,7 @@ func reliefBelowTarget(s *calc.Set) []calc.Raised {
 			if opens >= target {
 				continue
 			}
-			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+			out = append(out, calc.Raised{Block: v, Note: calc.CautionNote{Level: calc.Caution, Result: "cracking_pressure", Message: fmt.Sprintf(
 				"%s opens at %s, below the %s %s of %s, which it protects: %s never reaches it, and the valve lifts and blows off for as long as the compressor runs. Set the valve above %s, commonly about 10%% above the working pressure (common practice), and below the allowable pressure of the parts it protects; or lower the %s.",
 				v.Block.ID, p.Show(opens, units.Pressure, "bar"), working.Name, p.Show(target, units.Pressure, "bar"), p.Block.ID,
 				p.Block.ID, p.Show(target, units.Pressure, "bar"), working.Name)}})
@@ -383,9 +474,18 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 		if r.Value > storedEnergyWarning {
 			level = calc.Warning
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: fmt.Sprintf(
-			"The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
-			e.Show(r.Value, units.Energy, "kJ"))}})
+		msg := fmt.Sprintf("The receiver stores %s (isentropic expansion to ambient). A rupture releases it at once: keep the receiver guarded, drained and inspected, and never modify, weld or drill it.",
+			e.Show(r.Value, units.Energy, "kJ"))
+		// Shown in the results' own units: a tank's lengths are in mm or
+		// inches, its test distance in metres or feet.
+		test, errE := e.Format("test_energy", "")
+		tnt, errT := e.Format("tnt_equivalent", "")
+		distance, errD := e.Format("test_distance", "")
+		if errE == nil && errT == nil && errD == nil {
+			msg += fmt.Sprintf(" Prove it with a hydrostatic test, with water, not with air: a pneumatic test would store %s, as much as %s of TNT, and ASME PCC-2 keeps everyone at least %s away while one runs.",
+				test, tnt, distance)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Result: "stored_energy", Message: msg}})
 	}
 	return out
 }
@@ -429,7 +529,7 @@ func fastFlywheel(s *calc.Set) []calc.Raised {
 			}
 			why = "its material (" + m.Label + ") is brittle and can burst from casting flaws well below its computed strength"
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: "rim_speed", Message: fmt.Sprintf(
 			"The flywheel's rim runs at %s, above the %s long held as the limit for cast-iron flywheels, and %s. A bursting flywheel throws fragments like shrapnel: guard it all round, or make it smaller and slower at the rim.",
 			e.Show(v.Value, units.Velocity, "m/s"), e.Show(fastRim, units.Velocity, "m/s"), why)}})
 	}
@@ -447,7 +547,7 @@ func coldExhaust(s *calc.Set) []calc.Raised {
 		if !ok || t.Value >= freezing || (hasPe && pe.Value < e.Ambient) {
 			continue
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "exhaust_temperature", Message: fmt.Sprintf(
 			"The exhaust air leaves at about %s, mass-averaged over the blowdown when the exhaust opens and the exhaust stroke (the air in the cylinder is %s at bottom dead centre; warm cylinder walls make both less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air, or warm it; changing the cut-off warms the exhaust little.",
 			e.Show(t.Value, units.Temperature, "degC"), e.Show(te.Value, units.Temperature, "degC"))}})
 	}
@@ -466,8 +566,26 @@ func deadCentre(s *calc.Set) []calc.Raised {
 		if in.Value("cylinders") == 1 {
 			where = "a single cylinder has dead centres: at top dead centre the rod gives no leverage, and from cut-off to bottom dead centre the inlet is shut"
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "The motor can stop where it will not start on air: " + where + ". " +
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "start_torque", Message: "The motor can stop where it will not start on air: " + where + ". " +
 			"Moved past that point by hand, it starts at once and with full torque: turn it by its load or a bar, never by the crank or belt, with guards in place, or shut and vent the supply first. A flywheel carries it past in running; more cylinders with overlapping admission let it start anywhere."}})
+	}
+	return out
+}
+
+func rodStrikesLiner(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		r, ok := e.Result("rod_clearance")
+		if !ok || r.Value >= rodNear {
+			continue
+		}
+		clear := e.Show(r.Value, units.Length, "mm")
+		level, what := calc.Warning, fmt.Sprintf("passes the bottom edge of the cylinder wall with %s to spare, less than %s", clear, e.Show(rodNear, units.Length, "mm"))
+		if r.Value <= 0 {
+			level, what = calc.Danger, fmt.Sprintf("strikes the bottom edge of the cylinder wall as it swings (least clearance %s)", clear)
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: level, Message: "The connecting rod " + what +
+			". A rod that hits the cylinder breaks the liner or itself and can throw the piston: chamfer or notch the bottom of the bore, narrow the rod where it passes, or lengthen the rod."}})
 	}
 	return out
 }
@@ -538,3 +656,10 @@ const StandardVacuumCaution = "A vessel under vacuum carries the full weight of 
 	"Thin sheet, plastic boxes and glass can implode and throw fragments. " +
 	"The figures on this page come from simplified models and are not a certification. " +
 	"Local codes, pressure-equipment rules and licensed practice govern the design, testing and use of pressure equipment; they take precedence over anything stated here."
+
+// StandardCautionStrip is StandardCaution in one line, for a page that
+// quotes figures of a pressure calculation held on another page.
+const StandardCautionStrip = "Compressed air can burst vessels and throw parts; these figures are no certification."
+
+// StandardVacuumCautionStrip is StandardVacuumCaution in one line.
+const StandardVacuumCautionStrip = "A vessel under vacuum can implode and throw fragments; these figures are no certification."

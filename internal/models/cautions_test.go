@@ -22,6 +22,7 @@ type cautionCase struct {
 	} `toml:"block"`
 	Expect []struct {
 		Block, Rule, Level, Message, Acknowledged string
+		Result                                    string // the result row the caution marks
 	} `toml:"expect"`
 	Absent []struct {
 		Block, Rule string
@@ -104,6 +105,16 @@ func TestCautionRules(t *testing.T) {
 					t.Errorf("%s: %s message %q lacks %q", x.Block, x.Rule, n.Message, x.Message)
 				case !strings.Contains(n.Acknowledged, x.Acknowledged) || (x.Acknowledged == "") != (n.Acknowledged == ""):
 					t.Errorf("%s: %s acknowledged %q, want %q", x.Block, x.Rule, n.Acknowledged, x.Acknowledged)
+				case x.Result != "" && n.Result != x.Result:
+					t.Errorf("%s: %s marks result %q, want %q", x.Block, x.Rule, n.Result, x.Result)
+				}
+			}
+			// A caution marks a row the block's table has.
+			for _, e := range set.Blocks {
+				for _, n := range e.Cautions {
+					if _, ok := e.Result(n.Result); n.Result != "" && !ok {
+						t.Errorf("%s: %s marks result %q, which the block does not have", e.Block.ID, n.Rule, n.Result)
+					}
 				}
 			}
 			for _, x := range c.Absent {

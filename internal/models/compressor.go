@@ -22,8 +22,13 @@ var compressorKind = calc.Kind{
 	Inputs: append(append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed"),
 		calc.InputSpec{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
-	), cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency",
-		"head_material", "valve_material", "reciprocating_mass")...),
+	), append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index", "mechanical_efficiency",
+		"head_material", "valve_material", "reciprocating_mass"),
+		calc.InputSpec{Name: "phase", Dim: units.Angle, Optional: true, Range: calc.Range{Min: 0, Max: 2 * math.Pi, HasMin: true, HasMax: true, MaxOpen: true},
+			Meaning: "crank angle, 0 to under 360°, by which this stage reaches top dead centre after the crank's zero, for a machine block that lists it; default: a machine spaces its stages evenly"},
+		calc.InputSpec{Name: "rod_width", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 1), Meaning: "width of the connecting rod in its plane of swing where it passes the bottom edge of the cylinder wall, up to 1 m; give liner_bottom with it for rod_clearance"},
+		calc.InputSpec{Name: "liner_bottom", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 50), Meaning: "distance from the crank axis up to the bottom edge of the cylinder wall (bore or liner), up to 50 m; give rod_width with it"},
+	)...),
 	Results: []calc.ResultSpec{
 		{Name: "piston_area", Dim: units.Area, Unit: "cm2", Meaning: "area of one piston"},
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
@@ -46,6 +51,7 @@ var compressorKind = calc.Kind{
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the steady drive torque without friction"},
 		{Name: "peak_torque", Dim: units.Torque, Unit: "N m", Meaning: "largest gas load torque on the crankshaft over a revolution"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant drive torque"},
+		{Name: "rod_clearance", Dim: units.Length, Unit: "mm", Meaning: "least gap over a revolution between the swinging rod and the bottom inner corner of the bore, negative where they overlap (with rod_width and liner_bottom)"},
 	},
 	Charts:   compressorCharts,
 	Chart:    compressorChart,
@@ -99,7 +105,8 @@ Torque
   curve; it is not in the results, nor in the peak piston force.
   Curves: pv (one cylinder, with the isothermal compression line dashed for
   comparison); gas_torque, inertia_torque and total_torque (all cylinders,
-  over crank angle).
+  over crank angle). phase plays no part here: a machine block that lists
+  the stage reads it to place the stage on its crank.
 
 Limits
 - When p2 ≥ p_max the discharge valve never opens: volumetric efficiency,
@@ -109,7 +116,22 @@ Limits
   lower bounds on power.
 - The discharge temperature assumes the same n; real discharge temperatures
   depend on cooling. With no delivery it is the peak of the trapped air,
-  T1·CR^(n−1).`
+  T1·CR^(n−1).
+
+Rod swing (with rod_width and liner_bottom)
+  The crank axis is the origin and the line of stroke the y axis: the crank
+  pin is at (R·sin θ, R·cos θ), the wrist pin at (0, R·cos θ + sqrt(L² −
+  R²·sin² θ)), and the bottom inner corners of the bore at (±D/2, h), h the
+  height of the cylinder wall's bottom edge above the crank axis.
+  rod_clearance is the least distance from a corner to the rod's
+  centreline, less half rod_width, over the crank angles at which the
+  centreline crosses height h: sampled every 0.1°, refined by
+  golden-section search, and taken at the angles where either pin passes
+  h. Negative means the rod's outline overlaps the corner. The rod is a
+  strip of constant width there; a rod that widens towards the big end, the
+  crank webs and the counterweights are not checked. The kinematics chart
+  marks the crank angle of the least clearance; the rod-strikes-liner rule
+  raises a DANGER at or below 0 and a WARNING below 1 mm.`
 
 // readCompressor reads a compressor block: its cylinder, then its
 // inlet and discharge pressures.
@@ -158,15 +180,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 	isoPower := z * polytropicWork(c.p1, vi, r, 1) * revs
 	meanTorque := work / (2 * math.Pi)
 
-	cyc := newIndicatorCycle(indicatorCycle{
-		crank:     sliderCrank{r: c.crankRadius, l: c.rod},
-		area:      area,
-		clearance: c.clearanceVolume,
-		p1:        c.p1,
-		p2:        c.p2,
-		n:         c.n,
-		ambient:   c.ambient,
-	})
+	cyc := c.cycleAt(c.p1, c.p2)
 	steps := crankSteps(c.cylinders)
 	gasOne := sampleRevolution(steps, cyc.gasTorque)
 	gas := phaseSum(gasOne, c.cylinders)
@@ -204,7 +218,7 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "compression_ratio", Value: cr, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "CR = (Vs + Vc) / Vc", Substituted: "= (" + cm3(swept) + " + " + cm3(c.clearanceVolume) + ") / " + cm3(c.clearanceVolume)}},
 		{Name: "pressure_ratio", Value: r, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "r = p2 / p1", Substituted: "= " + bara(c.p2) + " / " + bara(c.p1)}},
 		{Name: "volumetric_efficiency", Value: ve, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η_v = 1 − c·(r^(1/n) − 1)", Substituted: "= 1 − " + display.NumberSig(c.clearanceRatio, "", veSig) + "·(" + display.NumberSig(r, "", veSig) + "^(1/" + nWord + ") − 1)" + noDelivery(delivers)}},
-		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Gas: units.GasState{Pressure: c.p1, Temperature: c.t1}, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d", Substituted: "= " + num(ve) + " · " + lpm(rate)}},
+		{Name: "free_air_delivery", Value: ve * rate, Dim: units.VolumeFlow, Gas: units.GasState{Pressure: c.p1, Temperature: c.t1}, Trace: calc.Trace{Formula: "FAD = η_v · V̇_d" + ownInlet(in, c), Substituted: "= " + num(ve) + " · " + lpm(rate)}},
 		{Name: "max_pressure", Value: pMax, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_max = p1 · CR^n", Substituted: "= " + bara(c.p1) + " · " + num(cr) + "^" + nWord}},
 		compressorDischargeTemperature(c, delivers, r, cr, nWord),
 		{Name: "peak_piston_force", Value: math.Max(cyc.top-c.ambient, c.ambient-c.p1) * area, Dim: units.Force,
@@ -220,18 +234,58 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
 	}
 
+	swing, hasSwing, err := readRodSwing(in, c)
+	if err != nil {
+		return nil, err
+	}
+	if hasSwing {
+		res = append(res, rodClearanceResult(swing, cust))
+	}
+
 	out := &calc.Outcome{Results: res}
 	if in.WantCurves() {
 		out.Curves = compressorCurves(cyc, c, gas, steps)
 	}
 	if !delivers {
-		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Danger, Rule: "no-delivery", Message: fmt.Sprintf(
+		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Danger, Rule: "no-delivery", Result: "volumetric_efficiency", Message: fmt.Sprintf(
 			"The discharge valve never opens: the discharge pressure %s is at or above the dead-head pressure %s "+
 				"(inlet pressure × compression ratio^n), so the cylinder delivers no air and only compresses and "+
 				"re-expands what it traps. Reduce the clearance volume or the discharge pressure.",
 			bara(c.p2), bara(pMax))})
 	}
 	return out, nil
+}
+
+// readRodSwing reads rod_width and liner_bottom, which come together;
+// has is false when the block gives neither.
+func readRodSwing(in *calc.Inputs, c cylinder) (s rodSwing, has bool, err error) {
+	switch {
+	case !in.Has("rod_width") && !in.Has("liner_bottom"):
+		return s, false, nil
+	case !in.Has("liner_bottom"):
+		return s, false, &calc.InputError{Key: "rod_width", Message: "is given but liner_bottom is missing: give both for rod_clearance (liner_bottom: the distance from the crank axis up to the bottom edge of the cylinder wall)"}
+	case !in.Has("rod_width"):
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: "is given but rod_width is missing: give both for rod_clearance (rod_width: the rod's width in its plane of swing at the cylinder's bottom edge)"}
+	}
+	s = rodSwing{crank: sliderCrank{r: c.crankRadius, l: c.rod}, bore: c.bore, width: in.Value("rod_width"), h: in.Value("liner_bottom")}
+	if top := c.rod + c.crankRadius; s.h > top {
+		mm := display.TraceIn(in.Customary(), "mm")
+		return s, false, &calc.InputError{Key: "liner_bottom", Message: fmt.Sprintf(
+			"%s is above the wrist pin's highest point, %s from the crank axis (rod length + crank radius): the rod never reaches the bottom of the cylinder wall there; allowed: up to %s",
+			mm(s.h), mm(top), mm(top))}
+	}
+	return s, true, nil
+}
+
+// rodClearanceResult is the least gap between the swinging rod and the
+// bottom corner of the bore, with the crank angle it occurs at.
+func rodClearanceResult(s rodSwing, cust bool) calc.Result {
+	clear, at, _ := s.least()
+	mm := display.TraceIn(cust, "mm")
+	return calc.Result{Name: "rod_clearance", Value: clear, Dim: units.Length, Trace: calc.Trace{
+		Formula: "c = min over θ of dist(corner, rod centreline) − w/2, corners (±D/2, h), crank pin (R·sin θ, R·cos θ), wrist pin (0, R·cos θ + sqrt(L² − R²·sin² θ)), at the crank angles where the rod crosses height h",
+		Substituted: fmt.Sprintf("= %s − %s/2 at θ = %s° from top dead centre (D = %s, h = %s, R = %s, L = %s)",
+			mm(clear+s.width/2), mm(s.width), display.Number(at*180/math.Pi, ""), mm(s.bore), mm(s.h), mm(s.crank.r), mm(s.crank.l))}}
 }
 
 // compressorDischargeTemperature is the temperature at the end of compression: at the
@@ -252,6 +306,17 @@ func clearanceResult(c cylinder, swept float64, cm3 func(float64) string) calc.R
 		t = calc.Trace{Formula: "c (given)", Substituted: "= " + display.Number(c.clearanceRatio, "")}
 	}
 	return calc.Result{Name: "clearance_ratio", Value: c.clearanceRatio, Dim: units.Dimensionless, Trace: t}
+}
+
+// ownInlet says, for a stage drawing above or below ambient (a later
+// stage of a machine, say), that its delivery is air at its own inlet, not
+// at the machine's.
+func ownInlet(in *calc.Inputs, c cylinder) string {
+	if c.p1 == c.ambient {
+		return ""
+	}
+	return fmt.Sprintf(", as volume at this stage's own inlet, %s and %s: for a later stage, not the machine's delivery (a machine block gives that at the first stage's inlet)",
+		display.TraceIn(in.Customary(), "bar(a)")(c.p1), display.TraceIn(in.Customary(), "degC")(c.t1))
 }
 
 // noDelivery annotates a volumetric efficiency that came out at or below zero.

@@ -28,8 +28,8 @@ var cylinderSpecs = []calc.InputSpec{
 	{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature at the inlet"},
 	{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
 	{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: calc.Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
-	{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
-	{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
+	{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
+	{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 	{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3), Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
 }
 
@@ -165,6 +165,13 @@ func readCylinder(in *calc.Inputs) (cylinder, error) {
 	}
 	c.cylinders = int(z)
 	return c, nil
+}
+
+// cycleAt is the cylinder's ideal indicator cycle from suction p1 to
+// discharge p2 (absolute), its crankcase at ambient.
+func (c cylinder) cycleAt(p1, p2 float64) *indicatorCycle {
+	return newIndicatorCycle(indicatorCycle{crank: sliderCrank{r: c.crankRadius, l: c.rod}, area: math.Pi / 4 * c.bore * c.bore,
+		clearance: c.clearanceVolume, p1: p1, p2: p2, n: c.n, ambient: c.ambient})
 }
 
 // polytropicWork returns the work to compress a volume v drawn in at p1

@@ -21,7 +21,8 @@ func ExplainKinds(w io.Writer, cat *calc.Catalog) {
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nEvery block also takes: id (required), kind (required), title, ambient_pressure (absolute, default 1 atm),")
 	fmt.Fprintln(w, "[expect] claims such as displacement = \"22.5 cm3 ± 2%\", [show] outputs = [\"name unit\", ...],")
-	fmt.Fprintln(w, "and [acknowledge] rule-id = \"reason\" to accept a caution (it stays on the page with the reason).")
+	fmt.Fprintln(w, "[acknowledge] rule-id = \"reason\" to accept a caution (it stays on the page with the reason), and [derive]")
+	fmt.Fprintln(w, "name = \"expression\" for results of its own (specgen explain figures says how).")
 	fmt.Fprintln(w, "\nAlso: specgen explain materials, specgen explain cautions.")
 }
 
@@ -42,7 +43,7 @@ func ExplainCautions(w io.Writer, cat *calc.Catalog) {
 func ExplainMaterials(w io.Writer, env *Env) {
 	fmt.Fprintln(w, "Materials (typical values: verify for your material; add or override under [materials] in specgen.toml):")
 	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
-	fmt.Fprintln(tw, "  name\tclass\ttensile\tyield\tservice limit\tminimum factor\tsource")
+	fmt.Fprintln(tw, "  name\tclass\ttensile\tyield\tcode S\tservice limit\tminimum factor\tsource")
 	for _, name := range env.Materials.Names() {
 		m, _ := env.Materials.Lookup(name)
 		yield := "-"
@@ -53,14 +54,19 @@ func ExplainMaterials(w io.Writer, env *Env) {
 		if m.Printable {
 			class += ", printable"
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s MPa\t%s\t%s °C\t%s\t%s\n", m.Name, class, units.Format(m.TensileStrength/1e6, 3), yield,
+		code := "-"
+		if m.Class != Plastic {
+			code = units.Format(codeStress(m)/1e6, 3) + " MPa"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s MPa\t%s\t%s\t%s °C\t%s\t%s\n", m.Name, class, units.Format(m.TensileStrength/1e6, 3), yield, code,
 			units.Format(m.TemperatureLimit()-273.15, 3), units.Format(env.Safety.MinimumFor(m), 2), m.Source)
 	}
 	_ = tw.Flush()
 	fmt.Fprintln(w, "\nservice limit: the continuous-use temperature (common practice), or the heat deflection temperature when lower,")
 	fmt.Fprintln(w, "that the hot-discharge caution holds discharge temperatures against; minimum factor: the site's minimum safety")
 	fmt.Fprintln(w, "factor for the material's class (specgen.toml [safety]); a dash under yield: no yield point, so safety factors")
-	fmt.Fprintln(w, "use the tensile strength.")
+	fmt.Fprintln(w, "use the tensile strength; code S: the allowable stress of the code figures (code_allowable_pressure), the row's")
+	fmt.Fprintln(w, "allowable_stress or the lesser of tensile/3.5 and 2/3 of yield; a dash: a plastic, which gets no code figure.")
 	fmt.Fprintln(w, "\nOther names a block may use (case, spaces and underscores do not matter):")
 	for _, name := range env.Materials.Names() {
 		if m, _ := env.Materials.Lookup(name); len(m.Aliases) > 0 {
@@ -74,6 +80,9 @@ func ExplainMaterials(w io.Writer, env *Env) {
 func ExplainKind(w io.Writer, cat *calc.Catalog, k *calc.Kind) {
 	fmt.Fprintf(w, "%s: %s\n\n", k.Name, k.Summary)
 	fmt.Fprintln(w, strings.TrimSpace(k.Doc))
+	if k.FreeInputs {
+		return
+	}
 	fmt.Fprintln(w, "\nInputs (pressures are gauge unless marked absolute: \"bar(a)\", \"psia\"; \"atm\" is absolute):")
 	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(tw, "  name\tdefault\tunits\tmeaning")
@@ -124,15 +133,19 @@ func inputHint(cat *calc.Catalog, in calc.InputSpec) string {
 	case calc.Name:
 		return "name"
 	}
+	hint := in.Dim.String() + ": " + in.Dim.Examples()
 	if in.Dim == units.Dimensionless {
-		return "number"
+		hint = "number"
 	}
-	return in.Dim.String() + ": " + in.Dim.Examples()
+	if in.List {
+		hint += "; one value, or a list"
+	}
+	return hint
 }
 
 func linkKinds(cat *calc.Catalog, in calc.InputSpec) string {
 	if in.LinkRoles == 0 {
 		return ""
 	}
-	return " (" + strings.Join(cat.KindsWith(in.LinkRoles), ", ") + ")"
+	return " (" + strings.Join(cat.KindsAccepted(in), ", ") + ")"
 }

@@ -20,10 +20,12 @@ var flywheelKind = calc.Kind{
 	Doc:     flywheelDoc,
 	Inputs: []calc.InputSpec{
 		{Name: "source", Type: calc.LinkList, LinkRoles: calc.Crank, Meaning: "the compressor or motor block whose crankshaft the flywheel is on, or a list of the blocks on one crankshaft, taken evenly phased in the order listed"},
-		{Name: "speed_fluctuation", Dim: units.Dimensionless, Range: calc.Between(1e-4, 0.5),
-			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for belt-driven compressors: common practice)"},
+		{Name: "speed_fluctuation", Dim: units.Dimensionless, Optional: true, Range: calc.Between(1e-4, 0.5),
+			Meaning: "coefficient of speed fluctuation Cs = (ω_max − ω_min)/ω_mean allowed, 0.0001 to 0.5 (0.05 or less is usual for belt-driven compressors: common practice), to size the flywheel; or give diameter"},
+		{Name: "diameter", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 10),
+			Meaning: "outside diameter of the disc or rim the builder has, to check the speed fluctuation it holds; or give speed_fluctuation"},
 		{Name: "density", Dim: units.Density, Optional: true, Range: calc.Between(minSolidDensity, 1e5), Meaning: "density of the flywheel material; give density or material"},
-		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
+		{Name: "material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "flywheel material, for its density, Poisson's ratio and strength; give material or density"},
 		{Name: "thickness", Dim: units.Length, Range: calc.Between(minPartSize, 10), Meaning: "axial thickness of the disc, or axial width of the rim"},
 		{Name: "shape", Type: calc.Name, Default: "disc", Choices: func(any) []string { return []string{"disc", "rim"} },
 			Meaning: "disc: a solid disc of uniform thickness; rim: a ring of radial depth rim_depth with no web or hub"},
@@ -34,7 +36,8 @@ var flywheelKind = calc.Kind{
 	Results: []calc.ResultSpec{
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy the flywheel stores and gives back over a revolution, from the source's torque"},
 		{Name: "inertia", Dim: units.Inertia, Unit: "kg m2", Meaning: "moment of inertia that holds the speed within the coefficient"},
-		{Name: "diameter", Dim: units.Length, Unit: "mm", Meaning: "outside diameter of the disc or rim with that inertia"},
+		{Name: "speed_fluctuation", Dim: units.Dimensionless, Unit: "", Meaning: "coefficient of speed fluctuation the flywheel holds: as given when sizing, from the diameter when checking"},
+		{Name: "diameter", Dim: units.Length, Unit: "mm", Meaning: "outside diameter of the disc or rim with that inertia: sized, or as given when checking"},
 		{Name: "mass", Dim: units.Mass, Unit: "kg", Meaning: "mass of the disc or rim"},
 		{Name: "rim_speed", Dim: units.Velocity, Unit: "m/s", Meaning: "peripheral speed at the outside diameter, at the mean crank speed"},
 		{Name: "rim_stress", Dim: units.Stress, Unit: "MPa", Meaning: "largest stress from rotation: at the centre of a disc, at the bore of a rim"},
@@ -57,6 +60,14 @@ Source may list several blocks on one crankshaft (the stages of a
 two-stage machine, say): they must turn at one speed, and block k of n is
 taken to reach top dead centre 360°·k/n after the first, as opposed throws
 of two stages do; their torques add.
+
+Two modes
+- Sizing (speed_fluctuation given): the inertia that holds Cs, and the
+  diameter of the disc or rim that has it.
+- Checking (diameter given: the disc or rim the builder has): its
+  inertia from the same shape formulas, and the speed fluctuation it
+  holds, Cs = ΔE / (I·ω²). The other results, trace and chart are the
+  same.
 
 Energy and inertia
 - The drive (or, for a motor, the load) is a constant torque equal to the
@@ -104,8 +115,9 @@ Chart: speed, the crank speed over a revolution,
 // flywheelInput is a flywheel block's inputs in SI.
 type flywheelInput struct {
 	sources  []*calc.Linked
-	names    string // the sources' ids, for traces
-	cs       float64
+	names    string     // the sources' ids, for traces
+	cs       float64    // given, when sizing
+	diameter float64    // given, when checking
 	omega    float64    // mean crank speed, rad/s
 	torque   calc.Curve // the source's load torque over one revolution
 	density  float64
@@ -118,10 +130,16 @@ type flywheelInput struct {
 
 // readFlywheelInput applies the checks that single-input ranges cannot.
 func readFlywheelInput(in *calc.Inputs) (flywheelInput, error) {
-	f := flywheelInput{sources: in.LinksOf("source"), cs: in.Value("speed_fluctuation"),
+	f := flywheelInput{sources: in.LinksOf("source"), cs: in.Value("speed_fluctuation"), diameter: in.Value("diameter"),
 		width: in.Value("thickness"), rim: in.NameOf("shape") == "rim", poisson: defaultPoisson}
 	if len(f.sources) == 0 {
 		return f, &calc.InputError{Key: "source", Message: "missing: name the compressor or motor block the flywheel is on, e.g. source = \"low\""}
+	}
+	switch {
+	case in.Has("speed_fluctuation") && in.Has("diameter"):
+		return f, &calc.InputError{Key: "diameter", Message: "give either speed_fluctuation (to size the flywheel) or diameter (to check the one you have), not both"}
+	case !in.Has("speed_fluctuation") && !in.Has("diameter"):
+		return f, &calc.InputError{Key: "speed_fluctuation", Message: "missing: give speed_fluctuation (e.g. 0.05) to size the flywheel, or diameter (e.g. \"250 mm\") to check the one you have"}
 	}
 	switch {
 	case in.Has("density") && in.Has("material"):
@@ -272,19 +290,33 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 		return nil, &calc.InputError{Key: "source", Message: fmt.Sprintf("%s: a steady torque (no energy fluctuation) needs no flywheel", f.names)}
 	}
 	w := f.omega
-	inertia := de / (f.cs * w * w)
-
 	cust := in.Customary()
 	mm, kgm2 := display.TraceIn(cust, "mm"), display.TraceIn(cust, "kg m2")
 	rho := display.TraceIn(cust, "kg/m3")(f.density)
 	rads := display.Number(w, "rad/s")
 	nu := display.Number(f.poisson, "")
 	var (
-		diameter, mass, stress float64
-		dTrace, mTrace, sTrace calc.Trace
+		diameter, mass, stress, inertia, cs float64
+		dTrace, mTrace, sTrace, iTrace      calc.Trace
 	)
+	csTrace := calc.Trace{Formula: "Cs (given)", Substituted: "= " + display.Number(f.cs, "")}
+	if f.diameter > 0 {
+		var err error
+		if inertia, iTrace, err = f.inertiaOf(mm, rho); err != nil {
+			return nil, err
+		}
+		cs = de / (inertia * w * w)
+		csTrace = calc.Trace{Formula: "Cs = ΔE / (I·ω²)", Substituted: "= " + display.Number(de, "J") + " / (" + kgm2(inertia) + " · (" + rads + ")²)"}
+	} else {
+		cs = f.cs
+		inertia = de / (cs * w * w)
+		iTrace = calc.Trace{Formula: "I = ΔE / (Cs·ω²)", Substituted: "= " + display.Number(de, "J") + " / (" + display.Number(cs, "") + " · (" + rads + ")²)"}
+	}
 	if f.rim {
 		dm := rimDiameter(inertia, f.density, f.width, f.depth)
+		if f.diameter > 0 {
+			dm = f.diameter - f.depth
+		}
 		if dm <= f.depth {
 			return nil, &calc.InputError{Key: "rim_depth", Message: fmt.Sprintf(
 				"a rim %s deep and %s wide would need a mean diameter of %s, no more than its depth: it has no bore; use shape = \"disc\" or a shallower rim",
@@ -300,7 +332,10 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 		sTrace = calc.Trace{Formula: "σ = (3 + ν)/4 · ρ·ω²·(b² + (1 − ν)/(3 + ν)·a²), hoop stress at the bore (rotating ring, Timoshenko)", Substituted: "= (3 + " + nu + ")/4 · " + rho + " · (" + rads + ")² · ((" + mm(b) + ")² + (1 − " + nu + ")/(3 + " + nu + ") · (" + mm(a) + ")²)"}
 
 	} else {
-		diameter = math.Pow(32*inertia/(f.density*math.Pi*f.width), 0.25)
+		diameter = f.diameter
+		if diameter == 0 {
+			diameter = math.Pow(32*inertia/(f.density*math.Pi*f.width), 0.25)
+		}
 		r := diameter / 2
 		mass = f.density * math.Pi * r * r * f.width
 		stress = (3 + f.poisson) / 8 * f.density * w * w * r * r
@@ -309,9 +344,13 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 		sTrace = calc.Trace{Formula: "σ = (3 + ν)/8 · ρ·ω²·R², at the centre (rotating solid disc, Timoshenko)", Substituted: "= (3 + " + nu + ")/8 · " + rho + " · (" + rads + ")² · (" + mm(r) + ")²"}
 
 	}
+	if f.diameter > 0 {
+		diameter, dTrace = f.diameter, calc.Trace{Formula: "D (given)", Substituted: "= " + mm(f.diameter)}
+	}
 	res := []calc.Result{
 		{Name: "energy_fluctuation", Value: de, Dim: units.Energy, Trace: deTrace},
-		{Name: "inertia", Value: inertia, Dim: units.Inertia, Trace: calc.Trace{Formula: "I = ΔE / (Cs·ω²)", Substituted: "= " + display.Number(de, "J") + " / (" + display.Number(f.cs, "") + " · (" + rads + ")²)"}},
+		{Name: "inertia", Value: inertia, Dim: units.Inertia, Trace: iTrace},
+		{Name: "speed_fluctuation", Value: cs, Dim: units.Dimensionless, Trace: csTrace},
 		{Name: "diameter", Value: diameter, Dim: units.Length, Trace: dTrace},
 		{Name: "mass", Value: mass, Dim: units.Mass, Trace: mTrace},
 		{Name: "rim_speed", Value: w * diameter / 2, Dim: units.Velocity, Trace: calc.Trace{Formula: "v = ω·D/2", Substituted: "= " + rads + " · " + mm(diameter) + " / 2"}},
@@ -322,6 +361,22 @@ func evaluateFlywheel(in *calc.Inputs) (*calc.Outcome, error) {
 		res = append(res, calc.Result{Name: "safety_factor", Value: strength / stress, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "n = S / σ", Substituted: "= " + display.Number(strength/1e6, "MPa") + " / " + display.Number(stress/1e6, "MPa") + " (" + name + ", " + f.material.Label + ")"}})
 	}
 	return &calc.Outcome{Results: res}, nil
+}
+
+// inertiaOf is the inertia of the disc or rim of the given diameter, for
+// checking it.
+func (f flywheelInput) inertiaOf(mm func(float64) string, rho string) (float64, calc.Trace, error) {
+	if !f.rim {
+		return f.density * math.Pi * f.width * math.Pow(f.diameter, 4) / 32, calc.Trace{Formula: "I = ρ·π·t·D⁴/32 (solid disc)",
+			Substituted: "= " + rho + " · π · " + mm(f.width) + " · (" + mm(f.diameter) + ")⁴ / 32"}, nil
+	}
+	dm, h := f.diameter-f.depth, f.depth
+	if dm <= h {
+		return 0, calc.Trace{}, &calc.InputError{Key: "rim_depth", Message: fmt.Sprintf(
+			"a rim %s deep leaves no bore in a %s diameter (the bore D − 2h must be positive); use shape = \"disc\" or a shallower rim", mm(h), mm(f.diameter))}
+	}
+	return f.density * math.Pi * f.width * h * dm * (dm*dm + h*h) / 4, calc.Trace{Formula: "I = ρ·π·t·h·Dm·(Dm² + h²)/4, Dm = D − h (ring, no web or hub)",
+		Substituted: "= " + rho + " · π · " + mm(f.width) + " · " + mm(h) + " · " + mm(dm) + " · ((" + mm(dm) + ")² + (" + mm(h) + ")²) / 4"}, nil
 }
 
 // crankSpeed returns the crank speed at each sample of the source's torque
@@ -349,7 +404,7 @@ func flywheelChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart
 	if err != nil {
 		return nil, err
 	}
-	inertia := out.ResultValue("inertia")
+	inertia, cs := out.ResultValue("inertia"), out.ResultValue("speed_fluctuation")
 	speed := f.crankSpeed(inertia)
 	low, high := extent(speed)
 	// The swing is a few per cent of the speed: drawn about the mean, it
@@ -359,16 +414,16 @@ func flywheelChart(name string, in *calc.Inputs, out *calc.Outcome) (*calc.Chart
 		excess[i] = w - f.omega
 	}
 	rpm := func(v float64) string { return display.Number(v*30/math.Pi, "rpm") }
-	half := f.cs * f.omega / 2
+	half := cs * f.omega / 2
 	return &calc.Chart{
 		Title: "Crank speed over one revolution",
 		Desc: fmt.Sprintf("The crank speed of %s with the flywheel's %s kg m² over one revolution from top dead centre, against a constant torque, drawn as its difference from the mean %s: it swings from %s to %s, a fluctuation of %s against the %s asked for, whose limits are marked.",
-			f.names, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(f.cs, 3)),
+			f.names, units.Format(inertia, 3), rpm(f.omega), rpm(low), rpm(high), units.Format((high-low)/f.omega, 3), units.Format(cs, 3)),
 		X: calc.Axis{Label: "Crank angle from top dead centre", Dim: units.Angle, Unit: "deg"},
 		Panels: []calc.Panel{{
 			Y:      calc.Axis{Label: "Speed above mean", Dim: units.RotationalSpeed, Unit: "rpm"},
 			Series: []calc.Series{{Name: "crank speed", X: f.torque.X, Y: excess}},
-			Marks:  []calc.Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "+Cs/2"}, {Value: -half, Label: "−Cs/2"}},
+			Marks:  []calc.Mark{{Value: 0, Label: "mean"}, {Value: half, Label: "upper limit"}, {Value: -half, Label: "lower limit"}},
 		}},
 	}, nil
 }

@@ -15,16 +15,9 @@ import (
 // block's own energy_fluctuation ("source result"), and the inertia of the
 // disc or ring with the model's mass and diameter by the elementary
 // formulas ½·m·R² ("½·m·R²") and ½·m·(a² + b²) ("½·m·(a² + b²)").
-func flywheelReference(t *testing.T, basis string, set *calc.Set, e *calc.Evaluated) float64 {
+func flywheelReference(t *testing.T, ch *caseCheck, set *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	result := func(name string) float64 {
-		r, ok := e.Result(name)
-		if !ok {
-			t.Fatalf("block %s has no %s", e.Block.ID, name)
-		}
-		return r.Value
-	}
-	switch basis {
+	switch ch.Basis {
 	case "source result":
 		for _, in := range e.Inputs {
 			if in.Name == "source" {
@@ -38,20 +31,16 @@ func flywheelReference(t *testing.T, basis string, set *calc.Set, e *calc.Evalua
 		}
 		t.Fatalf("block %s has no source", e.Block.ID)
 	case "½·m·R²":
-		r := result("diameter") / 2
-		return result("mass") * r * r / 2
+		r := mustResult(t, e, "diameter") / 2
+		return mustResult(t, e, "mass") * r * r / 2
 	case "½·m·(a² + b²)":
 		depth, _ := inputValue(t, e, "rim_depth")
-		b := result("diameter") / 2
+		b := mustResult(t, e, "diameter") / 2
 		a := b - depth
-		return result("mass") * (a*a + b*b) / 2
+		return mustResult(t, e, "mass") * (a*a + b*b) / 2
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestFlywheelReference(t *testing.T) {
-	runBlockCases(t, "flywheel", 3, flywheelReference)
 }
 
 // flywheelSite is a source block (the bench compressor, changed by

@@ -80,10 +80,20 @@ func FuzzParseBlock(f *testing.F) {
 		}
 		b, err := testCatalog.ParseBlock("content/index.md", fenceLine, src)
 		if err != nil {
-			if b != nil {
-				t.Fatal("ParseBlock returned a block and an error")
-			}
 			checkLines("ParseBlock", err)
+			if b != nil {
+				if !b.Broken || b.ID == "" {
+					t.Fatal("ParseBlock returned a block with its error, not marked Broken or without an id")
+				}
+				// A broken block's inputs are checked; it is never evaluated.
+				set, err := testCatalog.Evaluate([]*calc.Block{b}, calc.Options{})
+				if err != nil {
+					checkLines("Evaluate of a broken block", err)
+				}
+				if _, ok := set.Lookup(b.ID); ok {
+					t.Fatal("a broken block was evaluated")
+				}
+			}
 			return
 		}
 		for _, c := range b.Expect {

@@ -84,13 +84,16 @@ func catalogWith(t testing.TB, env *Env) *calc.Catalog {
 	return c
 }
 
-// requiredInput returns the SI value of e's input name, given or default,
-// and fails the test when the block has none.
-func requiredInput(t *testing.T, e *calc.Evaluated, name string) float64 {
+// mustMaterials returns the built-in table with rows over it.
+func mustMaterials(t *testing.T, rows map[string]MaterialRow) *Materials {
 	t.Helper()
-	v, ok := inputValue(t, e, name)
-	if !ok {
-		t.Fatalf("block %s has no input %s", e.Block.ID, name)
+	base, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
 	}
-	return v
+	m, err := base.With(rows, nil, "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
 }

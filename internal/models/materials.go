@@ -41,7 +41,13 @@ type Material struct {
 	PoissonRatio                                   float64
 	// Temperature limits, K. HeatDeflection is 0 for metals.
 	ServiceTemperature, HeatDeflection float64
-	Source                             string // where the typical values come from
+	// AllowableStress is the row's own allowable stress for the code
+	// figures of pressure parts, Pa; 0 to take it from the strengths.
+	// AllowableStressTemperature is the highest metal temperature, K, at
+	// which the ordinary-temperature allowable stress holds; 0 for the
+	// service temperature.
+	AllowableStress, AllowableStressTemperature float64
+	Source                                      string // where the typical values come from
 	// Aliases are other names users write for the material ("nylon" for
 	// pa12); a block may name the material by any of them.
 	Aliases []string
@@ -80,8 +86,9 @@ var materialsTOML string
 type MaterialRow map[string]any
 
 var materialKeys = []string{
-	"aliases", "brittle", "class", "density", "elastic_modulus", "heat_deflection_temperature", "label", "poisson_ratio",
-	"printable", "service_temperature", "source", "tensile_strength", "yield_strength",
+	"aliases", "allowable_stress", "allowable_stress_temperature", "brittle", "class", "density", "elastic_modulus",
+	"heat_deflection_temperature", "label", "poisson_ratio", "printable", "service_temperature", "source",
+	"tensile_strength", "yield_strength",
 }
 
 // builtinMaterials is materials.toml, read once; a test keeps it valid.
@@ -151,13 +158,24 @@ func (m *Materials) With(rows map[string]MaterialRow, lines map[string]int, file
 					Msg: "a new material needs " + strings.Join(missing, ", ") + " (keys: " + strings.Join(materialKeys, ", ") + ")"})
 			}
 		}
-		if mat.YieldStrength > mat.TensileStrength && mat.TensileStrength > 0 {
-			key := "yield_strength"
+		// A stress above the tensile strength is blamed on the key the row
+		// sets, the stress or else the tensile strength.
+		for _, c := range []struct {
+			key, what, why string
+			value          float64
+		}{
+			{"yield_strength", "yield strength", "a material yields before it breaks", mat.YieldStrength},
+			{"allowable_stress", "allowable stress", "the code figures divide the tensile strength by a factor", mat.AllowableStress},
+		} {
+			if c.value <= mat.TensileStrength || mat.TensileStrength <= 0 {
+				continue
+			}
+			key := c.key
 			if _, ok := row[key]; !ok {
 				key = "tensile_strength"
 			}
-			fail(key, fmt.Sprintf("yield strength %s is above tensile strength %s; a material yields before it breaks",
-				display.Number(mat.YieldStrength/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa")))
+			fail(key, fmt.Sprintf("%s %s is above tensile strength %s; %s",
+				c.what, display.Number(c.value/1e6, "MPa"), display.Number(mat.TensileStrength/1e6, "MPa"), c.why))
 		}
 		if mat.Label == "" {
 			mat.Label = name
@@ -257,6 +275,7 @@ var materialSpans = map[string]struct {
 }{
 	"tensile_strength": {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
 	"yield_strength":   {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
+	"allowable_stress": {0.1e6, 10e9, 1e6, "MPa", "from soft foams to the strongest steel wire"},
 	"elastic_modulus":  {1e6, 1.2e12, 1e9, "GPa", "from elastomers to diamond"},
 	"density":          {10, 25e3, 1e3, "g/cm3", "from foams to the densest metals"},
 }
@@ -361,6 +380,10 @@ func (m *Material) set(key string, v any) error {
 		return temperature(&m.ServiceTemperature)
 	case "heat_deflection_temperature":
 		return temperature(&m.HeatDeflection)
+	case "allowable_stress":
+		return quantity(units.Stress, &m.AllowableStress)
+	case "allowable_stress_temperature":
+		return temperature(&m.AllowableStressTemperature)
 	case "poisson_ratio":
 		f, ok := v.(float64)
 		if !ok || f <= 0 || f >= 0.5 {
@@ -384,10 +407,48 @@ func (m *Materials) Lookup(name string) (Material, error) {
 		return m.byName[resolved], nil
 	}
 	names := m.Names()
-	if s := calc.Suggest(name, names); s != "" {
+	if s := m.Suggest(name); s != "" {
 		return Material{}, fmt.Errorf("unknown material %q; did you mean %q? (materials: %s)", name, s, strings.Join(names, ", "))
 	}
 	return Material{}, fmt.Errorf("unknown material %q; materials: %s (add your own under [materials] in specgen.toml)", name, strings.Join(names, ", "))
+}
+
+// Suggest proposes the material nearest in spelling to a name the table
+// lacks, among those of the class the name is written for: a steel's name
+// ("a36", "1018") gets a metal, never a plastic, and a plastic's a plastic.
+func (m *Materials) Suggest(name string) string {
+	class, known := writtenClass(name)
+	var names []string
+	for _, n := range m.Names() {
+		if !known || m.byName[n].Class == class {
+			names = append(names, n)
+		}
+	}
+	return calc.Suggest(name, names)
+}
+
+// metalName and plasticName match what people write for metals (steel
+// grades such as S235, St37, A36 and 1018, alloys, "ms" for mild steel)
+// and for plastics.
+var (
+	metalName   = regexp.MustCompile(`(?i)steel|stainless|iron|alu|brass|bronze|copper|metal|aisi|astm|^en-|^sa-?[0-9]|^a-?[0-9]|^st?-?[0-9]|^ss|^ms$|^cw|^[0-9]+([.-]|$)`)
+	plasticName = regexp.MustCompile(`(?i)pla|petg|pet|abs|asa|nylon|^pa-?[0-9]|^pc|pmma|acrylic|pvc|pe$|hdpe|pom|acetal|delrin|ptfe|peek|resin|tpu|plastic|polymer|poly`)
+)
+
+// writtenClass is the class of material name is written for, when it says.
+func writtenClass(name string) (MaterialClass, bool) {
+	switch {
+	case metalName.MatchString(name) && !plasticName.MatchString(name):
+		return Metal, true
+	case plasticName.MatchString(name) && !metalName.MatchString(name):
+		return Plastic, true
+	}
+	return "", false
+}
+
+// suggestMaterial is the Suggest of material inputs.
+func suggestMaterial(env any, text string) string {
+	return siteEnv(env).Materials.Suggest(text)
 }
 
 // Names lists the materials, sorted.

@@ -72,7 +72,7 @@ func TestBuiltinMaterials(t *testing.T) {
 }
 
 // TestMaterialMinimums checks the rows that quote a standard's minimum
-// strengths against testdata/reference/materials.
+// strengths against testdata/reference/tables/material-minimums.toml.
 func TestMaterialMinimums(t *testing.T) {
 	mats, err := DefaultMaterials()
 	if err != nil {
@@ -86,7 +86,7 @@ func TestMaterialMinimums(t *testing.T) {
 			Tolerance        string
 		}
 	}
-	md, err := toml.DecodeFile("../../testdata/reference/materials/standard-minimums.toml", &ref)
+	md, err := toml.DecodeFile("../../testdata/reference/tables/material-minimums.toml", &ref)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -355,5 +355,32 @@ func wantMaterialErrors(t *testing.T, base *Materials, cases []materialErrorCase
 				}
 			}
 		})
+	}
+}
+
+// TestMaterialSuggestionsStayInClass: a name the table lacks gets a
+// suggestion of the class it is written for, never a plastic for a steel
+// grade ("a36" is one letter from "abs") nor a metal for a plastic.
+func TestMaterialSuggestionsStayInClass(t *testing.T) {
+	m, err := DefaultMaterials()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name  string
+		class MaterialClass
+		want  string
+	}{
+		{"a36", Metal, ""}, {"1018", Metal, ""}, {"ms", Metal, ""}, {"sa-516", Metal, "s235"}, {"st37", Metal, "s235"},
+		{"alu", Metal, "aluminium-6061-t6"}, {"stainless-316", Metal, "stainless-304"}, {"bronze", Metal, "brass"},
+		{"pvc", Plastic, "pc"}, {"petg-cf", Plastic, "petg"}, {"pa11", Plastic, "pa12"},
+	} {
+		got := m.Suggest(c.name)
+		if got != c.want {
+			t.Errorf("Suggest(%q) = %q, want %q", c.name, got, c.want)
+		}
+		if got != "" && m.byName[got].Class != c.class {
+			t.Errorf("Suggest(%q) = %q, a %s for a %s name", c.name, got, m.byName[got].Class, c.class)
+		}
 	}
 }

@@ -264,7 +264,7 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 		out.Curves = motorCurves(c, gas, steps)
 	}
 	if pe < c.pa {
-		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Notice, Rule: "over-expansion", Message: fmt.Sprintf(
+		out.Cautions = append(out.Cautions, calc.CautionNote{Level: calc.Notice, Rule: "over-expansion", Result: "expansion_pressure", Message: fmt.Sprintf(
 			"The air expands to %s, below ambient %s, before the exhaust opens: the end of each stroke takes work back. "+
 				"A later cut-off gives more work for a little more air.", bara(pe), bara(c.pa))})
 	}

@@ -70,23 +70,23 @@ func stepExhaust(pe, te, pa, ta, v0, v2 float64) float64 {
 // the enclosed area times the cylinders ("pv-area", J per revolution),
 // times the speed in rev/s ("pv-area · N") or over 2π ("pv-area / 2π");
 // and "energy-balance", the exhaust temperature by stepExhaust.
-func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func motorReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 { return requiredInput(t, e, name) }
+	get := func(name string) float64 { return mustInput(t, e, name) }
 	bore := get("bore")
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {
-		stroke = 2 * get("crank_radius")
+		stroke = 2 * mustInput(t, e, "crank_radius")
 	}
 	swept := math.Pi / 4 * bore * bore * stroke
 	clearance, ok := inputValue(t, e, "clearance_volume")
 	if !ok {
-		clearance = get("clearance_ratio") * swept
+		clearance = mustInput(t, e, "clearance_ratio") * swept
 	}
 	v1 := clearance + get("cutoff")*swept
 	ps, n := get("supply_pressure"), get("polytropic_index")
 	work := get("cylinders") * pvArea(clearance, v1, clearance+swept, ps, e.Ambient, n)
-	switch basis {
+	switch ch.Basis {
 	case "energy-balance":
 		pe := ps * math.Pow(v1/(clearance+swept), n)
 		ts := get("supply_temperature")
@@ -94,16 +94,12 @@ func motorReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) 
 	case "pv-area":
 		return work
 	case "pv-area · N":
-		return work * get("speed") / (2 * math.Pi)
+		return work * mustInput(t, e, "speed") / (2 * math.Pi)
 	case "pv-area / 2π":
 		return work / (2 * math.Pi)
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestMotorReference(t *testing.T) {
-	runBlockCases(t, "motor", 3, motorReference)
 }
 
 // TestPVArea checks the test's own integration on a rectangle and on the

@@ -17,14 +17,14 @@ var multistageKind = calc.Kind{
 	Summary:  "N compression stages with intercooling: interstage pressures, discharge temperature, specific work and power against one stage",
 	Doc:      multistageDoc,
 	Roles:    calc.HoldsPressure,
-	LinkHint: "a multistage block has no cylinders: name the compressor block of the stage that delivers",
+	LinkHint: "a multistage block has no cylinders: name the compressor block of the stage that delivers, or the machine block",
 	Inputs: append([]calc.InputSpec{
 		{Name: "stages", Dim: units.Dimensionless, Range: calc.Between(2, maxStages), Meaning: "number of compression stages, a whole number 2 to 6"},
 		{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the last stage delivers against, up to 1 GPa"},
 	}, append(cylinderInputs("inlet_pressure", "inlet_temperature", "polytropic_index"),
 		calc.InputSpec{Name: "intercooled_temperature", Dim: units.Temperature, Optional: true, Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature leaving each intercooler; default: the inlet temperature (perfect intercooling)"},
 		calc.InputSpec{Name: "mass_flow", Dim: units.MassFlow, Optional: true, Range: positiveUpTo(1e3), Meaning: "mass of air compressed per unit time, for total_power; or give supply"},
-		calc.InputSpec{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow; or give mass_flow"},
+		calc.InputSpec{Name: "supply", Type: calc.Link, Optional: true, LinkRoles: calc.Delivers, Meaning: "id of a compressor block whose free air delivery at its inlet conditions gives the mass flow, or of a machine block whose mass flow it is; or give mass_flow"},
 	)...),
 	Results: append(append([]calc.ResultSpec{
 		{Name: "stage_pressure_ratio", Dim: units.Dimensionless, Unit: "", Meaning: "delivery over suction pressure of each stage, all equal"},
@@ -59,8 +59,15 @@ Assumptions
   pressure to T_ic (default T1: perfect intercooling).
 - Equal stage pressure ratios. With perfect intercooling this is the split
   that needs least total work (set the derivative of the total work with
-  respect to each interstage pressure to zero). With T_ic ≠ T1 it is close to,
-  but not exactly, the optimum.
+  respect to each interstage pressure to zero). With T_ic ≠ T1 equal ratios
+  are close to, but not exactly, the least work: for two stages the same
+  derivative gives T1·r1^((n−1)/n) = T_ic·r2^((n−1)/n), that is
+    r1/r2 = (T_ic/T1)^(n/(n−1))
+  so a warm intercooler (T_ic > T1) moves ratio to the first stage and the
+  best interstage pressure up.
+- This is the ideal split study. The pressures built cylinders run at are
+  where the first stage's delivered mass equals what the next draws in; the
+  machine kind solves them from the stage blocks (specgen explain machine).
 - Air is an ideal gas with R = 287.05 J/(kg K) (dry air, ISO 2533). Above
   about 50 bar real air departs from it by a few per cent and more (its
   compressibility factor; common practice), which is not modelled: the
@@ -75,7 +82,8 @@ Model
   w_1 = n/(n−1)·R·T1·((p2/p1)^((n−1)/n) − 1)     in one stage
   (n = 1: R·T·ln r per stage)
   P = ṁ·w, with ṁ given as mass_flow, or from the supply compressor's free
-  air delivery at its inlet conditions: ṁ = FAD·p_s/(R·T_s).
+  air delivery at its inlet conditions: ṁ = FAD·p_s/(R·T_s), or a supply
+  machine's mass_flow.
   Chart: stages, the air temperature over pressure along the staged path
   (compression, then cooling at constant pressure) against one stage (dashed).`
 
@@ -133,6 +141,9 @@ func readMultistageInput(in *calc.Inputs) (multistageInput, error) {
 	case in.Has("mass_flow"):
 		m.flow = in.Value("mass_flow")
 		m.flowFrom = "ṁ given"
+	case supply != nil && supply.Results["mass_flow"] > 0:
+		m.flow = supply.Results["mass_flow"]
+		m.flowFrom = "ṁ = mass_flow of supply " + supply.ID
 	case supply != nil:
 		fad := supply.Results["free_air_delivery"]
 		ps, ts := supply.Ambient, supply.Inputs["inlet_temperature"]
@@ -254,7 +265,11 @@ func multistageChart(name string, in *calc.Inputs, _ *calc.Outcome) (*calc.Chart
 			// The intercooler: constant pressure, down to T_ic.
 			pOut := pIn * r
 			staged.X, staged.Y = append(staged.X, pOut), append(staged.Y, m.tic)
-			marks = append(marks, calc.Mark{Value: pOut, Vertical: true, Label: fmt.Sprintf("p_%d", k+1)})
+			label := "interstage"
+			if m.stages > 2 {
+				label = fmt.Sprintf("interstage %d", k+1)
+			}
+			marks = append(marks, calc.Mark{Value: pOut, Vertical: true, Label: label})
 		}
 	}
 	single := calc.Series{Name: "one stage", Style: calc.Dashed}

@@ -10,7 +10,7 @@ import (
 	"github.com/millrace-workshop/specgen/internal/units"
 )
 
-// sliderCrankCase is testdata/reference/compressor/slidercrank/*.toml:
+// sliderCrankCase is testdata/reference/tables/slider-crank-*.toml:
 // piston positions worked by hand.
 type sliderCrankCase struct {
 	Source      string
@@ -33,7 +33,7 @@ func mustParse(t *testing.T, s string, dim units.Dimension) float64 {
 }
 
 func TestSliderCrankPosition(t *testing.T) {
-	files, err := filepath.Glob("../../testdata/reference/compressor/slidercrank/*.toml")
+	files, err := filepath.Glob("../../testdata/reference/tables/slider-crank-*.toml")
 	if err != nil || len(files) == 0 {
 		t.Fatalf("no slider-crank reference files: %v", err)
 	}

@@ -11,14 +11,19 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
-// Thread is an ISO general-purpose metric screw thread (ISO 68-1 basic
-// profile), lengths in metres.
+// Thread is a screw thread of the 60° basic profile: ISO general-purpose
+// metric (ISO 68-1) or Unified inch (ASME B1.1), lengths in metres.
 type Thread struct {
-	Name  string  // designation as written in the table: "M8", "M8x1"
+	Name  string  // designation as written in the table: "M8", "M8x1", "1/4-20"
 	D     float64 // nominal (basic major) diameter d
-	Pitch float64 // P
+	Pitch float64 // P; 1/n for n threads per inch
 	Fine  bool    // a fine-pitch thread (ISO 261), written with its pitch
+	// Series is "UNC" or "UNF" for a Unified thread, "" for a metric one.
+	Series string
 }
+
+// Unified reports whether the thread is a Unified inch thread.
+func (t Thread) Unified() bool { return t.Series != "" }
 
 // The basic profile of ISO 68-1: the fundamental triangle has height
 // H = √3/2·P; the flanks meet the pitch line 3/8·H inside the major
@@ -40,12 +45,22 @@ func (t Thread) PitchDiameter() float64 { return t.D - pitchDepth*t.Pitch }
 // for the tensile stress area (the basic minor diameter d1 less H/6).
 func (t Thread) StressDiameter() float64 { return t.D - stressDepth*t.Pitch }
 
-// StressArea is the tensile stress area of ISO 898-1,
-// A_s = π/4·((d2 + d3)/2)².
+// StressArea is the tensile stress area: of ISO 898-1 for a metric thread,
+// A_s = π/4·((d2 + d3)/2)², and of ASME B1.1 for a Unified one,
+// A_s = 0.7854·(D − 0.9743/n)² (from memory).
 func (t Thread) StressArea() float64 {
+	if t.Unified() {
+		m := t.D - unifiedStressDepth*t.Pitch
+		return 0.7854 * m * m
+	}
 	m := (t.PitchDiameter() + t.StressDiameter()) / 2
 	return math.Pi / 4 * m * m
 }
+
+// unifiedStressDepth is (D − the stress diameter)/P of ASME B1.1's tensile
+// stress area: the mean of the pitch diameter and the minor diameter
+// D − 1.299038·P, (0.649519 + 1.299038)/2 = 0.9743.
+const unifiedStressDepth = 0.9743
 
 // InternalShearArea is the area that shears when the internal thread (the
 // nut or tapped hole) strips over an engagement length le: the cylinder at
@@ -99,14 +114,49 @@ func buildThreads() []Thread {
 			out = append(out, Thread{Name: "M" + d + "x" + strconv.FormatFloat(p, 'f', -1, 64), D: mm(d) / 1e3, Pitch: p / 1e3, Fine: true})
 		}
 	}
+	for _, u := range unifiedSizes {
+		for _, series := range []struct {
+			name string
+			tpi  float64
+		}{{"UNC", u.unc}, {"UNF", u.unf}} {
+			out = append(out, Thread{Name: u.size + "-" + strconv.FormatFloat(series.tpi, 'f', -1, 64), D: u.d * inch,
+				Pitch: inch / series.tpi, Fine: series.name == "UNF", Series: series.name})
+		}
+	}
 	return out
 }
 
-// ThreadNames lists the designations of the thread table, by diameter.
+// inch is the inch in metres (exact).
+const inch = 0.0254
+
+// unifiedSizes are the Unified sizes from #4 to 1 in of ASME B1.1 (from
+// memory): the size as written, its basic major diameter in inches
+// (0.060 + 0.013·N for the number sizes) and the threads per inch of its
+// coarse (UNC) and fine (UNF) series.
+var unifiedSizes = []struct {
+	size     string
+	d        float64
+	unc, unf float64
+}{
+	{"#4", 0.112, 40, 48}, {"#5", 0.125, 40, 44}, {"#6", 0.138, 32, 40}, {"#8", 0.164, 32, 36},
+	{"#10", 0.190, 24, 32}, {"#12", 0.216, 24, 28}, {"1/4", 0.25, 20, 28}, {"5/16", 0.3125, 18, 24},
+	{"3/8", 0.375, 16, 24}, {"7/16", 0.4375, 14, 20}, {"1/2", 0.5, 13, 20}, {"9/16", 0.5625, 12, 18},
+	{"5/8", 0.625, 11, 18}, {"3/4", 0.75, 10, 16}, {"7/8", 0.875, 9, 14}, {"1", 1, 8, 12},
+}
+
+// ThreadNames lists the designations of the thread table: the metric
+// threads by diameter, then the Unified ones.
 func ThreadNames() []string {
-	names := make([]string, len(threads))
-	for i, t := range threads {
-		names[i] = t.Name
+	return append(threadNames(false), threadNames(true)...)
+}
+
+// threadNames lists the designations of the metric or the Unified threads.
+func threadNames(unified bool) []string {
+	var names []string
+	for _, t := range threads {
+		if t.Unified() == unified {
+			names = append(names, t.Name)
+		}
 	}
 	return names
 }
@@ -122,12 +172,15 @@ func ThreadNames() []string {
 func LookupThread(name string) (Thread, error) {
 	if d, p, ok := parseDesignation(name); ok {
 		for _, t := range threads {
-			if sameMM(t.D, d) && (p == 0 && !t.Fine || sameMM(t.Pitch, p)) {
+			if !t.Unified() && sameMM(t.D, d) && (p == 0 && !t.Fine || sameMM(t.Pitch, p)) {
 				return t, nil
 			}
 		}
 	}
-	list := "ISO metric threads: " + strings.Join(ThreadNames(), ", ")
+	if looksUnified(name) {
+		return lookupUnified(name)
+	}
+	list := "ISO metric threads: " + strings.Join(threadNames(false), ", ")
 	if why, guess := designationFault(name); why != "" {
 		msg := fmt.Sprintf("%q is not an ISO 261 designation: %s; write M, the nominal diameter in mm and, for a fine thread, \"x\" and the pitch in mm, in plain decimals", name, why)
 		// An exponent or a bare point hides the size meant; a guess would mislead.
@@ -139,7 +192,105 @@ func LookupThread(name string) (Thread, error) {
 	if s := suggestThreads(name); len(s) > 0 {
 		return Thread{}, fmt.Errorf("%q is not known; did you mean %s? (%s)", name, quoteOr(s), list)
 	}
+	if !strings.HasPrefix(strings.ToUpper(strings.TrimSpace(name)), "M") {
+		list += "; Unified threads: " + strings.Join(threadNames(true), ", ")
+		return Thread{}, fmt.Errorf("%q is not known; write a metric thread as \"M8\" (coarse) or \"M8x1\" (fine), a Unified one as \"1/4-20\" (%s)", name, list)
+	}
 	return Thread{}, fmt.Errorf("%q is not known; write a coarse thread as \"M8\" or a fine one as \"M8x1\" (%s)", name, list)
+}
+
+// unifiedDesignation is a Unified designation: an optional "#" or "No.",
+// the size (a number size, a fraction or a whole inch), a hyphen, the
+// threads per inch, and optionally the series.
+var unifiedDesignation = regexp.MustCompile(`(?i)^(?:#|no\.?)?([0-9]+(?:/[0-9]+)?)-([0-9]+)-?(UNC|UNF)?$`)
+
+// looksUnified reports whether name is written as an inch thread: with a
+// fraction, a "#", a hyphen after a leading number, or a series.
+func looksUnified(name string) bool {
+	n := strings.ToUpper(name)
+	return strings.ContainsAny(n, "/#") || strings.Contains(n, "UNC") || strings.Contains(n, "UNF") ||
+		strings.HasPrefix(n, "NO") || leadingNumberHyphen.MatchString(n)
+}
+
+// leadingNumberHyphen matches a designation that starts "10-" or "1 -".
+var leadingNumberHyphen = regexp.MustCompile(`^[0-9]+ ?-`)
+
+// lookupUnified returns the Unified thread name designates, or an error
+// that suggests Unified threads only: the series of the same size, or the
+// sizes on either side.
+func lookupUnified(name string) (Thread, error) {
+	list := "Unified threads, ASME B1.1: " + strings.Join(threadNames(true), ", ")
+	m := unifiedDesignation.FindStringSubmatch(strings.ReplaceAll(strings.TrimSpace(name), " ", ""))
+	if m == nil {
+		return Thread{}, fmt.Errorf("%q is not a Unified designation; write the size, a hyphen and the threads per inch, as \"1/4-20\" or \"#10-32\", optionally with the series (\"1/4-20 UNC\") (%s)", name, list)
+	}
+	size := m[1]
+	if !strings.Contains(size, "/") && size != "1" {
+		size = "#" + size
+	}
+	tpi, series := m[2], strings.ToUpper(m[3])
+	var same []string
+	for _, t := range threads {
+		if !t.Unified() || !strings.HasPrefix(t.Name, size+"-") {
+			continue
+		}
+		if t.Name == size+"-"+tpi {
+			if series != "" && series != t.Series {
+				return Thread{}, fmt.Errorf("%q: %s is the %s series, not %s (%s)", name, t.Name, t.Series, series, list)
+			}
+			return t, nil
+		}
+		same = append(same, t.Name)
+	}
+	if len(same) > 0 {
+		return Thread{}, fmt.Errorf("%q is not known; did you mean %s? (%s)", name, quoteOr(same), list)
+	}
+	if near := nearUnified(size); len(near) > 0 {
+		return Thread{}, fmt.Errorf("%q is not known; did you mean %s? (%s)", name, quoteOr(near), list)
+	}
+	return Thread{}, fmt.Errorf("%q is not known (%s)", name, list)
+}
+
+// nearUnified lists the coarse threads of the Unified sizes on either side
+// of size ("3/16", "#7"), or none when size is no size.
+func nearUnified(size string) []string {
+	var d float64
+	if num, ok := strings.CutPrefix(size, "#"); ok {
+		n, err := strconv.Atoi(num)
+		if err != nil {
+			return nil
+		}
+		d = 0.060 + 0.013*float64(n)
+	} else {
+		a, b, isFraction := strings.Cut(size, "/")
+		x, errA := strconv.ParseFloat(a, 64)
+		y, errB := strconv.ParseFloat(b, 64)
+		switch {
+		case !isFraction:
+			d = x
+		case errA != nil || errB != nil || y == 0:
+			return nil
+		default:
+			d = x / y
+		}
+	}
+	var below, above string
+	for _, u := range unifiedSizes {
+		name := u.size + "-" + strconv.FormatFloat(u.unc, 'f', -1, 64)
+		switch {
+		case u.d < d:
+			below = name
+		case above == "":
+			above = name
+		}
+	}
+	var near []string
+	for _, n := range []string{below, above} {
+		if n != "" {
+			near = append(near, n)
+		}
+	}
+	return near
 }
 
 // sameMM reports whether a length in metres is v millimetres, to a
@@ -223,7 +374,7 @@ func suggestThreads(name string) []string {
 	}
 	d, _, ok := parseDesignation(norm)
 	if !ok {
-		if s := calc.Suggest(name, ThreadNames()); s != "" {
+		if s := calc.Suggest(name, threadNames(false)); s != "" {
 			return []string{s}
 		}
 		return nil
@@ -232,6 +383,7 @@ func suggestThreads(name string) []string {
 	var below, above *Thread
 	for i, t := range threads {
 		switch {
+		case t.Unified():
 		case sameMM(t.D, d):
 			same = append(same, t.Name)
 		case t.Fine:

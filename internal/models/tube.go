@@ -12,8 +12,8 @@ import (
 // tubeKind models a cylinder wall under a pressure difference: Lamé's
 // thick-wall stresses at the bore, the thin-wall hoop stress for
 // comparison and a safety factor; under internal pressure Barlow's burst
-// pressure, under outside pressure (a vacuum vessel) the elastic collapse
-// pressure.
+// pressure and the code figure, under outside pressure (a vacuum vessel)
+// the elastic collapse pressure.
 var tubeKind = calc.Kind{
 	Name:            "tube",
 	Summary:         "a cylinder wall under inside or outside pressure: Lamé thick-wall and thin-wall stresses, Barlow burst pressure and allowable pressure, or collapse pressure under vacuum, safety factors",
@@ -26,23 +26,27 @@ var tubeKind = calc.Kind{
 		{Name: "wall_thickness", Dim: units.Length, Optional: true, Range: calc.Between(minTubeWall, 5), Meaning: "wall thickness, 1 µm or more and less than the inner radius; give wall_thickness or outer_diameter"},
 		{Name: "pressure", Dim: units.Pressure, Range: calc.Between(0, maxTubePressure), Meaning: "pressure inside, up to 1 GPa; the outside is at ambient. Below ambient (a vacuum vessel, e.g. \"-0.9 bar(g)\" or \"20 mbar(a)\") the atmosphere presses the wall in"},
 		{Name: "length", Dim: units.Length, Optional: true, Range: calc.Between(minPartSize, 100), Meaning: "length between the end caps or stiffening rings that hold the tube round, for the collapse pressure of a short tube under outside pressure; default: a long tube"},
-		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Meaning: "material of the wall (specgen explain lists the materials)"},
+		{Name: "material", Type: calc.Name, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the wall (specgen explain lists the materials)"},
 		{Name: "closed_ends", Type: calc.Name, Default: "true", Choices: func(any) []string { return []string{"false", "true"} },
 			Meaning: "true when the tube's own wall carries the end load (capped cylinder); false when tie rods or the frame carry it"},
+		vesselInputs[0], vesselInputs[1], vesselInputs[2],
+		{Name: "volume", Dim: units.Volume, Optional: true, Range: calc.Between(minVesselVolume, 1e3), Meaning: "volume the wall holds, up to 1000 m3: gives the pneumatic-test figures (test_energy, tnt_equivalent, test_distance)"},
+		testInputs[0],
 	},
-	Results: []calc.ResultSpec{
+	Results: append([]calc.ResultSpec{
 		{Name: "hoop_stress", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress at the bore, Lamé (thick wall): the largest stress in the wall"},
 		{Name: "hoop_stress_thin", Dim: units.Stress, Unit: "MPa", Meaning: "circumferential stress by the thin-wall formula p·Di/2t, for comparison"},
 		{Name: "axial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "longitudinal stress from the end load (0 for open ends)"},
 		{Name: "radial_stress", Dim: units.Stress, Unit: "MPa", Meaning: "radial stress at the bore: minus the gauge pressure inside (0 under outside pressure)"},
 		{Name: "burst_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "pressure at which the wall bursts, Barlow's formula on the outside diameter and tensile strength (under internal pressure)"},
 		{Name: "allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "burst pressure over the site's minimum safety factor for the material (under internal pressure)"},
+		{Name: "code_allowable_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "the least pressure of the thin-shell formulas of ASME VIII-1 (UG-27) with the joint efficiency, in the corroded condition (metals only, under internal pressure)"},
 		{Name: "safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
 			Meaning: "design strength over the equivalent stress at the bore (von Mises against yield; the largest principal stress against tensile strength when the material has no yield point)"},
 		{Name: "collapse_pressure", Dim: units.Stress, Unit: "bar", Meaning: "outside-over-inside pressure difference at which the wall buckles elastically (under outside pressure)"},
 		{Name: "external_safety_factor", Dim: units.Dimensionless, Unit: "", Factor: true, FactorMaterial: "material",
 			Meaning: "collapse pressure over the pressure difference across the wall, checked against the site's minimum for buckling (under outside pressure)"},
-	},
+	}, testResults...),
 	Evaluate: evaluateTube,
 }
 
@@ -104,6 +108,40 @@ Burst and allowable pressure (internal pressure only)
   strength; pressure-vessel and piping codes set design stresses from
   both yield and tensile strength with their own factors and usually allow
   less. Where a code applies, its allowable governs.
+
+Code figure (metals)
+  code_allowable_pressure is the lesser of the thin-shell formulas of the
+  common pressure-vessel rules (ASME Section VIII Division 1, UG-27, from
+  memory), with the joint efficiency E (joint_efficiency, default 1.0 for
+  a seamless tube; double-welded butt joints take 1.0 fully radiographed,
+  0.85 spot-radiographed, 0.70 not radiographed, Table UW-12) in the
+  corroded condition: t the wall less corrosion_allowance, R the inside
+  radius plus it.
+    circumferential  P = S·E·t/(R + 0.6·t)    up to t = R/2 (P = 0.385·S·E)
+    longitudinal     P = 2·S·E·t/(R − 0.4·t)  up to t = R/2 (P = 1.25·S·E),
+                     only with closed_ends
+  Beyond its limit a thin formula does not apply; the thick-wall figure of
+  Appendix 1-2 stands in for it, P = S·E·(Z − 1)/(Z + 1) and P = S·E·(Z − 1)
+  with Z = ((R + t)/R)², Lamé's pressures for a bore stress of S.
+  The allowable stress S is the material row's own (allowable_stress), or
+  the lesser of S_u/3.5 and 2/3·S_y on the specified minimum strengths, the
+  basis of those rules at ordinary temperatures (UG-23, from memory).
+  No code figure is given, with the reason in allowable_pressure's
+  working, for plastics (the rules cover metals; fibre-reinforced plastic
+  vessels have rules of their own, unreinforced ones none), and above a
+  material's allowable_stress_temperature (aluminium and copper alloys
+  lose strength from about 100 °C) or its service temperature.
+  design_temperature defaults to 20 °C. The rules compare the working
+  pressure, and a compressor's dead-head pressure, with the lower of
+  allowable_pressure and code_allowable_pressure.
+
+Pneumatic test (with volume)
+  With the volume the wall holds, the tube reports test_energy,
+  tnt_equivalent and test_distance as the tank kind does (specgen explain
+  tank): ASME PCC-2 Article 501 at test_pressure, by default 1.1 ×
+  code_allowable_pressure. Both are for internal pressure: a wall under
+  vacuum takes neither (the pressure-vessel rules have their own chart
+  method for outside pressure, which this kind does not follow).
 
 Collapse under outside pressure (elastic buckling; Roark's Formulas for
 Stress and Strain, 7th ed., Table 15.2, thin tube under uniform lateral
@@ -195,6 +233,15 @@ func readTubeInput(in *calc.Inputs) (tubeInput, error) {
 			"length is for the collapse of a tube under outside pressure; the inside is at %s, above ambient: leave length out",
 			display.GaugeAndAbsolute(c.p+c.ambient, c.ambient, in.Customary()))}
 	}
+	if c.p < 0 {
+		for _, key := range []string{"volume", "test_pressure"} {
+			if in.Has(key) {
+				return c, &calc.InputError{Key: key, Message: fmt.Sprintf(
+					"is for the pneumatic test of a wall under internal pressure; the inside is at %s, below ambient: leave %s out",
+					display.GaugeAndAbsolute(c.p+c.ambient, c.ambient, in.Customary()), key)}
+			}
+		}
+	}
 	name := in.NameOf("material")
 	if name == "" {
 		return c, &calc.InputError{Key: "material", Message: "missing: name the wall's material, e.g. \"s235\" (specgen explain lists them)"}
@@ -215,6 +262,41 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 	if c.p < 0 {
 		return evaluateTubeOutside(in, c), nil
 	}
+	code, err := readVesselCode(in, c, ordinaryTemperature)
+	if err != nil {
+		return nil, err
+	}
+	out := tubeOutcome(in, c, code)
+	if in.Has("volume") {
+		hasCode := len(code.figures) > 0
+		test, err := pneumaticTestResults(in, in.Value("volume"), c.p, out.ResultValue("code_allowable_pressure")-c.ambient, hasCode)
+		if err != nil {
+			return nil, err
+		}
+		out.Results = append(out.Results, test...)
+	} else if in.Has("test_pressure") {
+		return nil, &calc.InputError{Key: "test_pressure", Message: "is given but volume is missing: the pneumatic-test figures need the volume the wall holds"}
+	}
+	return out, nil
+}
+
+// readVesselCode reads a wall's code inputs and works out its shell
+// figures, at a design temperature of fallback unless one is given.
+func readVesselCode(in *calc.Inputs, c tubeInput, fallback float64) (vesselCode, error) {
+	w, noFigure, err := readCodeWall(in, c, fallback)
+	if err != nil {
+		return vesselCode{}, err
+	}
+	code := vesselCode{wall: w, noFigure: noFigure}
+	if noFigure == "" {
+		code.figures = w.shell()
+	}
+	return code, nil
+}
+
+// tubeOutcome is the wall's stresses, burst and allowable pressures, its
+// code figure and its safety factor.
+func tubeOutcome(in *calc.Inputs, c tubeInput, code vesselCode) *calc.Outcome {
 	var (
 		di, do   = 2 * c.ri, 2 * c.ro
 		ri2, ro2 = c.ri * c.ri, c.ro * c.ro
@@ -253,9 +335,14 @@ func evaluateTube(in *calc.Inputs) (*calc.Outcome, error) {
 		{Name: "radial_stress", Value: radial, Dim: units.Stress, Trace: calc.Trace{Formula: "σ_r = −p (at the bore)", Substituted: "= −" + bar(c.p)}},
 		{Name: "burst_pressure", Value: burst + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_burst = 2 · S_u · t / Do (Barlow, outside diameter, tensile strength)", Substituted: "= 2 · " + mpa(c.material.TensileStrength) + " · " + mm(c.t) + " / " + mm(do) + " (" + c.material.Label + ")"}},
 		{Name: "allowable_pressure", Value: allow + c.ambient, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_allow = p_burst / n_min", Substituted: "= " + bar(burst) + " / " + num(c.minFactor) + " (site minimum for " + c.material.Label + ")"}},
-		{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace},
 	}
-	return &calc.Outcome{Results: res}, nil
+	if len(code.figures) > 0 {
+		res = append(res, codeAllowableResult(code.wall, code.figures, c.ambient))
+	} else {
+		res[len(res)-1].Trace.Substituted += "; " + code.noFigure
+	}
+	res = append(res, calc.Result{Name: "safety_factor", Value: factor, Dim: units.Dimensionless, Trace: factorTrace})
+	return &calc.Outcome{Results: res}
 }
 
 // openEndsTrace is the axial stress of a tube whose ends carry no load.

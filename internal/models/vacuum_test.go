@@ -56,17 +56,17 @@ func shoelacePower(swept, c, n, m, p, pd, z, revs float64) float64 {
 // test's integration of the pump-down, or "shoelace-peak", the largest of
 // the test's own indicator-diagram power over 20 000 vessel pressures from
 // the start to the target.
-func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated) float64 {
+func vacuumReference(t *testing.T, ch *caseCheck, _ *calc.Set, e *calc.Evaluated) float64 {
 	t.Helper()
-	get := func(name string) float64 { return requiredInput(t, e, name) }
+	get := func(name string) float64 { return mustInput(t, e, name) }
 	stroke, ok := inputValue(t, e, "stroke")
 	if !ok {
-		stroke = 2 * get("crank_radius")
+		stroke = 2 * mustInput(t, e, "crank_radius")
 	}
-	swept := math.Pi / 4 * math.Pow(get("bore"), 2) * stroke
+	swept := math.Pi / 4 * math.Pow(mustInput(t, e, "bore"), 2) * stroke
 	c, ok := inputValue(t, e, "clearance_ratio")
 	if !ok {
-		c = get("clearance_volume") / swept
+		c = mustInput(t, e, "clearance_volume") / swept
 	}
 	revs := get("speed") / (2 * math.Pi)
 	rate := get("cylinders") * swept * revs
@@ -75,7 +75,7 @@ func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated)
 		p0 = e.Ambient
 	}
 	pd := e.Ambient + get("exhaust_cracking_pressure")
-	switch basis {
+	switch ch.Basis {
 	case "midpoint":
 		return midpointPumpdown(get("vessel_volume"), p0, get("target_pressure"), pd, rate, c, get("reexpansion_index"), get("leak_rate"))
 	case "shoelace-peak":
@@ -87,12 +87,8 @@ func vacuumReference(t *testing.T, basis string, _ *calc.Set, e *calc.Evaluated)
 		}
 		return best
 	}
-	t.Fatalf("unknown basis %q", basis)
+	t.Fatalf("unknown basis %q", ch.Basis)
 	return 0
-}
-
-func TestVacuumReference(t *testing.T) {
-	runBlockCases(t, "vacuum", 4, vacuumReference)
 }
 
 // benchPot is a single-cylinder pump on a 20 L pot; changes replace keys,
@@ -241,5 +237,24 @@ func TestNormalFlows(t *testing.T) {
 		if got, err := e.Format("pumping_speed", unit); err != nil || got != want {
 			t.Errorf("pumping_speed in %s: %q, %v; want %q", unit, got, err, want)
 		}
+	}
+}
+
+// TestVacuumGaugeReading: a target written as a US vacuum gauge reads it,
+// "25 inHg vac", is 25 inHg below ambient: the same block as one whose
+// target is that absolute pressure, 101325 − 25 × 3386.389 = 16665.28 Pa
+// (1 inHg = 3386.389 Pa, NIST SP 811 App. B.8, from memory).
+func TestVacuumGaugeReading(t *testing.T) {
+	pot := func(id, target string) string {
+		return "id = \"" + id + "\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"100 mm\"\n" +
+			"clearance_ratio = 0.05\nspeed = \"1200 rpm\"\nvessel_volume = \"20 L\"\ntarget_pressure = \"" + target + "\"\n"
+	}
+	set := evaluateSources(t, "content/x.md", []string{pot("gauge", "25 inHg vac"), pot("absolute", "16665.284 Pa(a)")})
+	g, _ := set.Lookup("gauge")
+	a, _ := set.Lookup("absolute")
+	gt, _ := g.Result("pumpdown_time")
+	at, _ := a.Result("pumpdown_time")
+	if math.Abs(gt.Value/at.Value-1) > 1e-6 {
+		t.Errorf("pump-down to 25 inHg vac takes %g s, to 16665.284 Pa(a) %g s", gt.Value, at.Value)
 	}
 }

@@ -38,7 +38,7 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkSkipChildren, nil
 	}
 	name := esc(n.Block + "." + n.Result)
-	text := esc(groupFigures(n.Shown))
+	text := esc(shownValue(n.Shown))
 	if n.Shown == "" {
 		// Only reachable when a page is rendered without evaluation.
 		text = "=[" + name + "]"
@@ -118,8 +118,12 @@ func writeCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 	ws(`<header class="sg-calc-head"><`, h, ` class="sg-calc-title" id="`, esc(anchor), `-title">`, esc(title), `</`, h, `>`)
 	ws(`<p class="sg-calc-meta"><span>`, esc(b.Kind.Name), `</span> <code>`, esc(b.ID), `</code></p></header>`, "\n")
 
-	for _, c := range e.Cautions {
-		WriteCaution(w, c, "Rule "+c.Rule+", block "+b.ID)
+	for i, c := range e.Cautions {
+		source := "Rule " + c.Rule + ", block " + b.ID
+		if c.Result != "" {
+			source = "Rule " + c.Rule + " on " + c.Result + ", block " + b.ID
+		}
+		writeCautionBox(w, c, source, cautionAnchor(b.ID, i))
 	}
 	if len(e.Claims) > 0 {
 		ws(`<ul class="sg-claims" aria-label="Claims in the text">`, "\n")
@@ -129,15 +133,15 @@ func writeCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 				cls, word = "sg-claim-failed", "FAILS"
 			}
 			computed := c.Shown
-			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed <q>`,
-				esc(c.Claim.Text), `</q>, computed <strong>`, esc(strings.TrimSpace(computed)), "</strong></li>\n")
+			ws(`<li class="`, cls, `"><span class="sg-claim-mark">`, word, `</span> <code>`, esc(c.Claim.Result), `</code> claimed `,
+				keepWithUnit(esc(display.Written(c.Claim.Text))), `, computed <strong>`, keepWithUnit(esc(shownValue(strings.TrimSpace(computed)))), "</strong></li>\n")
 		}
 		ws("</ul>\n")
 	}
 
 	ws(`<div class="sg-calc-tables">`, "\n")
 	writeInputs(w, e, links)
-	writeResults(w, e)
+	writeResults(w, e, resultMarks(e))
 	for _, t := range e.Tables {
 		writeTable(w, e, t)
 	}
@@ -155,7 +159,7 @@ func writeCalcBlock(w util.BufWriter, e *calc.Evaluated, source string, charts [
 }
 
 func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
-	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col">Value</th></tr></thead><tbody>` + "\n")
+	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-in"><caption>Inputs</caption><thead><tr><th scope="col">Input</th><th scope="col" class="sg-num">Value</th></tr></thead><tbody>` + "\n")
 	link := func(id, text string) string {
 		if href, ok := links[id]; ok {
 			return `<a href="` + esc(href) + `">` + text + `</a>`
@@ -164,18 +168,21 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 	}
 	for _, in := range e.Inputs {
 		value := esc(in.Text)
+		if in.Type == calc.Quantity {
+			value = esc(display.Written(in.Text))
+		}
 		switch {
 		case in.Dim == units.Pressure && in.Type == calc.Quantity:
 			unit := unitOf(in.Text)
 			if in.Default && e.Customary() {
 				unit = units.CustomaryFor(unit)
 			}
-			value = esc(display.PressurePair(in.Value, unit, e.Ambient, e.SigFigs()))
+			value = esc(shownValue(display.PressurePair(in.Value, unit, e.Ambient, e.SigFigs())))
 		case in.Default && e.Customary() && in.Type == calc.Quantity && in.Dim != units.Dimensionless:
 			// A default is written in SI; a customary block reads it in its own units.
 			if q, err := units.Parse(in.Text, in.Dim); err == nil {
 				if s, err := display.Value(in.Value, in.Dim, units.CustomaryFor(q.Unit.Symbol), e.Ambient, e.SigFigs()); err == nil {
-					value = esc(s)
+					value = esc(shownValue(s))
 				}
 			}
 		case len(in.Links) > 0:
@@ -208,55 +215,123 @@ func writeInputs(w util.BufWriter, e *calc.Evaluated, links map[string]string) {
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
 
-func writeResults(w util.BufWriter, e *calc.Evaluated) {
-	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-out"><caption>Results</caption><thead><tr><th scope="col">Result</th><th scope="col">Value</th><th scope="col">Working</th></tr></thead><tbody>` + "\n")
-	shown := map[string]bool{}
-	for _, o := range e.Block.Show.Outputs {
-		shown[o.Name] = true
+// writeResults writes the results: those [show] names first, in its order,
+// with any result a caution marks or a claim fails; the others follow in
+// a closed group, so that the figures the author chose stand out. Each
+// result is a group of rows: its name, meaning and value, and its working
+// in a row of the table's full width under it.
+func writeResults(w util.BufWriter, e *calc.Evaluated, marks map[string]resultMark) {
+	main, others := resultGroups(e, marks)
+	_, _ = w.WriteString(scrollOpen + `<table class="sg-calc-out"><caption>Results</caption>` + resultHead + "\n")
+	for _, r := range main {
+		writeResult(w, e, r, marks[r.Name])
 	}
-	order := make([]calc.Result, 0, len(e.Results))
+	_, _ = w.WriteString("</table>" + scrollClose)
+	if len(others) == 0 {
+		return
+	}
+	_, _ = w.WriteString(`<details class="sg-calc-more"><summary>other results (` + strconv.Itoa(len(others)) + `)</summary>` + "\n" +
+		scrollOpen + `<table class="sg-calc-out" aria-label="Other results">` + resultHead + "\n")
+	for _, r := range others {
+		writeResult(w, e, r, marks[r.Name])
+	}
+	_, _ = w.WriteString("</table>" + scrollClose + "</details>\n")
+}
+
+const resultHead = `<thead><tr><th scope="col">Result</th><th scope="col" class="sg-num">Value</th></tr></thead>`
+
+// resultGroups splits a block's results into those shown first and the
+// others. Without [show] outputs every result is shown.
+func resultGroups(e *calc.Evaluated, marks map[string]resultMark) (main, others []calc.Result) {
+	if len(e.Block.Show.Outputs) == 0 {
+		return e.Results, nil
+	}
+	taken := map[string]bool{}
 	for _, o := range e.Block.Show.Outputs {
-		if r, ok := e.Result(o.Name); ok {
-			order = append(order, r)
+		if r, ok := e.Result(o.Name); ok && !taken[r.Name] {
+			taken[r.Name] = true
+			main = append(main, r)
 		}
 	}
 	for _, r := range e.Results {
-		if !shown[r.Name] {
-			order = append(order, r)
+		if _, marked := marks[r.Name]; marked && !taken[r.Name] {
+			taken[r.Name] = true
+			main = append(main, r)
 		}
 	}
-	seen := map[string]bool{}
-	for _, r := range order {
-		if seen[r.Name] {
-			continue
+	for _, r := range e.Results {
+		if !taken[r.Name] {
+			others = append(others, r)
 		}
-		seen[r.Name] = true
-		value, err := e.Format(r.Name, "")
-		if err != nil {
-			value = units.Format(r.Value, e.SigFigs())
-		}
-		if r.Dim == units.Pressure {
-			value = display.PressurePair(r.Value, e.DisplayUnit(r.Name), e.Ambient, e.SigFigs())
-		}
-		cls := ""
-		if shown[r.Name] {
-			cls = ` class="sg-shown"`
-		}
-		meaning := ""
-		if spec, ok := e.Block.Kind.ResultSpec(r.Name); ok && spec.Meaning != "" {
-			meaning = `<span class="sg-meaning">` + esc(spec.Meaning) + `</span>`
-		}
-		_, _ = w.WriteString(`<tr` + cls + `><th scope="row"><code>` + breakable(r.Name) + `</code>` + meaning + `</th><td class="sg-num">` + keepWithUnit(esc(groupFigures(value))) + `</td><td>`)
-		if r.Trace.Formula != "" {
-			_, _ = w.WriteString(`<details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><p><code>` + esc(r.Trace.Formula) + `</code></p>`)
-			if r.Trace.Substituted != "" {
-				_, _ = w.WriteString(`<p><code>` + esc(r.Trace.Substituted) + `</code></p>`)
-			}
-			_, _ = w.WriteString(`<p><code>= ` + esc(value) + `</code></p></details>`)
-		}
-		_, _ = w.WriteString("</td></tr>\n")
 	}
-	_, _ = w.WriteString("</tbody></table>" + scrollClose)
+	return main, others
+}
+
+// resultMark is what marks a result's row: the most severe caution it
+// raised (Level 0 for none) and its failed claim.
+type resultMark struct {
+	Level  calc.Level
+	Anchor string // the caution's box
+	Failed bool
+}
+
+// resultMarks finds the results a block's cautions name and its failed
+// claims are about.
+func resultMarks(e *calc.Evaluated) map[string]resultMark {
+	marks := map[string]resultMark{}
+	for i, c := range e.Cautions {
+		if m := marks[c.Result]; c.Result != "" && c.Level > m.Level {
+			m.Level, m.Anchor = c.Level, cautionAnchor(e.Block.ID, i)
+			marks[c.Result] = m
+		}
+	}
+	for _, c := range e.Claims {
+		if !c.OK {
+			m := marks[c.Claim.Result]
+			m.Failed = true
+			marks[c.Claim.Result] = m
+		}
+	}
+	return marks
+}
+
+// cautionAnchor is the id of a block's i-th caution box.
+func cautionAnchor(id string, i int) string { return BlockAnchor(id) + "-caution-" + strconv.Itoa(i+1) }
+
+// writeResult writes one result: its row, marked when a caution or a failed
+// claim is about it, and the row of its working.
+func writeResult(w util.BufWriter, e *calc.Evaluated, r calc.Result, m resultMark) {
+	value, err := e.Format(r.Name, "")
+	if err != nil {
+		value = units.Format(r.Value, e.SigFigs())
+	}
+	if r.Dim == units.Pressure {
+		value = display.PressurePair(r.Value, e.DisplayUnit(r.Name), e.Ambient, e.SigFigs())
+	}
+	meaning := ""
+	if m := e.Meaning(r.Name); m != "" {
+		meaning = `<span class="sg-meaning">` + esc(m) + `</span>`
+	}
+	cls, flags := "sg-result", ""
+	if m.Level > 0 {
+		word := m.Level.String()
+		cls += " sg-flag-" + strings.ToLower(word)
+		flags += ` <a class="sg-flag sg-level-` + strings.ToLower(word) + `" href="#` + esc(m.Anchor) + `">` + word + `<span class="sg-sr"> caution on this result</span></a>`
+	}
+	if m.Failed {
+		cls += " sg-flag-failed"
+		flags += ` <span class="sg-flag sg-flag-claim">claim fails</span>`
+	}
+	_, _ = w.WriteString(`<tbody class="` + cls + `"><tr><th scope="row"><code>` + breakable(r.Name) + `</code>` + flags + meaning +
+		`</th><td class="sg-num">` + keepWithUnit(esc(shownValue(value))) + "</td></tr>\n")
+	if r.Trace.Formula != "" {
+		_, _ = w.WriteString(`<tr class="sg-work"><td colspan="2"><details class="sg-trace"><summary>working<span class="sg-sr"> for ` + esc(r.Name) + `</span></summary><div class="sg-trace-body"><p><code>` + esc(display.Minus(r.Trace.Formula)) + `</code></p>`)
+		if r.Trace.Substituted != "" {
+			_, _ = w.WriteString(`<p><code>` + esc(display.Minus(r.Trace.Substituted)) + `</code></p>`)
+		}
+		_, _ = w.WriteString(`<p><code>= ` + esc(display.Minus(value)) + "</code></p></div></details></td></tr>\n")
+	}
+	_, _ = w.WriteString("</tbody>\n")
 }
 
 // writeTable writes one of a block's extra tables, two columns.
@@ -276,7 +351,7 @@ func writeTable(w util.BufWriter, e *calc.Evaluated, t calc.Table) {
 		if errX != nil || errY != nil {
 			continue
 		}
-		_, _ = w.WriteString(`<tr><td class="sg-num">` + groupFigures(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + groupFigures(units.Format(y, e.SigFigs())) + "</td></tr>\n")
+		_, _ = w.WriteString(`<tr><td class="sg-num">` + shownValue(units.Format(x, e.SigFigs())) + `</td><td class="sg-num">` + shownValue(units.Format(y, e.SigFigs())) + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>" + scrollClose)
 }
@@ -293,10 +368,25 @@ func unitOf(text string) string {
 // WriteCaution writes one caution box with its signal word, and the
 // block's acknowledgement when it has one.
 func WriteCaution(w util.BufWriter, c calc.CautionNote, source string) {
+	writeCautionBox(w, c, source, "")
+}
+
+// writeCautionBox writes a caution box, with an id when anchor is set.
+func writeCautionBox(w util.BufWriter, c calc.CautionNote, source, anchor string) {
 	word := c.Level.String()
-	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `" role="note" aria-label="` + word + `">` +
-		`<p class="sg-caution-word"><span class="sg-caution-icon" aria-hidden="true"></span>` + word + `</p>` +
-		`<div class="sg-caution-body"><p class="sg-caution-text">` + keepWithUnit(esc(c.Message)) + `</p>`)
+	id := ""
+	if anchor != "" {
+		id = ` id="` + esc(anchor) + `"`
+	}
+	// ANSI Z535 puts the safety-alert symbol before DANGER, WARNING and
+	// CAUTION only: NOTICE is no hazard to persons.
+	icon := `<span class="sg-caution-icon" aria-hidden="true"></span>`
+	if c.Level == calc.Notice {
+		icon = ""
+	}
+	_, _ = w.WriteString(`<aside class="sg-caution sg-caution-` + strings.ToLower(word) + `"` + id + ` role="note" aria-label="` + word + `">` +
+		`<p class="sg-caution-word">` + icon + word + `</p>` +
+		`<div class="sg-caution-body"><p class="sg-caution-text">` + keepWithUnit(esc(display.Minus(c.Message))) + `</p>`)
 	if c.Acknowledged != "" {
 		_, _ = w.WriteString(`<p class="sg-caution-ack"><strong>Acknowledged:</strong> ` + esc(c.Acknowledged) + `</p>`)
 	}
@@ -331,6 +421,10 @@ func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\
 // breakable lets a long result or input name wrap after its underscores
 // in a narrow column (discharge_<wbr>temperature), not at any letter.
 func breakable(name string) string { return strings.ReplaceAll(esc(name), "_", "_<wbr>") }
+
+// shownValue is a computed value as a page shows it: long whole numbers
+// grouped, negative numbers with a minus sign.
+func shownValue(s string) string { return display.Minus(groupFigures(s)) }
 
 var figure = regexp.MustCompile(`[-\w.]*\d[\w.]*`)
 

@@ -57,7 +57,10 @@ func TestCalcBlockHTML(t *testing.T) {
 		`Low &lt;stage&gt; &amp; co`, // titles are escaped
 		`sg-calc-failed`,
 		// π/4 · 28² · 32 mm³ = 19 704 mm³ (by hand): the failed claim shows the truth.
-		`<span class="sg-claim-mark">FAILS</span> <code>swept_volume</code> claimed <q>79 cm3</q>, computed <strong>19.7 cm³</strong>`,
+		"<span class=\"sg-claim-mark\">FAILS</span> <code>swept_volume</code> claimed 79\u00a0cm³, computed <strong>19.7\u00a0cm³</strong>",
+		// Claims read with the signs and units of print.
+		"claimed ≥ 10\u00a0L/min",
+		"<td class=\"sg-num\">1.5\u00a0cm³", // as written, in print's units
 		`<span class="sg-claim-mark">holds</span> <code>free_air_delivery</code>`,
 		// 6 bar gauge on 1 atm: 7.01325 bar absolute. Each figure keeps
 		// its unit on its line; the pair may break at the dot.
@@ -65,9 +68,13 @@ func TestCalcBlockHTML(t *testing.T) {
 		"<td class=\"sg-num\">32\u00a0mm",
 		`<span class="sg-note">default</span>`,
 		// Each working is named for its result, not twenty "working"s in a row.
-		`<details class="sg-trace"><summary>working<span class="sg-sr"> for piston_area</span></summary>`,
+		`<tr class="sg-work"><td colspan="2"><details class="sg-trace"><summary>working<span class="sg-sr"> for piston_area</span></summary>`,
 		// Names wrap after an underscore, not inside a word.
-		`<tr class="sg-shown"><th scope="row"><code>free_<wbr>air_<wbr>delivery</code>`,
+		`<tbody class="sg-result"><tr><th scope="row"><code>free_<wbr>air_<wbr>delivery</code>`,
+		// The rest wait in a closed group; the failed claim's result is
+		// not among them.
+		`<details class="sg-calc-more"><summary>other results (`,
+		`<tbody class="sg-result sg-flag-failed"><tr><th scope="row"><code>swept_<wbr>volume</code> <span class="sg-flag sg-flag-claim">claim fails</span>`,
 		`<th scope="row"><code>rod_<wbr>length</code>`,
 		`psig · `,
 	} {
@@ -120,47 +127,6 @@ func TestBlockSourceHighlighting(t *testing.T) {
 		`<span class="hl-nx">list </span><span class="hl-p">=</span> <span class="hl-p">[</span><span class="hl-s2">&#34;x&#34;</span><span class="hl-p">,</span> <span class="hl-s2">&#39;y&#39;</span><span class="hl-p">]</span>` + "\n"
 	if got := buf.String(); !strings.Contains(got, want) {
 		t.Errorf("got\n%s\nwant it to hold\n%s", got, want)
-	}
-}
-
-// TestVacuumPressurePair: a pressure below ambient shows absolute first,
-// and its gauge value never rounds below minus the ambient pressure.
-func TestVacuumPressurePair(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// 1 Pa absolute on 1 atm: -14.6958 psi(g) (NIST SP 811: 1 psi = 6894.757 Pa);
-	// three figures would give -14.7, below a perfect vacuum.
-	got := display.PressurePair(1, "psi", e.Ambient, e.SigFigs())
-	if !strings.HasPrefix(got, "0.000145 psia · -14.69") {
-		t.Errorf("pressurePair = %q", got)
-	}
-}
-
-// TestAbsoluteByNaturePressurePair: torr and atm have no gauge form, so a
-// result asked for in them shows the absolute value alone, in that unit.
-func TestAbsoluteByNaturePressurePair(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory); 905 Pa = 6.788 torr.
-	if got := display.PressurePair(905, "torr", e.Ambient, e.SigFigs()); got != "6.79 torr" {
-		t.Errorf("pressurePair(905 Pa, torr) = %q, want \"6.79 torr\"", got)
-	}
-	// 1 atm = 101325 Pa (NIST SP 811 App. B).
-	if got := display.PressurePair(202650, "atm", e.Ambient, e.SigFigs()); got != "2.00 atm" {
-		t.Errorf("pressurePair(202650 Pa, atm) = %q, want \"2.00 atm\"", got)
-	}
-}
-
-// TestHighPressurePairDiffers: gauge and absolute that round alike at the
-// site's figures get more, so the pair does not read as one number twice.
-func TestHighPressurePairDiffers(t *testing.T) {
-	e := evaluated(t, stageBlock)
-	// 1031.2 bar(g) = 1031.2e5 + 101325 Pa absolute = 1032.213 bar(a).
-	got := display.PressurePair(1031.2e5+101325, "bar", e.Ambient, e.SigFigs())
-	if got != "1031 bar(g) · 1032 bar(a)" {
-		t.Errorf("pressurePair = %q, want \"1031 bar(g) · 1032 bar(a)\"", got)
-	}
-	// Low pressures keep the site's figures.
-	if got := display.PressurePair(6e5+101325, "bar", e.Ambient, e.SigFigs()); got != "6.00 bar(g) · 7.01 bar(a)" {
-		t.Errorf("pressurePair = %q", got)
 	}
 }
 
@@ -280,7 +246,7 @@ discharge_pressure = "40 bar"
 	e := evaluated(t, src)
 	var buf bytes.Buffer
 	w := bufio.NewWriter(&buf)
-	writeResults(w, e)
+	writeResults(w, e, nil)
 	_ = w.Flush()
 	// 12 · π/4 · (0.4 m)² · 0.5 m = 0.754 m³ per revolution, 2000 rpm: 1 510 000 L/min.
 	if want := "<td class=\"sg-num\">1\u00a0510\u00a0000\u00a0L/min</td>"; !strings.Contains(buf.String(), want) {
@@ -359,9 +325,9 @@ func testCatalog(t testing.TB) *calc.Catalog {
 // plain hPa on an absolute input reads absolute: 100 hPa = 100 hPa(a).
 func TestVacuumTargetReadings(t *testing.T) {
 	for _, c := range []struct{ target, want string }{
-		{"-900 mbar(g)", "113 mbar(a) · -900 mbar(g)"},
-		{"27 inHg vac", "2.92 inHg(a) · -27.0 inHg(g)"},
-		{"100 hPa", "100 hPa(a) · -913 hPa(g)"},
+		{"-900 mbar(g)", "113 mbar(a) · −900 mbar(g)"},
+		{"27 inHg vac", "2.92 inHg(a) · −27.0 inHg(g)"},
+		{"100 hPa", "100 hPa(a) · −913 hPa(g)"},
 	} {
 		e := evaluated(t, `id = "pot"
 kind = "vacuum"
@@ -380,6 +346,83 @@ target_pressure = "`+c.target+`"
 		// The table keeps each number with its unit by a no-break space.
 		if !strings.Contains(strings.ReplaceAll(buf.String(), "\u00a0", " "), esc(c.want)) {
 			t.Errorf("target %q: input table lacks %q:\n%s", c.target, c.want, buf.String())
+		}
+	}
+}
+
+// TestResultGroups: the results [show] names come first in its order, then
+// any result a caution marks or a claim fails (the stage block fails its
+// swept_volume claim and, with no relief valve named, its max_pressure
+// carries a NOTICE); the rest are the other results. A block without
+// [show] outputs shows every result.
+func TestResultGroups(t *testing.T) {
+	names := func(rs []calc.Result) string {
+		var out []string
+		for _, r := range rs {
+			out = append(out, r.Name)
+		}
+		return strings.Join(out, " ")
+	}
+	blockWith := func(show, extra string) string {
+		return strings.Replace(stageBlock, `outputs = ["free_air_delivery L/min", "max_pressure psi"]`, show, 1) + extra
+	}
+	for _, c := range []struct {
+		name, src string
+		marks     map[string]resultMark
+		main      string
+		others    int
+	}{
+		{"shown first, failed claim after", stageBlock, nil, "free_air_delivery max_pressure swept_volume", 18},
+		{"no outputs: all", blockWith(`outputs = []`, ""), nil, "", 0},
+		{"caution marks one", blockWith(`outputs = ["shaft_power W"]`, ""),
+			map[string]resultMark{"discharge_temperature": {Level: calc.Warning}}, "shaft_power swept_volume max_pressure discharge_temperature", 17},
+		{"order of [show]", blockWith(`outputs = ["mean_torque", "piston_area"]`, ""), nil, "mean_torque piston_area swept_volume max_pressure", 17},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			e := evaluated(t, c.src)
+			marks := resultMarks(e)
+			for k, v := range c.marks {
+				marks[k] = v
+			}
+			main, others := resultGroups(e, marks)
+			want := c.main
+			if want == "" {
+				want = names(e.Results)
+			}
+			if got := names(main); !strings.HasPrefix(got, want) || len(main)+len(others) != len(e.Results) {
+				t.Errorf("shown first: %s; want %s, and %d in all", got, want, len(e.Results))
+			}
+			if len(others) != c.others {
+				t.Errorf("%d other results, want %d: %s", len(others), c.others, names(others))
+			}
+		})
+	}
+}
+
+// TestCautionMarksItsRow: a block caution's result row carries its signal
+// word, linked to the caution's box.
+func TestCautionMarksItsRow(t *testing.T) {
+	e := evaluated(t, `id = "choked"
+kind = "compressor"
+bore = "32 mm"
+stroke = "28 mm"
+rod_length = "70 mm"
+clearance_ratio = 0.3
+speed = "900 rpm"
+discharge_pressure = "8 bar"
+`)
+	var buf bytes.Buffer
+	w := bufio.NewWriter(&buf)
+	WriteCalcBlock(w, e, "", nil, nil)
+	_ = w.Flush()
+	out := buf.String()
+	for _, want := range []string{
+		`<aside class="sg-caution sg-caution-danger" id="calc-choked-caution-1"`,
+		`Rule no-delivery on volumetric_efficiency, block choked`,
+		`<tbody class="sg-result sg-flag-danger"><tr><th scope="row"><code>volumetric_<wbr>efficiency</code> <a class="sg-flag sg-level-danger" href="#calc-choked-caution-1">DANGER`,
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("block HTML lacks %s", want)
 		}
 	}
 }

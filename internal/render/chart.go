@@ -11,11 +11,14 @@ import (
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
 	"github.com/millrace-workshop/specgen/internal/units"
 )
 
@@ -33,13 +36,24 @@ var (
 	}
 )
 
-// Chart geometry, in points. Text sizes are what gonum/plot measures with
-// Liberation Sans; the page shows the text in a metric-compatible face.
-const (
-	chartWidth  = 480
-	panelHeight = 190
-	axisFont    = 10
-	labelFont   = 9.5
+// chartLayout is the geometry of one drawing of a chart, in points. Text
+// sizes are what gonum/plot measures with Liberation Sans; the page shows
+// the text in a metric-compatible face.
+type chartLayout struct {
+	class               string // the drawing's CSS class
+	width, panelHeight  float64
+	axisFont, labelFont vg.Length
+	ticks               int // the most labelled ticks on an axis
+}
+
+// Each chart is drawn twice: wide, for a column of text; and narrow, with
+// larger text and fewer ticks, which the stylesheet shows where the chart
+// has less than about 32rem (a phone, two charts side by side, print).
+// At 290 points across a 375 px phone's column (some 294 px), 12-point
+// text is 12 px.
+var (
+	wideChart   = chartLayout{class: "sg-chart-wide", width: 480, panelHeight: 190, axisFont: 10, labelFont: 9.5, ticks: 8}
+	narrowChart = chartLayout{class: "sg-chart-narrow", width: 290, panelHeight: 210, axisFont: 12.5, labelFont: 12, ticks: 5}
 )
 
 // dashes gives each line style its pattern; the widths differ too, so
@@ -64,23 +78,61 @@ type DrawnChart struct {
 	CSV  []byte
 }
 
-// DrawChart draws a chart; its errors do not name the chart, which the
-// caller does. id makes the SVG's element ids unique in the
-// page; csvHref is the link to the chart's data.
+// DrawChart draws a chart, wide and narrow; its errors do not name the
+// chart, which the caller does. id makes the SVGs' element ids unique in
+// the page; csvHref is the link to the chart's data.
 func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
+	var out bytes.Buffer
+	fmt.Fprintf(&out, `<figure class="sg-chart" id="%s">`+"\n", esc(id))
+	for _, l := range []chartLayout{wideChart, narrowChart} {
+		svg, err := drawSVG(c, l, id+strings.TrimPrefix(l.class, "sg-chart"))
+		if err != nil {
+			return nil, err
+		}
+		out.Write(svg)
+	}
+	out.WriteString("<figcaption>")
+	fmt.Fprintf(&out, `<span class="sg-chart-title">%s</span>`, esc(c.Title))
+	out.WriteString(`<span class="sg-chart-key">`)
+	for _, panel := range c.Panels {
+		for j, s := range panel.Series {
+			fmt.Fprintf(&out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s%d" stroke-width="2"%s d="M1 5H29"/></svg>%s</span>`,
+				j%len(seriesColors), dashAttr(s.Style), esc(s.Name))
+		}
+	}
+	out.WriteString(`</span>`)
+	if csvHref != "" {
+		// The hidden words tell a list of the page's links which chart's data it is.
+		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
+	}
+	out.WriteString("</figcaption>\n</figure>\n")
+	data, err := chartCSV(c)
+	if err != nil {
+		return nil, err
+	}
+	return &DrawnChart{Name: c.Name, HTML: out.String(), CSV: data}, nil
+}
+
+// drawSVG draws a chart in one layout as an inline SVG named by its title
+// and description; id makes its element ids unique in the page.
+func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 	xs := func(v []float64) ([]float64, error) { return toUnit(v, c.X, c.Ambient) }
-	height := float64(panelHeight*len(c.Panels)) + 40
-	canvas := newSVGCanvas(chartWidth, vg.Length(height), colorClasses)
+	noteRoom := 0.0
+	if c.EdgeNote != "" {
+		noteRoom = float64(l.labelFont) + 4
+	}
+	height := l.panelHeight*float64(len(c.Panels)) + 40 + noteRoom
+	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses)
 	plots := make([][]*plot.Plot, len(c.Panels))
 	xMin, xMax := math.Inf(1), math.Inf(-1)
 	for i, panel := range c.Panels {
 		p := plot.New()
 		useMemoText(p)
 		p.BackgroundColor = nil
-		styleAxis(&p.X)
-		styleAxis(&p.Y)
+		styleAxis(&p.X, l)
+		styleAxis(&p.Y, l)
 		p.Y.Label.Text = axisLabel(panel.Y)
-		var xTicks plot.Ticker = niceTicks{}
+		var xTicks plot.Ticker = niceTicks{most: l.ticks}
 		if c.X.Unit == "deg" {
 			xTicks = degreeTicks{}
 		}
@@ -90,13 +142,13 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		} else {
 			p.X.Tick.Marker = unlabelled{xTicks}
 		}
-		p.Y.Tick.Marker = niceTicks{}
+		p.Y.Tick.Marker = niceTicks{most: l.ticks}
 		// A log panel plots log10 of its values on a linear axis, ticked
 		// as decades: gonum's log scale places the axis title's box at
 		// the log of the arithmetic middle and left a blank band above
 		// the plot.
 		if panel.Y.Log {
-			p.Y.Tick.Marker = exponentTicks{}
+			p.Y.Tick.Marker = exponentTicks{most: l.ticks}
 		}
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
@@ -136,7 +188,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
 			p.Add(plainLine{line})
-			if err := addLabels(words, s.Labels, c, panel); err != nil {
+			if err := addLabels(words, s.Labels, c, panel, l); err != nil {
 				return nil, err
 			}
 		}
@@ -146,7 +198,7 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 			p.Y.Min = 0
 		}
 		for _, m := range panel.Marks {
-			if err := addMark(p, words, m, c, panel, yMin, yMax); err != nil {
+			if err := addMark(p, words, m, c, panel, yMin, yMax, l); err != nil {
 				return nil, err
 			}
 		}
@@ -158,43 +210,28 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 	for _, row := range plots {
 		row[0].X.Min, row[0].X.Max = xMin, xMax
 	}
-	tiles := draw.Tiles{Rows: len(c.Panels), Cols: 1, PadY: 12, PadTop: 8, PadBottom: 4, PadLeft: 4, PadRight: 12}
+	tiles := draw.Tiles{Rows: len(c.Panels), Cols: 1, PadY: 12, PadTop: 8 + vg.Length(noteRoom), PadBottom: 4, PadLeft: 4, PadRight: 12}
 	dc := draw.New(canvas)
 	canvases := plot.Align(plots, tiles, dc)
 	for i, row := range plots {
 		row[0].Draw(canvases[i][0])
 	}
+	if c.EdgeNote != "" {
+		// Above the top right corner, where the x axis runs on.
+		style := text.Style{Color: markColor, Font: font.From(plot.DefaultFont, l.labelFont), XAlign: draw.XRight, YAlign: draw.YTop, Handler: chartText}
+		dc.FillText(style, vg.Point{X: vg.Length(l.width) - tiles.PadRight, Y: vg.Length(height) - 4}, c.EdgeNote)
+	}
 	if canvas.nonFinite {
 		return nil, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
 	}
-
 	var out bytes.Buffer
 	tid, did := id+"-title", id+"-desc"
-	fmt.Fprintf(&out, `<figure class="sg-chart" id="%s">`+"\n", esc(id))
-	fmt.Fprintf(&out, `<svg class="sg-chart-svg" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %d %s" role="img" aria-labelledby="%s %s">`+"\n",
-		chartWidth, strconv.FormatFloat(height, 'f', -1, 64), esc(tid), esc(did))
+	fmt.Fprintf(&out, `<svg class="sg-chart-svg %s" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %s %s" role="img" aria-labelledby="%s %s">`+"\n",
+		l.class, strconv.FormatFloat(l.width, 'f', -1, 64), strconv.FormatFloat(height, 'f', -1, 64), esc(tid), esc(did))
 	fmt.Fprintf(&out, "<title id=\"%s\">%s</title>\n<desc id=\"%s\">%s</desc>\n", esc(tid), esc(c.Title), esc(did), esc(c.Desc))
 	out.Write(canvas.buf.Bytes())
-	out.WriteString("</svg>\n<figcaption>")
-	fmt.Fprintf(&out, `<span class="sg-chart-title">%s</span>`, esc(c.Title))
-	out.WriteString(`<span class="sg-chart-key">`)
-	for _, panel := range c.Panels {
-		for j, s := range panel.Series {
-			fmt.Fprintf(&out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s%d" stroke-width="2"%s d="M1 5H29"/></svg>%s</span>`,
-				j%len(seriesColors), dashAttr(s.Style), esc(s.Name))
-		}
-	}
-	out.WriteString(`</span>`)
-	if csvHref != "" {
-		// The hidden words tell a list of the page's links which chart's data it is.
-		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
-	}
-	out.WriteString("</figcaption>\n</figure>\n")
-	data, err := chartCSV(c)
-	if err != nil {
-		return nil, err
-	}
-	return &DrawnChart{Name: c.Name, HTML: out.String(), CSV: data}, nil
+	out.WriteString("</svg>\n")
+	return out.Bytes(), nil
 }
 
 func dashAttr(s calc.LineStyle) string {
@@ -214,13 +251,13 @@ func dashAttr(s calc.LineStyle) string {
 	return b.String()
 }
 
-func styleAxis(a *plot.Axis) {
+func styleAxis(a *plot.Axis, l chartLayout) {
 	a.Color = inkColor
 	a.Label.TextStyle.Color = inkColor
-	a.Label.TextStyle.Font.Size = axisFont
+	a.Label.TextStyle.Font.Size = l.axisFont
 	a.Tick.Color = inkColor
 	a.Tick.Label.Color = inkColor
-	a.Tick.Label.Font.Size = labelFont
+	a.Tick.Label.Font.Size = l.labelFont
 	a.Width = 0.8
 	a.Padding = 2
 }
@@ -246,20 +283,23 @@ func axisLabel(a calc.Axis) string {
 	return a.Label + " (" + unit + ")"
 }
 
-// niceTicks marks a linear axis every 1, 2 or 5 × 10^k, whichever gives
-// four to eight labelled ticks, with minor ticks between and labels with
-// no more decimals than the step needs.
-type niceTicks struct{}
+// niceTicks marks a linear axis every 1, 2 or 5 × 10^k, the finest step
+// that labels at most most ticks, with minor ticks between and labels
+// with no more decimals than the step needs.
+type niceTicks struct{ most int }
 
-func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
+func (n niceTicks) Ticks(lo, hi float64) []plot.Tick {
 	span := hi - lo
 	if !(span > 0) || math.IsInf(span, 0) {
 		return []plot.Tick{{Value: lo, Label: strconv.FormatFloat(lo, 'g', 4, 64)}}
 	}
-	mag := math.Pow(10, math.Floor(math.Log10(span/5)))
-	step := mag
-	for _, m := range []float64{1, 2, 5, 10} {
-		if span/(m*mag) <= 7 {
+	labelled := func(step float64) int {
+		return int(math.Floor(hi/step+1e-9)-math.Ceil(lo/step-1e-9)) + 1
+	}
+	mag := math.Pow(10, math.Floor(math.Log10(span/float64(n.most))))
+	step := 10 * mag
+	for _, m := range []float64{1, 2, 5} {
+		if labelled(m*mag) <= n.most {
 			step = m * mag
 			break
 		}
@@ -281,7 +321,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 			if math.Abs(v) < step*1e-9 {
 				v = 0
 			}
-			t.Label = groupDigits(strconv.FormatFloat(v, 'f', decimals, 64))
+			t.Label = display.Minus(groupDigits(strconv.FormatFloat(v, 'f', decimals, 64)))
 		}
 		ticks = append(ticks, t)
 	}
@@ -292,10 +332,11 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 // to 9 times it. Each decade is math.Pow10 itself: gonum's log ticker
 // multiplies its way down and printed 9.999999999999999e-06. Past a
 // thousandth or ten thousand the labels are powers (10⁻⁶), and beyond
-// eight decades every other one is labelled, so that they stay apart.
-type decadeTicks struct{}
+// most decades every other one (every third, ...) is labelled, so that
+// they stay apart.
+type decadeTicks struct{ most int }
 
-func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+func (d decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 	if !(lo > 0) || !(hi >= lo) || math.IsInf(hi, 0) {
 		return nil
 	}
@@ -304,7 +345,7 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 	// The decades drawn, which carry the labels.
 	first := int(math.Ceil(math.Log10(lo) - 1e-9))
 	last := int(math.Floor(math.Log10(hi) + 1e-9))
-	every := 1 + (last-first)/8
+	every := 1 + (last-first)/d.most
 	powers := first < -3 || last > 4
 	var ticks []plot.Tick
 	for k := kLo; k <= kHi; k++ {
@@ -340,10 +381,10 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 
 // exponentTicks marks an axis of log10 values as decadeTicks marks the
 // values themselves.
-type exponentTicks struct{}
+type exponentTicks struct{ most int }
 
-func (exponentTicks) Ticks(lo, hi float64) []plot.Tick {
-	ticks := decadeTicks{}.Ticks(math.Pow(10, lo), math.Pow(10, hi))
+func (e exponentTicks) Ticks(lo, hi float64) []plot.Tick {
+	ticks := decadeTicks(e).Ticks(math.Pow(10, lo), math.Pow(10, hi))
 	for i := range ticks {
 		ticks[i].Value = math.Log10(ticks[i].Value)
 	}
@@ -452,7 +493,7 @@ func thin(pts plotter.XYs) plotter.XYs {
 	return out
 }
 
-func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel) error {
+func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel, l chartLayout) error {
 	if len(labels) == 0 {
 		return nil
 	}
@@ -490,12 +531,12 @@ func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel
 		}
 		for i := range lab.TextStyle {
 			lab.TextStyle[i].Color = inkColor
-			lab.TextStyle[i].Font.Size = labelFont
+			lab.TextStyle[i].Font.Size = l.labelFont
 			lab.TextStyle[i].Handler = chartText
 		}
 		lab.Offset = vg.Point{X: 4, Y: 4}
 		if below {
-			lab.Offset = vg.Point{X: 4, Y: -labelFont - 4}
+			lab.Offset = vg.Point{X: 4, Y: -l.labelFont - 4}
 		}
 		words.sets = append(words.sets, lab)
 	}
@@ -503,7 +544,7 @@ func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel
 }
 
 // addMark draws a reference line with its label.
-func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, yMax float64) error {
+func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel calc.Panel, yMin, yMax float64, l chartLayout) error {
 	var pts plotter.XYs
 	var at plotter.XY
 	if m.Vertical {
@@ -542,7 +583,7 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 		return err
 	}
 	lab.TextStyle[0].Color = markColor
-	lab.TextStyle[0].Font.Size = labelFont
+	lab.TextStyle[0].Font.Size = l.labelFont
 	lab.TextStyle[0].Handler = chartText
 	lab.Offset = vg.Point{X: 3, Y: 3}
 	words.sets = append(words.sets, lab)
@@ -619,6 +660,9 @@ func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 			}
 			pt = pt.Add(set.Offset)
 			box := set.TextStyle[i].Rectangle(word)
+			// The halo round each word (3 px of the paper's colour) must
+			// not cover its neighbour either.
+			box.Min.X, box.Max.X = box.Min.X-wordGap, box.Max.X+wordGap
 			step := box.Max.Y - box.Min.Y + 1
 			if pt.Y > mid {
 				step = -step
@@ -636,6 +680,9 @@ func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 	}
 }
+
+// wordGap is the room, in points, kept either side of a word on a chart.
+const wordGap = 2.5
 
 func overlapsAny(r vg.Rectangle, rs []vg.Rectangle) bool {
 	for _, o := range rs {

@@ -6,7 +6,6 @@ import (
 	"path/filepath"
 	"regexp"
 	"strconv"
-
 	"strings"
 	"testing"
 
@@ -31,7 +30,7 @@ func TestDrawCompressorCharts(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", name, err)
 		}
-		for _, want := range []string{`role="img"`, "<title id=", "<desc id=", `aria-labelledby="chart-low-` + name + `-title`} {
+		for _, want := range []string{`role="img"`, "<title id=", "<desc id=", `aria-labelledby="chart-low-` + name + `-wide-title`, `aria-labelledby="chart-low-` + name + `-narrow-title`} {
 			if !strings.Contains(d.HTML, want) {
 				t.Errorf("%s: lacks %s", name, want)
 			}
@@ -90,7 +89,7 @@ func TestChartLabelsReadable(t *testing.T) {
 func TestDecadeTicks(t *testing.T) {
 	labels := func(lo, hi float64) []string {
 		var out []string
-		for _, tk := range (decadeTicks{}).Ticks(lo, hi) {
+		for _, tk := range (decadeTicks{most: 8}).Ticks(lo, hi) {
 			if tk.Label != "" {
 				out = append(out, tk.Label)
 			}
@@ -114,8 +113,9 @@ func TestDecadeTicks(t *testing.T) {
 	}
 }
 
-// No two words of a chart overlap: tick labels, axis titles, process
-// names and mark labels, measured as gonum/plot lays them out.
+// No two words of a chart overlap, nor their halos: tick labels, axis
+// titles, process names and mark labels, measured as gonum/plot lays them
+// out.
 func TestChartWordsApart(t *testing.T) {
 	text := regexp.MustCompile(`<text x="([^"]+)" y="([^"]+)" font-size="([^"]+)">([^<]*)</text>`)
 	type box struct {
@@ -123,19 +123,78 @@ func TestChartWordsApart(t *testing.T) {
 		minX, maxX, minY, maxY float64
 	}
 	for _, c := range chartCases(t) {
-		var boxes []box
-		for _, m := range text.FindAllStringSubmatch(c.draw(t).HTML, -1) {
-			x, _ := strconv.ParseFloat(m[1], 64)
-			y, _ := strconv.ParseFloat(m[2], 64)
-			size, _ := strconv.ParseFloat(m[3], 64)
-			w, h, d := chartText.Box(m[4], font.From(plot.DefaultFont, vg.Length(size)))
-			b := box{m[4], x, x + float64(w), y - float64(h-d), y + float64(d)}
-			for _, o := range boxes {
-				if b.minX < o.maxX && o.minX < b.maxX && b.minY < o.maxY && o.minY < b.maxY {
-					t.Errorf("%s: %q overlaps %q", c.Name, b.word, o.word)
+		for _, svg := range drawings(c.draw(t).HTML) {
+			var boxes []box
+			for _, m := range text.FindAllStringSubmatch(svg, -1) {
+				x, _ := strconv.ParseFloat(m[1], 64)
+				y, _ := strconv.ParseFloat(m[2], 64)
+				size, _ := strconv.ParseFloat(m[3], 64)
+				w, h, d := chartText.Box(m[4], font.From(plot.DefaultFont, vg.Length(size)))
+				// The words' halos, 1.5 points either side, must not touch.
+				b := box{m[4], x - 1.5, x + float64(w) + 1.5, y - float64(h-d), y + float64(d)}
+				for _, o := range boxes {
+					if b.minX < o.maxX && o.minX < b.maxX && b.minY < o.maxY && o.minY < b.maxY {
+						t.Errorf("%s: %q overlaps %q", c.Name, b.word, o.word)
+					}
+				}
+				boxes = append(boxes, b)
+			}
+		}
+	}
+}
+
+// drawings splits a drawn chart into its SVGs, wide and narrow.
+func drawings(html string) []string {
+	parts := strings.Split(html, `<svg class="sg-chart-svg `)[1:]
+	for i, p := range parts {
+		parts[i], _, _ = strings.Cut(p, "</svg>")
+	}
+	return parts
+}
+
+// TestChartDrawings: a chart comes wide and narrow, each named by the
+// chart's title and description, the narrow one no wider than a phone's
+// column (290 points) with text of 12 points or more.
+func TestChartDrawings(t *testing.T) {
+	size := regexp.MustCompile(`font-size="([^"]+)"`)
+	for _, c := range chartCases(t) {
+		d := c.draw(t)
+		svgs := drawings(d.HTML)
+		if len(svgs) != 2 || !strings.HasPrefix(svgs[0], "sg-chart-wide") || !strings.HasPrefix(svgs[1], "sg-chart-narrow") {
+			t.Fatalf("%s: want a wide and a narrow drawing", c.Name)
+		}
+		for _, svg := range svgs {
+			if !strings.Contains(svg, `role="img"`) || !strings.Contains(svg, "<title id=") || !strings.Contains(svg, "<desc id=") {
+				t.Errorf("%s: a drawing without its name", c.Name)
+			}
+		}
+		if !strings.Contains(svgs[1], `viewBox="0 0 290 `) {
+			t.Errorf("%s: the narrow drawing is not 290 points wide", c.Name)
+		}
+		for _, m := range size.FindAllStringSubmatch(svgs[1], -1) {
+			if v, _ := strconv.ParseFloat(m[1], 64); v < 12 {
+				t.Errorf("%s: narrow drawing has %s-point text", c.Name, m[1])
+			}
+		}
+	}
+}
+
+// TestNiceTicksAtMost: however a span falls, a linear axis carries no
+// more labelled ticks than its layout allows, and at least two.
+func TestNiceTicksAtMost(t *testing.T) {
+	for _, most := range []int{wideChart.ticks, narrowChart.ticks} {
+		for _, span := range []float64{0.7, 1, 3.3, 6, 9.9, 12, 49, 69.5, 101, 228, 999, 1510000} {
+			for _, lo := range []float64{0, -span / 3, 1} {
+				n := 0
+				for _, tk := range (niceTicks{most: most}).Ticks(lo, lo+span) {
+					if tk.Label != "" {
+						n++
+					}
+				}
+				if n > most || n < 2 {
+					t.Errorf("span %g from %g: %d labelled ticks, want 2 to %d", span, lo, n, most)
 				}
 			}
-			boxes = append(boxes, b)
 		}
 	}
 }
@@ -165,19 +224,21 @@ func TestChartDataLinkNamed(t *testing.T) {
 	}
 }
 
-// A chart uses its height: the words over the top panel (a mark's label)
-// sit at its top edge, with no blank band above them. A log axis left
-// one a fifth of the chart high.
+// A chart uses its height: its top panel, or the words over it (a mark's
+// label), sit at its top edge, with no blank band above them. A log axis
+// left one a fifth of the chart high.
 func TestChartNoBlankTop(t *testing.T) {
-	text := regexp.MustCompile(`<text x="[^"]+" y="([^"]+)"`)
+	text := regexp.MustCompile(`<text x="[^"]+" y="([^"]+)"|d="M[-0-9.]+ ([-0-9.]+)`)
 	for _, c := range chartCases(t) {
-		top := math.Inf(1)
-		for _, m := range text.FindAllStringSubmatch(c.draw(t).HTML, -1) {
-			y, _ := strconv.ParseFloat(m[1], 64)
-			top = math.Min(top, y)
-		}
-		if top > 30 {
-			t.Errorf("%s: the first word is %g below the top of the chart", c.Name, top)
+		for _, svg := range drawings(c.draw(t).HTML) {
+			top := math.Inf(1)
+			for _, m := range text.FindAllStringSubmatch(svg, -1) {
+				y, _ := strconv.ParseFloat(m[1]+m[2], 64)
+				top = math.Min(top, y)
+			}
+			if top > 30 {
+				t.Errorf("%s: the first word is %g below the top of the chart", c.Name, top)
+			}
 		}
 	}
 }

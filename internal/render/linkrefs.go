@@ -2,28 +2,35 @@ package render
 
 import (
 	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/util"
 )
 
-// LinkRef is a link or image of a page: where it points (after .md links
-// were rewritten), what the page wrote, and the file line it is on.
+// LinkRef is a link or image of a page: where it points as the page's HTML
+// will have it (after .md links were rewritten, escapes and references
+// resolved and the rest percent-encoded), what the page wrote, and the
+// file line it is on.
 type LinkRef struct {
 	Dest, Written string
 	Line          int
 }
 
-// LinkRefs lists the document's links and images.
+// LinkRefs lists the document's links and images. A link inside an
+// image's description is no link: the page shows it only as the image's
+// alternative text.
 func (d *Document) LinkRefs() []LinkRef {
 	var out []LinkRef
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
 			return ast.WalkContinue, nil
 		}
+		status := ast.WalkContinue
 		var dest []byte
 		switch l := n.(type) {
 		case *ast.Link:
 			dest = l.Destination
 		case *ast.Image:
 			dest = l.Destination
+			status = ast.WalkSkipChildren
 		default:
 			return ast.WalkContinue, nil
 		}
@@ -31,10 +38,17 @@ func (d *Document) LinkRefs() []LinkRef {
 		if !ok {
 			written = string(dest)
 		}
-		out = append(out, LinkRef{Dest: string(dest), Written: written, Line: d.nodeLine(n)})
-		return ast.WalkContinue, nil
+		out = append(out, LinkRef{Dest: renderedDestination(dest), Written: written, Line: d.nodeLine(n)})
+		return status, nil
 	})
 	return out
+}
+
+// renderedDestination is a link destination as goldmark writes it into
+// href or src (before HTML escaping): "/f&ouml;&ouml;" becomes
+// "/f%C3%B6%C3%B6" and "/bar\*" becomes "/bar*".
+func renderedDestination(dest []byte) string {
+	return string(util.URLEscape(dest, true))
 }
 
 // AnchorIDs lists the ids the document's headings get.

@@ -49,3 +49,38 @@ func RewriteLink(dest string) string {
 	}
 	return path[:len(path)-len(".md")] + ".html" + rest
 }
+
+// RelativeFromRoot rewrites the links and images that start at the site's
+// root ("/img/head.png", "/safety.html#relief") to reach the same file
+// from the page, so that the site works from a sub-path of a web server
+// and from disk. up is the way from the page to the root: "" at the top,
+// "../" per folder below it. Links to other hosts ("//host/x") stay.
+func (d *Document) RelativeFromRoot(up string) {
+	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if !entering {
+			return ast.WalkContinue, nil
+		}
+		switch l := n.(type) {
+		case *ast.Link:
+			l.Destination = relativeFromRoot(l.Destination, up)
+		case *ast.Image:
+			l.Destination = relativeFromRoot(l.Destination, up)
+		}
+		return ast.WalkContinue, nil
+	})
+}
+
+// relativeFromRoot is dest reached from a page up below the root, when
+// dest starts at the root.
+func relativeFromRoot(dest []byte, up string) []byte {
+	s := string(dest)
+	if !strings.HasPrefix(s, "/") || strings.HasPrefix(s, "//") {
+		return dest
+	}
+	rel := up + s[1:]
+	// "step:1.html" would read as a URL scheme.
+	if first, _, _ := strings.Cut(rel, "/"); strings.Contains(first, ":") {
+		rel = "./" + rel
+	}
+	return []byte(rel)
+}

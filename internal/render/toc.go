@@ -1,10 +1,13 @@
 package render
 
 import (
+	"bufio"
 	"bytes"
+	"html"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
+	gmhtml "github.com/yuin/goldmark/renderer/html"
 )
 
 // Heading is one entry of a page's table of contents, with the headings
@@ -131,12 +134,20 @@ func writeText(buf *bytes.Buffer, n ast.Node, source []byte, ref func(*ValueRef)
 			ref(t)
 			return ast.WalkSkipChildren, nil
 		case *ast.Text:
-			buf.Write(t.Segment.Value(source))
+			if t.IsRaw() {
+				buf.Write(t.Segment.Value(source))
+			} else {
+				buf.WriteString(shownText(t.Segment.Value(source)))
+			}
 			if t.SoftLineBreak() {
 				buf.WriteByte(' ')
 			}
 		case *ast.String:
-			buf.Write(t.Value)
+			if t.IsRaw() || t.IsCode() {
+				buf.Write(t.Value)
+			} else {
+				buf.WriteString(shownText(t.Value))
+			}
 		case *ast.RawHTML:
 			// Kept as text, as the page shows it: the layout escapes it.
 			for i := 0; i < t.Segments.Len(); i++ {
@@ -144,13 +155,30 @@ func writeText(buf *bytes.Buffer, n ast.Node, source []byte, ref func(*ValueRef)
 				buf.Write(seg.Value(source))
 			}
 		case *ast.CodeSpan:
+			// Code is shown as written, its line ends as spaces.
 			for cc := t.FirstChild(); cc != nil; cc = cc.NextSibling() {
 				if tt, ok := cc.(*ast.Text); ok {
-					buf.Write(tt.Segment.Value(source))
+					value := tt.Segment.Value(source)
+					if bytes.HasSuffix(value, []byte("\n")) {
+						value = append(value[:len(value)-1:len(value)-1], ' ')
+					}
+					buf.Write(value)
 				}
 			}
 			return ast.WalkSkipChildren, nil
 		}
 		return ast.WalkContinue, nil
 	})
+}
+
+// shownText is Markdown text as a reader sees it once goldmark has
+// rendered it: backslash escapes dropped, entity and numeric references
+// resolved ("AT&amp;T" reads "AT&T"). Goldmark's own writer does the
+// work, so that the title and contents never differ from the page body.
+func shownText(value []byte) string {
+	var b strings.Builder
+	w := bufio.NewWriter(&b)
+	gmhtml.DefaultWriter.Write(w, value)
+	_ = w.Flush()
+	return html.UnescapeString(b.String())
 }

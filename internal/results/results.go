@@ -8,6 +8,7 @@ import (
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/units"
+	"github.com/millrace-workshop/specgen/internal/version"
 )
 
 // Version is the schema version of results.json.
@@ -15,11 +16,27 @@ const Version = 1
 
 // File is the layout of results.json (see DESIGN.md).
 type File struct {
-	Version int     `json:"version"`
-	Blocks  []Block `json:"blocks"`
+	Version int `json:"version"`
+	// Generator is the specgen that wrote the file ("specgen v0.1.0"); files
+	// written before it was recorded have none.
+	Generator string  `json:"generator,omitempty"`
+	Blocks    []Block `json:"blocks"`
 	// NoSite is set for a revision without the site's content/ (before
 	// the documentation was added): no blocks.
 	NoSite bool `json:"-"`
+	// Commit names the git commit the results were evaluated at ("" when
+	// unknown, as for a results.json file): its hash, and " with
+	// uncommitted changes" for a working tree that differs from it.
+	Commit string `json:"-"`
+	// Quotes are the places in the pages' prose that quote a block's value
+	// (=[id.name]), by "id.name"; nil when unknown.
+	Quotes map[string][]Place `json:"-"`
+}
+
+// Place is a line of a page.
+type Place struct {
+	File string // relative to the site root
+	Line int
 }
 
 // Block is one block in results.json.
@@ -70,11 +87,16 @@ type Caution struct {
 // whole.
 func Write(w io.Writer, blocks []*calc.Evaluated) error {
 	bw := bufio.NewWriter(w)
+	generator, err := json.Marshal(version.Generator())
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"generator\": %s,\n", Version, generator)
 	if len(blocks) == 0 {
-		fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": []\n}\n", Version)
+		bw.WriteString("  \"blocks\": []\n}\n")
 		return bw.Flush()
 	}
-	fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"blocks\": [\n", Version)
+	bw.WriteString("  \"blocks\": [\n")
 	for i, e := range blocks {
 		b, err := json.MarshalIndent(blockOf(e), "    ", "  ")
 		if err != nil {
@@ -93,7 +115,7 @@ func Write(w io.Writer, blocks []*calc.Evaluated) error {
 
 // Of returns the contents of results.json for evaluated blocks, sorted by id.
 func Of(blocks []*calc.Evaluated) File {
-	f := File{Version: Version, Blocks: []Block{}}
+	f := File{Version: Version, Generator: version.Generator(), Blocks: []Block{}}
 	for _, e := range blocks {
 		f.Blocks = append(f.Blocks, blockOf(e))
 	}

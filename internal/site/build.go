@@ -17,9 +17,9 @@ import (
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
-	"github.com/millrace-workshop/specgen/internal/models"
 	"github.com/millrace-workshop/specgen/internal/render"
 	"github.com/millrace-workshop/specgen/internal/results"
+	"github.com/millrace-workshop/specgen/internal/version"
 )
 
 // StaticDir is the optional folder of a site root copied into the output as is.
@@ -52,6 +52,7 @@ type Summary struct {
 	Out      string // absolute output folder
 	Pages    int
 	Problems []Problem // failed claims and unacknowledged DANGER cautions
+	Tally    Tally     // what the build evaluated, as check counts it
 	Written  bool      // false when Strict refused to write
 	UpToDate bool      // nothing had changed since the last build: nothing was redone
 }
@@ -76,7 +77,14 @@ type Site struct {
 	chartsTotal int
 }
 
-// Load reads a site root: configuration, templates and every page.
+// MaxErrors is how many input problems one run reports; the rest are
+// counted.
+const MaxErrors = 50
+
+// Load reads a site root: configuration, templates and every page. It
+// reports every input problem of the site at once, by file and line (at
+// most MaxErrors): each step goes on past a problem as far as the rest
+// does not depend on it.
 func Load(root string) (*Site, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
@@ -85,51 +93,70 @@ func Load(root string) (*Site, error) {
 	if err != nil {
 		return nil, err
 	}
+	var problems inputerr.List
+	// keep adds an input error to the problems; it returns any other error.
+	keep := func(err error) error {
+		if err == nil || !inputerr.Is(err) {
+			return err
+		}
+		problems = append(problems, inputerr.From(err)...)
+		return nil
+	}
+	reported := func() error { return problems.Capped(MaxErrors, "in this site").Sorted() }
 	cfg, err := LoadConfig(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	lay, err := loadLayouts(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	rels, err := findPages(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
+	}
+	if rels == nil {
+		return nil, reported()
 	}
 	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML))}
-	s.Pages = make([]*Page, len(rels))
+	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		s.Pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
+		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
 	})
-	if err := collect(errs); err != nil {
+	if err := keep(collect(errs)); err != nil {
 		return nil, err
 	}
-	if err := checkOutputClashes(s.Pages); err != nil {
-		return nil, err
-	}
-	var tplErrs inputerr.List
-	for _, p := range s.Pages {
-		if _, err := s.layouts.lookup(p.Front.Template); err != nil {
-			tplErrs = append(tplErrs, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+	for _, p := range pages {
+		if p != nil {
+			s.Pages = append(s.Pages, p)
 		}
 	}
-	if err := tplErrs.Sorted(); err != nil {
+	if err := keep(checkOutputClashes(s.Pages)); err != nil {
 		return nil, err
 	}
-	if err := s.evaluate(); err != nil {
+	if lay != nil {
+		for _, p := range s.Pages {
+			if _, err := lay.lookup(p.Front.Template); err != nil {
+				problems = append(problems, &inputerr.Error{File: p.File, Line: p.frontLine("template"), Msg: "front matter: " + err.Error()})
+			}
+		}
+	}
+	if err := keep(s.evaluate()); err != nil {
 		return nil, err
 	}
 	static, err := readStatic(root)
-	if err != nil {
+	if err := keep(err); err != nil {
 		return nil, err
 	}
 	names := map[string]bool{}
 	for name := range static {
 		names[name] = true
 	}
-	if err := s.checkLinks(names).Sorted(); err != nil {
+	if lay != nil {
+		problems = append(problems, s.checkLinks(names)...)
+	}
+	if err := reported(); err != nil {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)
@@ -156,7 +183,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	fp, fpErr := fingerprint(root, out)
 	if fpErr == nil {
 		if m, ok := upToDate(root, out, fp); ok {
-			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, UpToDate: true,
+			return &Summary{Out: out, Pages: m.Pages, Problems: m.Problems, Tally: m.Tally, UpToDate: true,
 				Written: !opts.Strict || len(m.Problems) == 0}, nil
 		}
 	}
@@ -168,17 +195,17 @@ func Build(root string, opts Options) (*Summary, error) {
 		opts.Progress("pages read", len(s.Pages), len(s.Pages))
 		opts.Progress("blocks evaluated", len(s.Calc.Blocks), len(s.Calc.Blocks))
 	}
-	problems := s.Problems()
+	problems, tally := s.Problems(), s.Tally()
 	if opts.Strict && len(problems) > 0 {
-		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems}, nil
+		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
 	sum, err := s.Write(opts)
 	if err != nil {
 		return nil, err
 	}
-	sum.Problems = problems
+	sum.Problems, sum.Tally = problems, tally
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems)
+		remember(root, out, fp, sum.Pages, problems, tally)
 	}
 	return sum, nil
 }
@@ -269,6 +296,7 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 	}
 	names := newOutputNames()
 	names.take("results.json", "specgen's own results.json")
+	names.take(searchIndexFile, "specgen's own "+searchIndexFile)
 	for _, name := range slices.Sorted(maps.Keys(fixed)) {
 		names.take(name, "specgen's own "+name)
 		if err := put(name, bytesOf(fixed[name])); err != nil {
@@ -304,11 +332,13 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		return nil
 	}
 	errs := make([]error, len(s.Pages))
+	entries := make([]searchEntry, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
-		files, err := s.renderPage(p)
+		files, entry, err := s.renderPage(p)
+		entries[i] = entry
 		if err != nil {
 			errs[i] = err
 			return
@@ -327,7 +357,10 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 			progress("pages rendered", int(n), len(s.Pages))
 		}
 	})
-	return collect(errs)
+	if err := collect(errs); err != nil {
+		return err
+	}
+	return s.emitHosting(put, names, entries)
 }
 
 // PageData is what a page template receives.
@@ -346,6 +379,7 @@ type SiteData struct {
 	Description string
 	Home        string    // URL of the home page, relative to the current page
 	Revision    *Revision // the git commit built from, nil outside git
+	Generator   string    // the specgen that built the site: "specgen v0.1.0"
 }
 
 // PageInfo describes the current page for templates.
@@ -358,12 +392,19 @@ type PageInfo struct {
 	Content     template.HTML
 	TOC         []render.Heading // nested by level
 	TOCCount    int              // headings in the TOC, all levels
-	// Caution is the standard compressed-air caution on pages with a
-	// pressure calculation, else empty.
+	// Caution is the standard compressed-air caution: the box on pages
+	// that hold a pressure calculation, a one-line strip on pages that
+	// only quote or chart one, else empty.
 	Caution template.HTML
+	// Alert says under the title that a block the page shows has a
+	// failed claim or an unacknowledged DANGER, else empty.
+	Alert template.HTML
 	// Cautions are the caution boxes of every block the page shows or
 	// quotes, for layouts that gather them (the spec layout).
 	Cautions template.HTML
+	// Canonical is the page's full address when specgen.toml gives
+	// base_url, else empty.
+	Canonical string
 }
 
 // Home is the output path of the home page: content/index.md, or the
@@ -376,34 +417,59 @@ func (s *Site) Home() string {
 }
 
 // renderPage lays out one page; it returns the page and the chart data
-// files beside it, keyed by output path.
-func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
+// files beside it, keyed by output path, and the page's entry of the
+// search index.
+func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
 	doc := s.md.Parse(p.body, p.lineOffset)
 	doc.TakeTitle()
+	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
+	doc.RelativeFromRoot(rootPrefix)
 	s.attach(p, doc)
 	if err := s.drawCharts(p, doc, out); err != nil {
-		return nil, err
+		return nil, searchEntry{}, err
 	}
 	body, err := s.md.Render(doc)
 	if err != nil {
-		return nil, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
 	}
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
+	info := PageInfo{
+		Title:       p.Title,
+		Heading:     cmp.Or(p.Heading, p.Title),
+		Description: p.Front.Description,
+		Source:      p.File,
+		URL:         p.Out,
+		Content:     template.HTML(body),
+		TOCCount:    len(doc.Headings(3)),
+		Caution:     s.standardCaution(p),
+		Alert:       s.pageAlert(p),
+		Cautions:    s.pageCautions(p),
+		TOC:         render.Nest(doc.Headings(3)),
+	}
+	if s.Config.BaseURL != "" {
+		info.Canonical = s.Config.BaseURL + href(p.Out)
+	}
+	page, err := s.layout(p, rootPrefix, info)
+	if err != nil {
+		return nil, searchEntry{}, err
+	}
+	out[p.Out] = page
+	return out, newSearchEntry(p, doc), nil
+}
+
+// siteData describes the site to a page whose way up to the site's root
+// is rootPrefix.
+func (s *Site) siteData(rootPrefix string) SiteData {
+	return SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
+		Generator: version.Generator()}
+}
+
+// layout lays out page p, whose way up to the site's root is rootPrefix,
+// with its layout template: info and the site's navigation around it.
+func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error) {
 	data := PageData{
-		Site: SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision},
-		Page: PageInfo{
-			Title:       p.Title,
-			Heading:     cmp.Or(p.Heading, p.Title),
-			Description: p.Front.Description,
-			Source:      p.File,
-			URL:         p.Out,
-			Content:     template.HTML(body),
-			TOCCount:    len(doc.Headings(3)),
-			Caution:     s.standardCaution(p),
-			Cautions:    s.pageCautions(p),
-			TOC:         render.Nest(doc.Headings(3)),
-		},
+		Site:        s.siteData(rootPrefix),
+		Page:        info,
 		Root:        rootPrefix,
 		Nav:         navFor(s.nav, p, rootPrefix),
 		Breadcrumbs: breadcrumbsFor(s.nav, p, rootPrefix),
@@ -427,19 +493,7 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, error) {
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}
-	out[p.Out] = buf.Bytes()
-	return out, nil
-}
-
-func (s *Site) standardCaution(p *Page) template.HTML {
-	shows, vacuum := s.pressureCalcs(p)
-	switch {
-	case !shows:
-		return ""
-	case vacuum:
-		return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
-	}
-	return template.HTML(render.StandardCautionHTML(models.StandardCaution))
+	return buf.Bytes(), nil
 }
 
 // collect joins the input errors of a parallel step, sorted by place; a

@@ -20,7 +20,7 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 1
+const cacheFormat = 2
 
 // manifest records one build: what went in (a fingerprint of every input
 // and of the specgen binary) and what came out.
@@ -29,6 +29,7 @@ type manifest struct {
 	Fingerprint string                `json:"fingerprint"`
 	Pages       int                   `json:"pages"`
 	Problems    []Problem             `json:"problems"`
+	Tally       Tally                 `json:"tally"`
 	Files       map[string]outputFile `json:"files"`
 }
 
@@ -162,8 +163,8 @@ func upToDate(root, out, fp string) (*manifest, bool) {
 
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
-func remember(root, out, fp string, pages int, problems []Problem) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Files: map[string]outputFile{}}
+func remember(root, out, fp string, pages int, problems []Problem, tally Tally) {
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}}
 	err := filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() {
 			return err

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/display"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
 	"github.com/millrace-workshop/specgen/internal/render"
 	"github.com/millrace-workshop/specgen/internal/units"
@@ -53,9 +54,11 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		b, err := cat.ParseBlock(p.File, n.FenceLine+doc.LineOffset, n.Source)
 		if err != nil {
 			errs = append(errs, inputerr.From(err)...)
-			continue
 		}
-		p.blocks = append(p.blocks, b)
+		// A broken block stays, so that what names it is not blamed too.
+		if b != nil {
+			p.blocks = append(p.blocks, b)
+		}
 	}
 	for _, r := range doc.ValueRefs() {
 		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
@@ -79,6 +82,7 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	for _, list := range doc.CautionLists() {
+		p.listsCautions = true
 		if list.Content != "" {
 			errs = append(errs, &inputerr.Error{File: p.File, Line: list.FenceLine + doc.LineOffset,
 				Msg: "a cautions fence takes no content (the site fills it with every caution); leave it empty"})
@@ -96,7 +100,8 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 }
 
 // evaluate runs every block of the site, then checks the value
-// references and chart fences of every page.
+// references and chart fences of every page, and lists every problem
+// found.
 func (s *Site) evaluate() error {
 	var blocks []*calc.Block
 	s.blockPage = map[string]*Page{}
@@ -121,18 +126,31 @@ func (s *Site) evaluate() error {
 	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
 		Charted: func(id string) bool { return charted[id] }})
+	var errs inputerr.List
 	if err != nil {
-		return inputerr.From(err).Sorted()
+		errs = inputerr.From(err)
 	}
 	s.Calc = set
-	var errs inputerr.List
+	// A value or chart of a block that has problems of its own (or needs
+	// one that has) is not checked: the block's problems are reported.
+	unevaluated := func(id string) bool {
+		_, known := s.blockPage[id]
+		_, evaluated := set.Lookup(id)
+		return known && !evaluated
+	}
 	for _, p := range s.Pages {
 		for _, n := range p.charts {
+			if unevaluated(n.Block) {
+				continue
+			}
 			if err := s.checkChartName(p, n); err != nil {
 				errs = append(errs, err)
 			}
 		}
 		for _, ref := range p.refs {
+			if ref.Problem == "" && unevaluated(ref.Block) {
+				continue
+			}
 			if _, err := s.formatRef(p, ref); err != nil {
 				errs = append(errs, err)
 			}
@@ -258,13 +276,13 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 	return template.HTML(b.String())
 }
 
-// pressureCalcs reports whether a page holds, quotes or charts a
-// calculation of a kind that involves pressure, and whether those are
-// vacuum calculations: at least one holds vacuum and none holds compressed
-// air (a lid given only the pressure difference across it is neither).
-func (s *Site) pressureCalcs(p *Page) (any, allVacuum bool) {
+// pressureCalcs reports whether any of the blocks ids is a calculation of
+// a kind that involves pressure, and whether those are vacuum calculations:
+// at least one holds vacuum and none holds compressed air (a lid given only
+// the pressure difference across it is neither).
+func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
 	vacuum, compressed := false, false
-	for _, id := range s.blocksShown(p) {
+	for _, id := range ids {
 		e, ok := s.Calc.Lookup(id)
 		if !ok || !e.Block.Kind.Has(calc.HoldsPressure) {
 			continue
@@ -345,7 +363,7 @@ func (s *Site) formatRef(p *Page, ref valueRef) (refView, *inputerr.Error) {
 		}
 		return fail("%v", err)
 	}
-	return refView{Shown: shown, Href: s.blockLink(p, ref.Block)}, nil
+	return refView{Shown: display.Minus(shown), Href: s.blockLink(p, ref.Block)}, nil
 }
 
 // refHint guesses what a malformed inline value meant: "did you mean

@@ -6,6 +6,7 @@ import (
 	"io/fs"
 	"maps"
 	"math"
+	"net/url"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -26,11 +27,16 @@ const ConfigFile = "specgen.toml"
 
 // Config is the site configuration.
 type Config struct {
-	Title       string         `toml:"title"`
-	Description string         `toml:"description"`
-	SigFigs     int            `toml:"sig_figs"`
-	Markdown    MarkdownConfig `toml:"markdown"`
-	Safety      SafetyConfig   `toml:"safety"`
+	Title       string `toml:"title"`
+	Description string `toml:"description"`
+	SigFigs     int    `toml:"sig_figs"`
+	// BaseURL is the address the site is published at, ending in "/"
+	// ("https://example.org/docs/"); "" when not given. With it the build
+	// writes sitemap.xml and canonical links, and the 404 page's links
+	// work at any depth.
+	BaseURL  string         `toml:"base_url"`
+	Markdown MarkdownConfig `toml:"markdown"`
+	Safety   SafetyConfig   `toml:"safety"`
 	// Materials adds materials or overrides properties of built-in ones.
 	Materials map[string]models.MaterialRow `toml:"materials"`
 	// env is the calculation environment the settings make.
@@ -56,7 +62,7 @@ type MarkdownConfig struct {
 	RawHTML bool `toml:"raw_html"`
 }
 
-var configKeys = []string{"description", "markdown", "markdown.raw_html", "materials", "safety", "safety.minimum_factor",
+var configKeys = []string{"base_url", "description", "markdown", "markdown.raw_html", "materials", "safety", "safety.minimum_factor",
 	"safety.minimum_factor_buckling", "safety.minimum_factor_metal", "safety.minimum_factor_plastic", "sig_figs", "title"}
 
 // materialName is what a material added in specgen.toml may be called.
@@ -143,7 +149,8 @@ func LoadConfig(root string) (Config, error) {
 	text := string(src)
 	md, err := toml.Decode(text, &cfg)
 	if err != nil {
-		return cfg, tomlError(ConfigFile, 0, text, err, "site configuration")
+		// The pages are still read, with the default settings.
+		return DefaultConfig(), tomlError(ConfigFile, 0, text, err, "site configuration")
 	}
 	lines := calc.KeyLines(text)
 	var errs inputerr.List
@@ -167,9 +174,17 @@ func LoadConfig(root string) (Config, error) {
 	if cfg.SigFigs < 2 || cfg.SigFigs > 8 {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["sig_figs"],
 			Msg: fmt.Sprintf("sig_figs: %d is out of range; allowed: 2 to 8 significant figures", cfg.SigFigs)})
+		cfg.SigFigs = DefaultConfig().SigFigs
 	}
 	if strings.TrimSpace(cfg.Title) == "" {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["title"], Msg: "title: must not be empty"})
+	}
+	if cfg.BaseURL != "" {
+		base, err := checkBaseURL(cfg.BaseURL)
+		if err != nil {
+			errs = append(errs, &inputerr.Error{File: ConfigFile, Line: lines["base_url"], Key: "base_url", Msg: err.Error()})
+		}
+		cfg.BaseURL = base
 	}
 	env, envErrs := cfg.makeEnv(lines)
 	errs = append(errs, envErrs...)
@@ -177,6 +192,8 @@ func LoadConfig(root string) (Config, error) {
 	cat, err := models.NewCatalog(env)
 	if err != nil {
 		errs = append(errs, &inputerr.Error{File: ConfigFile, Msg: err.Error()})
+		// The pages are still read, with the built-in materials.
+		cat, cfg.env = defaultCatalog, models.DefaultEnv()
 	}
 	cfg.catalog = cat
 	sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
@@ -184,6 +201,20 @@ func LoadConfig(root string) (Config, error) {
 		return cfg, errs
 	}
 	return cfg, nil
+}
+
+// checkBaseURL returns the address a site is published at, ending in "/",
+// or says why text is not one.
+func checkBaseURL(text string) (string, error) {
+	u, err := url.Parse(text)
+	if err != nil || (u.Scheme != "http" && u.Scheme != "https") || u.Host == "" || u.User != nil ||
+		u.RawQuery != "" || u.Fragment != "" || strings.ContainsAny(text, " \t\n") {
+		return "", fmt.Errorf("%q is not allowed; write the full address the site is published at, starting with https:// or http://, without a query or #fragment, e.g. \"https://example.org/docs/\"", text)
+	}
+	if !strings.HasSuffix(u.Path, "/") {
+		u.Path += "/"
+	}
+	return u.String(), nil
 }
 
 // numberWords writes a number for a message; NaN and infinities as the

@@ -88,7 +88,9 @@ func colonHeader(first, rest []byte) string {
 }
 
 // parseFrontMatter decodes a page's front matter strictly: unknown keys and
-// wrong types are errors that name the line.
+// wrong types are errors that name the line. With such an error the body
+// and its offset are still given, so that the rest of the page can be
+// checked; the body is nil only when the page cannot be split at all.
 func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []byte, int, error) {
 	var fm FrontMatter
 	if err := checkPageLimits(file, src); err != nil {
@@ -102,7 +104,7 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 	lines := calc.KeyLines(text)
 	md, err := toml.Decode(text, &fm)
 	if err != nil {
-		return fm, nil, nil, 0, tomlError(file, 1, text, err, "front matter")
+		return FrontMatter{}, nil, body, offset, tomlError(file, 1, text, err, "front matter")
 	}
 	var errs inputerr.List
 	for _, k := range md.Undecoded() {
@@ -114,7 +116,7 @@ func parseFrontMatter(file string, src []byte) (FrontMatter, map[string]int, []b
 		errs = append(errs, &inputerr.Error{File: file, Line: 1 + lines[key], Msg: msg})
 	}
 	if len(errs) > 0 {
-		return fm, nil, nil, 0, errs.Sorted()
+		return fm, lines, body, offset, errs.Sorted()
 	}
 	return fm, lines, body, offset, nil
 }

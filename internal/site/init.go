@@ -13,8 +13,9 @@ import (
 )
 
 // Init writes a new site into dir: specgen.toml, a home page and an
-// example page with a compressor block, a claim and a chart. It refuses a
-// dir that exists and is not empty.
+// example page with a compressor block, a claim and a chart, and a
+// .gitignore for the output and cache folders. It refuses a dir that
+// exists and is not empty.
 func Init(dir string) ([]string, error) {
 	if dir == "" {
 		// ReadDir("") fails as "not exist", and the files would land in
@@ -42,22 +43,35 @@ func Init(dir string) ([]string, error) {
 		if err != nil {
 			return err
 		}
-		target := filepath.Join(dir, filepath.FromSlash(rel))
-		if err := os.MkdirAll(filepath.Dir(target), 0o755); err != nil {
-			return err
-		}
 		written = append(written, rel)
-		// O_EXCL: never write over a file, even one that appeared since
-		// the folder was found empty.
-		f, err := os.OpenFile(target, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
-		if err != nil {
-			return err
-		}
-		_, err = f.Write(data)
-		if cerr := f.Close(); err == nil {
-			err = cerr
-		}
-		return err
+		return writeNew(filepath.Join(dir, filepath.FromSlash(rel)), data)
 	})
-	return written, err
+	if err != nil {
+		return written, err
+	}
+	written = append(written, ".gitignore")
+	return written, writeNew(filepath.Join(dir, ".gitignore"), []byte(starterGitignore))
+}
+
+// starterGitignore keeps what a build writes out of the site's repository.
+const starterGitignore = "# Written by specgen build: the site, and what an unchanged rebuild skips.\n" +
+	"/" + DefaultOut + "/\n" +
+	"/" + CacheDir + "/\n"
+
+// writeNew writes a file that must not exist yet, and its folder.
+func writeNew(target string, data []byte) error {
+	if err := os.MkdirAll(filepath.Dir(target), 0o755); err != nil {
+		return err
+	}
+	// O_EXCL: never write over a file, even one that appeared since the
+	// folder was found empty.
+	f, err := os.OpenFile(target, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
+	if err != nil {
+		return err
+	}
+	_, err = f.Write(data)
+	if cerr := f.Close(); err == nil {
+		err = cerr
+	}
+	return err
 }

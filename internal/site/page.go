@@ -44,6 +44,12 @@ type Page struct {
 	// headings, for checking links into it.
 	links   []render.LinkRef
 	anchors map[string]bool
+	// unread marks a page that could not be read (its problem is
+	// reported): it has its place, but no content, headings or blocks.
+	unread bool
+	// listsCautions: the page lists every caution of the site, which makes
+	// it the safety page the short standard caution links to.
+	listsCautions bool
 }
 
 // Dir is the page's folder relative to content/, "" for the top level.
@@ -118,21 +124,33 @@ func findPages(root string) ([]string, error) {
 	return rels, nil
 }
 
-// loadPage reads and parses one page.
+// PageOutput is the output path of the page whose source is file
+// ("content/a/b.md" → "a/b.html").
+func PageOutput(file string) string {
+	rel := strings.TrimPrefix(file, ContentDir+"/")
+	return strings.TrimSuffix(rel, path.Ext(rel)) + ".html"
+}
+
+// loadPage reads and parses one page. With an input error in its body it
+// still returns the page, with what could be read, so that the site's
+// other problems can be found in the same run.
 func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
 	file := ContentDir + "/" + rel
 	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
 	if err != nil {
 		return nil, err
 	}
+	// A page that cannot be read still has its place, so that links to it
+	// are not blamed as well.
+	unread := &Page{File: file, Rel: rel, Out: PageOutput(file), Title: titleFromName(rel), unread: true}
 	if !utf8.Valid(src) {
-		return nil, &inputerr.Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
+		return unread, &inputerr.Error{File: file, Line: firstInvalidUTF8Line(src), Msg: "not UTF-8 text; save the page as UTF-8"}
 	}
-	fm, lines, body, offset, err := parseFrontMatter(file, src)
-	if err != nil {
-		return nil, err
+	fm, lines, body, offset, fmErr := parseFrontMatter(file, src)
+	if body == nil && fmErr != nil {
+		return unread, fmErr
 	}
-	p := &Page{File: file, Rel: rel, Out: strings.TrimSuffix(rel, path.Ext(rel)) + ".html", Front: fm, frontLines: lines}
+	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines}
 	doc := md.Parse(body, offset)
 	p.body, p.lineOffset = body, offset
 	refs := 0
@@ -145,12 +163,13 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 		p.titleParts = append(p.titleParts, titlePart{Ref: refs})
 		refs++
 	}
-	if err := readDoc(p, doc, cat); err != nil {
-		return nil, err
-	}
+	docErr := readDoc(p, doc, cat)
 	// Until the values are known, a reference in the title reads as written.
 	p.setHeading(func(i int) string { return p.refs[i].Written })
-	return p, nil
+	if fmErr != nil {
+		return p, inputerr.Join(fmErr, docErr)
+	}
+	return p, docErr
 }
 
 // titlePart is a piece of a page's level-1 heading: text, or (Ref >= 0)

@@ -5,9 +5,26 @@ import (
 	"github.com/millrace-workshop/specgen/internal/results"
 )
 
-// Results returns the contents of results.json.
+// Results returns the contents of results.json, with the places that
+// quote each value and the commit the site was read from.
 func (s *Site) Results() results.File {
-	return results.Of(s.blocks())
+	f := results.Of(s.blocks())
+	f.Quotes = map[string][]results.Place{}
+	for _, p := range s.Pages {
+		for _, ref := range p.refs {
+			if ref.Problem == "" {
+				key := ref.Block + "." + ref.Result
+				f.Quotes[key] = append(f.Quotes[key], results.Place{File: p.File, Line: ref.Line})
+			}
+		}
+	}
+	if r := s.revision; r != nil {
+		f.Commit = r.Commit
+		if r.Modified {
+			f.Commit += " with uncommitted changes"
+		}
+	}
+	return f
 }
 
 // blocks is every evaluated block of the site, sorted by id.

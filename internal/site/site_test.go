@@ -339,7 +339,7 @@ func TestEveryCautionLevel(t *testing.T) {
 		t.Fatal(err)
 	}
 	page, _ := os.ReadFile(filepath.Join(root, DefaultOut, "index.html"))
-	for _, want := range []string{`sg-caution-danger" role="note" aria-label="DANGER"`, `aria-label="WARNING"`, `aria-label="CAUTION"`, `aria-label="NOTICE"`,
+	for _, want := range []string{`sg-caution-danger" id="calc-`, `aria-label="DANGER"`, `aria-label="WARNING"`, `aria-label="CAUTION"`, `aria-label="NOTICE"`,
 		"<strong>Acknowledged:</strong> a bench demonstration", "licensed practice govern"} {
 		if !strings.Contains(string(page), want) {
 			t.Errorf("page lacks %s", want)

@@ -17,14 +17,13 @@ var customaryUnits = map[string]bool{
 	"in": true, "ft": true, "in2": true, "ft2": true, "in3": true, "ft3": true, "gal": true, "cfm": true,
 	"psi": true, "ksi": true, "inHg": true, "degF": true, "degR": true, "lbf": true, "lbf in": true, "lbf ft": true,
 	"hp": true, "lb": true, "lb/ft3": true, "lb/in3": true, "lbf/in": true, "ft/min": true, "ft/s": true,
-	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true, "inHg vac": true,
+	"ft/s2": true, "lb/h": true, "lb ft2": true, "lb in2": true, "SCFM": true, "inHg vac": true, "ft lbf": true, "in lbf": true, "hp/cfm": true,
 }
 
 // neutralUnits are used alike in both systems.
 var neutralUnits = map[string]bool{
 	"": true, "%": true, "rpm": true, "rev/s": true, "rad/s": true, "rad": true, "deg": true,
-	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true,
-	"Hz": true, "Torr L/s": true,
+	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true, "mmHg vac": true, "Hz": true, "Torr L/s": true,
 }
 
 // metricUnits are the metric symbols of the unit table. Every symbol of
@@ -38,14 +37,14 @@ var metricUnits = map[string]bool{
 	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
 	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
 	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
-	"Nl/min": true, "Nm3/h": true, "l/min ANR": true, "Pa m3/s": true, "mbar L/s": true,
+	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true, "Nl/min": true, "l/min ANR": true, "Pa m3/s": true, "mbar L/s": true, "hPa(a)": true, "hPa(g)": true, "Nm3/h": true, "kW/(m3/min)": true, "W/(L/min)": true, "W/(m3/s)": true,
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)
-// belongs to; a pressure's gauge or absolute mark does not matter. A
-// symbol outside the unit table is metric.
+// belongs to; a pressure's gauge, absolute or difference mark does not
+// matter. A symbol outside the unit table is metric.
 func SystemOf(symbol string) UnitSystem {
-	base := strings.TrimSuffix(strings.TrimSuffix(symbol, "(g)"), "(a)")
+	base, _ := pressureMark(symbol)
 	switch {
 	case customaryUnits[base]:
 		return Customary
@@ -64,19 +63,14 @@ var customaryOf = map[string]string{
 	"bar": "psi", "mbar": "psi", "kPa": "psi", "MPa": "psi", "Pa": "psi",
 	"degC": "degF", "N": "lbf", "kN": "lbf", "N m": "lbf ft", "N mm": "lbf in",
 	"W": "hp", "kW": "hp", "g": "lb", "kg": "lb", "kg/m3": "lb/ft3",
-	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in",
+	"kg m2": "lb ft2", "m/s": "ft/s", "N/mm": "lbf/in", "kW/(m3/min)": "hp/cfm", "W/(L/min)": "hp/cfm", "g/s": "lb/h", "kg/s": "lb/h",
 }
 
 // CustomaryFor is the US customary counterpart of a metric display unit,
 // or the unit itself when it has none (J, kJ/kg) or is not metric.
-// A pressure keeps its mark: "bar(a)" becomes "psi(a)".
+// A pressure keeps its mark: "bar(a)" becomes "psi(a)", "bar(d)" "psi(d)".
 func CustomaryFor(unit string) string {
-	base, mark := unit, ""
-	for _, m := range []string{"(a)", "(g)"} {
-		if b, ok := strings.CutSuffix(unit, m); ok {
-			base, mark = b, m
-		}
-	}
+	base, mark := pressureMark(unit)
 	c, ok := customaryOf[base]
 	if !ok {
 		return unit
@@ -85,4 +79,15 @@ func CustomaryFor(unit string) string {
 		return unit
 	}
 	return c + mark
+}
+
+// pressureMark splits a pressure unit symbol into its base and its mark
+// ("bar(a)" into "bar" and "(a)"); other symbols have no mark.
+func pressureMark(symbol string) (base, mark string) {
+	for _, m := range []string{"(a)", "(g)", "(d)"} {
+		if b, ok := strings.CutSuffix(symbol, m); ok {
+			return b, m
+		}
+	}
+	return symbol, ""
 }

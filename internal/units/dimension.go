@@ -36,6 +36,11 @@ const (
 	MassFlow
 	SpecificEnergy
 	Inertia
+	PressureDifference // the difference of two pressures: shown marked "bar(d)", "psid", never gauge
+	EnergyPerVolume    // J/m3 in SI: the energy a volume of air costs (power over flow)
+	// SpecificPower is shaft power per unit of volume flow delivered, J/m3
+	// in SI; kept apart from pressure, which has the same base units.
+	SpecificPower
 	Throughput // a gas flow as pressure times volume per time, such as a leak
 )
 
@@ -71,6 +76,9 @@ var dimensions = [...]dimensionInfo{
 	MassFlow:              {"mass flow", "kg/s, g/s, kg/h", "kg/s"},
 	SpecificEnergy:        {"specific energy", "J/kg, kJ/kg", "J/kg"},
 	Inertia:               {"moment of inertia", "kg m2, kg mm2", "kg m2"},
+	PressureDifference:    {"pressure difference", "bar(d), mbar(d), kPa(d), MPa(d), psid", "Pa(d)"},
+	EnergyPerVolume:       {"energy per volume", "kJ/m3, J/L, kWh/m3", "J/m3"},
+	SpecificPower:         {"specific power", "kW/(m3/min), W/(L/min), hp/cfm", "W/(m3/s)"},
 	Throughput:            {"gas throughput", "mbar L/s, Pa m3/s, Torr L/s", "Pa m3/s"},
 }
 
@@ -94,8 +102,8 @@ func (d Dimension) Examples() string {
 	return dimensions[d].examples
 }
 
-// article returns d's name preceded by "a" or "an".
-func (d Dimension) article() string {
+// Article returns d's name preceded by "a" or "an": "an energy", "a length".
+func (d Dimension) Article() string {
 	name := d.String()
 	if strings.ContainsRune("aeiou", rune(name[0])) {
 		return "an " + name

@@ -28,10 +28,16 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": cannot be read as unknown "+want.String())
 	}
 	if text == "" {
-		return Quantity{}, newError(text, ": empty; expected "+want.article()+" ("+want.Examples()+")")
+		return Quantity{}, newError(text, ": empty; expected "+want.Article()+" ("+want.Examples()+")")
 	}
 	// U+2212 is the minus sign of typeset text (ISO 80000-1); no unit holds it.
-	numText, rest := splitNumber(strings.ReplaceAll(text, "\u2212", "-"))
+	numText, rest, problem := splitFraction(strings.ReplaceAll(text, "\u2212", "-"))
+	if problem != "" {
+		return Quantity{}, newError(text, problem)
+	}
+	if numText == "" {
+		numText, rest = SplitNumber(strings.ReplaceAll(text, "\u2212", "-"))
+	}
 	if numText == "" {
 		return Quantity{}, newError(text, notNumber(text, want))
 	}
@@ -56,16 +62,19 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": a ratio is a plain number; write \""+numText+"\" for "+numText+":1")
 	}
 	if unitText == "" && want != Dimensionless {
-		return Quantity{}, newError(text, ": "+want.article()+" needs a unit ("+want.Examples()+")")
+		return Quantity{}, newError(text, ": "+want.Article()+" needs a unit ("+want.Examples()+")")
 	}
-	u, ok := unitIndex[normalize(unitText)]
+	u, ok, why := lookup(normalize(unitText), want)
+	if why != "" {
+		return Quantity{}, newError(text, ": "+quote(unitText)+": "+why)
+	}
 	if !ok {
 		e := newError(text, ": unknown unit "+quote(unitText))
 		e.Suggest = suggest(normalize(unitText), func(u Unit) bool { return fits(u, want) })
 		if e.Suggest != "" {
 			e.msg += "; did you mean " + quote(e.Suggest) + "?"
 		} else {
-			e.msg += "; " + want.article() + " takes " + want.Examples()
+			e.msg += "; " + want.Article() + " takes " + want.Examples()
 		}
 		return Quantity{}, e
 	}
@@ -81,7 +90,7 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": below absolute zero")
 	case want == Pressure && u.Ref == Absolute && value < 0:
 		return Quantity{}, newError(text, ": an absolute pressure cannot be negative")
-	case want == Pressure && u.Ref == Vacuum && value < 0:
+	case want == Pressure && u.Vacuum() && v < 0:
 		return Quantity{}, newError(text, ": a vacuum reading counts down from ambient and is not negative; write a pressure above ambient as gauge, e.g. \"2 psig\"")
 	}
 	return Quantity{Value: value, Dim: want, Unit: u, Text: text, Number: numText}, nil
@@ -99,10 +108,10 @@ var ratioOfOne = regexp.MustCompile(`^:[\s\p{Zs}]*1(\.0*)?$`)
 // underscore ("1 000", "1'000"), which would otherwise read as a unit.
 var groupSeparator = regexp.MustCompile(`^[\s\p{Zs}'’_][0-9]{3}([^0-9]|$)`)
 
-// splitNumber splits s into a leading decimal number (sign, digits with at
+// SplitNumber splits s into a leading decimal number (sign, digits with at
 // most one point, optional exponent) and the rest. The number is "" when s
 // does not start with one.
-func splitNumber(s string) (number, rest string) {
+func SplitNumber(s string) (number, rest string) {
 	i := 0
 	if i < len(s) && (s[i] == '+' || s[i] == '-') {
 		i++
@@ -158,5 +167,5 @@ func notNumber(text string, want Dimension) string {
 		return ": not a number"
 	}
 	unit, _, _ := strings.Cut(want.Examples(), ",")
-	return ": not a number; expected " + want.article() + " such as " + strconv.Quote("2 "+unit)
+	return ": not a number; expected " + want.Article() + " such as " + strconv.Quote("2 "+unit)
 }

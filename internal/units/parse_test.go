@@ -2,6 +2,7 @@ package units
 
 import (
 	"errors"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -9,10 +10,11 @@ import (
 func TestSpellings(t *testing.T) {
 	var file struct {
 		Case []struct {
-			Text string
-			Dim  string
-			Unit string
-			SI   float64
+			Text   string
+			Dim    string
+			Unit   string
+			SI     float64
+			Source string // where the value comes from; the file's header covers the first cases
 		}
 	}
 	decodeCases(t, "spellings.toml", &file)
@@ -25,8 +27,8 @@ func TestSpellings(t *testing.T) {
 			t.Errorf("Parse(%q, %s): %v", c.Text, c.Dim, err)
 			continue
 		}
-		if q.Unit.Symbol != c.Unit || !closeTo(q.Value, c.SI, 1e-12) {
-			t.Errorf("Parse(%q, %s) = %g %q, want %g %q", c.Text, c.Dim, q.Value, q.Unit.Symbol, c.SI, c.Unit)
+		if q.Unit.Symbol != c.Unit || !closeTo(q.Value, c.SI, 1e-9) {
+			t.Errorf("Parse(%q, %s) = %.12g %q, want %.12g %q (%s)", c.Text, c.Dim, q.Value, q.Unit.Symbol, c.SI, c.Unit, c.Source)
 		}
 		if q.Text != strings.TrimSpace(c.Text) || q.Dim.String() != c.Dim {
 			t.Errorf("Parse(%q, %s): Text %q, Dim %s", c.Text, c.Dim, q.Text, q.Dim)
@@ -63,12 +65,13 @@ func TestParseErrors(t *testing.T) {
 }
 
 func TestPressureRef(t *testing.T) {
-	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute, "vacuum": Vacuum, "unsettled": Unsettled}
+	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute, "unsettled": Unsettled}
 	var file struct {
 		Case []struct {
 			Text     string
 			Ambient  float64
 			Ref      string
+			Vacuum   bool // a vacuum gauge's reading, down from ambient
 			Value    float64
 			Absolute float64
 			RelTol   float64 `toml:"rel_tol"`
@@ -91,8 +94,8 @@ func TestPressureRef(t *testing.T) {
 			t.Errorf("Parse(%q, pressure): %v", c.Text, err)
 			continue
 		}
-		if q.Unit.Ref != ref {
-			t.Errorf("Parse(%q): Ref %d, want %s", c.Text, q.Unit.Ref, c.Ref)
+		if q.Unit.Ref != ref || q.Unit.Vacuum() != c.Vacuum {
+			t.Errorf("Parse(%q): Ref %d, vacuum %v; want %s, %v", c.Text, q.Unit.Ref, q.Unit.Vacuum(), c.Ref, c.Vacuum)
 		}
 		if !closeTo(q.Value, c.Value, tol) {
 			t.Errorf("Parse(%q).Value = %.10g, want %.10g (%s)", c.Text, q.Value, c.Value, c.Source)
@@ -116,6 +119,41 @@ func TestAbsoluteOtherDimensions(t *testing.T) {
 		}
 		if got := q.Absolute(101325); got != q.Value {
 			t.Errorf("Parse(%q).Absolute(101325) = %g, want %g", c.text, got, q.Value)
+		}
+	}
+}
+
+// TestStandardFlow: a flow of standard air (ISO 8778 reference atmosphere)
+// reads as free air at the ambient pressure, and shows back as written.
+func TestStandardFlow(t *testing.T) {
+	var file struct {
+		Case []struct {
+			Text    string
+			Ambient float64
+			Unit    string
+			FreeAir float64 `toml:"free_air"`
+			Source  string
+		}
+	}
+	decodeCases(t, "standard_flow.toml", &file)
+	if len(file.Case) == 0 {
+		t.Fatal("standard_flow.toml: no cases")
+	}
+	for _, c := range file.Case {
+		q, err := Parse(c.Text, VolumeFlow)
+		if err != nil || c.Source == "" {
+			t.Errorf("Parse(%q): %v (source %q)", c.Text, err, c.Source)
+			continue
+		}
+		if !q.Unit.Standard() || q.Unit.Symbol != c.Unit {
+			t.Errorf("Parse(%q): unit %+v, want standard %s", c.Text, q.Unit, c.Unit)
+		}
+		if got := q.Absolute(c.Ambient); !closeTo(got, c.FreeAir, 1e-9) {
+			t.Errorf("Parse(%q).Absolute(%g) = %.10g m3/s of free air, want %.10g (%s)", c.Text, c.Ambient, got, c.FreeAir, c.Source)
+		}
+		back, err := FromSI(c.FreeAir, VolumeFlow, c.Unit, c.Ambient)
+		if want, _ := strconv.ParseFloat(q.Number, 64); err != nil || !closeTo(back, want, 1e-9) {
+			t.Errorf("FromSI(%g, %s, %g) = %g, %v; want %g", c.FreeAir, c.Unit, c.Ambient, back, err, want)
 		}
 	}
 }

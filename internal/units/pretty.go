@@ -21,8 +21,10 @@ func Pretty(symbol string) string {
 		return "psig" // the trade's spelling in the US
 	case "psi(a)":
 		return "psia"
-	case "inHg vac", "l/min ANR":
-		return symbol // the trade's spelling, with its space
+	case "psi(d)":
+		return "psid"
+	case "inHg vac", "mmHg vac", "l/min ANR":
+		return symbol // a word after the unit, not a product
 	}
 	return prettyParts.Replace(symbol)
 }

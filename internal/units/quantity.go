@@ -13,19 +13,31 @@ type Quantity struct {
 	Number string
 }
 
-// Absolute returns the absolute value of a pressure, adding the ambient
-// pressure (Pa) when the unit was gauge, unmarked or unsettled, and
-// subtracting the value from it for a vacuum unit. For other dimensions it
-// returns Value.
+// Absolute returns the value at the ambient pressure (Pa): a pressure
+// absolute, adding ambient when the unit was gauge or unmarked (or a
+// vacuum reading, whose Value is negative; plain hPa too, which callers
+// that want it absolute take as Value); a flow of standard or normal air as
+// free air at ambient and 20 °C, by mass. For other quantities it returns
+// Value.
 func (q Quantity) Absolute(ambient float64) float64 {
-	if q.Dim != Pressure {
-		return q.Value
+	switch {
+	case q.Dim == Pressure && q.Unit.Ref != Absolute:
+		return q.Value + ambient
+	case q.Unit.Standard():
+		return q.Value * q.Unit.freeAirPerReference(ambient)
 	}
-	switch q.Unit.Ref {
-	case Absolute:
-		return q.Value
-	case Vacuum:
-		return ambient - q.Value
-	}
-	return q.Value + ambient
+	return q.Value
+}
+
+// freeAirPerReference is the volume of free air at ambient (Pa) and 20 °C
+// that one volume of u's reference air is, by mass (ideal gas: V ∝ T/p).
+func (u Unit) freeAirPerReference(ambient float64) float64 {
+	return u.Reference.Pressure / ambient * freeAirTemperature / u.Reference.Temperature
+}
+
+// AsFreeAir takes si, a volume flow of air measured at the state at, by
+// mass to free air at ambient (Pa) and 20 °C: the SI value that FromSI
+// shows in a standard unit as the flow it is.
+func AsFreeAir(si float64, at GasState, ambient float64) float64 {
+	return si * at.Pressure / ambient * freeAirTemperature / at.Temperature
 }

@@ -1,17 +1,28 @@
 package units
 
-import "strings"
+import (
+	"math"
+	"strings"
+)
 
 // suggest returns the accepted spelling closest to the normalized unit key,
 // or "" when none is close. Only units for which accept returns true are
 // considered (all when accept is nil). A spelling that differs only in case
 // wins; otherwise the smallest edit distance, at most 1 for keys of up to
 // three letters and 2 for longer ones, ties going to the earlier table row.
-// Known slips ("C" for "degC") come first. A pressure mark on a unit that takes none ("atm(g)", "degC(a)") suggests
-// the unit without it.
+// Known slips ("sec" for "s") come first. A pressure mark on a unit that takes none ("atm(g)", "degC(a)") suggests
+// the unit without it. A key that reads as prefixed units ("dm3/min",
+// "mN") is never answered with a unit of another size (more than a factor
+// of 2 off) or quantity; a unit of the same size is proposed instead
+// ("L/min").
 func suggest(key string, accept func(Unit) bool) string {
 	if key == "" {
 		return ""
+	}
+	factor, exps, readable := reading(key)
+	// near: a unit of about the size the key reads as, if it reads as one.
+	near := func(u Unit) bool {
+		return !readable || ExponentsOf(u.Dim) == exps && u.Factor >= factor/2 && u.Factor <= 2*factor
 	}
 	ok := func(e indexEntry) bool { return e.key != "" && (accept == nil || accept(e.unit)) }
 	if hint, found := hints[key]; found && ok(indexEntry{hint, unitIndex[hint]}) {
@@ -33,7 +44,7 @@ func suggest(key string, accept func(Unit) bool) string {
 		}
 	}
 	for _, e := range unitSpellings {
-		if ok(e) && strings.EqualFold(e.key, key) {
+		if ok(e) && near(e.unit) && strings.EqualFold(e.key, key) {
 			return e.key
 		}
 	}
@@ -47,14 +58,22 @@ func suggest(key string, accept func(Unit) bool) string {
 	best, bestDist := "", limit+1
 	lower := strings.ToLower(key)
 	for _, e := range unitSpellings {
-		if !ok(e) || single && !strings.HasPrefix(strings.ToLower(e.key), lower) {
+		if !ok(e) || !near(e.unit) || single && !strings.HasPrefix(strings.ToLower(e.key), lower) {
 			continue
 		}
 		if d := EditDistance(lower, strings.ToLower(e.key)); d < bestDist {
 			best, bestDist = e.key, d
 		}
 	}
-	return best
+	if best != "" || !readable {
+		return best
+	}
+	for _, e := range unitSpellings {
+		if ok(e) && e.key == e.unit.Symbol && ExponentsOf(e.unit.Dim) == exps && math.Abs(e.unit.Factor/factor-1) < 1e-9 {
+			return e.key
+		}
+	}
+	return ""
 }
 
 // markWords are a pressure's reference spelled out after the unit, as
@@ -64,17 +83,15 @@ var markWords = []struct{ word, mark string }{
 	{" gauge", "(g)"}, {" gage", "(g)"}, {"(gauge)", "(g)"}, {"(gage)", "(g)"},
 }
 
-// hints are near misses that edit distance gets wrong: "C" is closer to
-// "K" than to "degC".
-// Unicode's squared unit symbols are spelled out.
-var hints = map[string]string{"C": "degC", "F": "degF", "sec": "s", "hrs": "h",
+// hints are near misses beyond edit distance's reach ("sec" is two letters
+// from "s"), and Unicode's squared unit symbols spelled out.
+var hints = map[string]string{"sec": "s", "hrs": "h",
 	"㎤": "cm3", "㎣": "mm3", "㎥": "m3", "㎜": "mm", "㎝": "cm", "㎞": "km", "㎏": "kg", "㎎": "mg",
 	"㎩": "Pa", "㎪": "kPa", "㎫": "MPa", "㎬": "GPa", "㎖": "mL", "ℓ": "L", "㎛": "um",
 	// Trade spellings whose nearest spelling by letters is another
 	// quantity or a factor off: "l/m" is not "L/s", "kp" not "kN".
-	"lpm": "L/min", "LPM": "L/min", "l/m": "L/min", "L/m": "L/min", "kp": "kgf",
-	"ft lb": "lbf ft", "lb ft": "lbf ft", "in lb": "lbf in", "lb in": "lbf in",
-	"inch": "in", "inches": "in", "degrees": "deg", "kelvin": "K", "Kelvin": "K", "percent": "%"}
+	"l/m": "L/min", "L/m": "L/min", "kp": "kgf",
+	"degrees": "deg", "kelvin": "K", "Kelvin": "K", "percent": "%"}
 
 // EditDistance is the Levenshtein distance between a and b, counted in
 // runes. specgen uses it for "did you mean" everywhere.

@@ -23,25 +23,37 @@ const (
 	revolution = 2 * math.Pi // rad
 )
 
-// Reference states of normal volume flows (from memory): DIN 1343 normal
-// conditions, 0 °C and 101 325 Pa; ISO 8778 standard reference atmosphere
-// (ANR), 20 °C and 100 kPa (its 65 % relative humidity is not modelled:
-// flows convert as dry air, by mass).
+// Reference states of flows of standard and normal air (quoted from
+// memory): the ISO 8778 standard reference atmosphere (ANR), dry air at
+// 100 kPa absolute and 20 °C, which ISO 1217 takes for standard flows and
+// SCFM follows; DIN 1343 normal conditions, 0 °C and 101.325 kPa, for
+// Nl/min and Nm3/h. Humidity is not modelled: flows convert as dry air, by
+// mass.
 var (
+	iso8778 = GasState{Pressure: 100e3, Temperature: celsius0 + 20}
 	din1343 = GasState{Pressure: atm, Temperature: celsius0}
-	iso8778 = GasState{Pressure: 1e5, Temperature: celsius0 + 20}
 )
 
-// normalFlow makes a table row for a normal volume flow unit at state.
-func normalFlow(sym string, factor float64, state GasState, aliases ...string) unitDef {
-	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Normal: state}, aliases}
-}
+// freeAirTemperature is the temperature at which a standard flow is read
+// as free air where no block says otherwise: 20 °C, a workshop's air
+// (common practice).
+const freeAirTemperature = celsius0 + 20
 
 // unitDef is one row of the unit table: a canonical symbol and the other
 // spellings (already in normalized form) that mean the same unit.
 type unitDef struct {
 	Unit
 	aliases []string
+}
+
+// standardDef makes the row of a flow of air measured at the reference state ref.
+func standardDef(sym string, factor float64, ref GasState, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Reference: ref}, aliases}
+}
+
+// vacuumDef makes the row of a vacuum gauge's unit: gauge, read downward.
+func vacuumDef(sym string, factor float64, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: Pressure, Factor: -factor, Ref: Gauge}, aliases}
 }
 
 // def makes a table row for a unit without offset or pressure mark.
@@ -69,7 +81,7 @@ var unitTable = joinDefs(
 		def("mm", Length, 1e-3),
 		def("cm", Length, 1e-2),
 		def("m", Length, 1),
-		def("in", Length, inch),
+		def("in", Length, inch, "in.", "inch", "inches", `"`, "″"),
 		def("ft", Length, foot),
 
 		def("mm2", Area, 1e-6),
@@ -80,23 +92,27 @@ var unitTable = joinDefs(
 
 		def("mm3", Volume, 1e-9),
 		def("cm3", Volume, 1e-6, "cc", "mL", "ml"),
-		def("L", Volume, 1e-3, "l"),
+		def("L", Volume, 1e-3, "l", "litre", "liter", "litres", "liters", "dm3"),
 		def("m3", Volume, 1),
-		def("in3", Volume, inch*inch*inch),
-		def("ft3", Volume, foot*foot*foot),
-		def("gal", Volume, gallon), // US liquid gallon, 231 in3
+		def("in3", Volume, inch*inch*inch, "cu in"),
+		def("ft3", Volume, foot*foot*foot, "cu ft"),
+		def("gal", Volume, gallon, "gallon", "gallons", "US gal", "US gallon"), // US liquid gallon, 231 in3
 
 		def("cm3/s", VolumeFlow, 1e-6, "cc/s", "mL/s", "ml/s"),
-		def("L/min", VolumeFlow, 1e-3/60, "l/min"),
+		def("L/min", VolumeFlow, 1e-3/60, "l/min", "lpm", "LPM"),
 		def("L/s", VolumeFlow, 1e-3, "l/s"),
 		def("m3/h", VolumeFlow, 1.0/3600),
 		def("m3/min", VolumeFlow, 1.0/60),
 		def("m3/s", VolumeFlow, 1),
 		def("cfm", VolumeFlow, foot*foot*foot/60, "ft3/min", "CFM"),
-		normalFlow("Nl/min", 1e-3/60, din1343, "NL/min"),
-		normalFlow("Nm3/h", 1.0/3600, din1343),
-		normalFlow("l/min ANR", 1e-3/60, iso8778, "L/min ANR", "l/min(ANR)", "L/min(ANR)"),
 
+		// Flows of standard and normal air (see iso8778).
+		standardDef("SCFM", foot*foot*foot/60, iso8778, "scfm"),
+		standardDef("l/min ANR", 1e-3/60, iso8778, "L/min ANR", "l/min(ANR)", "L/min(ANR)"),
+		standardDef("Nl/min", 1e-3/60, din1343, "NL/min", "SLPM", "slpm"),
+		standardDef("Nm3/h", 1.0/3600, din1343),
+
+		// Gas throughput, as leaks and vacuum pumps are rated.
 		def("Pa m3/s", Throughput, 1),
 		def("mbar L/s", Throughput, 100*1e-3, "mbar l/s"),
 		def("Torr L/s", Throughput, torr*1e-3, "Torr l/s", "torr L/s", "torr l/s"),
@@ -117,14 +133,23 @@ var unitTable = joinDefs(
 	pressureDefs("psi", psi, []string{"PSI", "lbf/in2"}, []string{"psig", "PSIG"}, []string{"psia", "PSIA"}),
 	pressureDefs("inHg", inHg, nil, nil, nil),
 	pressureDefs("mmHg", mmHg, nil, nil, nil),
+	// A vacuum gauge reads down from ambient: "25 inHg vac" is 25 inHg below it.
+	[]unitDef{vacuumDef("inHg vac", inHg, "inHgV", "inHg(v)"), vacuumDef("mmHg vac", mmHg, "mmHgV", "mmHg(v)")},
 	[]unitDef{
 		def("ksi", Pressure, 1000*psi),
 		// The standard atmosphere is absolute by definition.
 		{Unit{Symbol: "atm", Dim: Pressure, Factor: atm, Ref: Absolute}, nil},
 		// The torr is a vacuum unit, read from zero: absolute.
 		{Unit{Symbol: "torr", Dim: Pressure, Factor: torr, Ref: Absolute}, []string{"Torr"}},
-		// Inches of mercury vacuum, as a US vacuum gauge reads: down from ambient.
-		{Unit{Symbol: "inHg vac", Dim: Pressure, Factor: inHg, Ref: Vacuum}, []string{"in Hg vac", "inHgV"}},
+
+		// Pressure differences carry their own mark so that they are never
+		// read back as gauge; psid is the trade's spelling, the others follow it.
+		def("Pa(d)", PressureDifference, 1),
+		def("kPa(d)", PressureDifference, 1e3),
+		def("MPa(d)", PressureDifference, 1e6),
+		def("bar(d)", PressureDifference, 1e5),
+		def("mbar(d)", PressureDifference, 100),
+		def("psi(d)", PressureDifference, psi, "psid", "PSID"),
 
 		// Stress-only units; read as a pressure they are plain (gauge).
 		def("N/mm2", Stress, 1e6),
@@ -150,11 +175,13 @@ var unitTable = joinDefs(
 		def("lbf", Force, poundF),
 		def("kgf", Force, gravity),
 
-		def("N m", Torque, 1, "Nm"),
+		def("N m", Torque, 1, "Nm", "N.m"),
 		def("N mm", Torque, 1e-3, "Nmm"),
 		def("kN m", Torque, 1e3, "kNm"),
-		def("lbf in", Torque, poundF*inch, "in lbf"),
-		def("lbf ft", Torque, poundF*foot, "ft lbf"),
+		// "ft lbf", "ft-lb" and the like read as a torque or an energy as the
+		// key needs (ambiguous, below).
+		def("lbf in", Torque, poundF*inch),
+		def("lbf ft", Torque, poundF*foot),
 
 		def("W", Power, 1),
 		def("kW", Power, 1e3),
@@ -165,6 +192,8 @@ var unitTable = joinDefs(
 		def("MJ", Energy, 1e6),
 		def("Wh", Energy, 3600, "W h"),
 		def("kWh", Energy, 3.6e6, "kW h"),
+		def("ft lbf", Energy, poundF*foot),
+		def("in lbf", Energy, poundF*inch),
 
 		def("g", Mass, 1e-3),
 		def("kg", Mass, 1),
@@ -202,11 +231,23 @@ var unitTable = joinDefs(
 		def("J/kg", SpecificEnergy, 1),
 		def("kJ/kg", SpecificEnergy, 1e3),
 
+		def("J/m3", EnergyPerVolume, 1),
+		def("kJ/m3", EnergyPerVolume, 1e3),
+		def("J/L", EnergyPerVolume, 1e3, "J/l"),
+		def("kWh/m3", EnergyPerVolume, 3.6e6),
+
 		def("kg m2", Inertia, 1, "kgm2"),
 		def("kg mm2", Inertia, 1e-6),
 		def("g cm2", Inertia, 1e-7),
 		def("lb ft2", Inertia, pound*foot*foot),
 		def("lb in2", Inertia, pound*inch*inch),
+
+		// Shaft power per unit of free air delivered; kW/(m3/min) and
+		// W/(L/min) are the same size.
+		def("W/(m3/s)", SpecificPower, 1),
+		def("kW/(m3/min)", SpecificPower, 1e3*60, "kW/m3/min"),
+		def("W/(L/min)", SpecificPower, 60/1e-3, "W/L/min"),
+		def("hp/cfm", SpecificPower, horse*60/(foot*foot*foot)),
 	},
 )
 

@@ -12,13 +12,10 @@ const (
 	Gauge
 	// Absolute is marked absolute ("bar(a)", "psia") or absolute by nature ("atm", "torr").
 	Absolute
-	// Vacuum is measured down from ambient, as a vacuum gauge reads: "27
-	// inHg vac" is 27 inHg below the atmosphere.
-	Vacuum
 	// Unsettled is an unmarked unit the trade reads either way: "hPa" is
 	// absolute in weather reports and gauge on some dials. The caller
 	// decides: absolute where only an absolute pressure makes sense, else
-	// it needs its mark.
+	// it needs its mark. Quantity.Absolute reads it gauge.
 	Unsettled
 )
 
@@ -35,17 +32,19 @@ type Unit struct {
 	Factor float64     // SI = value*Factor + Offset
 	Offset float64     // non-zero only for degC and degF
 	Ref    PressureRef // for pressure units: what the value is measured from
-	// Normal is the reference state of a normal volume flow unit
-	// ("Nl/min" at 0 °C and 1013.25 mbar); zero for other units.
-	Normal GasState
+	// Reference is, for a flow of standard or normal air (SCFM, Nl/min,
+	// l/min ANR), the state its volume is measured at; its SI value is that
+	// of free air at the ambient pressure and 20 °C, by mass (see
+	// Quantity.Absolute). Zero for other units.
+	Reference GasState
 }
 
-// NormalFlow takes si, a volume flow (m3/s) of air measured at, by mass to
-// the reference state of the normal flow unit u: the SI value that FromSI
-// then shows in u.
-func NormalFlow(si float64, at GasState, u Unit) float64 {
-	return si * at.Pressure / u.Normal.Pressure * u.Normal.Temperature / at.Temperature
-}
+// Standard reports whether u is a flow of standard or normal air.
+func (u Unit) Standard() bool { return u.Reference != GasState{} }
+
+// Vacuum reports whether u is a vacuum gauge's unit ("inHg vac"): a gauge
+// unit read downward from ambient, which its negative factor does.
+func (u Unit) Vacuum() bool { return u.Dim == Pressure && u.Factor < 0 }
 
 // toSI converts v written in u to SI. A difference (of temperature) drops
 // the offset.
@@ -73,16 +72,7 @@ func (u Unit) fromSI(si float64, difference bool) float64 {
 // uses ("PSI", "CFM", "RPM"). A failure is an *Error that suggests a
 // near-miss spelling when there is one.
 func LookupUnit(s string) (Unit, error) {
-	key := normalize(s)
-	if u, ok := unitIndex[key]; ok {
-		return u, nil
-	}
-	text := strings.TrimSpace(s)
-	e := newError(text, ": unknown unit")
-	if e.Suggest = suggest(key, nil); e.Suggest != "" {
-		e.msg += "; did you mean " + quote(e.Suggest) + "?"
-	}
-	return Unit{}, e
+	return LookupUnitAs(s, -1)
 }
 
 // normalize rewrites a unit spelling into the form used as a key of
