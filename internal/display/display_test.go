@@ -25,7 +25,7 @@ func TestValueMarksPressures(t *testing.T) {
 		{ambient, "kPa", "0 kPa(g)"},
 		{701325, "bar(a)", "7.01 bar(a)"},
 		{905, "mbar(g)", "-1004 mbar(g)"}, // a gauge vacuum keeps the figures that show the absolute value
-		{905, "torr", "6.79 torr"}, // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
+		{905, "torr", "6.79 torr"},        // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
 		// NIST SP 811 App. B: 1 psi = 6894.757 Pa; 101325 + 100·6894.757 = 790800.7 Pa.
 		{790800.7, "psi", "100 psig"},
 	} {
