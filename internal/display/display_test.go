@@ -33,6 +33,11 @@ func TestValueMarksPressures(t *testing.T) {
 		if err != nil || got != c.want {
 			t.Errorf("Value(%g Pa, %s) = %q, %v; want %q", c.si, c.unit, got, err, c.want)
 		}
+		// An inline value and its table never disagree: the table's pair
+		// holds the same figure.
+		if pair := PressurePair(c.si, c.unit, ambient, 3); strings.HasSuffix(c.unit, "(g)") && !strings.Contains(pair, got) {
+			t.Errorf("%g Pa in %s: inline %q, table %q", c.si, c.unit, got, pair)
+		}
 	}
 }
 

@@ -3,43 +3,7 @@ package models
 import (
 	"strings"
 	"testing"
-
-	"github.com/millrace-workshop/specgen/internal/display"
-	"github.com/millrace-workshop/specgen/internal/units"
 )
-
-// TestFormatValueMarksPressures checks that a pressure asked for in an
-// unmarked unit is shown with its mark: gauge at or above ambient,
-// absolute below it; marked and absolute-by-nature units stay as asked.
-func TestFormatValueMarksPressures(t *testing.T) {
-	const ambient = 101325 // Pa; ISO 2533 standard atmosphere
-	for _, c := range []struct {
-		si   float64 // Pa absolute
-		unit string
-		want string
-	}{
-		{701325, "bar", "6.00 bar(g)"},
-		{905, "mbar", "9.05 mbar(a)"}, // a vacuum: the gauge figure would read -1004 mbar
-		{ambient, "kPa", "0 kPa(g)"},
-		{701325, "bar(a)", "7.01 bar(a)"},
-		// A gauge vacuum gets the figures that keep it from hiding the absolute
-		// value, as the table's pair shows it: 905 − 101 325 = −100 420 Pa.
-		{905, "mbar(g)", "-1004 mbar(g)"},
-		{905, "torr", "6.79 torr"}, // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
-		// NIST SP 811 App. B: 1 psi = 6894.757 Pa; 101325 + 100·6894.757 = 790800.7 Pa.
-		{790800.7, "psi", "100 psig"},
-	} {
-		got, err := display.Value(c.si, units.Pressure, c.unit, ambient, 3)
-		if err != nil || got != c.want {
-			t.Errorf("FormatValue(%g Pa, %s) = %q, %v; want %q", c.si, c.unit, got, err, c.want)
-		}
-		// An inline value and its table never disagree: the table's pair
-		// holds the same figure.
-		if pair := display.PressurePair(c.si, c.unit, ambient, 3); strings.HasSuffix(c.unit, "(g)") && !strings.Contains(pair, got) {
-			t.Errorf("%g Pa in %s: inline %q, table %q", c.si, c.unit, got, pair)
-		}
-	}
-}
 
 // TestCustomaryBlockDisplay: a block written wholly in US customary units
 // shows its results in them; one unit of metric keeps the kind's units.
