@@ -77,6 +77,8 @@ type Site struct {
 	progress    func(stage string, done, total int)
 	charts      atomic.Int64
 	chartsTotal int
+	// drawsLeft counts, by block id, the charts of the block still to draw.
+	drawsLeft map[string]*atomic.Int32
 }
 
 // MaxErrors is how many input problems one run reports; the rest are
