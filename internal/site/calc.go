@@ -9,6 +9,7 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"sync/atomic"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/display"
@@ -16,6 +17,12 @@ import (
 	"github.com/millrace-workshop/specgen/internal/render"
 	"github.com/millrace-workshop/specgen/internal/units"
 )
+
+// curveBudget is how many bytes of curves the charted blocks of a site keep
+// from evaluation until their charts are drawn (some 1,200 compressor
+// blocks); past it, the curves of a block are sampled again when drawn, so
+// that a big site's memory does not grow with every chart it holds.
+var curveBudget int64 = 32 << 20
 
 // valueRef is an inline value of a page, as written, with its file line.
 // When Problem is set it is no well-formed reference, and Block, Result
@@ -114,18 +121,26 @@ func (s *Site) evaluate() error {
 		}
 	}
 	charted := map[string]bool{}
+	draws := map[string]int32{}
 	for _, p := range s.Pages {
 		for _, b := range p.blocks {
 			s.chartsTotal += len(b.Show.Charts)
 			charted[b.ID] = charted[b.ID] || len(b.Show.Charts) > 0
+			draws[b.ID] += int32(len(b.Show.Charts))
 		}
 		for _, n := range p.charts {
 			s.chartsTotal++
 			charted[n.Block] = true
+			draws[n.Block]++
 		}
 	}
+	s.drawsLeft = make(map[string]*atomic.Int32, len(draws))
+	for id, n := range draws {
+		s.drawsLeft[id] = new(atomic.Int32)
+		s.drawsLeft[id].Store(n)
+	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
-		Charted: func(id string) bool { return charted[id] }})
+		Charted: func(id string) bool { return charted[id] }, CurveBudget: curveBudget})
 	var errs inputerr.List
 	if err != nil {
 		errs = inputerr.From(err)
@@ -470,6 +485,11 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 		}
 		out[csvName] = d.CSV
 		s.chartDrawn()
+		// The block's last chart is drawn: its curves go (a chart drawn
+		// again, by a rebuild of the page, samples them anew).
+		if left := s.drawsLeft[id]; left != nil && left.Add(-1) == 0 {
+			e.DropCurves()
+		}
 		return d, nil
 	}
 	for i, n := range doc.CalcBlocks() {
