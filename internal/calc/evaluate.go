@@ -11,6 +11,7 @@ import (
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"github.com/millrace-workshop/specgen/internal/display"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
@@ -28,6 +29,11 @@ type Options struct {
 	// block whose model sees the same inputs as before is not computed
 	// again.
 	Outcomes OutcomeStore
+	// CurveBudget, when above zero, bounds the bytes of curves the set
+	// keeps for charted blocks: past it, a block's curves are not kept but
+	// sampled again when its chart is drawn. Curves that blocks linking to
+	// it read are always kept.
+	CurveBudget int64
 }
 
 // Set is every evaluated block of a site.
@@ -98,6 +104,8 @@ type Evaluated struct {
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
 	set      *Set    // the blocks evaluated with it, for its charts
+	// resample: Curves are not kept, and Chart samples them again from in.
+	resample bool
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -157,6 +165,15 @@ func (e *Evaluated) Release() {
 	e.in = nil
 }
 
+// DropCurves drops the block's curves once its charts are drawn; a chart
+// drawn again samples them anew. It must not run while a chart of the
+// block is being drawn.
+func (e *Evaluated) DropCurves() {
+	if e.in != nil && e.Curves != nil {
+		e.Curves, e.resample = nil, true
+	}
+}
+
 // ModelInputs is what the model saw (nil once released), for the caution
 // rules.
 func (e *Evaluated) ModelInputs() *Inputs { return e.in }
@@ -177,6 +194,22 @@ func (e *Evaluated) Failed() bool {
 // Customary reports whether the block is written wholly in US customary
 // units, and so shows its results in them.
 func (e *Evaluated) Customary() bool { return e.customary }
+
+// HoldsVacuum reports whether the block works below ambient: its kind
+// holds vacuum, or the working pressure it is given is below its ambient
+// (a tube pumped down).
+func (e *Evaluated) HoldsVacuum() bool {
+	if e.Block.Kind.Has(HoldsVacuum) {
+		return true
+	}
+	key := e.Block.Kind.WorkingPressure.Key
+	for _, in := range e.Inputs {
+		if key != "" && in.Name == key {
+			return in.Value < e.Ambient
+		}
+	}
+	return false
+}
 
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order. It goes on
@@ -228,6 +261,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	set.early = map[string]*Evaluated{}
 	failed := map[string]bool{}
+	var keptCurves atomic.Int64 // bytes of the charted blocks' curves kept
 	for _, level := range pl.levels {
 		type outcome struct {
 			e   *Evaluated
@@ -255,11 +289,18 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 				outs[i].e, outs[i].err = set.derive(base, opts)
 				return
 			}
-			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
+			charted := opts.Charted == nil || opts.Charted(b.ID)
+			overBudget := opts.CurveBudget > 0 && keptCurves.Load() >= opts.CurveBudget
+			want := linked[b.ID] || (charted && !overBudget)
 			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want, false)
-			// Drop curves at once: a level can hold thousands of blocks.
-			if outs[i].err == nil && !want {
+			switch {
+			case outs[i].err != nil:
+			case !want:
+				// Drop curves at once: a level can hold thousands of blocks.
 				outs[i].e.Curves = nil
+				outs[i].e.resample = charted
+			case !linked[b.ID]:
+				keptCurves.Add(curveBytes(outs[i].e.Curves))
 			}
 		})
 		for _, i := range run {
@@ -487,8 +528,8 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		switch {
 		case err != nil:
 			fail("ambient_pressure", b.Ambient.Line, err.Error())
-		case q.Unit.Ref != units.Absolute:
-			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"14.7 psia\"", b.Ambient.Text))
+		case q.Unit.Ref != units.Absolute && q.Unit.Ref != units.Unsettled:
+			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"1013 hPa\", \"14.7 psia\"", b.Ambient.Text))
 		case q.Value < 1e3 || q.Value > 2e5:
 			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q is not an atmosphere a workshop sees; allowed: 10 kPa(a) to 200 kPa(a)", b.Ambient.Text))
 		default:
@@ -603,6 +644,9 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 				continue
 			}
 			value = q.Absolute(e.Ambient)
+			if spec.Absolute && q.Unit.Ref == units.Unsettled {
+				value = q.Value
+			}
 			shownUnit = q.Unit.Symbol
 			if given {
 				systems[units.SystemOf(q.Unit.Symbol)]++
@@ -670,7 +714,17 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		if !ok {
 			return nil, inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
-		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
+		fail := func(msg string) error {
+			return inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: msg}}
+		}
+		if why := c.MarkFor(r.Value, r.Dim, e.Ambient, b.Kind.Has(HoldsVacuum), opts.SigFigs); why != "" {
+			return nil, fail(why)
+		}
+		si, err := e.siIn(r, c.Unit)
+		if err != nil {
+			return nil, fail(fmt.Sprintf("%q: %v", c.Text, err))
+		}
+		e.Claims = append(e.Claims, c.Check(si, r.Dim, e.Ambient, opts.SigFigs))
 	}
 	if err := checkShownComputed(e); err != nil {
 		return nil, err
@@ -706,7 +760,13 @@ func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
 	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
-		_, found := e.Result(o.Name)
+		r, found := e.Result(o.Name)
+		if found {
+			if _, err := e.siIn(r, o.Unit); err != nil {
+				errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+					Msg: fmt.Sprintf("%q: %v", o.Name+" "+o.Unit, err)})
+			}
+		}
 		if _, derived := b.derivation(o.Name); found || derived {
 			continue
 		}
@@ -848,4 +908,13 @@ func trimBound(s string) string {
 		return num
 	}
 	return num + " " + unit
+}
+
+// curveBytes is the memory the samples of curves take.
+func curveBytes(curves []Curve) int64 {
+	var n int
+	for _, c := range curves {
+		n += cap(c.X) + cap(c.Y)
+	}
+	return int64(n) * 8
 }

@@ -65,8 +65,10 @@ type Site struct {
 	Pages   []*Page // sorted by content path
 	nav     *navNode
 	reading []*Page // reading order, for previous and next
-	md      *render.Markdown
-	layouts *layouts
+	// readingAt is each page's place in reading.
+	readingAt map[*Page]int
+	md        *render.Markdown
+	layouts   *layouts
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
 	blockPage map[string]*Page     // block id → the page that holds it
@@ -80,6 +82,8 @@ type Site struct {
 	progress    func(stage string, done, total int)
 	charts      atomic.Int64
 	chartsTotal int
+	// drawsLeft counts, by block id, the charts of the block still to draw.
+	drawsLeft map[string]*atomic.Int32
 }
 
 // MaxErrors is how many input problems one run reports; the rest are
@@ -168,6 +172,10 @@ func load(root string, outcomes calc.OutcomeStore) (*Site, error) {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)
+	s.readingAt = make(map[*Page]int, len(s.reading))
+	for i, p := range s.reading {
+		s.readingAt[p] = i
+	}
 	s.revision = revisionOf(root)
 	for _, p := range s.Pages {
 		if p.listsCautions {
@@ -430,8 +438,13 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 				}
 			}
 			entries[i], records[i] = rec.Search, rec
-			for range chartDataNames(p) {
-				s.chartDrawn()
+			for _, b := range p.blocks {
+				for range b.Show.Charts {
+					s.chartDone(b.ID)
+				}
+			}
+			for _, n := range p.charts {
+				s.chartDone(n.Block)
 			}
 		} else {
 			files, entry, err := s.renderPage(p)
@@ -620,10 +633,7 @@ func (s *Site) pageData(p *Page, rootPrefix string, info PageInfo) PageData {
 		Nav:         navFor(s.nav, p, rootPrefix),
 		Breadcrumbs: breadcrumbsFor(s.nav, p, rootPrefix),
 	}
-	for i, q := range s.reading {
-		if q != p {
-			continue
-		}
+	if i, ok := s.readingAt[p]; ok {
 		if i > 0 {
 			data.Prev = &Link{Title: s.reading[i-1].Title, URL: href(rootPrefix + s.reading[i-1].Out)}
 		}

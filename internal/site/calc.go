@@ -9,6 +9,7 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"sync/atomic"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/display"
@@ -16,6 +17,12 @@ import (
 	"github.com/millrace-workshop/specgen/internal/render"
 	"github.com/millrace-workshop/specgen/internal/units"
 )
+
+// curveBudget is how many bytes of curves the charted blocks of a site keep
+// from evaluation until their charts are drawn (some 1,200 compressor
+// blocks); past it, the curves of a block are sampled again when drawn, so
+// that a big site's memory does not grow with every chart it holds.
+var curveBudget int64 = 32 << 20
 
 // valueRef is an inline value of a page, as written, with its file line.
 // When Problem is set it is no well-formed reference, and Block, Result
@@ -114,18 +121,26 @@ func (s *Site) evaluate() error {
 		}
 	}
 	charted := map[string]bool{}
+	draws := map[string]int32{}
 	for _, p := range s.Pages {
 		for _, b := range p.blocks {
 			s.chartsTotal += len(b.Show.Charts)
 			charted[b.ID] = charted[b.ID] || len(b.Show.Charts) > 0
+			draws[b.ID] += int32(len(b.Show.Charts))
 		}
 		for _, n := range p.charts {
 			s.chartsTotal++
 			charted[n.Block] = true
+			draws[n.Block]++
 		}
 	}
+	s.drawsLeft = make(map[string]*atomic.Int32, len(draws))
+	for id, n := range draws {
+		s.drawsLeft[id] = new(atomic.Int32)
+		s.drawsLeft[id].Store(n)
+	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
-		Charted: func(id string) bool { return charted[id] }, Outcomes: s.outcomes})
+		Charted: func(id string) bool { return charted[id] }, CurveBudget: curveBudget, Outcomes: s.outcomes})
 	var errs inputerr.List
 	if err != nil {
 		errs = inputerr.From(err)
@@ -277,17 +292,26 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 }
 
 // pressureCalcs reports whether any of the blocks ids is a calculation of
-// a kind that involves pressure, and whether all of those are vacuum
-// calculations.
+// a kind that involves pressure, and whether those are vacuum calculations:
+// at least one holds vacuum and none holds compressed air (a lid given only
+// the pressure difference across it is neither).
 func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
-	allVacuum = true
+	vacuum, compressed := false, false
 	for _, id := range ids {
-		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
-			any = true
-			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)
+		e, ok := s.Calc.Lookup(id)
+		if !ok || !e.Block.Kind.Has(calc.HoldsPressure) {
+			continue
+		}
+		any = true
+		switch {
+		case e.HoldsVacuum():
+			vacuum = true
+		case e.Block.Kind.Has(calc.Wall) && e.Block.Kind.WorkingPressure.Key == "":
+		default:
+			compressed = true
 		}
 	}
-	return any, any && allVacuum
+	return any, vacuum && !compressed
 }
 
 // refView is an inline value as shown: its text and its link.
@@ -460,7 +484,7 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 			return nil, &inputerr.Error{File: p.File, Line: line, Msg: "block " + id + ": chart " + chart + ": " + err.Error()}
 		}
 		out[csvName] = d.CSV
-		s.chartDrawn()
+		s.chartDone(id)
 		return d, nil
 	}
 	for i, n := range doc.CalcBlocks() {
@@ -509,6 +533,18 @@ func chartDataNames(p *Page) []string {
 		names = append(names, chartDataName(p, n.Block, n.Chart))
 	}
 	return names
+}
+
+// chartDone counts a chart of block id as drawn, or kept from the last
+// build. Once the block's last chart is, its curves go (a chart drawn
+// again, by a rebuild of the page, samples them anew).
+func (s *Site) chartDone(id string) {
+	s.chartDrawn()
+	if left := s.drawsLeft[id]; left != nil && left.Add(-1) == 0 {
+		if e, ok := s.Calc.Lookup(id); ok {
+			e.DropCurves()
+		}
+	}
 }
 
 // chartDrawn counts a chart for the progress display.

@@ -52,6 +52,10 @@ var (
 	// leaves out.
 	calcPackage = reflect.TypeFor[calc.Block]().PkgPath()
 	placeField  = map[string]bool{"File": true, "Line": true, "line": true, "lines": true}
+	// howField names the fields no digest covers: how a chart gets its
+	// curves (kept or sampled again, as the memory budget allows), not
+	// what it shows.
+	howField = map[string]bool{"resample": true}
 )
 
 func (d *digest) flush() {
@@ -129,7 +133,7 @@ func (d *digest) value(v reflect.Value) {
 	case reflect.Struct:
 		d.str(t.String())
 		for i := range v.NumField() {
-			if d.placeless && t.PkgPath() == calcPackage && placeField[t.Field(i).Name] {
+			if t.PkgPath() == calcPackage && (howField[t.Field(i).Name] || d.placeless && placeField[t.Field(i).Name]) {
 				continue
 			}
 			d.value(v.Field(i))
