@@ -19,10 +19,11 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
-// WriteChartSite writes a site of n chart-heavy pages: each page holds one
-// compressor block (every one with other inputs) that draws two charts,
-// an inline value and some prose, in folders of fifty pages.
-func WriteChartSite(tb testing.TB, root string, n int) {
+// writeChartSite writes a site of n chart-heavy pages: each page holds
+// one compressor block that draws two charts, an inline value and some
+// prose, in folders of fifty pages. Unlike writeChartedSite's, every block
+// has inputs of its own, so that the outcome store holds n outcomes.
+func writeChartSite(tb testing.TB, root string, n int) {
 	tb.Helper()
 	for i := 0; i < n; i++ {
 		dir := filepath.Join(root, ContentDir, fmt.Sprintf("bank-%02d", i/50))
@@ -59,7 +60,7 @@ func TestWriteChartSite(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	WriteChartSite(t, dir, n)
+	writeChartSite(t, dir, n)
 }
 
 // chartSitePages is the size of the benchmarks' chart-heavy site.
@@ -97,7 +98,7 @@ func editPage(tb testing.TB, root string, i int, old, new string) {
 // pages. Targets: unchanged/floor <= 0.1, edit/cold <= 0.2.
 func BenchmarkIncremental(b *testing.B) {
 	root := b.TempDir()
-	WriteChartSite(b, root, chartSitePages)
+	writeChartSite(b, root, chartSitePages)
 	floorOut := b.TempDir()
 	var cold, unchanged, prose, block, floor time.Duration
 	build := func() error {
@@ -118,7 +119,7 @@ func BenchmarkIncremental(b *testing.B) {
 			return err
 		})
 		i++
-		editPage(b, root, 317, "log it.", fmt.Sprintf("log it (edit %d).", i))
+		editPage(b, root, 317, "log it", fmt.Sprintf("log it, again (%d)", i))
 		prose += timed(b, build)
 		editPage(b, root, 318, "stroke = \"30 mm\"", "stroke = \"31 mm\"")
 		block += timed(b, build)

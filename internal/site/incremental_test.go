@@ -2,6 +2,8 @@ package site
 
 import (
 	"bytes"
+	"context"
+	"errors"
 	"io/fs"
 	"maps"
 	"os"
@@ -215,23 +217,7 @@ func inodes(t *testing.T, dir string) map[string]uint64 {
 // bytes.
 func sameTree(t *testing.T, a, b string) {
 	t.Helper()
-	read := func(dir string) map[string][]byte {
-		files := map[string][]byte{}
-		err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
-			if err != nil || d.IsDir() {
-				return err
-			}
-			data, err := os.ReadFile(p)
-			rel, _ := filepath.Rel(dir, p)
-			files[filepath.ToSlash(rel)] = data
-			return err
-		})
-		if err != nil {
-			t.Fatal(err)
-		}
-		return files
-	}
-	fa, fb := read(a), read(b)
+	fa, fb := readTree(t, a), readTree(t, b)
 	for _, name := range slices.Sorted(maps.Keys(fa)) {
 		other, ok := fb[name]
 		switch {
@@ -308,5 +294,43 @@ func TestOutcomeStoreRoundTrip(t *testing.T) {
 	}
 	if _, ok := readOutcomeStore(dir, "other").Outcome("k"); ok {
 		t.Error("outcomes of another catalog were served")
+	}
+}
+
+// TestIncrementalInterrupted stops an incremental build part way, after
+// it has taken some pages over from the last output: that output stays as
+// it was, and no staging folder is left.
+func TestIncrementalInterrupted(t *testing.T) {
+	root := t.TempDir()
+	for name, text := range incrementalSite {
+		writeFile(t, filepath.Join(root, filepath.FromSlash(name)), text)
+	}
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(root, DefaultOut)
+	before := treeHash(t, out)
+	siteEdit{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}.apply(t, root)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	_, err := Build(root, Options{Context: ctx, Progress: func(stage string, done, total int) {
+		if stage == "pages rendered" && done == 3 {
+			cancel()
+		}
+	}})
+	if !errors.Is(err, ErrInterrupted) {
+		t.Fatalf("want ErrInterrupted, got %v", err)
+	}
+	if left, _ := filepath.Glob(filepath.Join(root, ".dist.building-*")); len(left) > 0 {
+		t.Errorf("the interrupted build left %v", left)
+	}
+	if treeHash(t, out) != before {
+		t.Error("the interrupted build changed the previous output")
+	}
+	if _, err := Build(root, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	if treeHash(t, out) == before {
+		t.Error("the build after the interrupted one did not take the edit")
 	}
 }
