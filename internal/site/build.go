@@ -225,7 +225,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, err := s.write(opts, last.reusable(out))
+	sum, record, err := s.write(opts, last.reusable(root, out))
 	if err != nil {
 		return nil, err
 	}

@@ -11,6 +11,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strings"
 	"sync"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
@@ -34,7 +35,9 @@ type manifest struct {
 	Problems    []Problem             `json:"problems"`
 	Tally       Tally                 `json:"tally"`
 	Files       map[string]outputFile `json:"files"`
-	Record      *buildRecord          `json:"record"`
+	// Record is the digest of the file beside it that holds the build's
+	// buildRecord: read only when the build is not up to date.
+	Record string `json:"record"`
 }
 
 // outputFile is what a written file looked like, to notice later edits.
@@ -198,13 +201,31 @@ type lastOutput struct {
 	record *buildRecord
 }
 
-// reusable is the last build's output in out, nil when there is nothing
-// to take over.
-func (m *manifest) reusable(out string) *lastOutput {
-	if m == nil || m.Record == nil {
+// reusable is the last build's output in root's out, nil when there is
+// nothing to take over: no record, or not the one the manifest names.
+func (m *manifest) reusable(root, out string) *lastOutput {
+	if m == nil || m.Record == "" {
 		return nil
 	}
-	return &lastOutput{dir: out, files: m.Files, record: m.Record}
+	b, err := os.ReadFile(recordPath(root, out))
+	if err != nil || sha256Hex(b) != m.Record {
+		return nil
+	}
+	var r buildRecord
+	if json.Unmarshal(b, &r) != nil {
+		return nil
+	}
+	return &lastOutput{dir: out, files: m.Files, record: &r}
+}
+
+// recordPath is where the buildRecord of an output folder's manifest lives.
+func recordPath(root, out string) string {
+	return strings.TrimSuffix(manifestPath(root, out), ".json") + ".pages.json"
+}
+
+func sha256Hex(b []byte) string {
+	sum := sha256.Sum256(b)
+	return hex.EncodeToString(sum[:])
 }
 
 // linkInto takes the last build's file name into the staging folder dir:
@@ -264,7 +285,7 @@ func copyFile(from, to string) error {
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
 func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}, Record: record}
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}}
 	err := filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() {
 			return err
@@ -280,17 +301,28 @@ func remember(root, out, fp string, pages int, problems []Problem, tally Tally, 
 	if err != nil {
 		return
 	}
-	b, err := json.Marshal(m)
-	if err != nil {
-		return
-	}
 	dir := filepath.Join(root, CacheDir)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return
 	}
 	_ = os.WriteFile(filepath.Join(dir, "README"), []byte("specgen's build cache: safe to delete.\n"), 0o644)
-	tmp := manifestPath(root, out) + ".tmp"
-	if os.WriteFile(tmp, b, 0o644) == nil {
-		_ = os.Rename(tmp, manifestPath(root, out))
+	// The record first, then the manifest that names it by its digest: a
+	// record without its manifest is never trusted.
+	if record != nil {
+		if rb, err := json.Marshal(record); err == nil && writeAside(recordPath(root, out), rb) == nil {
+			m.Record = sha256Hex(rb)
+		}
 	}
+	if b, err := json.Marshal(m); err == nil {
+		_ = writeAside(manifestPath(root, out), b)
+	}
+}
+
+// writeAside writes a file whole or not at all: aside, then renamed.
+func writeAside(path string, data []byte) error {
+	tmp := path + ".tmp"
+	if err := os.WriteFile(tmp, data, 0o644); err != nil {
+		return err
+	}
+	return os.Rename(tmp, path)
 }
