@@ -15,7 +15,12 @@ var hyphenMinus = regexp.MustCompile(`(^|[\s(\[=±≤≥<>/])-([0-9.])`)
 // minus sign U+2212 of typeset text (ISO 80000-2), which the formulas of a
 // working use too: "-3.2 °C" reads "−3.2 °C". A hyphen within a word or an
 // exponent ("1.2e-5") stays.
-func Minus(s string) string { return hyphenMinus.ReplaceAllString(s, "${1}\u2212${2}") }
+func Minus(s string) string {
+	if !strings.Contains(s, "-") {
+		return s // nothing to change, and no pattern to run
+	}
+	return hyphenMinus.ReplaceAllString(s, "${1}\u2212${2}")
+}
 
 // claimSigns are the ASCII spellings of the signs a claim is written with.
 var claimSigns = strings.NewReplacer(">=", "≥", "<=", "≤", "+/-", "±", "+-", "±")

@@ -6,6 +6,7 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/renderer"
@@ -411,12 +412,32 @@ func StandardCautionHTML(message string) string {
 
 func esc(s string) string { return html.EscapeString(s) }
 
-var numberSpace = regexp.MustCompile(`(\d) (\S)`)
-
 // keepWithUnit joins a number to the word after it with a no-break space,
 // so that a narrow column or caution box does not put "415" on one line
-// and "°C" on the next.
-func keepWithUnit(s string) string { return numberSpace.ReplaceAllString(s, "$1\u00a0$2") }
+// and "°C" on the next: each digit, space and non-space becomes digit,
+// no-break space and the same, scanning on after the non-space.
+func keepWithUnit(s string) string {
+	var b strings.Builder
+	last := 0
+	for i := 0; i+2 < len(s); i++ {
+		if s[i] < '0' || s[i] > '9' || s[i+1] != ' ' || strings.IndexByte(" \t\n\f\r", s[i+2]) >= 0 {
+			continue
+		}
+		if b.Len() == 0 {
+			b.Grow(len(s) + 8)
+		}
+		b.WriteString(s[last : i+1])
+		b.WriteString("\u00a0")
+		last = i + 2
+		_, size := utf8.DecodeRuneInString(s[i+2:])
+		i += 1 + size
+	}
+	if last == 0 {
+		return s
+	}
+	b.WriteString(s[last:])
+	return b.String()
+}
 
 // breakable lets a long result or input name wrap after its underscores
 // in a narrow column (discharge_<wbr>temperature), not at any letter.

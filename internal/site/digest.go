@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"slices"
 	"strings"
+	"sync"
 	"unsafe"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
@@ -30,7 +31,20 @@ type digest struct {
 	placeless bool
 }
 
-func newDigest() *digest { return &digest{h: sha256.New(), seen: map[uintptr]int{}} }
+// digests are reused: a build makes a few for every page and block.
+var digests = sync.Pool{New: func() any {
+	return &digest{h: sha256.New(), buf: make([]byte, 0, 16<<10), seen: map[uintptr]int{}}
+}}
+
+// newDigest returns an empty digest; its sum ends it.
+func newDigest() *digest {
+	d := digests.Get().(*digest)
+	d.h.Reset()
+	d.buf = d.buf[:0]
+	clear(d.seen)
+	d.placeless = false
+	return d
+}
 
 // Types a digest does not walk into. A Kind is part of the specgen binary,
 // identified by its name; a Set, Catalog or model Inputs reach blocks
@@ -63,10 +77,14 @@ func (d *digest) flush() {
 	d.buf = d.buf[:0]
 }
 
-// sum is the digest of everything added, in hex.
+// sum is the digest of everything added, in hex. The digest is not used
+// after it.
 func (d *digest) sum() string {
 	d.flush()
-	return hex.EncodeToString(d.h.Sum(nil))
+	var out [sha256.Size]byte
+	s := hex.EncodeToString(d.h.Sum(out[:0]))
+	digests.Put(d)
+	return s
 }
 
 func (d *digest) num(v uint64) {
