@@ -203,9 +203,12 @@ func Build(root string, opts Options) (*Summary, error) {
 	if err := checkOutputDir(root, out); err != nil {
 		return nil, err
 	}
-	fp, fpErr := fingerprint(root, out)
 	last := readManifest(root, out)
-	if fpErr == nil && last.upToDate(out, fp) {
+	// The output is looked over while the inputs are read.
+	intact := make(chan bool, 1)
+	go func() { intact <- last.intact(out) }()
+	fp, fpErr := fingerprint(root, out)
+	if <-intact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
 			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}

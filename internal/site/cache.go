@@ -56,9 +56,9 @@ func fingerprint(root, out string) (string, error) {
 		return "", err
 	}
 	fmt.Fprintf(h, "specgen %s\nout %s\n", self, out)
-	if r := revisionOf(root); r != nil {
-		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
-	}
+	// git runs while the files are read.
+	revision := make(chan *Revision, 1)
+	go func() { revision <- revisionOf(root) }()
 	paths := []string{filepath.Join(root, ConfigFile)}
 	for _, dir := range []string{ContentDir, TemplatesDir, StaticDir} {
 		_ = filepath.WalkDir(filepath.Join(root, dir), func(p string, d fs.DirEntry, err error) error {
@@ -70,43 +70,41 @@ func fingerprint(root, out string) (string, error) {
 	}
 	sort.Strings(paths)
 	// Files are hashed in parallel, each on its own, then in order.
-	sums := make([]string, len(paths))
+	sums := make([][]byte, len(paths))
 	errs := make([]error, len(paths))
 	calc.Parallel(len(paths), func(i int) { sums[i], errs[i] = fileDigest(root, paths[i]) })
+	if r := <-revision; r != nil {
+		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
+	}
 	for i := range paths {
 		if errs[i] != nil {
 			return "", errs[i]
 		}
-		h.Write([]byte(sums[i]))
+		h.Write(sums[i])
 	}
 	return hex.EncodeToString(h.Sum(nil)), nil
 }
 
-// fileDigest hashes a file's path from the root, mode and contents; a
-// missing file hashes to "".
-func fileDigest(root, p string) (string, error) {
+// fileDigest identifies a file by its path from the root, its mode and
+// the hash of its contents; a missing file gives nothing.
+func fileDigest(root, p string) ([]byte, error) {
 	info, err := os.Lstat(p)
 	if errors.Is(err, fs.ErrNotExist) {
-		return "", nil
+		return nil, nil
 	}
 	if err != nil {
-		return "", err
+		return nil, err
 	}
-	h := sha256.New()
 	rel, _ := filepath.Rel(root, p)
-	fmt.Fprintf(h, "file %s %v ", filepath.ToSlash(rel), info.Mode())
+	var sum [sha256.Size]byte
 	if info.Mode().IsRegular() {
-		f, err := os.Open(p)
+		data, err := os.ReadFile(p)
 		if err != nil {
-			return "", err
+			return nil, err
 		}
-		_, err = io.Copy(h, f)
-		f.Close()
-		if err != nil {
-			return "", err
-		}
+		sum = sha256.Sum256(data)
 	}
-	return hex.EncodeToString(h.Sum(nil)), nil
+	return fmt.Appendf(nil, "file %q %v %x\n", filepath.ToSlash(rel), info.Mode(), sum), nil
 }
 
 var (
@@ -160,10 +158,9 @@ func readManifest(root, out string) *manifest {
 	return &m
 }
 
-// upToDate reports whether nothing the last build read has changed (its
-// fingerprint is fp) and its output in out is as it left it.
-func (m *manifest) upToDate(out, fp string) bool {
-	if m == nil || m.Fingerprint != fp {
+// intact reports whether the last build's output in out is as it left it.
+func (m *manifest) intact(out string) bool {
+	if m == nil {
 		return false
 	}
 	seen := 0
