@@ -1,0 +1,36 @@
+package render
+
+import "testing"
+
+// BenchmarkChartSVG draws one golden case's chart in both layouts, the
+// SVG alone; BenchmarkChartTypes is the whole of DrawChart.
+func BenchmarkChartSVG(b *testing.B) {
+	for _, c := range chartCases(b) {
+		ch := c.chart(b)
+		b.Run(c.Name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				for _, l := range []chartLayout{wideChart, narrowChart} {
+					if _, err := drawSVG(ch, l, "chart"); err != nil {
+						b.Fatal(err)
+					}
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkChartCSV writes one golden case's chart data as CSV.
+func BenchmarkChartCSV(b *testing.B) {
+	for _, c := range chartCases(b) {
+		ch := c.chart(b)
+		b.Run(c.Name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := chartCSV(ch); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
