@@ -1,14 +1,13 @@
 package render
 
 import (
-	"bytes"
-	"encoding/csv"
 	"errors"
 	"fmt"
 	"image/color"
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -82,52 +81,145 @@ type DrawnChart struct {
 // chart, which the caller does. id makes the SVGs' element ids unique in
 // the page; csvHref is the link to the chart's data.
 func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
-	var out bytes.Buffer
-	fmt.Fprintf(&out, `<figure class="sg-chart" id="%s">`+"\n", esc(id))
+	bp := chartBuffers.Get().(*[]byte)
+	defer chartBuffers.Put(bp)
+	out := (*bp)[:0]
+	out = append(out, `<figure class="sg-chart" id="`...)
+	out = appendEscaped(out, id)
+	out = append(out, "\">\n"...)
+	series := convertSeries(c)
+	var err error
 	for _, l := range []chartLayout{wideChart, narrowChart} {
-		svg, err := drawSVG(c, l, id+strings.TrimPrefix(l.class, "sg-chart"))
-		if err != nil {
+		if out, err = appendSVG(out, c, series, l, id+strings.TrimPrefix(l.class, "sg-chart")); err != nil {
+			*bp = out
 			return nil, err
 		}
-		out.Write(svg)
 	}
-	out.WriteString("<figcaption>")
-	fmt.Fprintf(&out, `<span class="sg-chart-title">%s</span>`, esc(c.Title))
-	out.WriteString(`<span class="sg-chart-key">`)
+	out = append(out, `<figcaption><span class="sg-chart-title">`...)
+	out = appendEscaped(out, c.Title)
+	out = append(out, `</span><span class="sg-chart-key">`...)
 	for _, panel := range c.Panels {
 		for j, s := range panel.Series {
-			fmt.Fprintf(&out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s%d" stroke-width="2"%s d="M1 5H29"/></svg>%s</span>`,
-				j%len(seriesColors), dashAttr(s.Style), esc(s.Name))
+			out = append(out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s`...)
+			out = strconv.AppendInt(out, int64(j%len(seriesColors)), 10)
+			out = append(out, `" stroke-width="2"`...)
+			out = appendDashAttr(out, s.Style)
+			out = append(out, ` d="M1 5H29"/></svg>`...)
+			out = appendEscaped(out, s.Name)
+			out = append(out, `</span>`...)
 		}
 	}
-	out.WriteString(`</span>`)
+	out = append(out, `</span>`...)
 	if csvHref != "" {
 		// The hidden words tell a list of the page's links which chart's data it is.
-		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
+		out = append(out, ` <a class="sg-chart-data" href="`...)
+		out = appendEscaped(out, csvHref)
+		out = append(out, `">data (CSV)<span class="sg-sr"> of `...)
+		out = appendEscaped(out, c.Title)
+		out = append(out, `</span></a>`...)
 	}
-	out.WriteString("</figcaption>\n</figure>\n")
+	out = append(out, "</figcaption>\n</figure>\n"...)
+	*bp = out
 	data, err := chartCSV(c)
 	if err != nil {
 		return nil, err
 	}
-	return &DrawnChart{Name: c.Name, HTML: out.String(), CSV: data}, nil
+	return &DrawnChart{Name: c.Name, HTML: string(out), CSV: data}, nil
 }
 
-// drawSVG draws a chart in one layout as an inline SVG named by its title
-// and description; id makes its element ids unique in the page.
-func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
-	xs := func(v []float64) ([]float64, error) { return toUnit(v, c.X, c.Ambient) }
+// chartBuffers holds the buffers charts are drawn into: a chart's HTML is
+// some tens of kilobytes, and growing a fresh buffer to that size for
+// every chart was a good part of the bytes a build allocated.
+var chartBuffers = sync.Pool{New: func() any { b := make([]byte, 0, 64<<10); return &b }}
+
+// seriesPoints is one series of a chart as it is drawn: in display units,
+// log10 taken on a log panel, thinned, with the range of all its points.
+// err is the problem its data has, reported where the drawing reaches it.
+type seriesPoints struct {
+	pts                    plotter.XYs
+	xMin, xMax, yMin, yMax float64
+	err                    error
+}
+
+// convertSeries converts every series of a chart once for both drawings.
+func convertSeries(c *calc.Chart) [][]seriesPoints {
+	out := make([][]seriesPoints, len(c.Panels))
+	for i, panel := range c.Panels {
+		out[i] = make([]seriesPoints, len(panel.Series))
+		for j, s := range panel.Series {
+			out[i][j] = convertOne(s, c.X, panel.Y, c.Ambient)
+		}
+	}
+	return out
+}
+
+func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPoints {
+	sp := seriesPoints{xMin: math.Inf(1), xMax: math.Inf(-1), yMin: math.Inf(1), yMax: math.Inf(-1)}
+	x, err := toUnit(s.X, xAxis, ambient)
+	if err != nil {
+		sp.err = err
+		return sp
+	}
+	y, err := toUnit(s.Y, yAxis, ambient)
+	if err != nil {
+		sp.err = err
+		return sp
+	}
+	if len(x) != len(y) || len(x) < 2 {
+		sp.err = fmt.Errorf("series %q has %d x and %d y values", s.Name, len(x), len(y))
+		return sp
+	}
+	pts := make(plotter.XYs, len(x))
+	for k := range x {
+		if yAxis.Log {
+			if y[k] <= 0 {
+				sp.err = fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
+				return sp
+			}
+			y[k] = math.Log10(y[k])
+		}
+		pts[k] = plotter.XY{X: x[k], Y: y[k]}
+		sp.xMin, sp.xMax = math.Min(sp.xMin, x[k]), math.Max(sp.xMax, x[k])
+		sp.yMin, sp.yMax = math.Min(sp.yMin, y[k]), math.Max(sp.yMax, y[k])
+	}
+	sp.pts = thin(pts)
+	return sp
+}
+
+// appendSVG draws a chart in one layout as an inline SVG named by its
+// title and description; id makes its element ids unique in the page.
+func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout, id string) ([]byte, error) {
 	noteRoom := 0.0
 	if c.EdgeNote != "" {
 		noteRoom = float64(l.labelFont) + 4
 	}
 	height := l.panelHeight*float64(len(c.Panels)) + 40 + noteRoom
-	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses)
+	tid, did := id+"-title", id+"-desc"
+	out = append(out, `<svg class="sg-chart-svg `...)
+	out = append(out, l.class...)
+	out = append(out, `" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 `...)
+	out = strconv.AppendFloat(out, l.width, 'f', -1, 64)
+	out = append(out, ' ')
+	out = strconv.AppendFloat(out, height, 'f', -1, 64)
+	out = append(out, `" role="img" aria-labelledby="`...)
+	out = appendEscaped(out, tid)
+	out = append(out, ' ')
+	out = appendEscaped(out, did)
+	out = append(out, "\">\n<title id=\""...)
+	out = appendEscaped(out, tid)
+	out = append(out, `">`...)
+	out = appendEscaped(out, c.Title)
+	out = append(out, "</title>\n<desc id=\""...)
+	out = appendEscaped(out, did)
+	out = append(out, `">`...)
+	out = appendEscaped(out, c.Desc)
+	out = append(out, "</desc>\n"...)
+	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses, out)
 	plots := make([][]*plot.Plot, len(c.Panels))
 	xMin, xMax := math.Inf(1), math.Inf(-1)
 	for i, panel := range c.Panels {
 		p := plot.New()
-		useMemoText(p)
+		useMeasuredText(p)
 		p.BackgroundColor = nil
 		styleAxis(&p.X, l)
 		styleAxis(&p.Y, l)
@@ -138,18 +230,19 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		}
 		if i == len(c.Panels)-1 {
 			p.X.Label.Text = axisLabel(c.X)
-			p.X.Tick.Marker = xTicks
+			p.X.Tick.Marker = &onceTicks{Ticker: xTicks}
 		} else {
-			p.X.Tick.Marker = unlabelled{xTicks}
+			p.X.Tick.Marker = &onceTicks{Ticker: unlabelled{xTicks}}
 		}
-		p.Y.Tick.Marker = niceTicks{most: l.ticks}
+		var yTicks plot.Ticker = niceTicks{most: l.ticks}
 		// A log panel plots log10 of its values on a linear axis, ticked
 		// as decades: gonum's log scale places the axis title's box at
 		// the log of the arithmetic middle and left a blank band above
 		// the plot.
 		if panel.Y.Log {
-			p.Y.Tick.Marker = exponentTicks{most: l.ticks}
+			yTicks = exponentTicks{most: l.ticks}
 		}
+		p.Y.Tick.Marker = &onceTicks{Ticker: yTicks}
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
 		grid.Vertical.Width, grid.Horizontal.Width = 0.5, 0.5
@@ -157,39 +250,22 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		words := &labelLayer{}
 		yMin, yMax := math.Inf(1), math.Inf(-1)
 		for j, s := range panel.Series {
-			x, err := xs(s.X)
+			sp := series[i][j]
+			if sp.err != nil {
+				return out, sp.err
+			}
+			xMin, xMax = math.Min(xMin, sp.xMin), math.Max(xMax, sp.xMax)
+			yMin, yMax = math.Min(yMin, sp.yMin), math.Max(yMax, sp.yMax)
+			line, err := plotter.NewLine(sp.pts)
 			if err != nil {
-				return nil, err
-			}
-			y, err := toUnit(s.Y, panel.Y, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			if len(x) != len(y) || len(x) < 2 {
-				return nil, fmt.Errorf("series %q has %d x and %d y values", s.Name, len(x), len(y))
-			}
-			pts := make(plotter.XYs, len(x))
-			for k := range x {
-				if panel.Y.Log {
-					if y[k] <= 0 {
-						return nil, fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
-					}
-					y[k] = math.Log10(y[k])
-				}
-				pts[k] = plotter.XY{X: x[k], Y: y[k]}
-				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
-				yMin, yMax = math.Min(yMin, y[k]), math.Max(yMax, y[k])
-			}
-			line, err := plotter.NewLine(thin(pts))
-			if err != nil {
-				return nil, err
+				return out, err
 			}
 			line.Color = seriesColors[j%len(seriesColors)]
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
 			p.Add(plainLine{line})
 			if err := addLabels(words, s.Labels, c, panel, l); err != nil {
-				return nil, err
+				return out, err
 			}
 		}
 		// Magnitudes start from zero, so that slopes are not exaggerated.
@@ -199,7 +275,7 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		}
 		for _, m := range panel.Marks {
 			if err := addMark(p, words, m, c, panel, yMin, yMax, l); err != nil {
-				return nil, err
+				return out, err
 			}
 		}
 		if len(words.sets) > 0 {
@@ -221,34 +297,28 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		style := text.Style{Color: markColor, Font: font.From(plot.DefaultFont, l.labelFont), XAlign: draw.XRight, YAlign: draw.YTop, Handler: chartText}
 		dc.FillText(style, vg.Point{X: vg.Length(l.width) - tiles.PadRight, Y: vg.Length(height) - 4}, c.EdgeNote)
 	}
+	out = canvas.buf
 	if canvas.nonFinite {
-		return nil, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
+		return out, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
 	}
-	var out bytes.Buffer
-	tid, did := id+"-title", id+"-desc"
-	fmt.Fprintf(&out, `<svg class="sg-chart-svg %s" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %s %s" role="img" aria-labelledby="%s %s">`+"\n",
-		l.class, strconv.FormatFloat(l.width, 'f', -1, 64), strconv.FormatFloat(height, 'f', -1, 64), esc(tid), esc(did))
-	fmt.Fprintf(&out, "<title id=\"%s\">%s</title>\n<desc id=\"%s\">%s</desc>\n", esc(tid), esc(c.Title), esc(did), esc(c.Desc))
-	out.Write(canvas.buf.Bytes())
-	out.WriteString("</svg>\n")
-	return out.Bytes(), nil
+	return append(out, "</svg>\n"...), nil
 }
 
-func dashAttr(s calc.LineStyle) string {
+// appendDashAttr appends the stroke-dasharray attribute of a line style,
+// or nothing for a solid line.
+func appendDashAttr(b []byte, s calc.LineStyle) []byte {
 	d := dashes(s)
 	if len(d) == 0 {
-		return ""
+		return b
 	}
-	var b bytes.Buffer
-	b.WriteString(` stroke-dasharray="`)
+	b = append(b, ` stroke-dasharray="`...)
 	for i, v := range d {
 		if i > 0 {
-			b.WriteByte(' ')
+			b = append(b, ' ')
 		}
-		writeNum(&b, float64(v))
+		b = appendNum(b, float64(v))
 	}
-	b.WriteByte('"')
-	return b.String()
+	return append(b, '"')
 }
 
 func styleAxis(a *plot.Axis, l chartLayout) {
@@ -447,30 +517,60 @@ func (degreeTicks) Ticks(min, max float64) []plot.Tick {
 	return ticks
 }
 
-// toUnit converts SI values to an axis's display unit. Every unit specgen
-// knows is an affine function of SI (a factor, and an offset for degC,
-// degF and gauge pressures), so two conversions fix it for all values.
+// toUnit converts SI values to an axis's display unit.
 func toUnit(si []float64, a calc.Axis, ambient float64) ([]float64, error) {
+	conv, err := unitConversion(a, ambient)
+	if err != nil {
+		return nil, err
+	}
 	out := make([]float64, len(si))
-	if a.Unit == "" {
+	if conv.identity {
 		copy(out, si)
 		return out, nil
 	}
-	at0, err := units.FromSI(0, a.Dim, a.Unit, ambient)
-	if err != nil {
-		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
-	}
-	at1, err := units.FromSI(1, a.Dim, a.Unit, ambient)
-	if err != nil {
-		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
-	}
 	for i, v := range si {
-		out[i] = at0 + (at1-at0)*v
+		out[i] = conv.apply(v)
 		if math.IsNaN(out[i]) || math.IsInf(out[i], 0) {
-			return nil, fmt.Errorf("axis %q: a value is not a finite number", a.Label)
+			return nil, nonFiniteError(a)
 		}
 	}
 	return out, nil
+}
+
+// affine converts SI values to a display unit. Every unit specgen knows is
+// an affine function of SI (a factor, and an offset for degC, degF and
+// gauge pressures), so two conversions fix it for all values. An axis
+// without a unit shows its values as they are.
+type affine struct {
+	at0, slope float64
+	identity   bool
+}
+
+func (f affine) apply(v float64) float64 {
+	if f.identity {
+		return v
+	}
+	return f.at0 + f.slope*v
+}
+
+// unitConversion returns the conversion to an axis's display unit.
+func unitConversion(a calc.Axis, ambient float64) (affine, error) {
+	if a.Unit == "" {
+		return affine{identity: true}, nil
+	}
+	at0, err := units.FromSI(0, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return affine{}, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
+	at1, err := units.FromSI(1, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return affine{}, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
+	return affine{at0: at0, slope: at1 - at0}, nil
+}
+
+func nonFiniteError(a calc.Axis) error {
+	return fmt.Errorf("axis %q: a value is not a finite number", a.Label)
 }
 
 // maxPoints is the most points a drawn line keeps: more are invisible at
@@ -595,9 +695,65 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 // was most of a chart's cost. A line needs no room beyond its data range.
 type plainLine struct{ line *plotter.Line }
 
-func (l plainLine) Plot(c draw.Canvas, p *plot.Plot) { l.line.Plot(c, p) }
+// Plot draws the line as plotter.Line draws a line without fill or steps,
+// and, when every point lies within the canvas, as one polyline written
+// straight to an svgCanvas: clipping it would leave it as it is.
+func (l plainLine) Plot(c draw.Canvas, p *plot.Plot) {
+	svg, ok := svgUnder(c.Canvas)
+	if !ok || l.line.FillColor != nil || l.line.StepStyle != plotter.NoStep {
+		l.line.Plot(c, p)
+		return
+	}
+	trX, trY := p.Transforms(&c)
+	pts := make([]vg.Point, len(l.line.XYs))
+	for i, xy := range l.line.XYs {
+		pts[i] = vg.Point{X: trX(xy.X), Y: trY(xy.Y)}
+		if !c.Contains(pts[i]) {
+			l.line.Plot(c, p)
+			return
+		}
+	}
+	if l.line.LineStyle.Width == 0 || len(pts) < 2 {
+		return
+	}
+	c.SetLineStyle(l.line.LineStyle)
+	svg.strokePolyline(pts)
+}
+
+// svgUnder finds the svgCanvas a draw.Canvas draws on: gonum/plot wraps
+// a plot's canvas in draw.Canvases, which pass every call on unchanged.
+func svgUnder(c vg.Canvas) (*svgCanvas, bool) {
+	for {
+		switch v := c.(type) {
+		case *svgCanvas:
+			return v, true
+		case draw.Canvas:
+			c = v.Canvas
+		default:
+			return nil, false
+		}
+	}
+}
 
 func (l plainLine) DataRange() (xmin, xmax, ymin, ymax float64) { return l.line.DataRange() }
+
+// onceTicks remembers the ticks of an axis: gonum/plot asks an axis for
+// its ticks a dozen times while it lays out and draws a chart, always for
+// the same range once the range is set. The ticks it returns are only
+// read.
+type onceTicks struct {
+	plot.Ticker
+	lo, hi float64
+	ticks  []plot.Tick
+	done   bool
+}
+
+func (o *onceTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !o.done || lo != o.lo || hi != o.hi {
+		o.ticks, o.lo, o.hi, o.done = o.Ticker.Ticks(lo, hi), lo, hi, true
+	}
+	return o.ticks
+}
 
 // unlabelled keeps a ticker's ticks and blanks their labels, for the x
 // axes of upper panels. A blank, not an empty, label keeps a tick major,
@@ -612,34 +768,6 @@ func (u unlabelled) Ticks(min, max float64) []plot.Tick {
 		}
 	}
 	return ticks
-}
-
-// csvNumber writes a value to 8 significant figures, as data for other
-// programs rather than for reading.
-func csvNumber(v float64) string { return strconv.FormatFloat(v, 'g', 8, 64) }
-
-// chartCSV writes every series as rows of series, x, x unit, y, y unit.
-func chartCSV(c *calc.Chart) ([]byte, error) {
-	var buf bytes.Buffer
-	w := csv.NewWriter(&buf)
-	_ = w.Write([]string{"series", c.X.Label, "x unit", "y", "y unit"})
-	for _, panel := range c.Panels {
-		for _, s := range panel.Series {
-			x, err := toUnit(s.X, c.X, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			y, err := toUnit(s.Y, panel.Y, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			for i := range x {
-				_ = w.Write([]string{s.Name, csvNumber(x[i]), c.X.Unit, csvNumber(y[i]), panel.Y.Unit})
-			}
-		}
-	}
-	w.Flush()
-	return buf.Bytes(), w.Error()
 }
 
 // labelLayer draws a panel's words (process names, mark labels) after its

@@ -3,15 +3,20 @@ package render
 import "testing"
 
 // BenchmarkChartSVG draws one golden case's chart in both layouts, the
-// SVG alone; BenchmarkChartTypes is the whole of DrawChart.
+// SVG alone, into a buffer it reuses as DrawChart does; BenchmarkChartTypes
+// is the whole of DrawChart.
 func BenchmarkChartSVG(b *testing.B) {
 	for _, c := range chartCases(b) {
 		ch := c.chart(b)
 		b.Run(c.Name, func(b *testing.B) {
 			b.ReportAllocs()
+			var buf []byte
 			for b.Loop() {
+				series := convertSeries(ch)
+				buf = buf[:0]
 				for _, l := range []chartLayout{wideChart, narrowChart} {
-					if _, err := drawSVG(ch, l, "chart"); err != nil {
+					var err error
+					if buf, err = appendSVG(buf, ch, series, l, "chart"); err != nil {
 						b.Fatal(err)
 					}
 				}
