@@ -155,34 +155,57 @@ func convertSeries(c *calc.Chart) [][]seriesPoints {
 
 func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPoints {
 	sp := seriesPoints{xMin: math.Inf(1), xMax: math.Inf(-1), yMin: math.Inf(1), yMax: math.Inf(-1)}
-	x, err := toUnit(s.X, xAxis, ambient)
+	xConv, err := unitConversion(xAxis, ambient)
+	if err == nil {
+		err = checkFinite(s.X, xAxis, xConv)
+	}
 	if err != nil {
 		sp.err = err
 		return sp
 	}
-	y, err := toUnit(s.Y, yAxis, ambient)
+	yConv, err := unitConversion(yAxis, ambient)
+	if err == nil {
+		err = checkFinite(s.Y, yAxis, yConv)
+	}
 	if err != nil {
 		sp.err = err
 		return sp
 	}
-	if len(x) != len(y) || len(x) < 2 {
-		sp.err = fmt.Errorf("series %q has %d x and %d y values", s.Name, len(x), len(y))
+	n := len(s.X)
+	if n != len(s.Y) || n < 2 {
+		sp.err = fmt.Errorf("series %q has %d x and %d y values", s.Name, n, len(s.Y))
 		return sp
 	}
-	pts := make(plotter.XYs, len(x))
-	for k := range x {
+	step := thinStep(n)
+	pts := make(plotter.XYs, 0, (n-1)/step+2)
+	var last plotter.XY
+	for k := range n {
+		x, y := xConv.apply(s.X[k]), yConv.apply(s.Y[k])
 		if yAxis.Log {
-			if y[k] <= 0 {
+			if y <= 0 {
 				sp.err = fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
 				return sp
 			}
-			y[k] = math.Log10(y[k])
+			y = math.Log10(y)
 		}
-		pts[k] = plotter.XY{X: x[k], Y: y[k]}
-		sp.xMin, sp.xMax = math.Min(sp.xMin, x[k]), math.Max(sp.xMax, x[k])
-		sp.yMin, sp.yMax = math.Min(sp.yMin, y[k]), math.Max(sp.yMax, y[k])
+		last = plotter.XY{X: x, Y: y}
+		if k%step == 0 {
+			pts = append(pts, last)
+		}
+		sp.xMin, sp.xMax = math.Min(sp.xMin, x), math.Max(sp.xMax, x)
+		sp.yMin, sp.yMax = math.Min(sp.yMin, y), math.Max(sp.yMax, y)
 	}
-	sp.pts = thin(pts)
+	if pts[len(pts)-1] != last {
+		pts = append(pts, last)
+	}
+	// What plotter.NewLine refuses.
+	for _, pt := range pts {
+		if err := plotter.CheckFloats(pt.X, pt.Y); err != nil {
+			sp.err = err
+			return sp
+		}
+	}
+	sp.pts = pts
 	return sp
 }
 
@@ -246,7 +269,7 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
 		grid.Vertical.Width, grid.Horizontal.Width = 0.5, 0.5
-		p.Add(grid)
+		p.Add(chartGrid{grid})
 		words := &labelLayer{}
 		yMin, yMax := math.Inf(1), math.Inf(-1)
 		for j, s := range panel.Series {
@@ -256,14 +279,11 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 			}
 			xMin, xMax = math.Min(xMin, sp.xMin), math.Max(xMax, sp.xMax)
 			yMin, yMax = math.Min(yMin, sp.yMin), math.Max(yMax, sp.yMax)
-			line, err := plotter.NewLine(sp.pts)
-			if err != nil {
-				return out, err
-			}
+			line := &plotter.Line{XYs: sp.pts, LineStyle: plotter.DefaultLineStyle}
 			line.Color = seriesColors[j%len(seriesColors)]
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
-			p.Add(plainLine{line})
+			p.Add(newPlainLine(line))
 			if err := addLabels(words, s.Labels, c, panel, l); err != nil {
 				return out, err
 			}
@@ -577,20 +597,13 @@ func nonFiniteError(a calc.Axis) error {
 // chart size and cost time and bytes. The CSV keeps them all.
 const maxPoints = 361
 
-// thin keeps every k-th point of a line, and its last point.
-func thin(pts plotter.XYs) plotter.XYs {
-	if len(pts) <= maxPoints {
-		return pts
+// thinStep is the k of a line of n points that keeps every k-th point,
+// and its last, to draw at most maxPoints.
+func thinStep(n int) int {
+	if n <= maxPoints {
+		return 1
 	}
-	step := (len(pts) + maxPoints - 2) / (maxPoints - 1)
-	out := make(plotter.XYs, 0, maxPoints+1)
-	for i := 0; i < len(pts); i += step {
-		out = append(out, pts[i])
-	}
-	if last := pts[len(pts)-1]; out[len(out)-1] != last {
-		out = append(out, last)
-	}
-	return out
+	return (n + maxPoints - 2) / (maxPoints - 1)
 }
 
 func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel, l chartLayout) error {
@@ -674,7 +687,7 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 		return err
 	}
 	line.Color, line.Width, line.Dashes = markColor, 1, []vg.Length{2, 2}
-	p.Add(line)
+	p.Add(&markLine{plainLine: newPlainLine(line)})
 	if m.Label == "" {
 		return nil
 	}
@@ -689,53 +702,6 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 	words.sets = append(words.sets, lab)
 	return nil
 }
-
-// plainLine is a line without glyph boxes: gonum/plot asks a line for a
-// box around every point, many times while it lays out the axes, and that
-// was most of a chart's cost. A line needs no room beyond its data range.
-type plainLine struct{ line *plotter.Line }
-
-// Plot draws the line as plotter.Line draws a line without fill or steps,
-// and, when every point lies within the canvas, as one polyline written
-// straight to an svgCanvas: clipping it would leave it as it is.
-func (l plainLine) Plot(c draw.Canvas, p *plot.Plot) {
-	svg, ok := svgUnder(c.Canvas)
-	if !ok || l.line.FillColor != nil || l.line.StepStyle != plotter.NoStep {
-		l.line.Plot(c, p)
-		return
-	}
-	trX, trY := p.Transforms(&c)
-	pts := make([]vg.Point, len(l.line.XYs))
-	for i, xy := range l.line.XYs {
-		pts[i] = vg.Point{X: trX(xy.X), Y: trY(xy.Y)}
-		if !c.Contains(pts[i]) {
-			l.line.Plot(c, p)
-			return
-		}
-	}
-	if l.line.LineStyle.Width == 0 || len(pts) < 2 {
-		return
-	}
-	c.SetLineStyle(l.line.LineStyle)
-	svg.strokePolyline(pts)
-}
-
-// svgUnder finds the svgCanvas a draw.Canvas draws on: gonum/plot wraps
-// a plot's canvas in draw.Canvases, which pass every call on unchanged.
-func svgUnder(c vg.Canvas) (*svgCanvas, bool) {
-	for {
-		switch v := c.(type) {
-		case *svgCanvas:
-			return v, true
-		case draw.Canvas:
-			c = v.Canvas
-		default:
-			return nil, false
-		}
-	}
-}
-
-func (l plainLine) DataRange() (xmin, xmax, ymin, ymax float64) { return l.line.DataRange() }
 
 // onceTicks remembers the ticks of an axis: gonum/plot asks an axis for
 // its ticks a dozen times while it lays out and draws a chart, always for
@@ -774,7 +740,10 @@ func (u unlabelled) Ticks(min, max float64) []plot.Tick {
 // lines, moving a word that would overlap one already drawn a line
 // towards the middle of the panel: close stages, or two limits at one
 // temperature, printed over each other.
-type labelLayer struct{ sets []*plotter.Labels }
+type labelLayer struct {
+	sets  []*plotter.Labels
+	boxes boxMemo
+}
 
 func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
@@ -833,9 +802,11 @@ func (l *labelLayer) DataRange() (xmin, xmax, ymin, ymax float64) {
 }
 
 func (l *labelLayer) GlyphBoxes(p *plot.Plot) []plot.GlyphBox {
-	var out []plot.GlyphBox
-	for _, set := range l.sets {
-		out = append(out, set.GlyphBoxes(p)...)
-	}
-	return out
+	return l.boxes.get(p, func() []plot.GlyphBox {
+		var out []plot.GlyphBox
+		for _, set := range l.sets {
+			out = append(out, set.GlyphBoxes(p)...)
+		}
+		return out
+	})
 }

@@ -100,6 +100,15 @@ func (m *measuredText) Box(txt string, fnt font.Font) (width, height, depth vg.L
 	return f.width(txt, fnt.Size), f.ascent * s, f.descent * s
 }
 
+// Lines splits text into lines as text.Plain does; the one line of a
+// chart's words needs no search for line breaks.
+func (m *measuredText) Lines(txt string) []string {
+	if strings.IndexByte(txt, '\n') < 0 {
+		return []string{txt}
+	}
+	return m.Plain.Lines(txt)
+}
+
 // Draw places text as text.Plain does, with the widths it has measured.
 func (m *measuredText) Draw(c vg.Canvas, txt string, sty text.Style, pt vg.Point) {
 	txt = strings.TrimRight(txt, "\n")

@@ -25,6 +25,8 @@ type svgCanvas struct {
 	nonFinite bool
 	stack     []canvasState
 	classes   map[color.RGBA]string
+	// points is room for a line's points, reused from line to line.
+	points []vg.Point
 }
 
 type canvasState struct {
