@@ -51,11 +51,11 @@ func chartCSV(c *calc.Chart) ([]byte, error) {
 			for i, v := range s.X {
 				out = append(out, name...)
 				out = append(out, ',')
-				out = strconv.AppendFloat(out, xConv.apply(v), 'g', 8, 64)
+				out = appendCSVNumber(out, xConv.apply(v))
 				out = append(out, ',')
 				out = append(out, xUnit...)
 				out = append(out, ',')
-				out = strconv.AppendFloat(out, yConv.apply(s.Y[i]), 'g', 8, 64)
+				out = appendCSVNumber(out, yConv.apply(s.Y[i]))
 				out = append(out, ',')
 				out = append(out, yUnit...)
 				out = append(out, '\n')
@@ -90,4 +90,110 @@ func appendCSVField(b []byte, field string) []byte {
 	b = append(b, '"')
 	b = append(b, strings.ReplaceAll(field, `"`, `""`)...)
 	return append(b, '"')
+}
+
+// csvFigures is how many significant figures the CSV gives a value.
+const csvFigures = 8
+
+// pow10 are the powers of ten a float64 holds exactly.
+var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11,
+	1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// appendCSVNumber appends v as strconv.AppendFloat(b, v, 'g', 8, 64)
+// does, which was most of the time a chart's CSV took. A value from
+// 1e-14 to 1e15 is scaled by an exact power of ten to eight whole digits,
+// with one rounding, some 1e-8 at most; where the scaled value's fraction
+// lies clear of a half, rounding it gives the digits strconv's exact
+// conversion gives. Other values, and those near a half, go to strconv.
+func appendCSVNumber(b []byte, v float64) []byte {
+	a := math.Abs(v)
+	if !(a >= 1e-14 && a < 1e15) {
+		return strconv.AppendFloat(b, v, 'g', csvFigures, 64)
+	}
+	// From the binary exponent, the decimal one or one less: 78913/2^18
+	// is log10(2) to six figures.
+	exp2 := int(math.Float64bits(a)>>52) - 1023
+	exp10 := exp2 * 78913 >> 18
+	scaled := scalePow10(a, csvFigures-1-exp10)
+	if scaled >= 1e8 {
+		exp10++
+		scaled = scalePow10(a, csvFigures-1-exp10)
+	}
+	whole := uint32(scaled)
+	frac := scaled - float64(whole)
+	if scaled < 1e7 || math.Abs(frac-0.5) < 1e-6 {
+		return strconv.AppendFloat(b, v, 'g', csvFigures, 64)
+	}
+	if frac > 0.5 {
+		whole++
+	}
+	if whole >= 1e8 {
+		return strconv.AppendFloat(b, v, 'g', csvFigures, 64)
+	}
+	var digits [csvFigures]byte
+	for i, n := csvFigures-1, whole; i >= 0; i, n = i-1, n/10 {
+		digits[i] = byte('0' + n%10)
+	}
+	nd := csvFigures
+	for digits[nd-1] == '0' {
+		nd--
+	}
+	if v < 0 {
+		b = append(b, '-')
+	}
+	return appendGeneral(b, digits[:nd], exp10+1)
+}
+
+// scalePow10 returns a × 10^k for k from -22 to 22, with one rounding.
+func scalePow10(a float64, k int) float64 {
+	if k < 0 {
+		return a / pow10[-k]
+	}
+	return a * pow10[k]
+}
+
+// appendGeneral writes the digits of a value whose decimal point is dp
+// digits from their start as strconv's 'g' format with csvFigures
+// figures does: plain, or with an exponent when it is below -4 or at
+// least the figures shown.
+func appendGeneral(b, digits []byte, dp int) []byte {
+	nd := len(digits)
+	eprec := csvFigures
+	if eprec > nd && nd >= dp {
+		eprec = nd
+	}
+	if exp := dp - 1; exp < -4 || exp >= eprec {
+		b = append(b, digits[0])
+		if nd > 1 {
+			b = append(b, '.')
+			b = append(b, digits[1:]...)
+		}
+		b = append(b, 'e')
+		if exp < 0 {
+			b = append(b, '-')
+			exp = -exp
+		} else {
+			b = append(b, '+')
+		}
+		if exp < 10 {
+			b = append(b, '0')
+		}
+		return strconv.AppendInt(b, int64(exp), 10)
+	}
+	if dp > 0 {
+		b = append(b, digits[:min(nd, dp)]...)
+		for range dp - nd {
+			b = append(b, '0')
+		}
+	} else {
+		b = append(b, '0')
+	}
+	if nd > dp {
+		b = append(b, '.')
+		for range -dp {
+			b = append(b, '0')
+		}
+		b = append(b, digits[max(dp, 0):]...)
+	}
+	return b
 }

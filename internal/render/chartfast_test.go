@@ -45,6 +45,36 @@ func TestAppendNumAsFormatFloat(t *testing.T) {
 	}
 }
 
+// TestCSVNumberAsStrconv: a CSV value reads as strconv writes it to 8
+// figures: random values of every magnitude, values a hair either side
+// of a rounding half and of a power of ten, whole numbers, and the edges
+// of the shortcut's range.
+func TestCSVNumberAsStrconv(t *testing.T) {
+	values := []float64{0, math.Copysign(0, -1), 1, -1, 0.1, 1e-14, 1e-15, 9.9999999e-15, 1e15, 999999999999999.9, 1e14,
+		99999999.5, 99999999.49999999, 12345678.5, 1.23456785, 0.000123456785, 100000000, 1e8 - 0.5, 7, 1200, 12, 1.2e8,
+		0.0001, 0.00001, 123456.78, 5e-324, math.MaxFloat64, math.NaN(), math.Inf(1), math.Inf(-1)}
+	rng := rand.New(rand.NewPCG(3, 4))
+	for range 150000 {
+		e := rng.IntN(34) - 17
+		v := (rng.Float64()*9 + 1) * math.Pow(10, float64(e))
+		if rng.IntN(2) == 0 {
+			v = -v
+		}
+		// A value whose eighth figure is followed by a 5, and its
+		// neighbours.
+		half := (math.Floor(rng.Float64()*9e7+1e7) + 0.5) * math.Pow(10, float64(e-7))
+		ten := math.Pow(10, float64(e))
+		values = append(values, v, half, math.Nextafter(half, 0), math.Nextafter(half, math.Inf(1)),
+			math.Nextafter(ten, 0), math.Nextafter(ten, math.Inf(1)), float64(rng.IntN(1e9)), math.Float64frombits(rng.Uint64()))
+	}
+	for _, v := range values {
+		want := strconv.FormatFloat(v, 'g', 8, 64)
+		if got := string(appendCSVNumber(nil, v)); got != want {
+			t.Fatalf("appendCSVNumber(%v) = %q, want %q", v, got, want)
+		}
+	}
+}
+
 // TestCSVFieldsAsEncodingCSV: a record's fields are quoted as
 // encoding/csv quotes them.
 func TestCSVFieldsAsEncodingCSV(t *testing.T) {
