@@ -1,6 +1,7 @@
 package render
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"image/color"
@@ -119,17 +120,21 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		out = append(out, `</span></a>`...)
 	}
 	out = append(out, "</figcaption>\n</figure>\n"...)
-	*bp = out
-	data, err := chartCSV(c)
+	d := &DrawnChart{Name: c.Name, HTML: string(out)}
+	// The CSV is written in the same buffer and copied out at its size.
+	out, err = appendChartCSV(out[:0], c)
 	if err != nil {
 		return nil, err
 	}
-	return &DrawnChart{Name: c.Name, HTML: string(out), CSV: data}, nil
+	*bp = out
+	d.CSV = bytes.Clone(out)
+	return d, nil
 }
 
-// chartBuffers holds the buffers charts are drawn into: a chart's HTML is
-// some tens of kilobytes, and growing a fresh buffer to that size for
-// every chart was a good part of the bytes a build allocated.
+// chartBuffers holds the buffers charts and their CSV are written into: a
+// chart's HTML and CSV are some tens of kilobytes each, and growing a
+// fresh buffer to that size for every chart was a good part of the bytes
+// a build allocated.
 var chartBuffers = sync.Pool{New: func() any { b := make([]byte, 0, 64<<10); return &b }}
 
 // seriesPoints is one series of a chart as it is drawn: in display units,

@@ -11,23 +11,16 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
-// chartCSV writes every series as rows of series, x, x unit, y, y unit,
-// each value to 8 significant figures, as data for other programs rather
-// than for reading. Fields are quoted as encoding/csv quotes them.
-func chartCSV(c *calc.Chart) ([]byte, error) {
+// appendChartCSV appends every series as rows of series, x, x unit, y,
+// y unit, each value to 8 significant figures, as data for other
+// programs rather than for reading. Fields are quoted as encoding/csv
+// quotes them.
+func appendChartCSV(out []byte, c *calc.Chart) ([]byte, error) {
 	xConv, err := unitConversion(c.X, c.Ambient)
 	if err != nil {
 		return nil, err
 	}
 	xUnit := appendCSVField(nil, c.X.Unit)
-	size := 64 + len(c.X.Label)
-	for _, panel := range c.Panels {
-		for _, s := range panel.Series {
-			// 15 bytes hold any value to 8 figures: "-1.2345678e-100".
-			size += len(s.X) * (len(s.Name) + len(xUnit) + len(panel.Y.Unit) + 2*15 + 8)
-		}
-	}
-	out := make([]byte, 0, size)
 	out = append(out, "series,"...)
 	out = appendCSVField(out, c.X.Label)
 	out = append(out, ",x unit,y,y unit\n"...)
