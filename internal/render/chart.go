@@ -82,20 +82,18 @@ type DrawnChart struct {
 // chart, which the caller does. id makes the SVGs' element ids unique in
 // the page; csvHref is the link to the chart's data.
 func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
-	bp := chartBuffers.Get().(*[]byte)
-	defer chartBuffers.Put(bp)
-	out := (*bp)[:0]
-	out = append(out, `<figure class="sg-chart" id="`...)
-	out = appendEscaped(out, id)
-	out = append(out, "\">\n"...)
+	sc := chartScratches.Get().(*chartScratch)
+	defer chartScratches.Put(sc)
+	sc.buf = append(sc.buf[:0], `<figure class="sg-chart" id="`...)
+	sc.buf = appendEscaped(sc.buf, id)
+	sc.buf = append(sc.buf, "\">\n"...)
 	series := convertSeries(c)
-	var err error
 	for _, l := range []chartLayout{wideChart, narrowChart} {
-		if out, err = appendSVG(out, c, series, l, id+strings.TrimPrefix(l.class, "sg-chart")); err != nil {
-			*bp = out
+		if err := appendSVG(sc, c, series, l, id+strings.TrimPrefix(l.class, "sg-chart")); err != nil {
 			return nil, err
 		}
 	}
+	out := sc.buf
 	out = append(out, `<figcaption><span class="sg-chart-title">`...)
 	out = appendEscaped(out, c.Title)
 	out = append(out, `</span><span class="sg-chart-key">`...)
@@ -120,22 +118,30 @@ func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
 		out = append(out, `</span></a>`...)
 	}
 	out = append(out, "</figcaption>\n</figure>\n"...)
+	sc.buf = out
 	d := &DrawnChart{Name: c.Name, HTML: string(out)}
 	// The CSV is written in the same buffer and copied out at its size.
-	out, err = appendChartCSV(out[:0], c)
+	out, err := appendChartCSV(out[:0], c)
 	if err != nil {
 		return nil, err
 	}
-	*bp = out
+	sc.buf = out
 	d.CSV = bytes.Clone(out)
 	return d, nil
 }
 
-// chartBuffers holds the buffers charts and their CSV are written into: a
-// chart's HTML and CSV are some tens of kilobytes each, and growing a
-// fresh buffer to that size for every chart was a good part of the bytes
+// chartScratch is the room a chart is drawn in, reused from chart to
+// chart: its HTML and CSV are some tens of kilobytes each, and growing
+// fresh buffers to that size for every chart was a good part of the bytes
 // a build allocated.
-var chartBuffers = sync.Pool{New: func() any { b := make([]byte, 0, 64<<10); return &b }}
+type chartScratch struct {
+	buf    []byte     // the HTML, then the CSV
+	points []vg.Point // a line's points on the canvas
+}
+
+var chartScratches = sync.Pool{New: func() any {
+	return &chartScratch{buf: make([]byte, 0, 64<<10), points: make([]vg.Point, 0, maxPoints+1)}
+}}
 
 // seriesPoints is one series of a chart as it is drawn: in display units,
 // log10 taken on a log panel, thinned, with the range of all its points.
@@ -215,8 +221,10 @@ func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPo
 }
 
 // appendSVG draws a chart in one layout as an inline SVG named by its
-// title and description; id makes its element ids unique in the page.
-func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout, id string) ([]byte, error) {
+// title and description, appended to sc.buf; id makes its element ids
+// unique in the page.
+func appendSVG(sc *chartScratch, c *calc.Chart, series [][]seriesPoints, l chartLayout, id string) error {
+	out := sc.buf
 	noteRoom := 0.0
 	if c.EdgeNote != "" {
 		noteRoom = float64(l.labelFont) + 4
@@ -243,6 +251,8 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 	out = appendEscaped(out, c.Desc)
 	out = append(out, "</desc>\n"...)
 	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses, out)
+	canvas.points = sc.points
+	defer func() { sc.buf, sc.points = canvas.buf, canvas.points }()
 	plots := make([][]*plot.Plot, len(c.Panels))
 	xMin, xMax := math.Inf(1), math.Inf(-1)
 	for i, panel := range c.Panels {
@@ -280,7 +290,7 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 		for j, s := range panel.Series {
 			sp := series[i][j]
 			if sp.err != nil {
-				return out, sp.err
+				return sp.err
 			}
 			xMin, xMax = math.Min(xMin, sp.xMin), math.Max(xMax, sp.xMax)
 			yMin, yMax = math.Min(yMin, sp.yMin), math.Max(yMax, sp.yMax)
@@ -290,7 +300,7 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 			line.Dashes = dashes(s.Style)
 			p.Add(newPlainLine(line))
 			if err := addLabels(words, s.Labels, c, panel, l); err != nil {
-				return out, err
+				return err
 			}
 		}
 		// Magnitudes start from zero, so that slopes are not exaggerated.
@@ -300,7 +310,7 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 		}
 		for _, m := range panel.Marks {
 			if err := addMark(p, words, m, c, panel, yMin, yMax, l); err != nil {
-				return out, err
+				return err
 			}
 		}
 		if len(words.sets) > 0 {
@@ -322,11 +332,11 @@ func appendSVG(out []byte, c *calc.Chart, series [][]seriesPoints, l chartLayout
 		style := text.Style{Color: markColor, Font: font.From(plot.DefaultFont, l.labelFont), XAlign: draw.XRight, YAlign: draw.YTop, Handler: chartText}
 		dc.FillText(style, vg.Point{X: vg.Length(l.width) - tiles.PadRight, Y: vg.Length(height) - 4}, c.EdgeNote)
 	}
-	out = canvas.buf
 	if canvas.nonFinite {
-		return out, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
+		return errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
 	}
-	return append(out, "</svg>\n"...), nil
+	canvas.buf = append(canvas.buf, "</svg>\n"...)
+	return nil
 }
 
 // appendDashAttr appends the stroke-dasharray attribute of a line style,

@@ -10,13 +10,12 @@ func BenchmarkChartSVG(b *testing.B) {
 		ch := c.chart(b)
 		b.Run(c.Name, func(b *testing.B) {
 			b.ReportAllocs()
-			var buf []byte
+			var sc chartScratch
 			for b.Loop() {
 				series := convertSeries(ch)
-				buf = buf[:0]
+				sc.buf = sc.buf[:0]
 				for _, l := range []chartLayout{wideChart, narrowChart} {
-					var err error
-					if buf, err = appendSVG(buf, ch, series, l, "chart"); err != nil {
+					if err := appendSVG(&sc, ch, series, l, "chart"); err != nil {
 						b.Fatal(err)
 					}
 				}

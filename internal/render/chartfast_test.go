@@ -7,12 +7,15 @@ import (
 	"math"
 	"math/rand/v2"
 	"strconv"
+	"sync"
 	"testing"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
+
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // The chart writers take shortcuts past the standard library and
@@ -134,4 +137,35 @@ type textRecorder struct {
 
 func (r *textRecorder) FillString(f font.Face, pt vg.Point, txt string) {
 	r.calls += fmt.Sprintf("%v %v %v %q\n", f.Font, pt, r.top().m, txt)
+}
+
+// TestChartsConcurrently: pages draw their charts in parallel, sharing the
+// measured widths and the pooled buffers; every drawing is the one drawn
+// alone.
+func TestChartsConcurrently(t *testing.T) {
+	cases := chartCases(t)
+	charts := make([]*calc.Chart, len(cases))
+	want := make([]*DrawnChart, len(cases))
+	for i, c := range cases {
+		charts[i] = c.chart(t)
+		want[i] = c.draw(t)
+	}
+	var wg sync.WaitGroup
+	errs := make(chan string, 4*len(cases))
+	for g := range 4 {
+		wg.Go(func() {
+			for k := range cases {
+				i := (k + g*5) % len(cases)
+				d, err := DrawChart(charts[i], "chart-"+cases[i].Name, cases[i].Name+".csv")
+				if err != nil || d.HTML != want[i].HTML || !bytes.Equal(d.CSV, want[i].CSV) {
+					errs <- cases[i].Name
+				}
+			}
+		})
+	}
+	wg.Wait()
+	close(errs)
+	for name := range errs {
+		t.Errorf("%s: drawn alongside others, the chart differs", name)
+	}
 }
