@@ -203,8 +203,11 @@ func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPo
 		if k%step == 0 {
 			pts = append(pts, last)
 		}
-		sp.xMin, sp.xMax = math.Min(sp.xMin, x), math.Max(sp.xMax, x)
-		sp.yMin, sp.yMax = math.Min(sp.yMin, y), math.Max(sp.yMax, y)
+		// On finite values the built-in min and max agree with math.Min
+		// and math.Max, -0 included; values that are not finite are
+		// refused below.
+		sp.xMin, sp.xMax = min(sp.xMin, x), max(sp.xMax, x)
+		sp.yMin, sp.yMax = min(sp.yMin, y), max(sp.yMax, y)
 	}
 	if pts[len(pts)-1] != last {
 		pts = append(pts, last)

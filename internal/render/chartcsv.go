@@ -124,9 +124,11 @@ func appendCSVNumber(b []byte, v float64) []byte {
 		return strconv.AppendFloat(b, v, 'g', csvFigures, 64)
 	}
 	var digits [csvFigures]byte
-	for i, n := csvFigures-1, whole; i >= 0; i, n = i-1, n/10 {
-		digits[i] = byte('0' + n%10)
-	}
+	hi, lo := whole/10000, whole%10000
+	copy(digits[0:], digitPairs[2*(hi/100):2*(hi/100)+2])
+	copy(digits[2:], digitPairs[2*(hi%100):2*(hi%100)+2])
+	copy(digits[4:], digitPairs[2*(lo/100):2*(lo/100)+2])
+	copy(digits[6:], digitPairs[2*(lo%100):2*(lo%100)+2])
 	nd := csvFigures
 	for digits[nd-1] == '0' {
 		nd--
@@ -136,6 +138,11 @@ func appendCSVNumber(b []byte, v float64) []byte {
 	}
 	return appendGeneral(b, digits[:nd], exp10+1)
 }
+
+// digitPairs are the numbers 00 to 99, two digits each.
+const digitPairs = "00010203040506070809101112131415161718192021222324252627282930313233343536373839" +
+	"40414243444546474849505152535455565758596061626364656667686970717273747576777879" +
+	"8081828384858687888990919293949596979899"
 
 // scalePow10 returns a × 10^k for k from -22 to 22, with one rounding.
 func scalePow10(a float64, k int) float64 {

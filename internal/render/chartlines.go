@@ -21,9 +21,12 @@ type plainLine struct {
 
 func newPlainLine(line *plotter.Line) plainLine {
 	l := plainLine{line: line, xMin: math.Inf(1), xMax: math.Inf(-1), yMin: math.Inf(1), yMax: math.Inf(-1)}
+	// A line's points are finite (plotter.NewLine and convertOne refuse
+	// others), where the built-in min and max agree with plotter.Range's
+	// math.Min and math.Max, -0 included.
 	for _, xy := range line.XYs {
-		l.xMin, l.xMax = math.Min(l.xMin, xy.X), math.Max(l.xMax, xy.X)
-		l.yMin, l.yMax = math.Min(l.yMin, xy.Y), math.Max(l.yMax, xy.Y)
+		l.xMin, l.xMax = min(l.xMin, xy.X), max(l.xMax, xy.X)
+		l.yMin, l.yMax = min(l.yMin, xy.Y), max(l.yMax, xy.Y)
 	}
 	return l
 }

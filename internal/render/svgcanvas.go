@@ -145,7 +145,18 @@ func appendNum(b []byte, v float64) []byte {
 		b = append(b, '-')
 		tenths = -tenths
 	}
-	b = strconv.AppendInt(b, tenths/10, 10)
+	// Most coordinates are under 1000 points.
+	switch whole := tenths / 10; {
+	case whole < 10:
+		b = append(b, byte('0'+whole))
+	case whole < 100:
+		b = append(b, digitPairs[2*whole:2*whole+2]...)
+	case whole < 1000:
+		b = append(b, byte('0'+whole/100))
+		b = append(b, digitPairs[2*(whole%100):2*(whole%100)+2]...)
+	default:
+		b = strconv.AppendInt(b, whole, 10)
+	}
 	if d := tenths % 10; d != 0 {
 		b = append(b, '.', byte('0'+d))
 	}
