@@ -24,6 +24,7 @@
 # figure and PASS or OVER (information: the exit status is 0 unless a build fails),
 # and the in-process benchmarks' allocations at the first size.
 set -euo pipefail
+export LC_ALL=C # decimal points, whatever the locale
 cd "$(dirname "$0")/.."
 
 usage() { sed -n '2,3p' "$0" | sed 's/^# //'; }
@@ -85,11 +86,14 @@ measure() {
 median() {
   # shellcheck disable=SC2086 # the values are split on purpose
   printf '%s\n' ${figures[$1]-} | sort -g | awk 'NF { v[++n] = $1 }
-    END { if (n) printf "%.4g", n % 2 ? v[(n + 1) / 2] : (v[n / 2] + v[n / 2 + 1]) / 2 }'
+    END { if (n) printf "%.6g", (n % 2 ? v[(n + 1) / 2] : (v[n / 2] + v[n / 2 + 1]) / 2) }'
 }
 
+# per_page SECONDS PAGES prints milliseconds per page.
+per_page() { awk -v s="$1" -v n="$2" 'BEGIN { printf "%.2f", s * 1000 / n }'; }
+
 # ratio A B prints A/B to two decimals.
-ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", b > 0 ? a / b : 0 }'; }
+ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", (b > 0 ? a / b : 0) }'; }
 
 # edited_page KIND PAGES prints the page the edits go to: one near the middle of the
 # site that is not a section's index and, on the docs site, holds a block.
@@ -127,14 +131,14 @@ for n in "${sizes[@]}"; do
     done
     rm -rf "$site" "$work/floor"
     cold=$(median "$k.cold.wall") ccpu=$(median "$k.cold.cpu") fcpu=$(median "$k.floor.cpu") fwall=$(median "$k.floor.wall")
-    echo "== ${title[$kind]}, $n pages: medians of $runs interleaved runs"
-    printf '%-28s %9s %9s %10s %10s\n' "" "wall s" "CPU s" "CPU/page" "peak MB"
-    printf '%-28s %9s %9s %7s ms %10s\n' "specgen cold build" "$cold" "$ccpu" "$(awk -v c="$ccpu" -v n="$n" 'BEGIN { printf "%.2f", c * 1000 / n }')" "$(median "$k.cold.rss")"
-    printf '%-28s %9s %9s %7s ms %10s\n' "floor" "$fwall" "$fcpu" "$(awk -v c="$fcpu" -v n="$n" 'BEGIN { printf "%.2f", c * 1000 / n }')" "$(median "$k.floor.rss")"
-    printf '%-28s %8s× %8s×\n' "specgen / floor" "$(ratio "$cold" "$fwall")" "$(ratio "$ccpu" "$fcpu")"
+    echo "== ${title[$kind]}, $n pages: medians of $runs interleaved run(s)"
+    printf '%-26s %9s %9s %11s %9s\n' "" "wall s" "CPU s" "CPU/page" "peak MB"
+    printf '%-26s %9.3f %9.2f %8.2f ms %9.1f\n' "specgen cold build" "$cold" "$ccpu" "$(per_page "$ccpu" "$n")" "$(median "$k.cold.rss")"
+    printf '%-26s %9.3f %9.2f %8.2f ms %9.1f\n' "floor" "$fwall" "$fcpu" "$(per_page "$fcpu" "$n")" "$(median "$k.floor.rss")"
+    printf '%-26s %8.2f× %8.2f×\n' "specgen / floor" "$(ratio "$cold" "$fwall")" "$(ratio "$ccpu" "$fcpu")"
     for step in unchanged:"unchanged rebuild" prose:"one page's prose edited" input:"one block input edited"; do
       w=$(median "$k.${step%%:*}.wall")
-      printf '%-28s %9s %9s   (%s× the cold build)\n' "${step#*:}" "$w" "$(median "$k.${step%%:*}.cpu")" "$(ratio "$w" "$cold")"
+      printf '%-26s %9.3f %9.2f   %s× the cold build\n' "${step#*:}" "$w" "$(median "$k.${step%%:*}.cpu")" "$(ratio "$w" "$cold")"
     done
     echo
   done
@@ -147,7 +151,8 @@ if [ "$peak" -gt 0 ]; then
     measure "charts.$peak.cold" "$work/specgen" build -quiet -C "$site"
     rm -rf "$site"
   fi
-  echo "== chart-heavy site, $peak pages: cold build $(median "charts.$peak.cold.wall") s wall, $(median "charts.$peak.cold.cpu") s CPU, $(median "charts.$peak.cold.rss") MB peak"
+  printf '== chart-heavy site, %d pages: cold build %.3f s wall, %.2f s CPU, %.1f MB peak\n' "$peak" \
+    "$(median "charts.$peak.cold.wall")" "$(median "charts.$peak.cold.cpu")" "$(median "charts.$peak.cold.rss")"
   echo
 fi
 
@@ -166,27 +171,28 @@ if [ "$preview" -gt 0 ]; then
   echo
 fi
 
-# target LABEL FIGURE LIMIT UNIT prints a row of the targets' table.
+# target LABEL FIGURE LIMIT UNIT prints a row of the targets' table; UNIT is two
+# characters wide.
 target() {
   [ -n "$2" ] || return 0
-  printf '%-52s %9s %9s  %s\n' "$1" "$2$4" "≤ $3$4" "$(awk -v f="$2" -v l="$3" 'BEGIN { print f <= l ? "PASS" : "OVER" }')"
+  printf '%s %9s %s ≤ %4s %s  %s\n' "$(awk -v f="$2" -v l="$3" 'BEGIN { print (f <= l ? "PASS" : "OVER") }')" "$2" "$4" "$3" "$4" "$1"
 }
 echo "== targets (PASS or OVER; figures from this run on this machine)"
 for kind in charts docs; do
   k=$kind.$ref
   cold=$(median "$k.cold.wall")
-  target "${title[$kind]}, $ref pages: cold CPU / floor CPU" "$(ratio "$(median "$k.cold.cpu")" "$(median "$k.floor.cpu")")" 2.5 ×
-  target "${title[$kind]}, $ref pages: unchanged rebuild / cold" "$(ratio "$(median "$k.unchanged.wall")" "$cold")" 0.1 ×
-  target "${title[$kind]}, $ref pages: prose edit rebuild / cold" "$(ratio "$(median "$k.prose.wall")" "$cold")" 0.2 ×
-  target "${title[$kind]}, $ref pages: input edit rebuild / cold" "$(ratio "$(median "$k.input.wall")" "$cold")" 0.2 ×
+  target "${title[$kind]}, $ref pages: cold CPU / floor CPU" "$(ratio "$(median "$k.cold.cpu")" "$(median "$k.floor.cpu")")" 2.5 "× "
+  target "${title[$kind]}, $ref pages: unchanged rebuild / cold" "$(ratio "$(median "$k.unchanged.wall")" "$cold")" 0.1 "× "
+  target "${title[$kind]}, $ref pages: prose edit rebuild / cold" "$(ratio "$(median "$k.prose.wall")" "$cold")" 0.2 "× "
+  target "${title[$kind]}, $ref pages: input edit rebuild / cold" "$(ratio "$(median "$k.input.wall")" "$cold")" 0.2 "× "
   if [ "$big" != "$ref" ]; then
     target "${title[$kind]}: CPU per page, $big / $ref pages" \
-      "$(awk -v a="$(median "$kind.$big.cold.cpu")" -v na="$big" -v b="$(median "$k.cold.cpu")" -v nb="$ref" 'BEGIN { printf "%.2f", (a / na) / (b / nb) }')" 1.3 ×
+      "$(awk -v a="$(median "$kind.$big.cold.cpu")" -v na="$big" -v b="$(median "$k.cold.cpu")" -v nb="$ref" 'BEGIN { printf "%.2f", (b > 0 ? (a / na) / (b / nb) : 0) }')" 1.3 "× "
   fi
 done
-[ "$peak" = 0 ] || target "chart-heavy site, $peak pages: peak memory" "$(median "charts.$peak.cold.rss")" 300 " MB"
+[ "$peak" = 0 ] || target "chart-heavy site, $peak pages: peak memory" "$(median "charts.$peak.cold.rss")" 300 MB
 [ "$preview" = 0 ] || for kind in charts docs; do
-  target "preview, ${title[$kind]} of $preview pages: save to served" "$(awk -v m="${latency[$kind]}" 'BEGIN { printf "%.3f", m / 1000 }')" 0.3 " s"
+  target "preview, ${title[$kind]} of $preview pages: save to served" "$(awk -v m="${latency[$kind]}" 'BEGIN { printf "%.3f", m / 1000 }')" 0.3 "s "
 done
 echo
 
