@@ -20,9 +20,10 @@
 # medians of the runs; MB are 10^6 bytes. Then: one cold build of a chart-heavy site
 # of -peak pages (default 10000; 0 skips) for its peak memory, and the preview's
 # delay from saving a page to serving it on a site of -preview pages (default 300;
-# 0 skips), with BenchmarkPreviewEdit. Last, a table of the targets with each
-# figure and PASS or OVER (information: the exit status is 0 unless a build fails),
-# and the in-process benchmarks' allocations at the first size.
+# 0 skips), with BenchmarkPreviewEdit (cmd/specgen). Last, a table of the targets
+# with each figure and PASS or OVER, read at 1000 pages (or the first size when
+# 1000 is not given) and the largest size (information: the exit status is 0
+# unless a build fails), and the in-process benchmarks' allocations at that size.
 set -euo pipefail
 export LC_ALL=C # decimal points, whatever the locale
 cd "$(dirname "$0")/.."
@@ -95,11 +96,11 @@ per_page() { awk -v s="$1" -v n="$2" 'BEGIN { printf "%.2f", s * 1000 / n }'; }
 # ratio A B prints A/B to two decimals.
 ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", (b > 0 ? a / b : 0) }'; }
 
-# edited_page KIND PAGES prints the page the edits go to: one near the middle of the
-# site that is not a section's index and, on the docs site, holds a block.
+# edited_page PAGES prints the page the edits go to: one near the middle of the site
+# that is not a section's index and holds a block (benchEditedPage's choice).
 edited_page() {
-  local i=$(($2 / 2))
-  while [ $((i % 20)) = 0 ] || { [ "$1" = docs ] && [ $((i % 5)) = 4 ]; }; do i=$((i + 1)); done
+  local i=$(($1 / 2))
+  while [ $((i % 20)) = 0 ] || [ $((i % 5)) = 4 ]; do i=$((i + 1)); done
   printf 'content/part-%02d/section-%02d/page-%03d.md' $((i / 200)) $((i / 20 % 10)) $((i % 20))
 }
 
@@ -116,7 +117,7 @@ for n in "${sizes[@]}"; do
   for kind in "${kinds[@]}"; do
     site=$work/site
     gen "$kind" "$n" "$site"
-    page=$site/$(edited_page "$kind" "$n")
+    page=$site/$(edited_page "$n")
     k=$kind.$n
     for r in $(seq "$runs"); do
       rm -rf "$site/dist" "$site/.specgen-cache" "$work/floor"
@@ -197,4 +198,4 @@ done
 echo
 
 echo "== in-process benchmarks at $ref pages (allocations per build)"
-SPECGEN_BENCH_PAGES=$ref go test ./internal/site -run '^$' -bench '^Benchmark(Build|Floor)(Charts)?$' -benchtime 1x -benchmem | grep '^Benchmark'
+SPECGEN_BENCH_PAGES=$ref go test ./internal/site -run '^$' -bench '^Benchmark((Build|Floor)(Charts)?|RebuildEdit)$' -benchtime 1x -benchmem | grep '^Benchmark'

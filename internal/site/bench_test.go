@@ -7,6 +7,7 @@ import (
 	"html/template"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"sync"
 	"testing"
@@ -236,8 +237,9 @@ func TestBenchFloor(t *testing.T) {
 }
 
 // TestBenchSiteBuilds keeps the benchmark sites valid as the checks grow:
-// a generated site of each kind builds with no problem, and every page of
-// the chart-heavy one draws its two charts.
+// a generated site of each kind builds with no problem, the floor writes
+// a page for each of its pages, and every page of the chart-heavy one
+// draws its two charts.
 func TestBenchSiteBuilds(t *testing.T) {
 	for _, c := range []struct {
 		kind  string
@@ -252,6 +254,19 @@ func TestBenchSiteBuilds(t *testing.T) {
 			}
 			if _, err := s.Write(Options{}); err != nil {
 				t.Fatal(err)
+			}
+			f, err := newFloor(root)
+			if err != nil {
+				t.Fatal(err)
+			}
+			out := t.TempDir()
+			if err := f.render(out); err != nil {
+				t.Fatal(err)
+			}
+			for _, rel := range f.rels {
+				if _, err := os.Stat(filepath.Join(out, strings.TrimSuffix(rel, ".md")+".html")); err != nil {
+					t.Errorf("the floor wrote no page for %s: %v", rel, err)
+				}
 			}
 			if c.kind != chartSiteKind {
 				return
@@ -322,6 +337,73 @@ func BenchmarkFloor(b *testing.B) { benchFloor(b, docSiteKind) }
 
 // BenchmarkFloorCharts renders the chart-heavy site the floor's way.
 func BenchmarkFloorCharts(b *testing.B) { benchFloor(b, chartSiteKind) }
+
+// benchEditedPage is the page of a generated site of n pages that the
+// edit benchmarks change: one near the middle that is not a section's
+// index and holds a block (on both kinds of site), as .ci/bench.sh picks.
+func benchEditedPage(root string, n int) string {
+	i := n / 2
+	for i%20 == 0 || i%5 == 4 {
+		i++
+	}
+	return filepath.Join(root, ContentDir, fmt.Sprintf("part-%02d", i/200), fmt.Sprintf("section-%02d", i/20%10), benchPageName(i))
+}
+
+// boreLine is the bore input of a generated page's block.
+var boreLine = regexp.MustCompile(`(?m)^bore = "[0-9.]+ mm"$`)
+
+// BenchmarkRebuildEdit builds the chart-heavy site again after one page
+// changed: a sentence of its prose, or its block's bore. The target is a
+// fifth of BenchmarkBuildCharts or less.
+func BenchmarkRebuildEdit(b *testing.B) {
+	edits := []struct {
+		name string
+		edit func(src string, i int) string
+	}{
+		{"prose", func(src string, i int) string {
+			return strings.Replace(src, "Fit the part", fmt.Sprintf("Fit the part (revision %d)", i), 1)
+		}},
+		// A bore of a decimal millimetre differs from the generated whole
+		// ones, and each edit from the last.
+		{"input", func(src string, i int) string {
+			return boreLine.ReplaceAllString(src, fmt.Sprintf(`bore = "%d.5 mm"`, 40+i%20))
+		}},
+	}
+	for _, e := range edits {
+		b.Run(e.name, func(b *testing.B) {
+			root := b.TempDir()
+			pages := benchEnvPages(b, 1000)
+			WriteChartBenchSite(b, root, pages)
+			if _, err := Build(root, Options{}); err != nil {
+				b.Fatal(err)
+			}
+			page := benchEditedPage(root, pages)
+			src, err := os.ReadFile(page)
+			if err != nil {
+				b.Fatal(err)
+			}
+			edited := 0
+			b.ReportAllocs()
+			for b.Loop() {
+				edited++
+				text := e.edit(string(src), edited)
+				if text == string(src) {
+					b.Fatalf("%s: the %s edit changed nothing", page, e.name)
+				}
+				if err := os.WriteFile(page, []byte(text), 0o644); err != nil {
+					b.Fatal(err)
+				}
+				sum, err := Build(root, Options{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				if sum.UpToDate {
+					b.Fatalf("%s: the build after the %s edit was skipped", page, e.name)
+				}
+			}
+		})
+	}
+}
 
 // floor does the least any generator must do with a site's Markdown:
 // goldmark with GFM, footnotes and heading ids, chroma highlighting of
