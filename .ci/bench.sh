@@ -138,8 +138,8 @@ for n in "${sizes[@]}"; do
     printf '%-26s %9.3f %9.2f %8.2f ms %9.1f\n' "floor" "$fwall" "$fcpu" "$(per_page "$fcpu" "$n")" "$(median "$k.floor.rss")"
     printf '%-26s %8.2f× %8.2f×\n' "specgen / floor" "$(ratio "$cold" "$fwall")" "$(ratio "$ccpu" "$fcpu")"
     for step in unchanged:"unchanged rebuild" prose:"one page's prose edited" input:"one block input edited"; do
-      w=$(median "$k.${step%%:*}.wall")
-      printf '%-26s %9.3f %9.2f   %s× the cold build\n' "${step#*:}" "$w" "$(median "$k.${step%%:*}.cpu")" "$(ratio "$w" "$cold")"
+      w=$(median "$k.${step%%:*}.wall") c=$(median "$k.${step%%:*}.cpu")
+      printf '%-26s %9.3f %9.2f   %s× the cold build (CPU %s×)\n' "${step#*:}" "$w" "$c" "$(ratio "$w" "$cold")" "$(ratio "$c" "$ccpu")"
     done
     echo
   done
