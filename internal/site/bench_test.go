@@ -56,9 +56,10 @@ func WriteBenchSite(tb testing.TB, root string, n int) {
 }
 
 // WriteChartBenchSite writes a site of n pages laid out as WriteBenchSite's
-// where every page is a stage's write-up: prose with inline values, a
-// parts table, an assembly list, a code sample and one compressor block
-// with claims, shown results and two charts.
+// where every page is a stage's write-up of about 4 kB, like the demo's
+// pages (2–14 kB): prose with inline values, one compressor block with
+// claims, shown results and two charts, tables of parts, fasteners and
+// running in, lists of assembly steps and two code samples.
 func WriteChartBenchSite(tb testing.TB, root string, n int) {
 	tb.Helper()
 	writeBenchPages(tb, root, n, chartBenchPage)
@@ -185,7 +186,20 @@ func chartBenchPage(i, n int) string {
 		"| connecting rod | 1 | steel | bronze small-end bush |\n| head bolt | 4 | steel | M6, torque in sequence |\n| reed valve | 2 | spring steel | inlet and delivery |\n\n")
 	b.WriteString("## Assembly\n\n1. Clean the bore and oil the rings.\n2. Fit the piston with the ring gaps staggered.\n" +
 		"   - top ring first\n   - gaps 120° apart\n3. Fit the head and tighten the bolts in a cross pattern.\n4. Turn the crank by hand through two revolutions.\n\n")
+	for s, step := range []string{"the crankcase", "the cylinder", "the head and valves"} {
+		fmt.Fprintf(&b, "### Step %d: %s\n\nWipe the faces, fit the part and check the clearance with a feeler gauge; note it in the "+
+			"build log with the date. A clearance outside the drawing's limits means a part is wrong: stop and measure it "+
+			"again rather than forcing it home.\n\n- clean the faces\n- oil the bearing surfaces\n  - thin oil only\n- fit and tighten\n\n"+
+			"| fastener | qty | torque |\n|---|---:|---:|\n| M6 bolt | 4 | %d N m |\n| M5 screw | 6 | 5 N m |\n\n", s+1, step, 8+s)
+	}
+	b.WriteString("## Running in\n\nRun the stage unloaded for the first hour, then at half pressure for two hours, and check the " +
+		"head bolts when it has cooled. Change the oil after the first ten hours: the running-in wear is in it. Listen for a " +
+		"knock at top dead centre, which means too little clearance, and feel the delivery pipe, which should be hot but not " +
+		"discoloured.\n\n| hours | load | check |\n|---:|---|---|\n| 0–1 | none | oil level, leaks |\n| 1–3 | half pressure | head bolts, valve noise |\n" +
+		"| 10 | full | oil change |\n| 50 | full | valves, rings |\n\n")
 	b.WriteString(benchCode(i))
+	b.WriteString("The log the test rig writes:\n\n")
+	b.WriteString(benchCode(i + 1))
 	return b.String()
 }
 
