@@ -208,7 +208,8 @@ func Build(root string, opts Options) (*Summary, error) {
 	intact := make(chan bool, 1)
 	go func() { intact <- last.intact(out) }()
 	fp, fpErr := fingerprint(root, out)
-	if <-intact && fpErr == nil && last.Fingerprint == fp {
+	wasIntact := <-intact
+	if wasIntact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
 			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}
@@ -228,7 +229,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, err := s.write(opts, last.reusable(root, out))
+	sum, record, files, err := s.write(opts, last.reusable(root, out, wasIntact))
 	if err != nil {
 		return nil, err
 	}
@@ -237,7 +238,7 @@ func Build(root string, opts Options) (*Summary, error) {
 		_ = outcomes.save(filepath.Join(root, CacheDir))
 	}
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems, tally, record)
+		remember(root, out, fp, sum.Pages, problems, tally, record, files)
 	}
 	return sum, nil
 }
@@ -263,24 +264,28 @@ func outputPath(root, out string) string {
 
 // Write renders every page and swaps the finished output into place.
 func (s *Site) Write(opts Options) (*Summary, error) {
-	sum, _, err := s.write(opts, nil)
+	sum, _, _, err := s.write(opts, nil)
 	return sum, err
 }
 
 // write renders the site into a staging folder beside the output and
 // swaps it into place. Files whose inputs are as last recorded are hard
 // links to the last output (copies where the disk has no links), never
-// written through: the last output stays as it was until the swap.
-func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, error) {
+// written through: the last output stays as it was until the swap. It
+// returns this build's record and its output files as the manifest keeps
+// them (nil when they could not all be read).
+func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, map[string]outputFile, error) {
 	out := outputPath(s.Root, opts.Out)
 	if err := checkOutputDir(s.Root, out); err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	st, err := newStaging(out)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	interrupted := func() bool { return opts.Context != nil && opts.Context.Err() != nil }
+	var mu sync.Mutex
+	written, kept := []string{OutputMarker}, map[string]outputFile{}
 	to := sink{
 		put: func(name string, write func(io.Writer) error) error {
 			if interrupted() {
@@ -289,9 +294,20 @@ func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, er
 			// A file kept before its page had to be made again is a link
 			// to the last output: never write through it.
 			_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
+			mu.Lock()
+			written = append(written, name)
+			mu.Unlock()
 			return st.create(name, write)
 		},
-		keep: func(name string) bool { return !interrupted() && last.linkInto(st.dir, name) },
+		keep: func(name string) bool {
+			if interrupted() || !last.linkInto(st.dir, name) {
+				return false
+			}
+			mu.Lock()
+			kept[name] = last.files[name]
+			mu.Unlock()
+			return true
+		},
 	}
 	var previous *buildRecord
 	if last != nil {
@@ -303,13 +319,24 @@ func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, er
 	}
 	if err != nil {
 		st.abandon()
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	if err := st.commit(); err != nil {
 		st.abandon()
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
-	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, record, nil
+	// Kept files are as the last manifest has them; written ones (and
+	// any kept one written over after all) are looked at.
+	files := kept
+	for _, name := range written {
+		info, err := os.Lstat(filepath.Join(out, filepath.FromSlash(name)))
+		if err != nil {
+			files = nil
+			break
+		}
+		files[name] = outputFile{Size: info.Size(), ModTime: info.ModTime().UnixNano()}
+	}
+	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, record, files, nil
 }
 
 // Render produces every output file in memory, keyed by output path (the

@@ -196,11 +196,13 @@ type lastOutput struct {
 	dir    string
 	files  map[string]outputFile
 	record *buildRecord
+	// intact: every file was found as recorded just before this build.
+	intact bool
 }
 
 // reusable is the last build's output in root's out, nil when there is
 // nothing to take over: no record, or not the one the manifest names.
-func (m *manifest) reusable(root, out string) *lastOutput {
+func (m *manifest) reusable(root, out string, intact bool) *lastOutput {
 	if m == nil || m.Record == "" {
 		return nil
 	}
@@ -212,7 +214,7 @@ func (m *manifest) reusable(root, out string) *lastOutput {
 	if json.Unmarshal(b, &r) != nil {
 		return nil
 	}
-	return &lastOutput{dir: out, files: m.Files, record: &r}
+	return &lastOutput{dir: out, files: m.Files, record: &r, intact: intact}
 }
 
 // recordPath is where the buildRecord of an output folder's manifest lives.
@@ -237,12 +239,13 @@ func (l *lastOutput) linkInto(dir, name string) bool {
 		return false
 	}
 	from := filepath.Join(l.dir, filepath.FromSlash(name))
-	info, err := os.Lstat(from)
-	if err != nil || !want.is(info) {
-		return false
+	if !l.intact {
+		if info, err := os.Lstat(from); err != nil || !want.is(info) {
+			return false
+		}
 	}
 	to := filepath.Join(dir, filepath.FromSlash(name))
-	err = os.Link(from, to)
+	err := os.Link(from, to)
 	if errors.Is(err, fs.ErrNotExist) {
 		// The staging folder lacks the file's folder yet.
 		if os.MkdirAll(filepath.Dir(to), 0o755) != nil {
@@ -281,8 +284,13 @@ func copyFile(from, to string) error {
 
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
-func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: map[string]outputFile{}}
+func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord, files map[string]outputFile) {
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: files}
+	if files != nil {
+		writeManifest(root, out, m, record)
+		return
+	}
+	m.Files = map[string]outputFile{}
 	err := filepath.WalkDir(out, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() {
 			return err
@@ -298,6 +306,11 @@ func remember(root, out, fp string, pages int, problems []Problem, tally Tally, 
 	if err != nil {
 		return
 	}
+	writeManifest(root, out, m, record)
+}
+
+// writeManifest writes a finished build's manifest and record.
+func writeManifest(root, out string, m manifest, record *buildRecord) {
 	dir := filepath.Join(root, CacheDir)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return

@@ -127,6 +127,10 @@ func TestIncrementalNeverStale(t *testing.T) {
 			edits:  []siteEdit{{"content/a/tank.md", `volume = "0.05 L"`, `volume = "10 L"`}},
 			remade: append([]string{"safety.html"}, component...)},
 		{name: "a static file", edits: []siteEdit{{"static/logo.txt", "logo", "new logo"}}, remade: []string{}},
+		{name: "an output page edited by hand", edits: []siteEdit{{"dist/b/notes.html", "</html>", "<!-- by hand --></html>"}},
+			remade: []string{"b/notes.html"}},
+		{name: "an output file deleted by hand", edits: []siteEdit{{"dist/a/stage.lp.pv.csv", "", ""}},
+			remade: []string{"a/stage.html"}},
 		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
 		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
 	}
