@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"errors"
+	"fmt"
 	"io/fs"
 	"maps"
 	"os"
@@ -336,5 +337,55 @@ func TestIncrementalInterrupted(t *testing.T) {
 	}
 	if treeHash(t, out) == before {
 		t.Error("the build after the interrupted one did not take the edit")
+	}
+}
+
+// TestOutcomeStoreAdds checks that a build computing a few outcomes adds
+// them beside the saved ones, that the next build reads both, and that
+// once the saved ones are mostly unused they are written afresh.
+func TestOutcomeStoreAdds(t *testing.T) {
+	dir := t.TempDir()
+	memo := func(v float64) *calc.Memo { return &calc.Memo{Results: []calc.Result{{Name: "r", Value: v}}} }
+	o := newOutcomeStore("ns")
+	for i := range 100 {
+		o.Keep(fmt.Sprint("k", i), memo(float64(i)))
+	}
+	if err := o.save(dir); err != nil {
+		t.Fatal(err)
+	}
+	o = readOutcomeStore(dir, "ns")
+	for i := range 100 {
+		if _, ok := o.Outcome(fmt.Sprint("k", i)); !ok {
+			t.Fatalf("k%d was not read back", i)
+		}
+	}
+	o.Keep("new", memo(-1))
+	if err := o.save(dir); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, addedFile)); err != nil {
+		t.Fatalf("one new outcome was not added beside the others: %v", err)
+	}
+	o = readOutcomeStore(dir, "ns")
+	if m, ok := o.Outcome("new"); !ok || m.Results[0].Value != -1 {
+		t.Fatal("the added outcome was not read back")
+	}
+	for i := range 30 {
+		o.Outcome(fmt.Sprint("k", i))
+	}
+	if err := o.save(dir); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, addedFile)); !os.IsNotExist(err) {
+		t.Errorf("with most saved outcomes unused the store was not written afresh: %v", err)
+	}
+	o = readOutcomeStore(dir, "ns")
+	if _, ok := o.Outcome("k50"); ok {
+		t.Error("an outcome no build used was kept")
+	}
+	for _, key := range []string{"k0", "k29", "new"} {
+		if _, ok := o.Outcome(key); !ok {
+			t.Errorf("%s, used, was not kept", key)
+		}
 	}
 }

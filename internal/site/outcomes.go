@@ -3,7 +3,6 @@ package site
 import (
 	"bufio"
 	"encoding/gob"
-	"io"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -14,9 +13,14 @@ import (
 )
 
 // outcomesFile is the file of the cache that keeps the models' outcomes
-// of the last build: one gob stream, so that the types are described
-// once, read whole when the next build starts.
-const outcomesFile = "outcomes.gob"
+// of the last builds: one gob stream, so that the types are described
+// once, read whole when the next build starts. addedFile holds what
+// builds since computed, so that one edited block does not rewrite them
+// all; it is folded into outcomesFile once it grows.
+const (
+	outcomesFile = "outcomes.gob"
+	addedFile    = "outcomes-added.gob"
+)
 
 // outcomeStore keeps what the models computed from one build to the next
 // (a calc.OutcomeStore): in the cache folder for builds, in memory for the
@@ -31,12 +35,17 @@ type outcomeStore struct {
 	used      map[string]*calc.Memo // this build's, to save
 	// computed: this build computed an outcome the last one did not have.
 	computed bool
+	// inBase are the keys outcomesFile holds, base its header's id.
+	inBase map[string]bool
+	base   string
 }
 
-// outcomesHeader opens the file: whose outcomes follow.
-type outcomesHeader struct{ Namespace string }
+// outcomesHeader opens each file: whose outcomes follow and, for
+// outcomesFile, its id; for addedFile, the id of the outcomesFile it adds
+// to.
+type outcomesHeader struct{ Namespace, ID, Base string }
 
-// outcomeEntry is one memo of the file.
+// outcomeEntry is one memo of a file.
 type outcomeEntry struct {
 	Key  string
 	Memo *calc.Memo
@@ -44,31 +53,57 @@ type outcomeEntry struct {
 
 // newOutcomeStore returns an empty store for a catalog.
 func newOutcomeStore(namespace string) *outcomeStore {
-	return &outcomeStore{namespace: namespace, last: map[string]*calc.Memo{}, used: map[string]*calc.Memo{}}
+	return &outcomeStore{namespace: namespace, last: map[string]*calc.Memo{}, used: map[string]*calc.Memo{}, inBase: map[string]bool{}}
 }
 
-// readOutcomeStore reads the outcomes a build saved in the cache folder
+// readOutcomeStore reads the outcomes builds saved in the cache folder
 // dir. A file that is missing, of another catalog or cut short gives
 // what it holds: those outcomes are only computed again.
 func readOutcomeStore(dir, namespace string) *outcomeStore {
 	o := newOutcomeStore(namespace)
-	f, err := os.Open(filepath.Join(dir, outcomesFile))
-	if err != nil {
+	h, ok := o.readFile(filepath.Join(dir, outcomesFile), func(key string) { o.inBase[key] = true })
+	if !ok {
 		return o
+	}
+	o.base = h.ID
+	if added, ok := peekHeader(filepath.Join(dir, addedFile)); ok && added.Base == o.base && added.Namespace == namespace {
+		o.readFile(filepath.Join(dir, addedFile), func(string) {})
+	}
+	return o
+}
+
+// readFile reads one file's outcomes into last, calling each for every
+// key; it reports the header and whether it was this catalog's.
+func (o *outcomeStore) readFile(path string, each func(key string)) (outcomesHeader, bool) {
+	var h outcomesHeader
+	f, err := os.Open(path)
+	if err != nil {
+		return h, false
 	}
 	defer f.Close()
 	dec := gob.NewDecoder(bufio.NewReaderSize(f, 1<<16))
-	var h outcomesHeader
-	if dec.Decode(&h) != nil || h.Namespace != namespace {
-		return o
+	if dec.Decode(&h) != nil || h.Namespace != o.namespace {
+		return h, false
 	}
 	for {
 		var e outcomeEntry
 		if dec.Decode(&e) != nil || e.Memo == nil {
-			return o
+			return h, true
 		}
 		o.last[e.Key] = e.Memo
+		each(e.Key)
 	}
+}
+
+// peekHeader reads the header of a file of outcomes.
+func peekHeader(path string) (outcomesHeader, bool) {
+	var h outcomesHeader
+	f, err := os.Open(path)
+	if err != nil {
+		return h, false
+	}
+	defer f.Close()
+	return h, gob.NewDecoder(bufio.NewReader(f)).Decode(&h) == nil
 }
 
 // Outcome returns a copy of the memo kept for key.
@@ -109,21 +144,72 @@ func (o *outcomeStore) next() (changed bool) {
 }
 
 // save writes the outcomes this build used into the cache folder dir,
-// whole or not at all; they become what the store starts from. A store
-// that cannot be saved only costs the next build its shortcut.
+// each file whole or not at all; they become what the store starts from.
+// While the outcomes the base file holds and this build did not use stay
+// few, only the ones it does not hold are written (addedFile); else the
+// base is written afresh. A store that cannot be saved only costs the
+// next build its shortcut.
 func (o *outcomeStore) save(dir string) error {
+	unused := 0
+	for key := range o.inBase {
+		if o.used[key] == nil {
+			unused++
+		}
+	}
+	computed := o.computed
 	if !o.next() {
 		return nil
+	}
+	limit := max(64, len(o.last)/10)
+	if !computed && unused <= limit && o.base != "" {
+		return nil // the files hold every outcome used, and few others
 	}
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
-	tmp, err := os.CreateTemp(dir, "."+outcomesFile+"-")
+	var added []string
+	for key := range o.last {
+		if !o.inBase[key] {
+			added = append(added, key)
+		}
+	}
+	if o.base != "" && unused <= limit && len(added) <= limit {
+		return writeOutcomes(dir, addedFile, outcomesHeader{Namespace: o.namespace, Base: o.base}, added, o.last)
+	}
+	keys := make([]string, 0, len(o.last))
+	for key := range o.last {
+		keys = append(keys, key)
+	}
+	id := newDigest().add(o.namespace, keys).sum()
+	if err := writeOutcomes(dir, outcomesFile, outcomesHeader{Namespace: o.namespace, ID: id}, keys, o.last); err != nil {
+		return err
+	}
+	o.base, o.inBase = id, map[string]bool{}
+	for _, key := range keys {
+		o.inBase[key] = true
+	}
+	if err := os.Remove(filepath.Join(dir, addedFile)); err != nil && !os.IsNotExist(err) {
+		return err
+	}
+	return nil
+}
+
+// writeOutcomes writes the memos of keys, sorted, as file name of dir,
+// aside and then renamed.
+func writeOutcomes(dir, name string, h outcomesHeader, keys []string, memos map[string]*calc.Memo) error {
+	slices.Sort(keys)
+	tmp, err := os.CreateTemp(dir, "."+name+"-")
 	if err != nil {
 		return err
 	}
 	w := bufio.NewWriterSize(tmp, 1<<16)
-	err = o.write(w)
+	enc := gob.NewEncoder(w)
+	err = enc.Encode(h)
+	for _, k := range keys {
+		if err == nil {
+			err = enc.Encode(outcomeEntry{Key: k, Memo: memos[k]})
+		}
+	}
 	if err == nil {
 		err = w.Flush()
 	}
@@ -134,31 +220,12 @@ func (o *outcomeStore) save(dir string) error {
 		err = os.Chmod(tmp.Name(), 0o644)
 	}
 	if err == nil {
-		err = os.Rename(tmp.Name(), filepath.Join(dir, outcomesFile))
+		err = os.Rename(tmp.Name(), filepath.Join(dir, name))
 	}
 	if err != nil {
 		_ = os.Remove(tmp.Name())
 	}
 	return err
-}
-
-// write encodes the store's outcomes, sorted by key.
-func (o *outcomeStore) write(w io.Writer) error {
-	enc := gob.NewEncoder(w)
-	if err := enc.Encode(outcomesHeader{Namespace: o.namespace}); err != nil {
-		return err
-	}
-	keys := make([]string, 0, len(o.last))
-	for k := range o.last {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	for _, k := range keys {
-		if err := enc.Encode(outcomeEntry{Key: k, Memo: o.last[k]}); err != nil {
-			return err
-		}
-	}
-	return nil
 }
 
 // deepCopy copies a memo and everything it reaches, so that neither the
