@@ -229,7 +229,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, files, err := s.write(opts, last.reusable(root, out, wasIntact))
+	sum, record, files, err := s.write(opts, last.reusable(root, out, wasIntact), true)
 	if err != nil {
 		return nil, err
 	}
@@ -264,7 +264,7 @@ func outputPath(root, out string) string {
 
 // Write renders every page and swaps the finished output into place.
 func (s *Site) Write(opts Options) (*Summary, error) {
-	sum, _, _, err := s.write(opts, nil)
+	sum, _, _, err := s.write(opts, nil, false)
 	return sum, err
 }
 
@@ -273,8 +273,9 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 // links to the last output (copies where the disk has no links), never
 // written through: the last output stays as it was until the swap. It
 // returns this build's record and its output files as the manifest keeps
-// them (nil when they could not all be read).
-func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, map[string]outputFile, error) {
+// them (nil when they could not all be read). Without record it makes
+// neither.
+func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *buildRecord, map[string]outputFile, error) {
 	out := outputPath(s.Root, opts.Out)
 	if err := checkOutputDir(s.Root, out); err != nil {
 		return nil, nil, nil, err
@@ -308,12 +309,13 @@ func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, ma
 			mu.Unlock()
 			return true
 		},
+		record: record,
 	}
 	var previous *buildRecord
 	if last != nil {
 		previous = last.record
 	}
-	record, err := s.emit(to, opts.Progress, previous)
+	made, err := s.emit(to, opts.Progress, previous)
 	if err == nil && interrupted() {
 		err = ErrInterrupted
 	}
@@ -324,6 +326,9 @@ func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, ma
 	if err := st.commit(); err != nil {
 		st.abandon()
 		return nil, nil, nil, err
+	}
+	if !record {
+		return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil, nil, nil
 	}
 	// Kept files are as the last manifest has them; written ones (and
 	// any kept one written over after all) are looked at.
@@ -336,19 +341,20 @@ func (s *Site) write(opts Options, last *lastOutput) (*Summary, *buildRecord, ma
 		}
 		files[name] = outputFile{Size: info.Size(), ModTime: info.ModTime().UnixNano()}
 	}
-	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, record, files, nil
+	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, made, files, nil
 }
 
 // Render produces every output file in memory, keyed by output path (the
 // preview serves them from there).
 func (s *Site) Render() (map[string][]byte, error) {
-	files, _, err := s.renderFiles(nil, nil)
+	files, _, err := s.renderFiles(nil, nil, false)
 	return files, err
 }
 
 // renderFiles is Render, taking over from files, the last build's, every
-// file whose inputs are as previous records them.
-func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord) (map[string][]byte, *buildRecord, error) {
+// file whose inputs are as previous records them; with record, it returns
+// this build's record.
+func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord, record bool) (map[string][]byte, *buildRecord, error) {
 	made := map[string][]byte{}
 	var mu sync.Mutex
 	to := sink{
@@ -371,9 +377,10 @@ func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord) (map[
 			}
 			return ok
 		},
+		record: record,
 	}
-	record, err := s.emit(to, nil, previous)
-	return made, record, err
+	rec, err := s.emit(to, nil, previous)
+	return made, rec, err
 }
 
 // bytesOf is a writer func for data already in memory.
@@ -389,24 +396,28 @@ func bytesOf(data []byte) func(io.Writer) error {
 // in memory whole. With the record of the last build, every page whose
 // key is as recorded, and results.json when no block changed, is kept
 // rather than made again. put may be called from several goroutines. Two
-// files with one name are an error. It returns this build's record.
+// files with one name are an error. It returns this build's record, nil
+// unless the sink asks for one.
 func (s *Site) emit(to sink, progress func(stage string, done, total int), previous *buildRecord) (*buildRecord, error) {
 	put := to.put
 	static, err := readStatic(s.Root)
 	if err != nil {
 		return nil, err
 	}
-	renderFP, err := renderFingerprint(s.Root)
-	if err != nil {
-		return nil, err
+	// Keys are worked out only for a build that is recorded.
+	var renderFP string
+	var blocks blockDigests
+	if to.record {
+		if renderFP, err = renderFingerprint(s.Root); err != nil {
+			return nil, err
+		}
+		blocks = s.blockDigests()
 	}
-	if previous != nil && previous.Render != renderFP {
+	if !to.record || previous != nil && previous.Render != renderFP {
 		previous = nil
 	}
-	blocks := s.blockDigests()
-	resultsKey := blocks.all
-	record := &buildRecord{Render: renderFP, Results: resultsKey, Pages: make(map[string]pageRecord, len(s.Pages))}
-	if previous == nil || previous.Results != resultsKey || !to.keep("results.json") {
+	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
+	if previous == nil || previous.Results != blocks.all || !to.keep("results.json") {
 		if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
 			return nil, err
 		}
@@ -459,7 +470,10 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
-		key := s.pageKey(p, renderFP, blocks)
+		key := ""
+		if to.record {
+			key = s.pageKey(p, renderFP, blocks)
+		}
 		if rec, ok := previous.page(p.File, key); ok && keepAll(to, rec.Files) {
 			for _, name := range rec.Files {
 				if err := claim(p, name); err != nil {
@@ -502,10 +516,13 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if err := collect(errs); err != nil {
 		return nil, err
 	}
+	if err := s.emitHosting(put, names, entries); err != nil || !to.record {
+		return nil, err
+	}
 	for i, p := range s.Pages {
 		record.Pages[p.File] = records[i]
 	}
-	return record, s.emitHosting(put, names, entries)
+	return record, nil
 }
 
 // keepAll keeps every one of a page's files from the last build, or

@@ -40,6 +40,8 @@ type sink struct {
 	// keep takes a file as the last build left it, or reports false
 	// (there was no last build, or the file is no longer as it was).
 	keep func(name string) bool
+	// record: the build is recorded, for the next one to take over from.
+	record bool
 }
 
 // renderFingerprint hashes what every page is rendered with besides its

@@ -8,6 +8,7 @@ import (
 	"io/fs"
 	"maps"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"reflect"
 	"slices"
@@ -84,19 +85,23 @@ func pageOverride(t *testing.T) string {
 	return strings.Replace(string(b), "</body>", "<p>Printed by the workshop.</p></body>", 1)
 }
 
-// TestIncrementalNeverStale edits the site in each way a page's output can
-// depend on another file, builds again over the last build, builds the
-// edited site afresh elsewhere, and compares every file byte for byte. It
-// also checks that exactly the pages that depend on the edit were made
-// again: the others are the last build's files (hard links to them).
-func TestIncrementalNeverStale(t *testing.T) {
+// incrementalCase is an edit of incrementalSite and the pages it makes
+// again.
+type incrementalCase struct {
+	name   string
+	setup  []siteEdit // before the first build
+	edits  []siteEdit
+	remade []string // page outputs made again; nil: every page
+	// commit: the site is a git repository, and the edit a new commit
+	// (the revision data sheets show).
+	commit bool
+}
+
+// incrementalCases are the edits, one of each way a page's output can
+// depend on another file.
+func incrementalCases(t *testing.T) []incrementalCase {
 	component := []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/notes.html"}
-	cases := []struct {
-		name   string
-		setup  []siteEdit // before the first build
-		edits  []siteEdit
-		remade []string // page outputs made again; nil: every page
-	}{
+	return []incrementalCase{
 		{name: "page prose", edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}},
 			remade: []string{"b/notes.html"}},
 		{name: "a value another folder's page and a title quote", edits: []siteEdit{{"content/b/motor.md", `stroke = "20 mm"`, `stroke = "22 mm"`}},
@@ -107,7 +112,7 @@ func TestIncrementalNeverStale(t *testing.T) {
 			remade: component},
 		{name: "a relief setting the stage's chart marks", edits: []siteEdit{{"content/b/relief.md", `preload = "2.4 mm"`, `preload = "2.6 mm"`}},
 			remade: component},
-		{name: "a prose edit that leaves the value as shown", edits: []siteEdit{{"content/a/stage.md", "# Stage\n", "# Stage\n\nWith a new gasket.\n"}},
+		{name: "prose above a block, which moves it down its page", edits: []siteEdit{{"content/a/stage.md", "# Stage\n", "# Stage\n\nWith a new gasket.\n"}},
 			remade: []string{"a/stage.html"}},
 		{name: "a title in the navigation", edits: []siteEdit{{"content/a/tank.md", `title = "Receiver"`, `title = "Air receiver"`}},
 			// Folder b comes first ("B" before "Section A"): safety
@@ -133,24 +138,68 @@ func TestIncrementalNeverStale(t *testing.T) {
 		{name: "an output file deleted by hand", edits: []siteEdit{{"dist/a/stage.lp.pv.csv", "", ""}},
 			remade: []string{"a/stage.html"}},
 		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
+		{name: "a new commit", commit: true, edits: []siteEdit{{"content/index.md", "The home page.", "The home page, committed."}}},
 		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
 	}
-	for _, c := range cases {
+}
+
+// writeIncrementalSite writes incrementalSite into root with the case's
+// setup, committed when the case commits.
+func writeIncrementalSite(t *testing.T, root string, c incrementalCase) {
+	t.Helper()
+	for name, text := range incrementalSite {
+		writeFile(t, filepath.Join(root, filepath.FromSlash(name)), text)
+	}
+	for _, e := range c.setup {
+		e.apply(t, root)
+	}
+	if c.commit {
+		if _, err := exec.LookPath("git"); err != nil {
+			t.Skip("git is not installed")
+		}
+		gitIn(t, root, "init", "-q")
+		gitIn(t, root, "add", "-A")
+		gitIn(t, root, "commit", "-q", "-m", "The site")
+	}
+}
+
+// editIncrementalSite makes the case's edits, and commits them when the
+// case commits.
+func editIncrementalSite(t *testing.T, root string, c incrementalCase) {
+	t.Helper()
+	for _, e := range c.edits {
+		e.apply(t, root)
+	}
+	if c.commit {
+		gitIn(t, root, "commit", "-q", "-a", "-m", "An edit")
+	}
+}
+
+// gitIn runs git in dir as a fixed author.
+func gitIn(t *testing.T, dir string, args ...string) {
+	t.Helper()
+	cmd := exec.Command("git", append([]string{"-C", dir, "-c", "user.name=Test", "-c", "user.email=test@example.invalid",
+		"-c", "commit.gpgsign=false"}, args...)...)
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("git %v: %v\n%s", args, err, out)
+	}
+}
+
+// TestIncrementalNeverStale edits the site in each way a page's output can
+// depend on another file, builds again over the last build, builds the
+// edited site afresh elsewhere, and compares every file byte for byte. It
+// also checks that exactly the pages that depend on the edit were made
+// again: the others are the last build's files (hard links to them).
+func TestIncrementalNeverStale(t *testing.T) {
+	for _, c := range incrementalCases(t) {
 		t.Run(c.name, func(t *testing.T) {
 			root := t.TempDir()
-			for name, text := range incrementalSite {
-				writeFile(t, filepath.Join(root, filepath.FromSlash(name)), text)
-			}
-			for _, e := range c.setup {
-				e.apply(t, root)
-			}
+			writeIncrementalSite(t, root, c)
 			if _, err := Build(root, Options{}); err != nil {
 				t.Fatal(err)
 			}
 			before := inodes(t, filepath.Join(root, DefaultOut))
-			for _, e := range c.edits {
-				e.apply(t, root)
-			}
+			editIncrementalSite(t, root, c)
 			sum, err := Build(root, Options{})
 			if err != nil {
 				t.Fatal(err)
@@ -387,5 +436,47 @@ func TestOutcomeStoreAdds(t *testing.T) {
 		if _, ok := o.Outcome(key); !ok {
 			t.Errorf("%s, used, was not kept", key)
 		}
+	}
+}
+
+// TestSessionNeverStale makes each edit of incrementalCases between two
+// builds of a preview's session and compares what the second gives with
+// a fresh render of the edited site, file by file.
+func TestSessionNeverStale(t *testing.T) {
+	for _, c := range incrementalCases(t) {
+		if strings.HasPrefix(c.edits[0].file, DefaultOut+"/") {
+			continue // the preview writes no output folder
+		}
+		t.Run(c.name, func(t *testing.T) {
+			root := t.TempDir()
+			writeIncrementalSite(t, root, c)
+			se := NewSession(root)
+			if _, _, err := se.Build(); err != nil {
+				t.Fatal(err)
+			}
+			editIncrementalSite(t, root, c)
+			got, _, err := se.Build()
+			if err != nil {
+				t.Fatal(err)
+			}
+			s, err := Load(root)
+			if err != nil {
+				t.Fatal(err)
+			}
+			want, err := s.Render()
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, name := range slices.Sorted(maps.Keys(want)) {
+				if !bytes.Equal(got[name], want[name]) {
+					t.Errorf("%s: the session's build differs from a fresh one (stale)", name)
+				}
+			}
+			for name := range got {
+				if _, ok := want[name]; !ok {
+					t.Errorf("%s: only in the session's build", name)
+				}
+			}
+		})
 	}
 }

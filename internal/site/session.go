@@ -1,9 +1,5 @@
 package site
 
-import (
-	"path/filepath"
-)
-
 // Session builds one site into memory again and again, each build taking
 // over from the last good one every file whose inputs have not changed and
 // every model outcome whose inputs have not: the preview's builds.
@@ -21,23 +17,16 @@ func NewSession(root string) *Session { return &Session{root: root} }
 // by output path, and the home page's path. After a failed build the last
 // good one stays what the next starts from.
 func (se *Session) Build() (files map[string][]byte, home string, err error) {
-	if err := CheckRoot(se.root); err != nil {
-		return nil, "", err
-	}
-	root, err := filepath.Abs(se.root)
-	if err != nil {
-		return nil, "", err
-	}
-	if ns, err := outcomesNamespace(root); err != nil {
+	if ns, err := outcomesNamespace(se.root); err != nil {
 		se.outcomes = nil
 	} else if se.outcomes == nil || se.outcomes.namespace != ns {
 		se.outcomes = newOutcomeStore(ns)
 	}
-	s, err := load(root, storeOrNil(se.outcomes))
+	s, err := load(se.root, storeOrNil(se.outcomes))
 	if err != nil {
 		return nil, "", err
 	}
-	files, record, err := s.renderFiles(se.files, se.record)
+	files, record, err := s.renderFiles(se.files, se.record, true)
 	if err != nil {
 		return nil, "", err
 	}
