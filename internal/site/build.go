@@ -11,7 +11,6 @@ import (
 	"maps"
 	"path/filepath"
 	"slices"
-	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -429,40 +428,39 @@ func (s *Site) Home() string {
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
-	doc := s.md.Parse(p.body, p.lineOffset)
-	doc.TakeTitle()
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
-	doc.RelativeFromRoot(rootPrefix)
-	s.attach(p, doc)
-	if err := s.drawCharts(p, doc, out); err != nil {
+	up := rootPrefix(p.Out)
+	charts, err := s.drawCharts(p, out)
+	if err != nil {
 		return nil, searchEntry{}, err
 	}
-	body, err := s.md.Render(doc)
-	if err != nil {
-		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	var body bytes.Buffer
+	if err := p.body.Write(&body, s.fill(p, charts)); err != nil {
+		return nil, searchEntry{}, err
 	}
+	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
 	info := PageInfo{
 		Title:       p.Title,
 		Heading:     cmp.Or(p.Heading, p.Title),
 		Description: p.Front.Description,
 		Source:      p.File,
 		URL:         p.Out,
-		Content:     template.HTML(body),
-		TOCCount:    len(doc.Headings(3)),
+		Content:     template.HTML(body.String()),
+		TOCCount:    len(headings),
 		Caution:     s.standardCaution(p),
 		Alert:       s.pageAlert(p),
 		Cautions:    s.pageCautions(p),
-		TOC:         render.Nest(doc.Headings(3)),
+		TOC:         render.Nest(headings),
 	}
 	if s.Config.BaseURL != "" {
 		info.Canonical = s.Config.BaseURL + href(p.Out)
 	}
-	page, err := s.layout(p, rootPrefix, info)
+	page, err := s.layout(p, up, info)
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
-	return out, newSearchEntry(p, doc), nil
+	text := p.body.Text.String(func(ref int) string { return s.refText(p, ref) })
+	return out, newSearchEntry(p, text, headings), nil
 }
 
 // siteData describes the site to a page whose way up to the site's root
