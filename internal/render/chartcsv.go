@@ -125,10 +125,9 @@ func appendCSVNumber(b []byte, v float64) []byte {
 	}
 	var digits [csvFigures]byte
 	hi, lo := whole/10000, whole%10000
-	copy(digits[0:], digitPairs[2*(hi/100):2*(hi/100)+2])
-	copy(digits[2:], digitPairs[2*(hi%100):2*(hi%100)+2])
-	copy(digits[4:], digitPairs[2*(lo/100):2*(lo/100)+2])
-	copy(digits[6:], digitPairs[2*(lo%100):2*(lo%100)+2])
+	for i, pair := range [4]uint32{hi / 100, hi % 100, lo / 100, lo % 100} {
+		digits[2*i], digits[2*i+1] = digitPairs[2*pair], digitPairs[2*pair+1]
+	}
 	nd := csvFigures
 	for digits[nd-1] == '0' {
 		nd--
