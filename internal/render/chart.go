@@ -204,8 +204,8 @@ func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPo
 			pts = append(pts, last)
 		}
 		// On finite values the built-in min and max agree with math.Min
-		// and math.Max, -0 included; values that are not finite are
-		// refused below.
+		// and math.Max, -0 included. Only an axis without a unit passes
+		// on values that are not; the drawing refuses them.
 		sp.xMin, sp.xMax = min(sp.xMin, x), max(sp.xMax, x)
 		sp.yMin, sp.yMax = min(sp.yMin, y), max(sp.yMax, y)
 	}

@@ -24,12 +24,15 @@ func appendChartCSV(out []byte, c *calc.Chart) ([]byte, error) {
 	out = append(out, "series,"...)
 	out = appendCSVField(out, c.X.Label)
 	out = append(out, ",x unit,y,y unit\n"...)
-	for _, panel := range c.Panels {
+	// Series over the same x values (the torques of one revolution) copy
+	// the x fields the first of them wrote: spans are where each one is.
+	var spans []int32
+	for i, panel := range c.Panels {
 		yConv, err := unitConversion(panel.Y, c.Ambient)
 		if err != nil {
 			return nil, err
 		}
-		for _, s := range panel.Series {
+		for j, s := range panel.Series {
 			if len(s.Y) != len(s.X) {
 				return nil, fmt.Errorf("series %q has %d x and %d y values", s.Name, len(s.X), len(s.Y))
 			}
@@ -39,16 +42,32 @@ func appendChartCSV(out []byte, c *calc.Chart) ([]byte, error) {
 			if err := checkFinite(s.Y, panel.Y, yConv); err != nil {
 				return nil, err
 			}
+			copied := spans != nil && sameValues(s.X, previousX(c, i, j))
+			if !copied {
+				spans = nil
+				if sameValues(s.X, nextX(c, i, j)) {
+					spans = make([]int32, 0, 2*len(s.X))
+				}
+			}
 			name := appendCSVField(nil, s.Name)
 			yUnit := appendCSVField(nil, panel.Y.Unit)
-			for i, v := range s.X {
+			for k, v := range s.X {
 				out = append(out, name...)
 				out = append(out, ',')
-				out = appendCSVNumber(out, xConv.apply(v))
+				switch {
+				case copied:
+					out = append(out, out[spans[2*k]:spans[2*k+1]]...)
+				case spans != nil:
+					start := len(out)
+					out = appendCSVNumber(out, xConv.apply(v))
+					spans = append(spans, int32(start), int32(len(out)))
+				default:
+					out = appendCSVNumber(out, xConv.apply(v))
+				}
 				out = append(out, ',')
 				out = append(out, xUnit...)
 				out = append(out, ',')
-				out = appendCSVNumber(out, yConv.apply(s.Y[i]))
+				out = appendCSVNumber(out, yConv.apply(s.Y[k]))
 				out = append(out, ',')
 				out = append(out, yUnit...)
 				out = append(out, '\n')
@@ -56,6 +75,33 @@ func appendChartCSV(out []byte, c *calc.Chart) ([]byte, error) {
 		}
 	}
 	return out, nil
+}
+
+// previousX and nextX are the x values of the series before and after
+// series j of panel i, in the order the CSV lists them, or nil.
+func previousX(c *calc.Chart, i, j int) []float64 {
+	switch {
+	case j > 0:
+		return c.Panels[i].Series[j-1].X
+	case i > 0 && len(c.Panels[i-1].Series) > 0:
+		return c.Panels[i-1].Series[len(c.Panels[i-1].Series)-1].X
+	}
+	return nil
+}
+
+func nextX(c *calc.Chart, i, j int) []float64 {
+	switch {
+	case j+1 < len(c.Panels[i].Series):
+		return c.Panels[i].Series[j+1].X
+	case i+1 < len(c.Panels) && len(c.Panels[i+1].Series) > 0:
+		return c.Panels[i+1].Series[0].X
+	}
+	return nil
+}
+
+// sameValues reports whether a and b are one slice of values.
+func sameValues(a, b []float64) bool {
+	return len(a) > 0 && len(a) == len(b) && &a[0] == &b[0]
 }
 
 // checkFinite refuses values that are not finite numbers in an axis's
@@ -125,10 +171,9 @@ func appendCSVNumber(b []byte, v float64) []byte {
 	}
 	var digits [csvFigures]byte
 	hi, lo := whole/10000, whole%10000
-	copy(digits[0:], digitPairs[2*(hi/100):2*(hi/100)+2])
-	copy(digits[2:], digitPairs[2*(hi%100):2*(hi%100)+2])
-	copy(digits[4:], digitPairs[2*(lo/100):2*(lo/100)+2])
-	copy(digits[6:], digitPairs[2*(lo%100):2*(lo%100)+2])
+	for i, pair := range [4]uint32{hi / 100, hi % 100, lo / 100, lo % 100} {
+		digits[2*i], digits[2*i+1] = digitPairs[2*pair], digitPairs[2*pair+1]
+	}
 	nd := csvFigures
 	for digits[nd-1] == '0' {
 		nd--

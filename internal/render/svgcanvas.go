@@ -150,10 +150,10 @@ func appendNum(b []byte, v float64) []byte {
 	case whole < 10:
 		b = append(b, byte('0'+whole))
 	case whole < 100:
-		b = append(b, digitPairs[2*whole:2*whole+2]...)
+		b = append(b, digitPairs[2*whole], digitPairs[2*whole+1])
 	case whole < 1000:
-		b = append(b, byte('0'+whole/100))
-		b = append(b, digitPairs[2*(whole%100):2*(whole%100)+2]...)
+		pair := whole % 100
+		b = append(b, byte('0'+whole/100), digitPairs[2*pair], digitPairs[2*pair+1])
 	default:
 		b = strconv.AppendInt(b, whole, 10)
 	}

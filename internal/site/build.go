@@ -12,7 +12,6 @@ import (
 	"os"
 	"path/filepath"
 	"slices"
-	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -605,28 +604,27 @@ func (s *Site) Home() string {
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
-	doc := s.md.Parse(p.body, p.lineOffset)
-	doc.TakeTitle()
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
-	doc.RelativeFromRoot(rootPrefix)
-	s.attach(p, doc)
-	if err := s.drawCharts(p, doc, out); err != nil {
+	up := rootPrefix(p.Out)
+	charts, err := s.drawCharts(p, out)
+	if err != nil {
 		return nil, searchEntry{}, err
 	}
-	body, err := s.md.Render(doc)
-	if err != nil {
-		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	var body bytes.Buffer
+	if err := p.body.Write(&body, s.fill(p, charts)); err != nil {
+		return nil, searchEntry{}, err
 	}
+	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
 	info := s.pageInfo(p)
-	info.Content = template.HTML(body)
-	info.TOCCount = len(doc.Headings(3))
-	info.TOC = render.Nest(doc.Headings(3))
-	page, err := s.layout(p, rootPrefix, info)
+	info.Content = template.HTML(body.String())
+	info.TOCCount = len(headings)
+	info.TOC = render.Nest(headings)
+	page, err := s.layout(p, up, info)
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
-	return out, newSearchEntry(p, doc), nil
+	text := p.body.Text.String(func(ref int) string { return s.refText(p, ref) })
+	return out, newSearchEntry(p, text, headings), nil
 }
 
 // pageInfo describes page p to its template, all but what its Markdown
