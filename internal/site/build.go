@@ -93,10 +93,12 @@ const MaxErrors = 50
 // reports every input problem of the site at once, by file and line (at
 // most MaxErrors): each step goes on past a problem as far as the rest
 // does not depend on it.
-func Load(root string) (*Site, error) { return load(root, nil) }
+func Load(root string) (*Site, error) { return load(root, nil, false) }
 
-// load is Load, with the models' outcomes kept in outcomes when it is set.
-func load(root string, outcomes calc.OutcomeStore) (*Site, error) {
+// load is Load, with the models' outcomes kept in outcomes when it is set;
+// with later, pages are rendered only when written (Page.prepare), for a
+// build that takes most of them over from the last one.
+func load(root string, outcomes calc.OutcomeStore, later bool) (*Site, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
 	}
@@ -133,7 +135,7 @@ func load(root string, outcomes calc.OutcomeStore) (*Site, error) {
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog)
+		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog, later)
 	})
 	if err := keep(collect(errs)); err != nil {
 		return nil, err
@@ -216,7 +218,8 @@ func Build(root string, opts Options) (*Summary, error) {
 	if ns, err := outcomesNamespace(root); err == nil {
 		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
 	}
-	s, err := load(root, storeOrNil(outcomes))
+	reusable := last.reusable(root, out, wasIntact)
+	s, err := load(root, storeOrNil(outcomes), reusable != nil)
 	if err != nil {
 		return nil, err
 	}
@@ -228,7 +231,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, files, err := s.write(opts, last.reusable(root, out, wasIntact), true)
+	sum, record, files, err := s.write(opts, reusable, true)
 	if err != nil {
 		return nil, err
 	}
@@ -604,6 +607,9 @@ func (s *Site) Home() string {
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
+	if err := p.prepare(s.md, s.Config.catalog); err != nil {
+		return nil, searchEntry{}, err
+	}
 	up := rootPrefix(p.Out)
 	charts, err := s.drawCharts(p, out)
 	if err != nil {

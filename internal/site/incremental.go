@@ -166,15 +166,15 @@ func (s *Site) blockDigests() blockDigests {
 
 // pageKey is the digest of everything page p's output files and search
 // entry are made from, renderFP the fingerprint of what all pages are
-// rendered with: its content as read (render.Prepared); what its template
-// gets besides its content (navigation, titles, previous and next, its
+// rendered with: its source (which, read and rendered with what renderFP
+// covers, gives its content); what its template gets besides its content (navigation, titles, previous and next, its
 // cautions and alerts); and what fills its content's holes (the blocks it
 // holds and charts with those connected to them, each inline value as
 // shown, the links to blocks, the site's cautions when it lists them). It
 // reads what renderPage reads, and must keep doing so.
 func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d := newDigest()
-	d.add(renderFP, p.File, p.Out, p.Front, p.body, p.listsCautions)
+	d.add(renderFP, p.File, p.Out, p.sourceSum[:], p.listsCautions)
 	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
 	d.add(s.pageData(p, rootPrefix, s.pageInfo(p)))
 	for _, b := range p.blocks {

@@ -1,6 +1,7 @@
 package site
 
 import (
+	"crypto/sha256"
 	"fmt"
 	"io/fs"
 	"os"
@@ -32,8 +33,12 @@ type Page struct {
 	// quotes once they are known.
 	titleParts []titlePart
 	// body is the page's content, rendered when it was read, with holes
-	// for what evaluation finds (nil for a page that could not be read).
-	body *render.Prepared
+	// for what evaluation finds (nil for a page that could not be read,
+	// or read to be rendered later). sourceSum is the hash of its file;
+	// source the file itself while body waits to be rendered.
+	body      *render.Prepared
+	sourceSum [sha256.Size]byte
+	source    []byte
 	// blocks are the page's calculation blocks, decoded, in order; refs its
 	// inline values and charts the lines of its chart fences.
 	blocks []*calc.Block
@@ -133,7 +138,9 @@ func PageOutput(file string) string {
 // loadPage reads and parses one page. With an input error in its body it
 // still returns the page, with what could be read, so that the site's
 // other problems can be found in the same run.
-func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, error) {
+// With later, the page's content is not rendered yet (prepare renders it
+// when it is written): an incremental build writes few of its pages.
+func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog, later bool) (*Page, error) {
 	file := ContentDir + "/" + rel
 	src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(rel)))
 	if err != nil {
@@ -149,7 +156,7 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	if body == nil && fmErr != nil {
 		return unread, fmErr
 	}
-	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines}
+	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines, sourceSum: sha256.Sum256(src)}
 	doc := md.Parse(body, offset)
 	refs := 0
 	for _, part := range doc.TakeTitle() {
@@ -162,9 +169,10 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 		refs++
 	}
 	docErr := readDoc(p, doc, cat)
-	doc.RelativeFromRoot(rootPrefix(p.Out))
-	if p.body, err = md.Prepare(doc); err != nil {
-		return p, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	if later {
+		p.source = src
+	} else if err := p.prepareDoc(doc, md); err != nil {
+		return p, err
 	}
 	// Until the values are known, a reference in the title reads as written.
 	p.setHeading(func(i int) string { return p.refs[i].Written })
@@ -177,6 +185,34 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 // rootPrefix is the way up from output page out to the site's root: "",
 // "../", ...
 func rootPrefix(out string) string { return strings.Repeat("../", strings.Count(out, "/")) }
+
+// prepareDoc renders the page's content from its syntax tree, read as
+// loadPage reads it, with holes for what evaluation finds.
+func (p *Page) prepareDoc(doc *render.Document, md *render.Markdown) error {
+	doc.RelativeFromRoot(rootPrefix(p.Out))
+	body, err := md.Prepare(doc)
+	if err != nil {
+		return &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	}
+	p.body = body
+	return nil
+}
+
+// prepare renders the content of a page loaded to be rendered later from
+// its source, as loadPage would have; the source goes.
+func (p *Page) prepare(md *render.Markdown, cat *calc.Catalog) error {
+	if p.body != nil || p.source == nil {
+		return nil
+	}
+	_, _, body, offset, _ := parseFrontMatter(p.File, p.source)
+	doc := md.Parse(body, offset)
+	doc.TakeTitle()
+	// The tree goes through what loadPage did to it; the page's own
+	// findings were kept then.
+	_ = readDoc(&Page{File: p.File, Rel: p.Rel, Out: p.Out}, doc, cat)
+	p.source = nil
+	return p.prepareDoc(doc, md)
+}
 
 // titlePart is a piece of a page's level-1 heading: text, or (Ref >= 0)
 // the value of the page's inline value p.refs[Ref].

@@ -22,7 +22,7 @@ func (se *Session) Build() (files map[string][]byte, home string, err error) {
 	} else if se.outcomes == nil || se.outcomes.namespace != ns {
 		se.outcomes = newOutcomeStore(ns)
 	}
-	s, err := load(se.root, storeOrNil(se.outcomes))
+	s, err := load(se.root, storeOrNil(se.outcomes), se.record != nil)
 	if err != nil {
 		return nil, "", err
 	}
