@@ -93,12 +93,19 @@ const MaxErrors = 50
 // reports every input problem of the site at once, by file and line (at
 // most MaxErrors): each step goes on past a problem as far as the rest
 // does not depend on it.
-func Load(root string) (*Site, error) { return load(root, nil, false) }
+func Load(root string) (*Site, error) { return load(root, loadOptions{}) }
 
-// load is Load, with the models' outcomes kept in outcomes when it is set;
-// with later, pages are rendered only when written (Page.prepare), for a
-// build that takes most of them over from the last one.
-func load(root string, outcomes calc.OutcomeStore, later bool) (*Site, error) {
+// loadOptions are what a build that follows another brings to Load.
+type loadOptions struct {
+	outcomes calc.OutcomeStore // keeps the models' outcomes
+	// later: pages are rendered only when written (Page.prepare), for a
+	// build that takes most of them over from the last one.
+	later bool
+	pages *pageCache // the pages last read, to read again only changed ones
+}
+
+// load is Load with what the last build left.
+func load(root string, opt loadOptions) (*Site, error) {
 	if err := CheckRoot(root); err != nil {
 		return nil, err
 	}
@@ -131,11 +138,17 @@ func load(root string, outcomes calc.OutcomeStore, later bool) (*Site, error) {
 	if rels == nil {
 		return nil, reported()
 	}
-	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML)), outcomes: outcomes}
+	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML)), outcomes: opt.outcomes}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
-		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog, later)
+		if pages[i] = opt.pages.lookup(root, rels[i]); pages[i] != nil {
+			return
+		}
+		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog, opt.later)
+		if errs[i] == nil {
+			opt.pages.keep(pages[i])
+		}
 	})
 	if err := keep(collect(errs)); err != nil {
 		return nil, err
@@ -219,7 +232,7 @@ func Build(root string, opts Options) (*Summary, error) {
 		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
 	}
 	reusable := last.reusable(root, out, wasIntact)
-	s, err := load(root, storeOrNil(outcomes), reusable != nil)
+	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil})
 	if err != nil {
 		return nil, err
 	}

@@ -24,8 +24,9 @@ import (
 // between pages occurs: a stage (lp) charted on its page, a receiver it
 // fills (rx) quoting its delivery, a relief valve (rv) protecting both,
 // whose setting marks the stage's delivery chart, a figures block (fig)
-// deriving from the stage, a second compressor (hp) whose value a page's
-// title and another folder's page quote, and a page listing every caution.
+// deriving from the stage, a second compressor (hp) whose value the titles
+// of its page and another and a page of another folder quote, and a page
+// listing every caution.
 var incrementalSite = map[string]string{
 	"specgen.toml":       "title = \"Test workshop\"\n",
 	"static/logo.txt":    "logo\n",
@@ -41,13 +42,14 @@ var incrementalSite = map[string]string{
 		"seat_diameter = \"6 mm\"\nspring_rate = \"12 N/mm\"\npreload = \"2.4 mm\"\nprotects = [\"lp\", \"rx\"]\n```\n",
 	"content/b/notes.md": "+++\ntitle = \"Notes\"\norder = 2\n+++\n# Notes\n\n```calc\nid = \"fig\"\nkind = \"figures\"\ntitle = \"Figures\"\n" +
 		"sweep = \"=lp.swept_volume\"\n\n[derive]\ndouble = \"2 * sweep\"\n```\n\nThe figure is =[fig.double cm3].\n",
+	"content/b/summary.md": "+++\norder = 4\n+++\n# Summary: =[hp.swept_volume cm3] swept\n\nThe second compressor, in short.\n",
 	"content/b/motor.md": "+++\norder = 3\n+++\n# Motor of =[hp.swept_volume cm3]\n\n```calc\nid = \"hp\"\nkind = \"compressor\"\ntitle = \"Second compressor\"\n" +
 		"bore = \"25 mm\"\nstroke = \"20 mm\"\nrod_length = \"60 mm\"\nclearance_volume = \"1 cm3\"\nspeed = \"600 rpm\"\ndischarge_pressure = \"3 bar\"\n```\n",
 }
 
 // The site's pages, by output.
 var incrementalPages = []string{"index.html", "safety.html", "a/index.html", "a/stage.html", "a/tank.html",
-	"b/relief.html", "b/notes.html", "b/motor.html"}
+	"b/relief.html", "b/notes.html", "b/motor.html", "b/summary.html"}
 
 // siteEdit changes a file of a site: replaces old with new in it, writes
 // it whole (old == ""), or deletes it (new == "" too).
@@ -105,9 +107,10 @@ func incrementalCases(t *testing.T) []incrementalCase {
 		{name: "page prose", edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}},
 			remade: []string{"b/notes.html"}},
 		{name: "a value another folder's page and a title quote", edits: []siteEdit{{"content/b/motor.md", `stroke = "20 mm"`, `stroke = "22 mm"`}},
-			// motor's title is in folder b's navigation and safety's
-			// previous link; the caution list shows hp's dead-head.
-			remade: []string{"a/index.html", "b/motor.html", "b/relief.html", "b/notes.html", "safety.html"}},
+			// motor's and summary's titles are in folder b's navigation,
+			// summary's in safety's previous link; the caution list shows
+			// hp's dead-head.
+			remade: []string{"a/index.html", "b/motor.html", "b/relief.html", "b/notes.html", "b/summary.html", "safety.html"}},
 		{name: "a quoted, linked and derived-from block", edits: []siteEdit{{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}},
 			remade: component},
 		{name: "a relief setting the stage's chart marks", edits: []siteEdit{{"content/b/relief.md", `preload = "2.4 mm"`, `preload = "2.6 mm"`}},
@@ -126,7 +129,7 @@ func incrementalCases(t *testing.T) []incrementalCase {
 			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "a/new.html", "safety.html"}},
 		{name: "a deleted page", edits: []siteEdit{{"content/b/notes.md", "", ""}},
 			// fig leaves lp's component.
-			remade: []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/motor.html"}},
+			remade: []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/motor.html", "b/summary.html"}},
 		{name: "a caution disappears", edits: []siteEdit{{"content/a/tank.md", `volume = "10 L"`, `volume = "0.05 L"`}},
 			remade: append([]string{"safety.html"}, component...)},
 		{name: "a caution appears", setup: []siteEdit{{"content/a/tank.md", `volume = "10 L"`, `volume = "0.05 L"`}},
