@@ -232,7 +232,7 @@ func Build(root string, opts Options) (*Summary, error) {
 		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
 	}
 	reusable := last.reusable(root, out, wasIntact)
-	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil})
+	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil && reusable.record.rendersLike(root)})
 	if err != nil {
 		return nil, err
 	}

@@ -44,6 +44,17 @@ type sink struct {
 	record bool
 }
 
+// rendersLike reports whether the recorded build rendered its pages as
+// the site at root renders them now: then most pages will be taken over,
+// and are best rendered only when written.
+func (r *buildRecord) rendersLike(root string) bool {
+	if r == nil {
+		return false
+	}
+	fp, err := renderFingerprint(root)
+	return err == nil && fp == r.Render
+}
+
 // renderFingerprint hashes what every page is rendered with besides its
 // own inputs: the specgen binary (templates embedded in it included),
 // specgen.toml and the site's templates/.

@@ -31,7 +31,7 @@ func (se *Session) Build() (files map[string][]byte, home string, err error) {
 	} else if se.outcomes == nil || se.outcomes.namespace != ns {
 		se.outcomes, se.pages = newOutcomeStore(ns), newPageCache()
 	}
-	s, err := load(se.root, loadOptions{outcomes: storeOrNil(se.outcomes), later: se.record != nil, pages: se.pages})
+	s, err := load(se.root, loadOptions{outcomes: storeOrNil(se.outcomes), later: se.record.rendersLike(se.root), pages: se.pages})
 	if err != nil {
 		return nil, "", err
 	}
