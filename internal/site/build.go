@@ -102,6 +102,10 @@ type loadOptions struct {
 	// build that takes most of them over from the last one.
 	later bool
 	pages *pageCache // the pages last read, to read again only changed ones
+	// revision, when revisionRead, is the git revision already read (nil
+	// outside git), which the pages show.
+	revision     *Revision
+	revisionRead bool
 }
 
 // load is Load with what the last build left.
@@ -190,7 +194,10 @@ func load(root string, opt loadOptions) (*Site, error) {
 	for i, p := range s.reading {
 		s.readingAt[p] = i
 	}
-	s.revision = revisionOf(root)
+	s.revision = opt.revision
+	if !opt.revisionRead {
+		s.revision = revisionOf(root)
+	}
 	for _, p := range s.Pages {
 		if p.listsCautions {
 			s.listingPages = append(s.listingPages, p)
@@ -221,7 +228,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	// The output is looked over while the inputs are read.
 	intact := make(chan bool, 1)
 	go func() { intact <- last.intact(out) }()
-	fp, fpErr := fingerprint(root, out)
+	fp, revision, fpErr := fingerprint(root, out)
 	wasIntact := <-intact
 	if wasIntact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
@@ -232,7 +239,8 @@ func Build(root string, opts Options) (*Summary, error) {
 		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
 	}
 	reusable := last.reusable(root, out, wasIntact)
-	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil && reusable.record.rendersLike(root)})
+	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil && reusable.record.rendersLike(root),
+		revision: revision, revisionRead: fpErr == nil})
 	if err != nil {
 		return nil, err
 	}

@@ -48,12 +48,13 @@ type outputFile struct {
 
 // fingerprint hashes everything a build reads: the specgen binary, the
 // output folder, the git revision shown on data sheets, specgen.toml and
-// every file under content/, templates/ and static/.
-func fingerprint(root, out string) (string, error) {
+// every file under content/, templates/ and static/. It returns the
+// revision too, which the build then shows.
+func fingerprint(root, out string) (string, *Revision, error) {
 	h := sha256.New()
 	self, err := binaryHash()
 	if err != nil {
-		return "", err
+		return "", nil, err
 	}
 	fmt.Fprintf(h, "specgen %s\nout %s\n", self, out)
 	// git runs while the files are read.
@@ -73,16 +74,17 @@ func fingerprint(root, out string) (string, error) {
 	sums := make([][]byte, len(paths))
 	errs := make([]error, len(paths))
 	calc.Parallel(len(paths), func(i int) { sums[i], errs[i] = fileDigest(root, paths[i]) })
-	if r := <-revision; r != nil {
+	r := <-revision
+	if r != nil {
 		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
 	}
 	for i := range paths {
 		if errs[i] != nil {
-			return "", errs[i]
+			return "", nil, errs[i]
 		}
 		h.Write(sums[i])
 	}
-	return hex.EncodeToString(h.Sum(nil)), nil
+	return hex.EncodeToString(h.Sum(nil)), r, nil
 }
 
 // fileDigest identifies a file by its path from the root, its mode and
