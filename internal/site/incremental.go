@@ -10,7 +10,6 @@ import (
 	"path/filepath"
 	"slices"
 	"sort"
-	"strings"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
@@ -186,8 +185,7 @@ func (s *Site) blockDigests() blockDigests {
 func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d := newDigest()
 	d.add(renderFP, p.File, p.Out, p.sourceSum[:], p.listsCautions)
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
-	d.add(s.pageData(p, rootPrefix, s.pageInfo(p)))
+	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfo(p)))
 	for _, b := range p.blocks {
 		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
 		for _, key := range slices.Sorted(maps.Keys(b.Values)) {
