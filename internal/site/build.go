@@ -234,13 +234,12 @@ func Build(root string, opts Options) (*Summary, error) {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
 			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}
-	var outcomes *outcomeStore
-	if ns, err := outcomesNamespace(root); err == nil {
-		outcomes = readOutcomeStore(filepath.Join(root, CacheDir), ns)
-	}
-	reusable := last.reusable(root, out, wasIntact)
-	s, err := load(root, loadOptions{outcomes: storeOrNil(outcomes), later: reusable != nil && reusable.record.rendersLike(root),
-		revision: revision, revisionRead: fpErr == nil})
+	// What the last build left is read while the pages are.
+	outcomes := readingOutcomes(root)
+	reusable := make(chan *lastOutput, 1)
+	go func() { reusable <- last.reusable(root, out, wasIntact) }()
+	s, err := load(root, loadOptions{outcomes: outcomes, later: last.rendersLike(root), revision: revision, revisionRead: fpErr == nil})
+	takeOver := <-reusable
 	if err != nil {
 		return nil, err
 	}
@@ -252,26 +251,18 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, files, err := s.write(opts, reusable, true)
+	sum, record, files, err := s.write(opts, takeOver, true)
 	if err != nil {
 		return nil, err
 	}
 	sum.Problems, sum.Tally = problems, tally
-	if outcomes != nil {
-		_ = outcomes.save(filepath.Join(root, CacheDir))
+	if o := outcomes.store(); o != nil {
+		_ = o.save(filepath.Join(root, CacheDir))
 	}
 	if fpErr == nil {
 		remember(root, out, fp, sum.Pages, problems, tally, record, files)
 	}
 	return sum, nil
-}
-
-// storeOrNil is o as a calc.OutcomeStore, nil when o is.
-func storeOrNil(o *outcomeStore) calc.OutcomeStore {
-	if o == nil {
-		return nil
-	}
-	return o
 }
 
 // outputPath resolves the output folder against the site root.

@@ -1,7 +1,9 @@
 package site
 
 import (
+	"bytes"
 	"crypto/sha256"
+	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
 	"errors"
@@ -36,8 +38,10 @@ type manifest struct {
 	Tally       Tally                 `json:"tally"`
 	Files       map[string]outputFile `json:"files"`
 	// Record is the digest of the file beside it that holds the build's
-	// buildRecord: read only when the build is not up to date.
+	// buildRecord: read only when the build is not up to date. Render is
+	// the record's render fingerprint, known without reading it.
 	Record string `json:"record"`
+	Render string `json:"render"`
 }
 
 // outputFile is what a written file looked like, to notice later edits.
@@ -213,15 +217,34 @@ func (m *manifest) reusable(root, out string, intact bool) *lastOutput {
 		return nil
 	}
 	var r buildRecord
-	if json.Unmarshal(b, &r) != nil {
+	if gob.NewDecoder(bytes.NewReader(b)).Decode(&r) != nil {
 		return nil
+	}
+	for file, p := range r.Pages {
+		// gob gives an empty list back as nil, which the index would show
+		// as null.
+		if p.Search.Headings == nil {
+			p.Search.Headings = [][2]string{}
+			r.Pages[file] = p
+		}
 	}
 	return &lastOutput{dir: out, files: m.Files, record: &r, intact: intact}
 }
 
+// rendersLike reports whether the last build rendered its pages as the
+// site at root renders them now: then most pages will be taken over, and
+// are best rendered only when written.
+func (m *manifest) rendersLike(root string) bool {
+	if m == nil || m.Record == "" {
+		return false
+	}
+	fp, err := renderFingerprint(root)
+	return err == nil && fp == m.Render
+}
+
 // recordPath is where the buildRecord of an output folder's manifest lives.
 func recordPath(root, out string) string {
-	return strings.TrimSuffix(manifestPath(root, out), ".json") + ".pages.json"
+	return strings.TrimSuffix(manifestPath(root, out), ".json") + ".pages.gob"
 }
 
 func sha256Hex(b []byte) string {
@@ -321,8 +344,9 @@ func writeManifest(root, out string, m manifest, record *buildRecord) {
 	// The record first, then the manifest that names it by its digest: a
 	// record without its manifest is never trusted.
 	if record != nil {
-		if rb, err := json.Marshal(record); err == nil && writeAside(recordPath(root, out), rb) == nil {
-			m.Record = sha256Hex(rb)
+		var rb bytes.Buffer
+		if gob.NewEncoder(&rb).Encode(record) == nil && writeAside(recordPath(root, out), rb.Bytes()) == nil {
+			m.Record, m.Render = sha256Hex(rb.Bytes()), record.Render
 		}
 	}
 	if b, err := json.Marshal(m); err == nil {

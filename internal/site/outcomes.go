@@ -282,3 +282,44 @@ func copyValue(v reflect.Value) reflect.Value {
 func plainKind(k reflect.Kind) bool {
 	return k >= reflect.Bool && k <= reflect.Complex128 || k == reflect.String
 }
+
+// pendingOutcomes is the cache folder's outcome store while it is read:
+// the build reads its pages meanwhile, and the first outcome it asks for
+// waits for the rest.
+type pendingOutcomes struct {
+	ready chan struct{}
+	o     *outcomeStore // nil when the catalog could not be named
+}
+
+// readingOutcomes starts reading the outcomes saved in root's cache.
+func readingOutcomes(root string) *pendingOutcomes {
+	p := &pendingOutcomes{ready: make(chan struct{})}
+	go func() {
+		defer close(p.ready)
+		if ns, err := outcomesNamespace(root); err == nil {
+			p.o = readOutcomeStore(filepath.Join(root, CacheDir), ns)
+		}
+	}()
+	return p
+}
+
+// store waits for the store and returns it, nil when there is none.
+func (p *pendingOutcomes) store() *outcomeStore {
+	<-p.ready
+	return p.o
+}
+
+// Outcome is the store's, once it is read.
+func (p *pendingOutcomes) Outcome(key string) (*calc.Memo, bool) {
+	if o := p.store(); o != nil {
+		return o.Outcome(key)
+	}
+	return nil, false
+}
+
+// Keep is the store's, once it is read.
+func (p *pendingOutcomes) Keep(key string, m *calc.Memo) {
+	if o := p.store(); o != nil {
+		o.Keep(key, m)
+	}
+}

@@ -5,6 +5,8 @@ import (
 	"os"
 	"path/filepath"
 	"sync"
+
+	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // Session builds one site into memory again and again, each build taking
@@ -31,7 +33,11 @@ func (se *Session) Build() (files map[string][]byte, home string, err error) {
 	} else if se.outcomes == nil || se.outcomes.namespace != ns {
 		se.outcomes, se.pages = newOutcomeStore(ns), newPageCache()
 	}
-	s, err := load(se.root, loadOptions{outcomes: storeOrNil(se.outcomes), later: se.record.rendersLike(se.root), pages: se.pages})
+	var outcomes calc.OutcomeStore
+	if se.outcomes != nil {
+		outcomes = se.outcomes
+	}
+	s, err := load(se.root, loadOptions{outcomes: outcomes, later: se.record.rendersLike(se.root), pages: se.pages})
 	if err != nil {
 		return nil, "", err
 	}
