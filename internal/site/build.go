@@ -431,10 +431,17 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		previous = nil
 	}
 	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
+	// results.json is written while the pages are; emit returns only
+	// once it is.
+	resultsWritten := make(chan error, 1)
+	waitResults := sync.OnceValue(func() error { return <-resultsWritten })
+	defer waitResults()
 	if previous == nil || previous.Results != blocks.all || !to.keep("results.json") {
-		if err := put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) }); err != nil {
-			return nil, err
-		}
+		go func() {
+			resultsWritten <- put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) })
+		}()
+	} else {
+		resultsWritten <- nil
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
 	for name, data := range s.layouts.assets {
@@ -528,6 +535,9 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		}
 	})
 	if err := collect(errs); err != nil {
+		return nil, err
+	}
+	if err := waitResults(); err != nil {
 		return nil, err
 	}
 	if err := s.emitHosting(put, names, entries); err != nil || !to.record {
