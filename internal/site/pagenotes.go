@@ -3,10 +3,21 @@ package site
 import (
 	"cmp"
 	"html/template"
+	"sync"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/models"
 	"github.com/millrace-workshop/specgen/internal/render"
+)
+
+// The standard caution boxes, the same on every page that holds one.
+var (
+	standardBox = sync.OnceValue(func() template.HTML {
+		return template.HTML(render.StandardCautionHTML(models.StandardCaution))
+	})
+	standardVacuumBox = sync.OnceValue(func() template.HTML {
+		return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
+	})
 )
 
 // standardCaution is the standard caution of a page: the full box on a page
@@ -21,9 +32,9 @@ func (s *Site) standardCaution(p *Page) template.HTML {
 	}
 	if holds, vacuum := s.pressureCalcs(held); holds {
 		if vacuum {
-			return template.HTML(render.StandardCautionHTML(models.StandardVacuumCaution))
+			return standardVacuumBox()
 		}
-		return template.HTML(render.StandardCautionHTML(models.StandardCaution))
+		return standardBox()
 	}
 	shows, vacuum := s.pressureCalcs(s.blocksShown(p))
 	if !shows {
