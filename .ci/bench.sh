@@ -52,6 +52,11 @@ for n in "${sizes[@]}"; do [ "$n" != 1000 ] || ref=1000; done
 big=${sizes[-1]} # the size whose CPU per page is held to ref's
 for n in "${sizes[@]}"; do [ "$n" -le "$big" ] || big=$n; done
 
+# load prints the load average over the last minute, when the system tells it.
+load() { cut -d' ' -f1 /proc/loadavg 2>/dev/null || echo unknown; }
+echo "== $(go version | cut -d' ' -f3-), $(nproc) cores, load average $(load) at the start"
+echo
+
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 go build -o "$work/specgen" ./cmd/specgen
@@ -178,7 +183,7 @@ target() {
   [ -n "$2" ] || return 0
   printf '%s %9s %s ≤ %4s %s  %s\n' "$(awk -v f="$2" -v l="$3" 'BEGIN { print (f <= l ? "PASS" : "OVER") }')" "$2" "$4" "$3" "$4" "$1"
 }
-echo "== targets (PASS or OVER; figures from this run on this machine)"
+echo "== targets (PASS or OVER; figures from this run on this machine, load average $(load) now)"
 for kind in charts docs; do
   k=$kind.$ref
   cold=$(median "$k.cold.wall")
