@@ -17,7 +17,8 @@
 # cache), the floor, an unchanged rebuild, a rebuild after one page's prose is
 # edited and one after one of its block's inputs is. Wall time is the shell's
 # clock; CPU time (user + sys) and peak resident memory are GNU time's. Figures are
-# medians of the runs; MB are 10^6 bytes. Then: one cold build of a chart-heavy site
+# medians of the runs, and ratios medians of each run's own (specgen to the floor
+# run beside it, a rebuild to its run's cold build); MB are 10^6 bytes. Then: one cold build of a chart-heavy site
 # of -peak pages (default 10000; 0 skips) for its peak memory, and the preview's
 # delay from saving a page to serving it on a site of -preview pages (default 300;
 # 0 skips), with BenchmarkPreviewEdit (cmd/specgen). Last, a table of the targets
@@ -51,6 +52,11 @@ ref=${sizes[0]} # the size the ratios of the targets are read at
 for n in "${sizes[@]}"; do [ "$n" != 1000 ] || ref=1000; done
 big=${sizes[-1]} # the size whose CPU per page is held to ref's
 for n in "${sizes[@]}"; do [ "$n" -le "$big" ] || big=$n; done
+
+# load prints the load average over the last minute, when the system tells it.
+load() { cut -d' ' -f1 /proc/loadavg 2>/dev/null || echo unknown; }
+echo "== $(go version | cut -d' ' -f3-), $(nproc) cores, load average $(load) at the start"
+echo
 
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
@@ -90,11 +96,19 @@ median() {
     END { if (n) printf "%.6g", (n % 2 ? v[(n + 1) / 2] : (v[n / 2] + v[n / 2 + 1]) / 2) }'
 }
 
+# add_ratio KEY A B adds A's last value over B's to the figures under KEY: a ratio
+# within one run, whose two figures saw the same load.
+add_ratio() {
+  local a b
+  a=${figures[$2]% } b=${figures[$3]% }
+  figures[$1]+="$(awk -v a="${a##* }" -v b="${b##* }" 'BEGIN { printf "%.4f", (b > 0 ? a / b : 0) }') "
+}
+
 # per_page SECONDS PAGES prints milliseconds per page.
 per_page() { awk -v s="$1" -v n="$2" 'BEGIN { printf "%.2f", s * 1000 / n }'; }
 
-# ratio A B prints A/B to two decimals.
-ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", (b > 0 ? a / b : 0) }'; }
+# decimals2 X prints X to two decimals.
+decimals2() { awk -v x="$1" 'BEGIN { printf "%.2f", x }'; }
 
 # edited_page PAGES prints the page the edits go to: one near the middle of the site
 # that is not a section's index and holds a block (benchEditedPage's choice).
@@ -129,17 +143,23 @@ for n in "${sizes[@]}"; do
       # A bore of a decimal millimetre differs from the generated whole ones.
       edit "$page" '^bore = "[0-9.]* mm"' "bore = \"$((40 + r)).5 mm\""
       measure "$k.input" "$work/specgen" build -quiet -C "$site"
+      for f in wall cpu; do
+        add_ratio "$k.floor.ratio.$f" "$k.cold.$f" "$k.floor.$f"
+        for step in unchanged prose input; do add_ratio "$k.$step.ratio.$f" "$k.$step.$f" "$k.cold.$f"; done
+      done
     done
     rm -rf "$site" "$work/floor"
     cold=$(median "$k.cold.wall") ccpu=$(median "$k.cold.cpu") fcpu=$(median "$k.floor.cpu") fwall=$(median "$k.floor.wall")
+    # Ratios are medians of each run's own ratio.
     echo "== ${title[$kind]}, $n pages: medians of $runs interleaved run(s)"
     printf '%-26s %9s %9s %11s %9s\n' "" "wall s" "CPU s" "CPU/page" "peak MB"
     printf '%-26s %9.3f %9.2f %8.2f ms %9.1f\n' "specgen cold build" "$cold" "$ccpu" "$(per_page "$ccpu" "$n")" "$(median "$k.cold.rss")"
     printf '%-26s %9.3f %9.2f %8.2f ms %9.1f\n' "floor" "$fwall" "$fcpu" "$(per_page "$fcpu" "$n")" "$(median "$k.floor.rss")"
-    printf '%-26s %8.2f× %8.2f×\n' "specgen / floor" "$(ratio "$cold" "$fwall")" "$(ratio "$ccpu" "$fcpu")"
+    printf '%-26s %8.2f× %8.2f×\n' "specgen / floor" "$(median "$k.floor.ratio.wall")" "$(median "$k.floor.ratio.cpu")"
     for step in unchanged:"unchanged rebuild" prose:"one page's prose edited" input:"one block input edited"; do
-      w=$(median "$k.${step%%:*}.wall") c=$(median "$k.${step%%:*}.cpu")
-      printf '%-26s %9.3f %9.2f   %s× the cold build (CPU %s×)\n' "${step#*:}" "$w" "$c" "$(ratio "$w" "$cold")" "$(ratio "$c" "$ccpu")"
+      key=$k.${step%%:*}
+      printf '%-26s %9.3f %9.2f   %.2f× the cold build (CPU %.2f×)\n' "${step#*:}" "$(median "$key.wall")" "$(median "$key.cpu")" \
+        "$(median "$key.ratio.wall")" "$(median "$key.ratio.cpu")"
     done
     echo
   done
@@ -178,14 +198,13 @@ target() {
   [ -n "$2" ] || return 0
   printf '%s %9s %s ≤ %4s %s  %s\n' "$(awk -v f="$2" -v l="$3" 'BEGIN { print (f <= l ? "PASS" : "OVER") }')" "$2" "$4" "$3" "$4" "$1"
 }
-echo "== targets (PASS or OVER; figures from this run on this machine)"
+echo "== targets (PASS or OVER; figures from this run on this machine, load average $(load) now)"
 for kind in charts docs; do
   k=$kind.$ref
-  cold=$(median "$k.cold.wall")
-  target "${title[$kind]}, $ref pages: cold CPU / floor CPU" "$(ratio "$(median "$k.cold.cpu")" "$(median "$k.floor.cpu")")" 2.5 "× "
-  target "${title[$kind]}, $ref pages: unchanged rebuild / cold" "$(ratio "$(median "$k.unchanged.wall")" "$cold")" 0.1 "× "
-  target "${title[$kind]}, $ref pages: prose edit rebuild / cold" "$(ratio "$(median "$k.prose.wall")" "$cold")" 0.2 "× "
-  target "${title[$kind]}, $ref pages: input edit rebuild / cold" "$(ratio "$(median "$k.input.wall")" "$cold")" 0.2 "× "
+  target "${title[$kind]}, $ref pages: cold CPU / floor CPU" "$(decimals2 "$(median "$k.floor.ratio.cpu")")" 2.5 "× "
+  target "${title[$kind]}, $ref pages: unchanged rebuild / cold" "$(decimals2 "$(median "$k.unchanged.ratio.wall")")" 0.1 "× "
+  target "${title[$kind]}, $ref pages: prose edit rebuild / cold" "$(decimals2 "$(median "$k.prose.ratio.wall")")" 0.2 "× "
+  target "${title[$kind]}, $ref pages: input edit rebuild / cold" "$(decimals2 "$(median "$k.input.ratio.wall")")" 0.2 "× "
   if [ "$big" != "$ref" ]; then
     target "${title[$kind]}: CPU per page, $big / $ref pages" \
       "$(awk -v a="$(median "$kind.$big.cold.cpu")" -v na="$big" -v b="$(median "$k.cold.cpu")" -v nb="$ref" 'BEGIN { printf "%.2f", (b > 0 ? (a / na) / (b / nb) : 0) }')" 1.3 "× "
