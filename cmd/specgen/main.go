@@ -11,7 +11,6 @@ import (
 	"os"
 	"os/signal"
 	"path/filepath"
-	"runtime/debug"
 	"syscall"
 
 	"github.com/millrace-workshop/specgen/internal/inputerr"
@@ -48,18 +47,11 @@ func commands() []command {
 }
 
 func main() {
-	// A build holds every evaluated block to its end; a tighter collection
-	// target keeps a 10,000-page site under 300 MB at no measured cost in
-	// time (.ci/bench.sh). GOGC, when set, still wins.
-	if os.Getenv("GOGC") == "" {
-		debug.SetGCPercent(70)
-	}
-	// A soft limit: near it the collector works harder instead of the heap
-	// growing (10,000 pages: 260 MB instead of 300 MB, 5 % slower). Smaller
-	// sites never reach it; far larger ones build slower, never fail.
-	// GOMEMLIMIT, when set, wins.
+	// A soft memory limit that follows the live heap (memory.go): a big
+	// site's peak stays within a share above what it holds, and the
+	// collector never runs without pause. GOMEMLIMIT, when set, wins.
 	if os.Getenv("GOMEMLIMIT") == "" {
-		debug.SetMemoryLimit(240 << 20)
+		followLiveHeap()
 	}
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }

@@ -83,7 +83,20 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 	if e.in == nil {
 		return nil, fmt.Errorf("block %s: its chart data was released", e.Block.ID)
 	}
-	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: e.Curves, Cautions: e.Cautions,
+	curves := e.Curves
+	if e.resample {
+		// The model runs again on the same inputs, so the curves come out
+		// as they would have been kept.
+		out, err := k.Evaluate(e.in.sampling())
+		if err != nil {
+			return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)
+		}
+		if bad := nonFinite(out); bad != "" {
+			return nil, fmt.Errorf("block %s: chart %s: %s is not a finite number with the inputs %s; check that they describe a real machine", e.Block.ID, name, bad, givenInputs(e.Inputs))
+		}
+		curves = out.Curves
+	}
+	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: curves, Cautions: e.Cautions,
 		FullRange: e.Block.Show.FullRange, ID: e.Block.ID, Set: e.set})
 	if err != nil {
 		return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)

@@ -11,6 +11,7 @@ import (
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"github.com/millrace-workshop/specgen/internal/display"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
@@ -24,6 +25,11 @@ type Options struct {
 	// curves of the others are dropped as soon as no block needs them, so
 	// that a big site does not hold them all. Nil keeps every curve.
 	Charted func(id string) bool
+	// CurveBudget, when above zero, bounds the bytes of curves the set
+	// keeps for charted blocks: past it, a block's curves are not kept but
+	// sampled again when its chart is drawn. Curves that blocks linking to
+	// it read are always kept.
+	CurveBudget int64
 }
 
 // Set is every evaluated block of a site.
@@ -94,6 +100,8 @@ type Evaluated struct {
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
 	set      *Set    // the blocks evaluated with it, for its charts
+	// resample: Curves are not kept, and Chart samples them again from in.
+	resample bool
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -151,6 +159,15 @@ func (e *Evaluated) Result(name string) (Result, bool) {
 func (e *Evaluated) Release() {
 	e.Curves = nil
 	e.in = nil
+}
+
+// DropCurves drops the block's curves once its charts are drawn; a chart
+// drawn again samples them anew. It must not run while a chart of the
+// block is being drawn.
+func (e *Evaluated) DropCurves() {
+	if e.in != nil && e.Curves != nil {
+		e.Curves, e.resample = nil, true
+	}
 }
 
 // ModelInputs is what the model saw (nil once released), for the caution
@@ -240,6 +257,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 	}
 	set.early = map[string]*Evaluated{}
 	failed := map[string]bool{}
+	var keptCurves atomic.Int64 // bytes of the charted blocks' curves kept
 	for _, level := range pl.levels {
 		type outcome struct {
 			e   *Evaluated
@@ -267,11 +285,18 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 				outs[i].e, outs[i].err = set.derive(base, opts)
 				return
 			}
-			want := opts.Charted == nil || opts.Charted(b.ID) || linked[b.ID]
+			charted := opts.Charted == nil || opts.Charted(b.ID)
+			overBudget := opts.CurveBudget > 0 && keptCurves.Load() >= opts.CurveBudget
+			want := linked[b.ID] || (charted && !overBudget)
 			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want, false)
-			// Drop curves at once: a level can hold thousands of blocks.
-			if outs[i].err == nil && !want {
+			switch {
+			case outs[i].err != nil:
+			case !want:
+				// Drop curves at once: a level can hold thousands of blocks.
 				outs[i].e.Curves = nil
+				outs[i].e.resample = charted
+			case !linked[b.ID]:
+				keptCurves.Add(curveBytes(outs[i].e.Curves))
 			}
 		})
 		for _, i := range run {
@@ -879,4 +904,13 @@ func trimBound(s string) string {
 		return num
 	}
 	return num + " " + unit
+}
+
+// curveBytes is the memory the samples of curves take.
+func curveBytes(curves []Curve) int64 {
+	var n int
+	for _, c := range curves {
+		n += cap(c.X) + cap(c.Y)
+	}
+	return int64(n) * 8
 }

@@ -2,6 +2,7 @@ package calc
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"sort"
 
@@ -230,6 +231,16 @@ func NewInputs(ambient float64, env any) *Inputs {
 // Customary reports whether the block is written in US customary units,
 // for a model that lays out tables in round numbers of them.
 func (in *Inputs) Customary() bool { return in.customary }
+
+// sampling is a copy of in for running the model again with its curves
+// sampled; the model may write to its own copy.
+func (in *Inputs) sampling() *Inputs {
+	cp := *in
+	cp.values, cp.lists, cp.given = maps.Clone(in.values), maps.Clone(in.lists), maps.Clone(in.given)
+	cp.names, cp.links = maps.Clone(in.names), maps.Clone(in.links)
+	cp.noCurves = false
+	return &cp
+}
 
 // WantCurves reports whether the block's curves are used (by its charts or
 // by a block that links to it); a model may skip sampling them otherwise.

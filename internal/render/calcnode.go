@@ -26,6 +26,7 @@ type CalcBlock struct {
 	Eval   *calc.Evaluated
 	Links  map[string]string // links to the blocks its inputs name or quote
 	Charts []*DrawnChart     // the charts its [show] asks for, drawn
+	prep   *preparing        // set while the page is prepared: leave a hole
 }
 
 // Kind implements ast.Node.

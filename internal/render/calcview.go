@@ -31,24 +31,34 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkContinue, nil
 	}
 	n := node.(*ValueRef)
+	if n.prep != nil {
+		n.prep.hole(w, n, Hole{Kind: HoleValue, Block: n.Block, Result: n.Result})
+		return ast.WalkSkipChildren, nil
+	}
 	if n.Problem != "" {
 		// No reference: only reachable when a page is rendered without
 		// the site's checks, which refuse it.
 		_, _ = w.WriteString(esc(string(source[n.Offset:n.End])))
 		return ast.WalkSkipChildren, nil
 	}
-	name := esc(n.Block + "." + n.Result)
-	text := esc(shownValue(n.Shown))
-	if n.Shown == "" {
+	WriteValue(w, n.Block, n.Result, n.Shown, n.Href)
+	return ast.WalkSkipChildren, nil
+}
+
+// WriteValue writes an inline value of block's result: shown, linked to
+// href when it is not empty.
+func WriteValue(w util.BufWriter, block, result, shown, href string) {
+	name := esc(block + "." + result)
+	text := esc(shownValue(shown))
+	if shown == "" {
 		// Only reachable when a page is rendered without evaluation.
 		text = "=[" + name + "]"
 	}
-	if n.Href != "" {
-		_, _ = w.WriteString(`<a class="sg-value" href="` + esc(n.Href) + `" title="from calculation ` + name + `">` + text + `</a>`)
+	if href != "" {
+		_, _ = w.WriteString(`<a class="sg-value" href="` + esc(href) + `" title="from calculation ` + name + `">` + text + `</a>`)
 	} else {
 		_, _ = w.WriteString(`<span class="sg-value" title="from calculation ` + name + `">` + text + `</span>`)
 	}
-	return ast.WalkSkipChildren, nil
 }
 
 func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -56,12 +66,23 @@ func (r *calcRenderer) renderBlock(w util.BufWriter, source []byte, node ast.Nod
 		return ast.WalkContinue, nil
 	}
 	n := node.(*CalcBlock)
-	if n.Eval == nil {
-		writeCode(w, "toml", n.Source)
+	if n.prep != nil {
+		n.prep.hole(w, n, Hole{Kind: HoleBlock, Line: n.FenceLine + n.prep.lineOffset, Level: headingLevelAfter(n), Source: n.Source})
 		return ast.WalkSkipChildren, nil
 	}
-	writeCalcBlock(w, n.Eval, n.Source, n.Charts, n.Links, headingLevelAfter(n))
+	WriteBlockAt(w, n.Eval, n.Source, n.Charts, n.Links, headingLevelAfter(n))
 	return ast.WalkSkipChildren, nil
+}
+
+// WriteBlockAt writes a calculation block whose title takes heading level
+// level where it stands: evaluated as WriteCalcBlock does, or, when e is
+// nil, its source as code.
+func WriteBlockAt(w util.BufWriter, e *calc.Evaluated, source string, charts []*DrawnChart, links map[string]string, level int) {
+	if e == nil {
+		writeCode(w, "toml", source)
+		return
+	}
+	writeCalcBlock(w, e, source, charts, links, level)
 }
 
 // headingLevelAfter is the level a block's title takes where the block

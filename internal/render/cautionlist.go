@@ -19,6 +19,7 @@ type CautionList struct {
 	FenceLine int    // 1-based line of the opening fence in the document body
 	Content   string // what the fence holds, which should be nothing
 	Items     []CautionItem
+	prep      *preparing
 }
 
 // CautionItem is one caution with the block that raised it.
@@ -51,12 +52,22 @@ func (r *calcRenderer) renderCautionList(w util.BufWriter, source []byte, node a
 		return ast.WalkContinue, nil
 	}
 	n := node.(*CautionList)
-	if len(n.Items) == 0 {
-		_, _ = w.WriteString(`<p class="sg-caution-none">No calculation on this site raises a caution.</p>` + "\n")
+	if n.prep != nil {
+		n.prep.hole(w, n, Hole{Kind: HoleCautions})
 		return ast.WalkSkipChildren, nil
 	}
+	WriteCautionList(w, n.Items)
+	return ast.WalkSkipChildren, nil
+}
+
+// WriteCautionList writes a caution list of items as a table.
+func WriteCautionList(w util.BufWriter, items []CautionItem) {
+	if len(items) == 0 {
+		_, _ = w.WriteString(`<p class="sg-caution-none">No calculation on this site raises a caution.</p>` + "\n")
+		return
+	}
 	_, _ = w.WriteString(`<table class="sg-caution-list"><thead><tr><th scope="col">Level</th><th scope="col">Block</th><th scope="col">Rule</th><th scope="col">What</th></tr></thead><tbody>` + "\n")
-	for _, it := range n.Items {
+	for _, it := range items {
 		word := it.Level.String()
 		title := it.BlockTitle
 		if title == "" {
@@ -70,5 +81,4 @@ func (r *calcRenderer) renderCautionList(w util.BufWriter, source []byte, node a
 			`<td><a href="` + esc(it.Href) + `">` + esc(title) + `</a></td><td><code>` + esc(it.Rule) + `</code></td><td>` + what + "</td></tr>\n")
 	}
 	_, _ = w.WriteString("</tbody></table>\n")
-	return ast.WalkSkipChildren, nil
 }

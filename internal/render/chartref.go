@@ -19,6 +19,7 @@ type ChartRef struct {
 	Names     []ChartName
 	FenceLine int // 1-based line of the opening fence in the document body
 	Charts    []*DrawnChart
+	prep      *preparing
 }
 
 // ChartName is one line of a chart fence.
@@ -66,10 +67,20 @@ func (r *calcRenderer) renderChartRef(w util.BufWriter, source []byte, node ast.
 	if !entering {
 		return ast.WalkContinue, nil
 	}
+	n := node.(*ChartRef)
+	if n.prep != nil {
+		n.prep.hole(w, n, Hole{Kind: HoleChartRef})
+		return ast.WalkSkipChildren, nil
+	}
+	WriteChartRef(w, n.Charts)
+	return ast.WalkSkipChildren, nil
+}
+
+// WriteChartRef writes the charts a chart fence draws.
+func WriteChartRef(w util.BufWriter, charts []*DrawnChart) {
 	_, _ = w.WriteString(`<div class="sg-chartref">` + "\n")
-	for _, c := range node.(*ChartRef).Charts {
+	for _, c := range charts {
 		_, _ = w.WriteString(c.HTML)
 	}
 	_, _ = w.WriteString("</div>\n")
-	return ast.WalkSkipChildren, nil
 }

@@ -1,16 +1,15 @@
 package render
 
 import (
-	"bytes"
-
 	"github.com/yuin/goldmark/ast"
 )
 
-// Text is the page's prose as plain text, for the search index: its
-// headings, paragraphs, lists and tables, with inline values as shown.
-// Code, calculation blocks and raw HTML are left out.
-func (d *Document) Text() string {
-	var buf bytes.Buffer
+// textParts is the page's prose as plain text, for the search index: its
+// headings, paragraphs, lists and tables, one a line, with its inline
+// values (numbered by refIndex) left open. Code, calculation blocks and raw
+// HTML are left out.
+func (d *Document) textParts(refIndex map[*ValueRef]int) Parts {
+	var pw partsWriter
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering || n.Type() != ast.TypeBlock || hasBlockChild(n) {
 			return ast.WalkContinue, nil
@@ -19,11 +18,11 @@ func (d *Document) Text() string {
 		case ast.KindCodeBlock, ast.KindFencedCodeBlock, ast.KindHTMLBlock:
 			return ast.WalkSkipChildren, nil
 		}
-		buf.WriteString(plainText(n, d.Source))
-		buf.WriteByte('\n')
+		writeText(&pw.buf, n, d.Source, func(r *ValueRef) { pw.ref(refIndex[r]) })
+		pw.buf.WriteByte('\n')
 		return ast.WalkSkipChildren, nil
 	})
-	return buf.String()
+	return pw.done()
 }
 
 // hasBlockChild reports whether a block holds other blocks (a list, a

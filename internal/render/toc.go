@@ -35,9 +35,10 @@ func Nest(flat []Heading) []Heading {
 	return out
 }
 
-// Headings lists the document's headings from level 2 to maxLevel, in order.
-func (d *Document) Headings(maxLevel int) []Heading {
-	var out []Heading
+// headingParts lists the document's headings from level 2 to maxLevel, in
+// order; refIndex numbers the value references their text may hold.
+func (d *Document) headingParts(maxLevel int, refIndex map[*ValueRef]int) []PreparedHeading {
+	var out []PreparedHeading
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
 			return ast.WalkContinue, nil
@@ -49,10 +50,22 @@ func (d *Document) Headings(maxLevel int) []Heading {
 		if h.Level >= 2 && h.Level <= maxLevel {
 			id, _ := h.AttributeString("id")
 			idBytes, _ := id.([]byte)
-			out = append(out, Heading{Level: h.Level, ID: string(idBytes), Text: plainText(h, d.Source)})
+			var pw partsWriter
+			writeText(&pw.buf, h, d.Source, func(r *ValueRef) { pw.ref(refIndex[r]) })
+			out = append(out, PreparedHeading{Level: h.Level, ID: string(idBytes), Text: pw.done()})
 		}
 		return ast.WalkSkipChildren, nil
 	})
+	return out
+}
+
+// HeadingsWith gives the prepared headings their text, with value giving the
+// text of each value reference.
+func (p *Prepared) HeadingsWith(value func(ref int) string) []Heading {
+	out := make([]Heading, len(p.Headings))
+	for i, h := range p.Headings {
+		out[i] = Heading{Level: h.Level, ID: h.ID, Text: h.Text.String(value)}
+	}
 	return out
 }
 
@@ -106,20 +119,6 @@ func TitleText(parts []TitlePart, value func(*ValueRef) string) string {
 		}
 	}
 	return b.String()
-}
-
-// plainText is the text content of a node, without markup; a value
-// reference counts as its value, or as written before it is resolved.
-func plainText(n ast.Node, source []byte) string {
-	var buf bytes.Buffer
-	writeText(&buf, n, source, func(r *ValueRef) {
-		if r.Shown != "" {
-			buf.WriteString(r.Shown)
-		} else {
-			buf.WriteString(r.Written)
-		}
-	})
-	return buf.String()
 }
 
 // writeText writes the text content of a node to buf, without markup, and

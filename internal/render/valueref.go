@@ -33,6 +33,7 @@ type ValueRef struct {
 	Problem             string // why Written is not a well-formed reference; "" when it is
 	Shown               string // the formatted value
 	Href                string // link to the block's table
+	prep                *preparing
 }
 
 // Kind implements ast.Node.

@@ -11,7 +11,6 @@ import (
 	"maps"
 	"path/filepath"
 	"slices"
-	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -64,8 +63,10 @@ type Site struct {
 	Pages   []*Page // sorted by content path
 	nav     *navNode
 	reading []*Page // reading order, for previous and next
-	md      *render.Markdown
-	layouts *layouts
+	// readingAt is each page's place in reading.
+	readingAt map[*Page]int
+	md        *render.Markdown
+	layouts   *layouts
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
 	blockPage map[string]*Page     // block id → the page that holds it
@@ -75,6 +76,8 @@ type Site struct {
 	progress    func(stage string, done, total int)
 	charts      atomic.Int64
 	chartsTotal int
+	// drawsLeft counts, by block id, the charts of the block still to draw.
+	drawsLeft map[string]*atomic.Int32
 }
 
 // MaxErrors is how many input problems one run reports; the rest are
@@ -160,6 +163,10 @@ func Load(root string) (*Site, error) {
 		return nil, err
 	}
 	s.nav, s.reading = buildNav(s.Pages)
+	s.readingAt = make(map[*Page]int, len(s.reading))
+	for i, p := range s.reading {
+		s.readingAt[p] = i
+	}
 	s.revision = revisionOf(root)
 	return s, nil
 }
@@ -421,40 +428,39 @@ func (s *Site) Home() string {
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
-	doc := s.md.Parse(p.body, p.lineOffset)
-	doc.TakeTitle()
-	rootPrefix := strings.Repeat("../", strings.Count(p.Out, "/"))
-	doc.RelativeFromRoot(rootPrefix)
-	s.attach(p, doc)
-	if err := s.drawCharts(p, doc, out); err != nil {
+	up := rootPrefix(p.Out)
+	charts, err := s.drawCharts(p, out)
+	if err != nil {
 		return nil, searchEntry{}, err
 	}
-	body, err := s.md.Render(doc)
-	if err != nil {
-		return nil, searchEntry{}, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	var body bytes.Buffer
+	if err := p.body.Write(&body, s.fill(p, charts)); err != nil {
+		return nil, searchEntry{}, err
 	}
+	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
 	info := PageInfo{
 		Title:       p.Title,
 		Heading:     cmp.Or(p.Heading, p.Title),
 		Description: p.Front.Description,
 		Source:      p.File,
 		URL:         p.Out,
-		Content:     template.HTML(body),
-		TOCCount:    len(doc.Headings(3)),
+		Content:     template.HTML(body.String()),
+		TOCCount:    len(headings),
 		Caution:     s.standardCaution(p),
 		Alert:       s.pageAlert(p),
 		Cautions:    s.pageCautions(p),
-		TOC:         render.Nest(doc.Headings(3)),
+		TOC:         render.Nest(headings),
 	}
 	if s.Config.BaseURL != "" {
 		info.Canonical = s.Config.BaseURL + href(p.Out)
 	}
-	page, err := s.layout(p, rootPrefix, info)
+	page, err := s.layout(p, up, info)
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
-	return out, newSearchEntry(p, doc), nil
+	text := p.body.Text.String(func(ref int) string { return s.refText(p, ref) })
+	return out, newSearchEntry(p, text, headings), nil
 }
 
 // siteData describes the site to a page whose way up to the site's root
@@ -474,10 +480,7 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 		Nav:         navFor(s.nav, p, rootPrefix),
 		Breadcrumbs: breadcrumbsFor(s.nav, p, rootPrefix),
 	}
-	for i, q := range s.reading {
-		if q != p {
-			continue
-		}
+	if i, ok := s.readingAt[p]; ok {
 		if i > 0 {
 			data.Prev = &Link{Title: s.reading[i-1].Title, URL: href(rootPrefix + s.reading[i-1].Out)}
 		}

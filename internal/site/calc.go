@@ -9,6 +9,9 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"sync/atomic"
+
+	"github.com/yuin/goldmark/util"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/display"
@@ -16,6 +19,12 @@ import (
 	"github.com/millrace-workshop/specgen/internal/render"
 	"github.com/millrace-workshop/specgen/internal/units"
 )
+
+// curveBudget is how many bytes of curves the charted blocks of a site keep
+// from evaluation until their charts are drawn (some 1,200 compressor
+// blocks); past it, the curves of a block are sampled again when drawn, so
+// that a big site's memory does not grow with every chart it holds.
+var curveBudget int64 = 32 << 20
 
 // valueRef is an inline value of a page, as written, with its file line.
 // When Problem is set it is no well-formed reference, and Block, Result
@@ -26,16 +35,18 @@ type valueRef struct {
 	Line                int
 }
 
-// chartName is a line of a chart fence, with its file line.
+// chartName is a line of a chart fence, with its file line and the fence's
+// place among the page's chart fences.
 type chartName struct {
 	render.ChartName
-	Line int
+	Line  int
+	Fence int
 }
 
 // readDoc takes what the build needs from a page's syntax tree: its
 // calculation blocks (decoded), its inline values and its chart fences.
-// The tree itself is not kept; it is parsed again when the page is
-// rendered, so that a big site is never held in memory whole.
+// The tree itself is not kept (the page is prepared from it, see
+// render.Prepared), so that a big site is never held in memory whole.
 func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 	var errs inputerr.List
 	for _, n := range doc.CalcBlocks() {
@@ -65,7 +76,7 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 			Written: r.Written, Problem: r.Problem, Line: doc.Line(r.Offset)})
 	}
 	drawn := map[string]int{} // chart name to the line that first draws it
-	for _, cr := range doc.ChartRefs() {
+	for fence, cr := range doc.ChartRefs() {
 		if len(cr.Names) == 0 {
 			errs = append(errs, &inputerr.Error{File: p.File, Line: cr.FenceLine + doc.LineOffset,
 				Msg: "this chart fence names no chart; write one per line as block.chart, e.g. low.pv"})
@@ -78,7 +89,7 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 				continue
 			}
 			drawn[n.Text] = line
-			p.charts = append(p.charts, chartName{ChartName: n, Line: line})
+			p.charts = append(p.charts, chartName{ChartName: n, Line: line, Fence: fence})
 		}
 	}
 	for _, list := range doc.CautionLists() {
@@ -114,18 +125,26 @@ func (s *Site) evaluate() error {
 		}
 	}
 	charted := map[string]bool{}
+	draws := map[string]int32{}
 	for _, p := range s.Pages {
 		for _, b := range p.blocks {
 			s.chartsTotal += len(b.Show.Charts)
 			charted[b.ID] = charted[b.ID] || len(b.Show.Charts) > 0
+			draws[b.ID] += int32(len(b.Show.Charts))
 		}
 		for _, n := range p.charts {
 			s.chartsTotal++
 			charted[n.Block] = true
+			draws[n.Block]++
 		}
 	}
+	s.drawsLeft = make(map[string]*atomic.Int32, len(draws))
+	for id, n := range draws {
+		s.drawsLeft[id] = new(atomic.Int32)
+		s.drawsLeft[id].Store(n)
+	}
 	set, err := s.Config.catalog.Evaluate(blocks, calc.Options{SigFigs: s.Config.SigFigs,
-		Charted: func(id string) bool { return charted[id] }})
+		Charted: func(id string) bool { return charted[id] }, CurveBudget: curveBudget})
 	var errs inputerr.List
 	if err != nil {
 		errs = inputerr.From(err)
@@ -175,40 +194,63 @@ func (s *Site) evaluate() error {
 	return errs.Sorted()
 }
 
-// attach gives the nodes of a freshly parsed page what the evaluation
-// found: each block its results (found by the line of its fence), each
-// inline value its text and link (formatted from what it names), each
-// caution list the site's cautions. The page was checked when it was read,
-// so nothing here fails.
-func (s *Site) attach(p *Page, doc *render.Document) {
+// pageCharts are the charts drawn for a page: by the file line of the
+// block that shows them, and by chart fence.
+type pageCharts struct {
+	blocks map[int][]*render.DrawnChart
+	fences map[int][]*render.DrawnChart
+}
+
+// fill writes a hole of page p's prepared content: what the evaluation
+// found for each block (its results, found by the line of its fence, with
+// its charts and the links to the blocks it names), each inline value (its
+// text and link), each chart fence (its charts) and each caution list (the
+// site's cautions). The page was checked when it was read, so nothing here
+// fails.
+func (s *Site) fill(p *Page, charts pageCharts) func(w util.BufWriter, h render.Hole) {
 	byLine := make(map[int]*calc.Block, len(p.blocks))
 	for _, b := range p.blocks {
 		byLine[b.Line] = b
 	}
-	for _, n := range doc.CalcBlocks() {
-		b, ok := byLine[n.FenceLine+doc.LineOffset]
-		if !ok {
-			continue
-		}
-		n.Eval, _ = s.Calc.Lookup(b.ID)
-		n.Links = map[string]string{}
-		for _, v := range b.Values {
-			for _, id := range v.Deps() {
-				n.Links[id] = s.blockLink(p, id)
+	return func(w util.BufWriter, h render.Hole) {
+		switch h.Kind {
+		case render.HoleBlock:
+			b, ok := byLine[h.Line]
+			if !ok {
+				render.WriteBlockAt(w, nil, h.Source, nil, nil, h.Level)
+				return
 			}
+			e, _ := s.Calc.Lookup(b.ID)
+			links := map[string]string{}
+			for _, v := range b.Values {
+				for _, id := range v.Deps() {
+					links[id] = s.blockLink(p, id)
+				}
+			}
+			render.WriteBlockAt(w, e, h.Source, charts.blocks[h.Line], links, h.Level)
+		case render.HoleValue:
+			v, _ := s.formatRef(p, p.refs[h.Index])
+			render.WriteValue(w, h.Block, h.Result, v.Shown, v.Href)
+		case render.HoleChartRef:
+			render.WriteChartRef(w, charts.fences[h.Index])
+		case render.HoleCautions:
+			items := make([]render.CautionItem, len(s.cautions))
+			for i, it := range s.cautions {
+				it.Href = s.blockLink(p, it.Block)
+				items[i] = it
+			}
+			render.WriteCautionList(w, items)
 		}
 	}
-	for _, ref := range doc.ValueRefs() {
-		v, _ := s.formatRef(p, valueRef{Block: ref.Block, Result: ref.Result, Unit: ref.Unit,
-			Written: ref.Written, Problem: ref.Problem, Line: doc.Line(ref.Offset)})
-		ref.Shown, ref.Href = v.Shown, v.Href
+}
+
+// refText is the text of page p's ref-th inline value as its headings and
+// search entry show it: its value, or as written when it has none.
+func (s *Site) refText(p *Page, ref int) string {
+	if v, _ := s.formatRef(p, p.refs[ref]); v.Shown != "" {
+		return v.Shown
 	}
-	for _, list := range doc.CautionLists() {
-		for _, it := range s.cautions {
-			it.Href = s.blockLink(p, it.Block)
-			list.Items = append(list.Items, it)
-		}
-	}
+	return p.refs[ref].Written
 }
 
 // blockLink is the link from page p to a block's table.
@@ -453,10 +495,11 @@ func (s *Site) checkChartName(p *Page, n chartName) *inputerr.Error {
 	return nil
 }
 
-// drawCharts draws the charts the page's blocks and chart fences ask for
-// into the nodes of doc, and adds their data files,
-// "<page>.<block>.<chart>.csv" beside the page, to out.
-func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) error {
+// drawCharts draws the charts the page's blocks and chart fences ask for,
+// and adds their data files, "<page>.<block>.<chart>.csv" beside the page,
+// to out.
+func (s *Site) drawCharts(p *Page, out map[string][]byte) (pageCharts, error) {
+	drawn := pageCharts{blocks: map[int][]*render.DrawnChart{}, fences: map[int][]*render.DrawnChart{}}
 	draw := func(id, chart, prefix string, line int) (*render.DrawnChart, error) {
 		e, _ := s.Calc.Lookup(id)
 		c, err := e.Chart(chart)
@@ -470,34 +513,30 @@ func (s *Site) drawCharts(p *Page, doc *render.Document, out map[string][]byte) 
 		}
 		out[csvName] = d.CSV
 		s.chartDrawn()
+		// The block's last chart is drawn: its curves go (a chart drawn
+		// again, by a rebuild of the page, samples them anew).
+		if left := s.drawsLeft[id]; left != nil && left.Add(-1) == 0 {
+			e.DropCurves()
+		}
 		return d, nil
 	}
-	for i, n := range doc.CalcBlocks() {
-		if i >= len(p.blocks) {
-			break
-		}
-		b := p.blocks[i]
+	for _, b := range p.blocks {
 		for _, chart := range b.Show.Charts {
 			d, err := draw(b.ID, chart, "chart-", b.LineOf("show.charts"))
 			if err != nil {
-				return err
+				return drawn, err
 			}
-			n.Charts = append(n.Charts, d)
+			drawn.blocks[b.Line] = append(drawn.blocks[b.Line], d)
 		}
 	}
-	k := 0
-	for _, cr := range doc.ChartRefs() {
-		for range cr.Names {
-			n := p.charts[k]
-			k++
-			d, err := draw(n.Block, n.Chart, "chartref-", n.Line)
-			if err != nil {
-				return err
-			}
-			cr.Charts = append(cr.Charts, d)
+	for _, n := range p.charts {
+		d, err := draw(n.Block, n.Chart, "chartref-", n.Line)
+		if err != nil {
+			return drawn, err
 		}
+		drawn.fences[n.Fence] = append(drawn.fences[n.Fence], d)
 	}
-	return nil
+	return drawn, nil
 }
 
 // chartDataName is the output path of the data file of block id's chart

@@ -1,7 +1,9 @@
 package site
 
 import (
+	"fmt"
 	"path"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -92,6 +94,10 @@ type NavItem struct {
 	Open     bool   // the current page lies inside this folder
 	Folder   bool
 	Children []NavItem
+	// More, when above zero, makes the item a gap: that many entries of
+	// the folder are left out here, and URL leads to them (the folder's
+	// index, which lists them all, or else the nearest of them).
+	More int
 }
 
 // Link is a titled relative URL.
@@ -100,14 +106,33 @@ type Link struct {
 	URL   string
 }
 
+// navReach is how many entries either side of the current page (or of
+// the open folder) a folder's level of the navigation lists; a gap link
+// stands for the rest. A page's navigation so stays the same size however
+// big its folder grows; the folder's index page lists the folder whole.
+const navReach = 12
+
 // navFor returns the navigation as seen from page p: the top level, and
-// the contents of the folders that lead to p. Other folders stay closed, so
-// that a page's navigation grows with the depth of the site, not its size.
+// the contents of the folders that lead to p. Other folders stay closed,
+// and each level lists the entries near the way to p, so that a page's
+// navigation grows with the depth of the site, not its size.
 func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 	var items func(n *navNode) []NavItem
 	items = func(n *navNode) []NavItem {
+		whole := n.Page != nil && n.Page == p
+		shown := navShown(n, p, whole)
 		out := make([]NavItem, 0, len(n.Children))
-		for _, c := range n.Children {
+		for i := 0; i < len(n.Children); i++ {
+			if !shown[i] {
+				j := i
+				for j < len(n.Children) && !shown[j] {
+					j++
+				}
+				out = append(out, navGap(n, n.Children[i:j], i > 0 && shown[i-1], rootPrefix))
+				i = j - 1
+				continue
+			}
+			c := n.Children[i]
 			it := NavItem{Title: c.title(), Folder: c.isFolder()}
 			if c.Page != nil {
 				it.URL = href(rootPrefix + c.Page.Out)
@@ -118,7 +143,7 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 				it.URL = href(rootPrefix + first.Out)
 			}
 			if it.Folder {
-				it.Open = p.Dir() == c.Dir || strings.HasPrefix(p.Dir(), c.Dir+"/")
+				it.Open = c.holds(p)
 				if it.Open {
 					it.Children = items(c)
 				}
@@ -133,6 +158,69 @@ func navFor(root *navNode, p *Page, rootPrefix string) []NavItem {
 		top = append([]NavItem{home}, top...)
 	}
 	return top
+}
+
+// holds reports whether page p lies inside folder n, at any depth.
+func (n *navNode) holds(p *Page) bool {
+	return p.Dir() == n.Dir || strings.HasPrefix(p.Dir(), n.Dir+"/")
+}
+
+// navShown tells which entries of folder n the navigation of page p lists:
+// all of them on the folder's own index page (whole), else those within
+// navReach of the entry on the way to p (the first ones when none is),
+// and the subfolders, ways down, unless there are more of them than a
+// window holds. A gap of one entry would save nothing, so it is listed.
+func navShown(n *navNode, p *Page, whole bool) []bool {
+	shown := make([]bool, len(n.Children))
+	if whole || len(n.Children) <= 2*navReach+1 {
+		for i := range shown {
+			shown[i] = true
+		}
+		return shown
+	}
+	at := slices.IndexFunc(n.Children, func(c *navNode) bool {
+		return c.Page == p || (c.isFolder() && c.holds(p))
+	})
+	lo, hi := max(at, navReach)-navReach, max(at, navReach)+navReach
+	if lo <= 1 {
+		lo = 0
+	}
+	if hi >= len(n.Children)-2 {
+		hi = len(n.Children) - 1
+	}
+	folders := 0
+	for _, c := range n.Children {
+		if c.isFolder() {
+			folders++
+		}
+	}
+	for i, c := range n.Children {
+		shown[i] = (i >= lo && i <= hi) || (c.isFolder() && folders <= 2*navReach+1)
+	}
+	return shown
+}
+
+// navGap is the item that stands for the entries left out of folder n's
+// listing: a link to the folder's index, which lists them, or else to the
+// one of them nearest the listed ones (after says they follow them).
+func navGap(n *navNode, left []*navNode, after bool, rootPrefix string) NavItem {
+	target := n.Page
+	if target == nil {
+		near := left[len(left)-1]
+		if after {
+			near = left[0]
+		}
+		target = firstPage(near)
+	}
+	where := n.title()
+	if n.Dir == "" && n.Page == nil {
+		where = "the top level"
+	}
+	it := NavItem{More: len(left), Title: fmt.Sprintf("%d more in %s", len(left), where)}
+	if target != nil {
+		it.URL = href(rootPrefix + target.Out)
+	}
+	return it
 }
 
 // firstPage is the first page of a folder in reading order.

@@ -31,10 +31,9 @@ type Page struct {
 	// titleParts are the pieces of that heading, for showing the values it
 	// quotes once they are known.
 	titleParts []titlePart
-	// body is the Markdown after the front matter, which starts on file
-	// line lineOffset+1; the page is parsed from it again to render it.
-	body       []byte
-	lineOffset int
+	// body is the page's content, rendered when it was read, with holes
+	// for what evaluation finds (nil for a page that could not be read).
+	body *render.Prepared
 	// blocks are the page's calculation blocks, decoded, in order; refs its
 	// inline values and charts the lines of its chart fences.
 	blocks []*calc.Block
@@ -152,7 +151,6 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	}
 	p := &Page{File: file, Rel: rel, Out: PageOutput(file), Front: fm, frontLines: lines}
 	doc := md.Parse(body, offset)
-	p.body, p.lineOffset = body, offset
 	refs := 0
 	for _, part := range doc.TakeTitle() {
 		if part.Ref == nil {
@@ -164,6 +162,10 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 		refs++
 	}
 	docErr := readDoc(p, doc, cat)
+	doc.RelativeFromRoot(rootPrefix(p.Out))
+	if p.body, err = md.Prepare(doc); err != nil {
+		return p, &inputerr.Error{File: p.File, Msg: "rendering: " + err.Error()}
+	}
 	// Until the values are known, a reference in the title reads as written.
 	p.setHeading(func(i int) string { return p.refs[i].Written })
 	if fmErr != nil {
@@ -171,6 +173,10 @@ func loadPage(root, rel string, md *render.Markdown, cat *calc.Catalog) (*Page, 
 	}
 	return p, docErr
 }
+
+// rootPrefix is the way up from output page out to the site's root: "",
+// "../", ...
+func rootPrefix(out string) string { return strings.Repeat("../", strings.Count(out, "/")) }
 
 // titlePart is a piece of a page's level-1 heading: text, or (Ref >= 0)
 // the value of the page's inline value p.refs[Ref].

@@ -31,15 +31,14 @@ type searchEntry struct {
 	Words    string      `json:"w"` // the page's distinct words, lower case, by first use
 }
 
-// newSearchEntry makes page p's entry of the search index from its parsed
-// document.
-func newSearchEntry(p *Page, doc *render.Document) searchEntry {
-	text := doc.Text()
+// newSearchEntry makes page p's entry of the search index from its text
+// and headings.
+func newSearchEntry(p *Page, text string, headings []render.Heading) searchEntry {
 	e := searchEntry{Title: p.Title, URL: href(p.Out), Excerpt: p.Front.Description, Headings: [][2]string{}}
 	if e.Excerpt == "" {
 		e.Excerpt = excerpt(text, searchExcerpt)
 	}
-	for _, h := range doc.Headings(3) {
+	for _, h := range headings {
 		e.Headings = append(e.Headings, [2]string{h.Text, h.ID})
 	}
 	e.Words = distinctWords(p.Title+" "+text, searchWords)

@@ -1,0 +1,61 @@
+package main
+
+import (
+	"math"
+	"runtime"
+	"runtime/debug"
+	"runtime/metrics"
+)
+
+// The room the soft memory limit leaves above the live heap: a share of it,
+// so that the collector's work per page stays the same as a site grows, and
+// at least a floor, so that a small site is never held tight.
+const (
+	headroomShare = 0.6
+	headroomFloor = 48 << 20
+)
+
+// followLiveHeap keeps the soft memory limit at what the program holds, the
+// live heap and the runtime's own memory, plus headroom, set again after
+// every collection. A fixed limit either stays out of reach of a small
+// site or lies so close above a big one's live heap that the collector runs
+// without pause; one that follows the live data does neither.
+func followLiveHeap() {
+	samples := []metrics.Sample{
+		{Name: "/gc/heap/live:bytes"},
+		{Name: "/memory/classes/total:bytes"},
+		{Name: "/memory/classes/heap/objects:bytes"},
+		{Name: "/memory/classes/heap/unused:bytes"},
+		{Name: "/memory/classes/heap/free:bytes"},
+		{Name: "/memory/classes/heap/released:bytes"},
+	}
+	var afterCollection func(*gcSentinel)
+	afterCollection = func(*gcSentinel) {
+		metrics.Read(samples)
+		v := make([]uint64, len(samples))
+		for i, s := range samples {
+			if s.Value.Kind() != metrics.KindUint64 {
+				return // a runtime without the metric: leave the limit be
+			}
+			v[i] = s.Value.Uint64()
+		}
+		live, total := v[0], v[1]
+		heap := v[2] + v[3] + v[4] + v[5]
+		runtimeOwn := uint64(0)
+		if total > heap {
+			runtimeOwn = total - heap
+		}
+		headroom := max(uint64(float64(live)*headroomShare), headroomFloor)
+		debug.SetMemoryLimit(int64(min(live+runtimeOwn+headroom, math.MaxInt64)))
+		runtime.SetFinalizer(&gcSentinel{}, afterCollection)
+	}
+	runtime.SetFinalizer(&gcSentinel{}, afterCollection)
+}
+
+// gcSentinel is an object nothing keeps, whose finalizer runs after the
+// collection that finds it. It holds a pointer so that it is allocated on
+// its own, not packed with other small objects (whose finalizers may wait).
+type gcSentinel struct {
+	_ *byte
+	_ [16]byte
+}
