@@ -58,8 +58,8 @@ func (m *measuredText) metrics(fnt font.Font) *faceMetrics {
 			return f
 		}
 	}
-	// Measured at a size of one em per font unit, gonum's scale factor is
-	// exactly 1 and its lengths are the font units themselves.
+	// At a size of as many points as the font has units per em, gonum's
+	// scale factor is exactly 1 and its lengths are font units.
 	probe := m.Fonts.Lookup(fnt, 0)
 	upem := vg.Length(float64(probe.Face.UnitsPerEm()))
 	face := m.Fonts.Lookup(fnt, upem)
