@@ -62,15 +62,7 @@ func TestOutcomeStore(t *testing.T) {
 	store := &gobStore{m: map[string][]byte{}}
 	evaluate := func(srcs ...string) *Set {
 		t.Helper()
-		var blocks []*Block
-		for i, src := range srcs {
-			b, err := cat.ParseBlock("content/index.md", 1+20*i, src)
-			if err != nil {
-				t.Fatal(err)
-			}
-			blocks = append(blocks, b)
-		}
-		set, err := cat.Evaluate(blocks, Options{Outcomes: store})
+		set, err := cat.Evaluate(parseSources(t, cat, srcs...), Options{Outcomes: store})
 		if err != nil {
 			t.Fatal(err)
 		}

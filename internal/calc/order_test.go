@@ -54,6 +54,12 @@ func driveAndLoad(t *testing.T, honest bool) *Catalog {
 
 func evaluateSources(t *testing.T, cat *Catalog, srcs ...string) (*Set, error) {
 	t.Helper()
+	return cat.Evaluate(parseSources(t, cat, srcs...), Options{})
+}
+
+// parseSources parses block sources as blocks of one page, 20 lines apart.
+func parseSources(t *testing.T, cat *Catalog, srcs ...string) []*Block {
+	t.Helper()
 	var blocks []*Block
 	for i, src := range srcs {
 		b, err := cat.ParseBlock("content/index.md", 1+20*i, src)
@@ -62,7 +68,7 @@ func evaluateSources(t *testing.T, cat *Catalog, srcs ...string) (*Set, error) {
 		}
 		blocks = append(blocks, b)
 	}
-	return cat.Evaluate(blocks, Options{})
+	return blocks
 }
 
 const (

@@ -3,7 +3,6 @@ package site
 import (
 	"bytes"
 	"context"
-	"errors"
 	"fmt"
 	"io/fs"
 	"maps"
@@ -375,15 +374,7 @@ func TestIncrementalInterrupted(t *testing.T) {
 			cancel()
 		}
 	}})
-	if !errors.Is(err, ErrInterrupted) {
-		t.Fatalf("want ErrInterrupted, got %v", err)
-	}
-	if left, _ := filepath.Glob(filepath.Join(root, ".dist.building-*")); len(left) > 0 {
-		t.Errorf("the interrupted build left %v", left)
-	}
-	if treeHash(t, out) != before {
-		t.Error("the interrupted build changed the previous output")
-	}
+	checkInterrupted(t, err, root, out, before)
 	if _, err := Build(root, Options{}); err != nil {
 		t.Fatal(err)
 	}

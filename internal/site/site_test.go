@@ -472,6 +472,14 @@ func TestInterruptedBuildLeavesNothing(t *testing.T) {
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
 	_, err := Build(root, Options{Context: ctx})
+	checkInterrupted(t, err, root, out, before)
+}
+
+// checkInterrupted checks that a build stopped by its context says so,
+// leaves no staging folder behind and the previous output, whose tree hash
+// was before, as it was.
+func checkInterrupted(t *testing.T, err error, root, out, before string) {
+	t.Helper()
 	if !errors.Is(err, ErrInterrupted) {
 		t.Fatalf("want ErrInterrupted, got %v", err)
 	}
