@@ -11,7 +11,7 @@ import (
 // so that the collector's work per page stays the same as a site grows, and
 // at least a floor, so that a small site is never held tight.
 const (
-	headroomShare = 0.6
+	headroomShare = 0.5
 	headroomFloor = 48 << 20
 )
 
