@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"errors"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -59,9 +60,18 @@ func TestClaimReference(t *testing.T) {
 			name := filepath.Base(path) + "/" + row.Claim
 			dim := dimensionNamed(t, row.Dim)
 			c, err := ParseClaim("result", row.Claim, dim)
+			ambient := row.Ambient
+			if ambient == 0 {
+				ambient = DefaultAmbient
+			}
 			if row.Error != "" {
-				if row.SI != nil || row.OK != nil {
-					t.Fatalf("%s case %d: an error row takes no si or ok", path, i+1)
+				// An error row with a value: the claim parses, and is
+				// refused against that value (a vacuum claimed unmarked).
+				if row.OK != nil {
+					t.Fatalf("%s case %d: an error row takes no ok", path, i+1)
+				}
+				if err == nil && row.SI != nil {
+					err = errors.New(c.MarkFor(*row.SI, dim, ambient, false, 3))
 				}
 				if err == nil || !strings.Contains(err.Error(), row.Error) {
 					t.Errorf("%s: error %v, want one containing %q (%s)", name, err, row.Error, row.Note)
@@ -75,9 +85,9 @@ func TestClaimReference(t *testing.T) {
 				t.Errorf("%s: %v (%s)", name, err, row.Note)
 				continue
 			}
-			ambient := row.Ambient
-			if ambient == 0 {
-				ambient = DefaultAmbient
+			if why := c.MarkFor(*row.SI, dim, ambient, false, 3); why != "" {
+				t.Errorf("%s: refused (%s), want checked", name, why)
+				continue
 			}
 			r := c.Check(*row.SI, dim, ambient, 3)
 			if r.OK != *row.OK {

@@ -46,7 +46,7 @@ func TestStandardFlowClaim(t *testing.T) {
 		t.Fatal(err)
 	}
 	r := c.Check(1e-3, units.VolumeFlow, DefaultAmbient, 3)
-	want := `free_air_delivery: claim ">= 2.1 SCFM" holds: computed 2.15 SCFM (SCFM is standard air: dry, 100 kPa(a), 20 °C (the ISO 8778 standard reference atmosphere, from memory), read as free air at the ambient pressure, here 101 kPa(a))`
+	want := `free_air_delivery: claim ">= 2.1 SCFM" holds: computed 2.15 SCFM (SCFM is air at 100 kPa(a) and 20 °C, dry (the ISO 8778 standard reference atmosphere, from memory), read by mass as free air at the ambient pressure and 20 °C, here 101 kPa(a))`
 	if !r.OK || r.Message != want {
 		t.Errorf("ok %v, %q\nwant %q", r.OK, r.Message, want)
 	}

@@ -191,6 +191,22 @@ func (e *Evaluated) Failed() bool {
 // units, and so shows its results in them.
 func (e *Evaluated) Customary() bool { return e.customary }
 
+// HoldsVacuum reports whether the block works below ambient: its kind
+// holds vacuum, or the working pressure it is given is below its ambient
+// (a tube pumped down).
+func (e *Evaluated) HoldsVacuum() bool {
+	if e.Block.Kind.Has(HoldsVacuum) {
+		return true
+	}
+	key := e.Block.Kind.WorkingPressure.Key
+	for _, in := range e.Inputs {
+		if key != "" && in.Name == key {
+			return in.Value < e.Ambient
+		}
+	}
+	return false
+}
+
 // Evaluate checks every block of a site together (ids unique, references
 // known and acyclic), then evaluates them in dependency order. It goes on
 // past a problem as far as the rest does not depend on it: a block with a
@@ -508,8 +524,8 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		switch {
 		case err != nil:
 			fail("ambient_pressure", b.Ambient.Line, err.Error())
-		case q.Unit.Ref != units.Absolute:
-			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"14.7 psia\"", b.Ambient.Text))
+		case q.Unit.Ref != units.Absolute && q.Unit.Ref != units.Unsettled:
+			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q must be an absolute pressure, e.g. \"1 atm\", \"101.3 kPa(a)\", \"1013 hPa\", \"14.7 psia\"", b.Ambient.Text))
 		case q.Value < 1e3 || q.Value > 2e5:
 			fail("ambient_pressure", b.Ambient.Line, fmt.Sprintf("%q is not an atmosphere a workshop sees; allowed: 10 kPa(a) to 200 kPa(a)", b.Ambient.Text))
 		default:
@@ -624,6 +640,9 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 				continue
 			}
 			value = q.Absolute(e.Ambient)
+			if spec.Absolute && q.Unit.Ref == units.Unsettled {
+				value = q.Value
+			}
 			shownUnit = q.Unit.Symbol
 			if given {
 				systems[units.SystemOf(q.Unit.Symbol)]++
@@ -691,7 +710,17 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		if !ok {
 			return nil, inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: "the block computes no " + c.Result + " with these inputs" + meaningAside(b.Kind.resultMeaning(c.Result))}}
 		}
-		e.Claims = append(e.Claims, c.Check(r.Value, r.Dim, e.Ambient, opts.SigFigs))
+		fail := func(msg string) error {
+			return inputerr.List{{File: b.File, Line: c.Line, Key: "expect." + c.Result, Msg: msg}}
+		}
+		if why := c.MarkFor(r.Value, r.Dim, e.Ambient, b.Kind.Has(HoldsVacuum), opts.SigFigs); why != "" {
+			return nil, fail(why)
+		}
+		si, err := e.siIn(r, c.Unit)
+		if err != nil {
+			return nil, fail(fmt.Sprintf("%q: %v", c.Text, err))
+		}
+		e.Claims = append(e.Claims, c.Check(si, r.Dim, e.Ambient, opts.SigFigs))
 	}
 	if err := checkShownComputed(e); err != nil {
 		return nil, err
@@ -727,7 +756,13 @@ func checkShownComputed(e *Evaluated) inputerr.List {
 	b := e.Block
 	var errs inputerr.List
 	for _, o := range b.Show.Outputs {
-		_, found := e.Result(o.Name)
+		r, found := e.Result(o.Name)
+		if found {
+			if _, err := e.siIn(r, o.Unit); err != nil {
+				errs = append(errs, &inputerr.Error{File: b.File, Line: b.LineOf("show.outputs"), Key: "show.outputs",
+					Msg: fmt.Sprintf("%q: %v", o.Name+" "+o.Unit, err)})
+			}
+		}
 		if _, derived := b.derivation(o.Name); found || derived {
 			continue
 		}

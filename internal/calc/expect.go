@@ -137,6 +137,9 @@ func ParseClaim(result, text string, dim units.Dimension) (Claim, error) {
 	if err != nil {
 		return c, fmt.Errorf("%s; a claim reads like %s", err.Error(), claimForms)
 	}
+	if why := unsettled(q); why != "" {
+		return bad(why)
+	}
 	c.Unit = q.Unit.Symbol
 	c.Value, _ = strconv.ParseFloat(q.Number, 64)
 	switch {
@@ -207,6 +210,9 @@ func (c Claim) parseRange(lo, hi string, dim units.Dimension) (Claim, error) {
 	if err != nil {
 		return c, fmt.Errorf("lower end of the range: %s; a claim reads like %s", err.Error(), claimForms)
 	}
+	if why := unsettled(hq); why != "" {
+		return fail(why)
+	}
 	if lq.Unit.Symbol != hq.Unit.Symbol {
 		return fail(fmt.Sprintf("gives the ends of the range different units (%s, %s); write both in one unit, as in \"20 to 25 cm3\"",
 			lq.Unit.Symbol, hq.Unit.Symbol))
@@ -219,6 +225,15 @@ func (c Claim) parseRange(lo, hi string, dim units.Dimension) (Claim, error) {
 	}
 	c.Unit, c.Value, c.Tolerance = hq.Unit.Symbol, a+half, half
 	return c, nil
+}
+
+// unsettled says why a pressure claimed in a unit the trade reads either
+// way (plain hPa) cannot be checked, or "".
+func unsettled(q units.Quantity) string {
+	if q.Dim != units.Pressure || q.Unit.Ref != units.Unsettled {
+		return ""
+	}
+	return fmt.Sprintf("is in plain %s, which is read absolute in weather reports and gauge on some dials; write %s(a) or %s(g)", q.Unit.Symbol, q.Unit.Symbol, q.Unit.Symbol)
 }
 
 // parenthesized splits "(22.5 ± 0.5) cm3" into what the parentheses hold
@@ -300,18 +315,16 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 		return r
 	}
 	r.OK = c.holds(v)
-	computed := withUnit(units.Format(v, c.figuresToShow(v, sig, r.OK)), c.Unit)
+	figs := c.figuresToShow(v, sig, r.OK)
+	if dim == units.Pressure {
+		// As tables and inline values show it: a gauge vacuum gets the
+		// figures that keep it from hiding the absolute value.
+		figs = max(figs, display.PressureFigures(si, c.Unit, ambient, sig))
+	}
+	computed := withUnit(units.Format(v, figs), c.Unit)
 	r.Shown = computed
 	absolute, absOK := c.readAbsolute(si, dim, ambient)
 	switch {
-	case absolute != "" && absOK != r.OK && si < ambient && c.Value > 0:
-		// A vacuum claimed in a plain unit: "<= 5 mbar" holds as gauge for
-		// any vacuum, and is surely meant absolute. Neither reading is safe.
-		r.OK = false
-		g, _ := display.Value(si, dim, c.Unit+"(g)", ambient, sig)
-		a, _ := display.Value(si, dim, absolute, ambient, sig)
-		r.Message = fmt.Sprintf("%s: claim %q fails: the result is below ambient pressure (%s, %s), where a plain %s reads gauge but is often meant absolute, and the claim holds one way only; write %s or %s(g)",
-			c.Result, c.Text, a, g, c.Unit, absolute, c.Unit)
 	case r.OK:
 		r.Message = fmt.Sprintf("%s: claim %q holds: computed %s", c.Result, c.Text, computed)
 	case absOK:
@@ -320,11 +333,29 @@ func (c Claim) Check(si float64, dim units.Dimension, ambient float64, sig int) 
 	default:
 		r.Message = fmt.Sprintf("%s: claim %q fails%s: computed %s", c.Result, c.Text, c.band(sig), computed)
 	}
-	if u, err := units.LookupUnitAs(c.Unit, dim); err == nil && u.Standard {
+	if u, err := units.LookupUnitAs(c.Unit, dim); err == nil && u.Standard() {
 		at, _ := display.Value(ambient, units.Pressure, "kPa(a)", ambient, sig)
-		r.Message += fmt.Sprintf(" (%s is %s, here %s)", c.Unit, units.StandardAir, at)
+		r.Message += fmt.Sprintf(" (%s is %s, here %s)", c.Unit, u.ReferenceAir(), at)
 	}
 	return r
+}
+
+// MarkFor says why a claim about a vacuum result (one below ambient, or
+// any pressure result of a kind that holds vacuum) cannot be checked when
+// it is written in a plain pressure unit: plain units read gauge, but below
+// ambient "5 mbar" is what vacuum practice writes for an absolute pressure,
+// so the claim must say which it means. "" when the claim is marked or the
+// result is no vacuum.
+func (c Claim) MarkFor(si float64, dim units.Dimension, ambient float64, vacuum bool, sig int) string {
+	if dim != units.Pressure || !(vacuum || si < ambient) {
+		return ""
+	}
+	if u, err := units.LookupUnit(c.Unit); err != nil || u.Ref != units.Unmarked {
+		return ""
+	}
+	absolute := display.AbsoluteUnit(c.Unit)
+	return fmt.Sprintf("%q is in plain %s, which reads gauge, about a vacuum result (%s); write %s or %s(g)",
+		c.Text, c.Unit, display.PressurePair(si, c.Unit, ambient, sig), absolute, c.Unit)
 }
 
 // readAbsolute is, for a pressure claimed in a plain (gauge) unit that has

@@ -65,6 +65,11 @@ const (
 	// Relieves: a relief valve venting to ambient: it opens at ambient plus
 	// its cracking_pressure and relieves the blocks its protects input names.
 	Relieves
+	// Wall: a wall or lid that carries a pressure difference: the
+	// vacuum-vessel caution names it. One without a working pressure (a
+	// lid given only the difference across it) holds neither compressed
+	// air nor vacuum of its own.
+	Wall
 )
 
 // Has reports whether the kind plays every role in r.
@@ -110,9 +115,11 @@ type InputSpec struct {
 	Optional bool
 	Range    Range
 	Meaning  string // one line
-	// Absolute requires a pressure written absolute ("20 mbar(a)", "torr")
-	// or as a vacuum gauge's reading ("25 inHg vac"): for vacuum targets,
-	// where a gauge reading is a mistake.
+	// Absolute asks for an absolute pressure (a vacuum target): written
+	// absolute ("20 mbar(a)", "torr", plain "hPa") or as an explicit gauge
+	// or vacuum reading ("-900 mbar(g)", "27 inHg vac"), which the block's
+	// ambient converts; a plain unit, which reads gauge, is refused there
+	// as a likely slip.
 	Absolute bool
 	// BelowAmbient marks a pressure input that is below ambient in every
 	// use (a vacuum), where a bare inHg or mmHg could be meant absolute or
@@ -343,6 +350,10 @@ type Result struct {
 	Value float64 // SI; pressures absolute
 	Dim   units.Dimension
 	Trace Trace
+	// Gas is, for a volume flow of air, the state its volume is measured
+	// at (free air at the inlet, say), which normal flow units (Nl/min)
+	// convert from by mass; zero for a swept volume, which has none.
+	Gas units.GasState
 }
 
 // Trace is the working behind a result, as a reviewer would check it by hand.

@@ -62,7 +62,29 @@ func (e *Evaluated) Format(name, unit string) (string, error) {
 	if unit == "" {
 		unit = shown
 	}
+	if r, ok := e.Result(name); ok {
+		var err error
+		if si, err = e.siIn(r, unit); err != nil {
+			return "", fmt.Errorf("block %s: %s: %w", e.Block.ID, name, err)
+		}
+	}
 	return display.Value(si, dim, unit, e.Ambient, e.sigFigs)
+}
+
+// siIn is r's SI value as unit reads it: a volume flow shown in a unit of
+// standard or normal air (SCFM, Nl/min) is first taken by mass from the
+// state it is measured at to free air at the block's ambient, which the
+// unit then reads by mass at its reference state; a flow with no such
+// state (a swept volume) cannot be.
+func (e *Evaluated) siIn(r Result, unit string) (float64, error) {
+	u, err := units.LookupUnit(unit)
+	if err != nil || !u.Standard() || r.Dim != units.VolumeFlow {
+		return r.Value, nil
+	}
+	if r.Gas == (units.GasState{}) {
+		return 0, fmt.Errorf("the model gives %s no pressure and temperature its volume is measured at (a swept volume has none), and %s takes air by mass to its reference state; show it in L/min or m3/h", r.Name, unit)
+	}
+	return units.AsFreeAir(r.Value, r.Gas, e.Ambient), nil
 }
 
 // Quantity returns a result, or else a quantity input, of the block: its

@@ -8,6 +8,7 @@ package display
 
 import (
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/millrace-workshop/specgen/internal/units"
@@ -21,6 +22,7 @@ func Value(si float64, dim units.Dimension, unit string, ambient float64, sig in
 	}
 	if dim == units.Pressure {
 		unit = MarkedPressureUnit(si, unit, ambient)
+		sig = PressureFigures(si, unit, ambient, sig)
 	}
 	v, err := units.FromSI(si, dim, unit, ambient)
 	if err != nil {
@@ -45,7 +47,7 @@ func Value(si float64, dim units.Dimension, unit string, ambient float64, sig in
 // is ("-1000 mbar" for 9 mbar(a)).
 func MarkedPressureUnit(si float64, unit string, ambient float64) string {
 	u, err := units.LookupUnit(unit)
-	if err != nil || u.Ref != units.Unmarked {
+	if err != nil || (u.Ref != units.Unmarked && u.Ref != units.Unsettled) {
 		return unit
 	}
 	mark := "(g)"
@@ -64,10 +66,52 @@ func AbsoluteUnit(unit string) string {
 	if err != nil || u.Ref == units.Absolute {
 		return unit
 	}
-	if a, err := units.LookupUnit(strings.TrimSuffix(u.Symbol, "(g)") + "(a)"); err == nil {
+	if a, err := units.LookupUnit(markless(u.Symbol) + "(a)"); err == nil {
 		return a.Symbol
 	}
 	return "bar(a)"
+}
+
+// markless is a pressure unit's symbol without its gauge, absolute or
+// vacuum mark: "bar(g)" → "bar", "inHg vac" → "inHg".
+func markless(symbol string) string {
+	for _, mark := range []string{"(a)", "(g)", " vac"} {
+		symbol = strings.TrimSuffix(symbol, mark)
+	}
+	return symbol
+}
+
+// PressureFigures is how many significant figures an absolute pressure abs
+// (Pa) needs shown in unit: sig, but more for a gauge or vacuum reading
+// below ambient, which must not round past a perfect vacuum (-14.696
+// psi(g) shown as -14.7), nor so coarsely that it hides the absolute value
+// (6.11 mbar(a) read as -1010 mbar(g)): up to six figures. Tables, inline
+// values and claims all show a vacuum with these figures, so that they
+// never disagree.
+func PressureFigures(abs float64, unit string, ambient float64, sig int) int {
+	u, err := units.LookupUnit(unit)
+	if err != nil || u.Dim != units.Pressure || u.Ref == units.Absolute || abs >= ambient {
+		return sig
+	}
+	gauge := func(figs int) float64 {
+		v, err := units.FromSI(abs, units.Pressure, unit, ambient)
+		if err != nil {
+			return math.NaN()
+		}
+		shown, _ := strconv.ParseFloat(units.Format(v, figs), 64)
+		return shown * u.Factor // a vacuum unit's factor is negative
+	}
+	figs := sig
+	for more := sig + 1; more <= 8; more++ {
+		g := gauge(figs)
+		pastVacuum := g < -ambient
+		hides := math.Abs(g-(abs-ambient)) > abs/10
+		if !pastVacuum && !(hides && more <= 6) {
+			break
+		}
+		figs = more
+	}
+	return figs
 }
 
 // PressurePair shows an absolute pressure (Pa) both ways in unit's family,
@@ -80,6 +124,7 @@ func PressurePair(abs float64, unit string, ambient float64, sig int) string {
 		return s
 	}
 	base := pressureBase(unit)
+	// Value gives a gauge vacuum the figures it needs (PressureFigures).
 	g, errG := Value(abs, units.Pressure, base+"(g)", ambient, sig)
 	a, errA := Value(abs, units.Pressure, base+"(a)", ambient, sig)
 	if errG != nil || errA != nil {
@@ -87,13 +132,7 @@ func PressurePair(abs float64, unit string, ambient float64, sig int) string {
 		return s
 	}
 	if abs < ambient {
-		// A vacuum reads best absolute first, and its gauge value must not
-		// round past a perfect vacuum (-14.696 psi(g) shown as -14.7), nor
-		// so coarsely that it hides the absolute value beside it (6.11
-		// mbar(a) beside -1010 mbar(g)): up to six figures.
-		for more := sig + 1; more <= 8 && (roundsPastVacuum(g, ambient) || more <= 6 && gaugeHides(g, abs, ambient)); more++ {
-			g, _ = Value(abs, units.Pressure, base+"(g)", ambient, more)
-		}
+		// A vacuum reads best absolute first.
 		return a + " · " + g
 	}
 	// At high pressure the two can round alike ("1030 bar(g) · 1030 bar(a)"):
@@ -112,33 +151,13 @@ func sameNumber(x, y string) bool {
 	return nx == ny
 }
 
-// gaugeHides reports whether a shown gauge pressure is off the true one
-// by more than a tenth of the absolute pressure abs (Pa).
-func gaugeHides(shown string, abs, ambient float64) bool {
-	q, err := units.Parse(shown, units.Pressure)
-	if err != nil {
-		return false
-	}
-	return math.Abs(q.Value-(abs-ambient)) > abs/10
-}
-
-// roundsPastVacuum reports whether a shown gauge pressure is below minus
-// the ambient pressure, which no pressure can be.
-func roundsPastVacuum(shown string, ambient float64) bool {
-	q, err := units.Parse(shown, units.Pressure)
-	if err != nil {
-		return false
-	}
-	return q.Value < -ambient
-}
-
 // pressureBase is the unit of a pressure without its gauge or absolute mark.
 func pressureBase(unit string) string {
 	u, err := units.LookupUnit(unit)
 	if err != nil || u.Dim != units.Pressure {
 		return "bar"
 	}
-	s := strings.TrimSuffix(strings.TrimSuffix(u.Symbol, "(a)"), "(g)")
+	s := markless(u.Symbol)
 	switch s {
 	case "atm", "torr":
 		return "kPa"

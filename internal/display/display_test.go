@@ -24,14 +24,19 @@ func TestValueMarksPressures(t *testing.T) {
 		{905, "mbar", "9.05 mbar(a)"}, // a vacuum: the gauge figure would read -1004 mbar
 		{ambient, "kPa", "0 kPa(g)"},
 		{701325, "bar(a)", "7.01 bar(a)"},
-		{905, "mbar(g)", "-1000 mbar(g)"},
-		{905, "torr", "6.79 torr"}, // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
+		{905, "mbar(g)", "-1004 mbar(g)"}, // a gauge vacuum keeps the figures that show the absolute value
+		{905, "torr", "6.79 torr"},        // NIST SP 811 App. B: 1 torr = 133.3224 Pa (from memory)
 		// NIST SP 811 App. B: 1 psi = 6894.757 Pa; 101325 + 100·6894.757 = 790800.7 Pa.
 		{790800.7, "psi", "100 psig"},
 	} {
 		got, err := Value(c.si, units.Pressure, c.unit, ambient, 3)
 		if err != nil || got != c.want {
 			t.Errorf("Value(%g Pa, %s) = %q, %v; want %q", c.si, c.unit, got, err, c.want)
+		}
+		// An inline value and its table never disagree: the table's pair
+		// holds the same figure.
+		if pair := PressurePair(c.si, c.unit, ambient, 3); strings.HasSuffix(c.unit, "(g)") && !strings.Contains(pair, got) {
+			t.Errorf("%g Pa in %s: inline %q, table %q", c.si, c.unit, got, pair)
 		}
 	}
 }

@@ -34,6 +34,9 @@ const (
 	fastRim = 30.0 // m/s
 	// freezing: water in the air freezes below 0 °C.
 	freezing = 273.15 // K
+	// bucklingFactor is the factor on a wall's elastic collapse pressure,
+	// checked against the site's minimum for buckling.
+	bucklingFactor = "external_safety_factor"
 	// rodNear: a rod that passes the bottom of the cylinder wall closer than
 	// this is a WARNING: bearing play, a bent rod and the tolerances of the
 	// bore and the crank take up fractions of a millimetre (common practice).
@@ -44,9 +47,9 @@ const (
 var rules = []calc.Rule{
 	{ID: "no-delivery", Level: calc.Danger, Summary: "a compressor stage whose discharge pressure is at or above its dead-head pressure delivers nothing (raised by the compressor model)"},
 	{ID: "over-expansion", Level: calc.Notice, Summary: "an air motor whose air expands below ambient before the exhaust opens, so the end of each stroke takes work back (raised by the motor model)"},
-	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of: charred oil in the discharge line, burns", Check: hotAirRule},
+	{ID: "hot-air", Level: calc.Caution, Summary: "discharge air above 220 °C, the limit of compressor oils (DIN 51506 VDL), whatever the parts are made of, from a compressor stage or a vacuum pump at its target: charred oil in the discharge line, burns", Check: hotAirRule},
 	{ID: "hot-discharge", Level: calc.Danger, Summary: "discharge temperature within 10 K of, or above, the service limit or heat deflection temperature of the head or valve material", Check: hotDischarge, Supersedes: []string{"hot-air"}},
-	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
+	{ID: "low-safety-factor", Level: calc.Danger, Summary: "a safety factor below the site's minimum for its material, or for buckling (WARNING), or below 1.5 (DANGER)", Check: lowSafetyFactor},
 	{ID: "above-allowable", Level: calc.Danger, Summary: "a pressure part whose own working pressure is above its allowable pressure or, when lower, its code allowable pressure (WARNING), or above its burst pressure over 1.5 (DANGER)", Check: aboveAllowable},
 	{ID: "no-relief", Level: calc.Danger, Summary: "a compressor that can dead-head above the allowable pressure (or the lower code allowable pressure) of a pressure part on its page or linked to it, with no relief valve set below that pressure", Check: noRelief, Supersedes: []string{"relief-unnamed"}},
 	{ID: "relief-unnamed", Level: calc.Notice, Summary: "a compressor that delivers with no valve block naming it, or the receiver it fills, in protects: every compressor needs a relief valve", Check: reliefUnnamed},
@@ -56,9 +59,10 @@ var rules = []calc.Rule{
 	{ID: "stored-energy", Level: calc.Warning, Summary: "energy stored in a receiver above 1 kJ (NOTICE) or 10 kJ (WARNING)", Check: storedEnergy},
 	{ID: "printed-pressure-part", Level: calc.Warning, Summary: "a pressure part made of a 3D-printing plastic, including a printed head or cylinder that bolts thread into (nut_material)", Check: printedPart},
 	{ID: "fast-flywheel", Level: calc.Warning, Summary: "a flywheel whose rim runs above 30 m/s with no strength check (only a density given) or in a brittle material such as cast iron", Check: fastFlywheel},
-	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose air leaves the cylinder below 0 °C, where moisture freezes", Check: coldExhaust},
+	{ID: "cold-exhaust", Level: calc.Caution, Summary: "an air motor whose exhaust air (mass-averaged, after the blowdown) leaves below 0 °C, where moisture freezes; not when the expansion ends below ambient, which over-expansion covers", Check: coldExhaust},
+	{ID: "dead-centre", Level: calc.Caution, Summary: "an air motor that can stop where no inlet is open with leverage on the crank (a single cylinder at top dead centre or after cut-off): it will not start on air, and starts suddenly when moved", Check: deadCentre},
 	{ID: "rod-strikes-liner", Level: calc.Danger, Summary: "a connecting rod that touches the bottom edge of the cylinder wall as it swings (DANGER), or passes it closer than 1 mm (WARNING)", Check: rodStrikesLiner},
-	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode", Check: vacuumVessel},
+	{ID: "vacuum-vessel", Level: calc.Caution, Summary: "a vessel under vacuum: thin walls and glass can implode; on a vacuum pump, naming the wall and lid blocks on its page that check them, or saying none does; on a glass or acrylic wall or lid, the shield it needs", Check: vacuumVessel},
 	{ID: "motor-overload", Level: calc.Warning, Summary: "a drive whose load needs more power than the motor passes through the belt at its rating times its service factor (raised by the drive model)"},
 	{ID: "start-stall", Level: calc.Danger, Summary: "a drive whose motor starting torque at the crank is under 1.2 times (WARNING) or under (DANGER) the load's torque against the highest pressure it can start against (raised by the drive model)"},
 	{ID: "start-unchecked", Level: calc.Notice, Summary: "a drive without the motor's starting torque, or a load with no torque at start: the start is not checked (raised by the drive model)"},
@@ -123,9 +127,15 @@ func hotAirRule(s *calc.Set) []calc.Raised {
 		if !ok || t2.Value <= hotAir {
 			continue
 		}
+		what, remedy := "The air leaves the cylinder at %s", "split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler."
+		if e.Block.Kind.Has(calc.HoldsVacuum) {
+			// A vacuum pump compresses from the vessel to the atmosphere:
+			// the lower the vessel, the hotter the little air it moves.
+			what = "With the vessel at the target pressure the air leaves the cylinder at %s, and hotter still below it"
+			remedy = "pump down in two stages or to a higher target, guard the head, and keep the exhaust line metal and its silencer clear of the hot air."
+		}
 		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "discharge_temperature", Message: fmt.Sprintf(
-			"The air leaves the cylinder at %s, above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+
-				"split the pressure ratio over stages with intercooling or lower it, guard the hot parts, and run metal pipe rated for the temperature to an aftercooler.",
+			what+", above the %s that compressor oils are rated for (DIN 51506 VDL). Oil chars in the discharge valve and line, and the deposits can ignite; the head and pipe burn at a touch, and hoses and plastic fittings downstream soften: "+remedy,
 			e.Show(t2.Value, units.Temperature, "degC"), e.Show(hotAir, units.Temperature, "degC"))}})
 	}
 	return out
@@ -143,11 +153,15 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 				continue
 			}
 			m, hasMaterial := material(e, spec.FactorMaterial)
-			min := envOf(e.ModelInputs()).Safety.MinimumFactorMetal
-			basis := "metal"
-			if hasMaterial {
-				min = envOf(e.ModelInputs()).Safety.MinimumFor(m)
-				basis = m.Label
+			safety := envOf(e.ModelInputs()).Safety
+			min, basis := safety.MinimumFactorMetal, "metal"
+			remedy := "Thicken or strengthen the part, or lower the pressure."
+			switch {
+			case spec.Name == bucklingFactor:
+				min, basis = safety.MinimumFactorBuckling, "elastic buckling"
+				remedy = "Thicken the wall or add stiffening rings (a shorter length between them), or use a vessel rated for full vacuum."
+			case hasMaterial:
+				min, basis = safety.MinimumFor(m), m.Label
 			}
 			factor := units.Format(r.Value, e.SigFigs())
 			switch {
@@ -161,8 +175,8 @@ func lowSafetyFactor(s *calc.Set) []calc.Raised {
 					spec.Name, factor, units.Format(dangerFactor, 2))}})
 			case r.Value < min:
 				out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Warning, Result: spec.Name, Message: fmt.Sprintf(
-					"%s is %s, below the site's minimum of %s for %s. Thicken or strengthen the part, or lower the pressure.",
-					spec.Name, factor, units.Format(min, 2), basis)}})
+					"%s is %s, below the site's minimum of %s for %s. %s",
+					spec.Name, factor, units.Format(min, 2), basis, remedy)}})
 			}
 		}
 	}
@@ -479,10 +493,9 @@ func storedEnergy(s *calc.Set) []calc.Raised {
 func printedPart(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		isPart := false
-		if _, ok := e.Result("allowable_pressure"); ok {
-			isPart = true
-		}
+		// A rated pressure part, or a wall or lid under a pressure difference.
+		_, isPart := e.Result("allowable_pressure")
+		isPart = isPart || e.Block.Kind.Has(calc.Wall)
 		// nut_material is the part a head's bolts thread into: printed, its
 		// threads carry the whole head load.
 		for _, key := range []string{"material", "head_material", "valve_material", "nut_material"} {
@@ -526,13 +539,35 @@ func fastFlywheel(s *calc.Set) []calc.Raised {
 func coldExhaust(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		t, ok := e.Result("expansion_temperature")
-		if !ok || t.Value >= freezing {
+		t, ok := e.Result("exhaust_temperature")
+		pe, hasPe := e.Result("expansion_pressure")
+		te, _ := e.Result("expansion_temperature")
+		// Expanded below ambient, air flows in when the exhaust opens: the
+		// over-expansion NOTICE says what to change.
+		if !ok || t.Value >= freezing || (hasPe && pe.Value < e.Ambient) {
 			continue
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "expansion_temperature", Message: fmt.Sprintf(
-			"The air leaves the cylinder at about %s (polytropic expansion; warm cylinder walls make it less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air or cut off later in the stroke.",
-			e.Show(t.Value, units.Temperature, "degC"))}})
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "exhaust_temperature", Message: fmt.Sprintf(
+			"The exhaust air leaves at about %s, mass-averaged over the blowdown when the exhaust opens and the exhaust stroke (the air in the cylinder is %s at bottom dead centre; warm cylinder walls make both less cold). Moisture in it freezes in the exhaust port and silencer, where ice can stall the motor, and the metal there gets cold enough to hurt bare skin. Dry the supply air, or warm it; changing the cut-off warms the exhaust little.",
+			e.Show(t.Value, units.Temperature, "degC"), e.Show(te.Value, units.Temperature, "degC"))}})
+	}
+	return out
+}
+
+func deadCentre(s *calc.Set) []calc.Raised {
+	var out []calc.Raised
+	for _, e := range s.Blocks {
+		t, ok := e.Result("start_torque")
+		in := e.ModelInputs()
+		if !ok || t.Value > 0 || in == nil {
+			continue
+		}
+		where := "at some crank angles no inlet is open with leverage on the crank: the cut-off leaves gaps between the cylinders' admissions"
+		if in.Value("cylinders") == 1 {
+			where = "a single cylinder has dead centres: at top dead centre the rod gives no leverage, and from cut-off to bottom dead centre the inlet is shut"
+		}
+		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Result: "start_torque", Message: "The motor can stop where it will not start on air: " + where + ". " +
+			"Moved past that point by hand, it starts at once and with full torque: turn it by its load or a bar, never by the crank or belt, with guards in place, or shut and vent the supply first. A flywheel carries it past in running; more cylinders with overlapping admission let it start anywhere."}})
 	}
 	return out
 }
@@ -558,12 +593,56 @@ func rodStrikesLiner(s *calc.Set) []calc.Raised {
 func vacuumVessel(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	for _, e := range s.Blocks {
-		if !e.Block.Kind.Has(calc.HoldsVacuum) {
-			continue
+		switch {
+		case e.Block.Kind.Has(calc.Wall):
+			if note, ok := brittleLid(e); ok {
+				out = append(out, calc.Raised{Block: e, Note: note})
+			}
+		case e.Block.Kind.Has(calc.HoldsVacuum):
+			out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded. " + wallsChecked(s, e)}})
 		}
-		out = append(out, calc.Raised{Block: e, Note: calc.CautionNote{Level: calc.Caution, Message: "A vessel under vacuum carries the full atmosphere on its walls. Thin sheet, plastic boxes and glass can implode and throw fragments: use vessels rated for vacuum and keep glass shielded."}})
 	}
 	return out
+}
+
+// vacuumWall reports whether w is a wall or lid that may carry a vacuum: a
+// wall pumped below ambient, or a lid given only the difference across it.
+func vacuumWall(w *calc.Evaluated) bool {
+	return w.Block.Kind.Has(calc.Wall) && (w.HoldsVacuum() || w.Block.Kind.WorkingPressure.Key == "")
+}
+
+// wallsChecked names the wall and lid blocks on the page of the vacuum
+// block e, with their safety factors, or says that none checks them.
+func wallsChecked(s *calc.Set, e *calc.Evaluated) string {
+	var named []string
+	for _, w := range s.Blocks {
+		if w.Block.File != e.Block.File || !vacuumWall(w) {
+			continue
+		}
+		var factors []string
+		for _, spec := range w.Block.Kind.Results {
+			if r, ok := w.Result(spec.Name); ok && spec.Factor {
+				factors = append(factors, strings.ReplaceAll(spec.Name, "_", " ")+" "+units.Format(r.Value, w.SigFigs()))
+			}
+		}
+		named = append(named, fmt.Sprintf("%s (%s: %s)", w.Block.ID, w.Block.Kind.Name, strings.Join(factors, ", ")))
+	}
+	if len(named) == 0 {
+		return "No wall or lid block on this page checks them: give the vessel's walls a tube block with its pressure below ambient and its lids or windows plate blocks, or name the rating the vessel was bought to."
+	}
+	return "The walls and lids this page checks: " + strings.Join(named, "; ") + "."
+}
+
+// brittleLid is the implosion caution of a wall or lid of glass or a
+// brittle plastic (acrylic) that may carry a vacuum.
+func brittleLid(w *calc.Evaluated) (calc.CautionNote, bool) {
+	m, ok := material(w, "material")
+	if !ok || !m.Brittle || m.Class == Metal || !vacuumWall(w) {
+		return calc.CautionNote{}, false
+	}
+	return calc.CautionNote{Level: calc.Caution, Message: fmt.Sprintf(
+		"%s is %s, which breaks without warning at a scratch or a flaw: under vacuum it implodes and throws sharp fragments at speed. Shield it with a polycarbonate cover or a fine mesh guard, keep faces away from it while it is pumped down, let the air back in slowly, and replace it when it is scratched or crazed.",
+		w.Block.ID, m.Label)}, true
 }
 
 // StandardCaution is shown on every page with a pressure calculation.

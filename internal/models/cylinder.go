@@ -28,6 +28,8 @@ var cylinderSpecs = []calc.InputSpec{
 	{Name: "inlet_temperature", Dim: units.Temperature, Default: "20 degC", Range: calc.Between(minGasTemperature, maxGasTemperature), Meaning: "air temperature at the inlet"},
 	{Name: "polytropic_index", Dim: units.Dimensionless, Default: "1.3", Range: calc.Between(1, 1.67), Meaning: "n in p·V^n = const for compression and re-expansion, 1 (isothermal) to 1.67; 1.4 is adiabatic air"},
 	{Name: "mechanical_efficiency", Dim: units.Dimensionless, Default: "0.85", Range: calc.Between(0.01, 1), Meaning: "indicated power over shaft power, 0.01 to 1"},
+	{Name: "head_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the cylinder head, checked against the discharge temperature (specgen explain materials lists them)"},
+	{Name: "valve_material", Type: calc.Name, Optional: true, Choices: materialChoices, Resolve: resolveMaterial, Label: materialLabel, Suggest: suggestMaterial, Meaning: "material of the valve reeds or plates, checked against the discharge temperature"},
 	{Name: "reciprocating_mass", Dim: units.Mass, Optional: true, Range: positiveUpTo(1e3), Meaning: "piston, pin, rings and the small-end share of the rod, per cylinder; adds the inertia torque curves"},
 }
 

@@ -14,6 +14,7 @@ var kinds = []*calc.Kind{
 	&machineKind,
 	&motorKind,
 	&multistageKind,
+	&plateKind,
 	&tankKind,
 	&tubeKind,
 	&vacuumKind,

@@ -561,7 +561,7 @@ func (m machine) results(pt machinePoint, dead float64, cust bool) []calc.Result
 		calc.Result{Name: "mass_flow", Value: pt.mass, Dim: units.MassFlow, Trace: calc.Trace{
 			Formula:     "ṁ = η_v,1 · V_d,1 · N · p1 / (R · T1), R = 287.05 J/(kg K), the same through every stage",
 			Substituted: fmt.Sprintf("= %s · %s · %s · %s / (287.05 J/(kg K) · %s), against %s", num(first.efficiency(m.p1, pt.delivery[0])), display.TraceIn(cust, "cm3")(first.disp), rps, bara(m.p1), kelvin(m.t1), bara(m.pd))}},
-		calc.Result{Name: "free_air_delivery", Value: fad, Dim: units.VolumeFlow, Trace: calc.Trace{
+		calc.Result{Name: "free_air_delivery", Value: fad, Dim: units.VolumeFlow, Gas: units.GasState{Pressure: m.p1, Temperature: m.t1}, Trace: calc.Trace{
 			Formula:     "FAD = ṁ · R · T1 / p1, at the first stage's inlet",
 			Substituted: fmt.Sprintf("= %s · 287.05 J/(kg K) · %s / %s", gps(pt.mass), kelvin(m.t1), bara(m.p1))}},
 	)

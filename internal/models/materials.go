@@ -24,6 +24,7 @@ type MaterialClass string
 const (
 	Plastic MaterialClass = "plastic"
 	Metal   MaterialClass = "metal"
+	Glass   MaterialClass = "glass"
 )
 
 // Material is one engineering material with typical properties in SI.
@@ -357,8 +358,8 @@ func (m *Material) set(key string, v any) error {
 		if err := text(&c); err != nil {
 			return err
 		}
-		if c != string(Plastic) && c != string(Metal) {
-			return fmt.Errorf("%q is not a class; allowed: plastic, metal", c)
+		if c != string(Plastic) && c != string(Metal) && c != string(Glass) {
+			return fmt.Errorf("%q is not a class; allowed: plastic, metal, glass", c)
 		}
 		m.Class = MaterialClass(c)
 	case "aliases":
@@ -471,12 +472,17 @@ type Safety struct {
 	// MinimumFactorMetal applies to ductile metals; MinimumFactorBrittle to
 	// plastics and brittle materials, which fail with less warning.
 	MinimumFactorMetal, MinimumFactorBrittle float64
+	// MinimumFactorBuckling applies to the elastic collapse of a wall under
+	// outside pressure, whatever its material.
+	MinimumFactorBuckling float64
 }
 
 // DefaultSafety is common practice for small pressure parts built without
 // a code: 2.5 on the design strength of a ductile metal, 4 for plastics and
-// brittle materials (common practice; check your local rules).
-var DefaultSafety = Safety{MinimumFactorMetal: 2.5, MinimumFactorBrittle: 4}
+// brittle materials, and 3 on the elastic collapse pressure of a wall under
+// vacuum, which out-of-roundness lowers (common practice; check your local
+// rules).
+var DefaultSafety = Safety{MinimumFactorMetal: 2.5, MinimumFactorBrittle: 4, MinimumFactorBuckling: 3}
 
 // MinimumFor is the minimum safety factor for a part of material m.
 func (s Safety) MinimumFor(m Material) float64 {

@@ -17,12 +17,12 @@ func TestBuiltinMaterials(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	want := []string{"abs", "aluminium-6061-t6", "asa", "brass", "cast-iron", "pa12", "pc", "petg", "pla", "pmma", "s235", "stainless-304"}
+	want := []string{"abs", "aluminium-6061-t6", "asa", "brass", "cast-iron", "glass", "pa12", "pc", "petg", "pla", "pmma", "s235", "stainless-304"}
 	if got := mats.Names(); !slices.Equal(got, want) {
 		t.Fatalf("materials %v, want %v", got, want)
 	}
 	printable := []string{"abs", "asa", "pa12", "petg", "pla"} // the FDM and SLS plastics
-	brittle := []string{"cast-iron", "pla", "pmma"}
+	brittle := []string{"cast-iron", "glass", "pla", "pmma"}
 	for _, name := range want {
 		m, err := mats.Lookup(name)
 		if err != nil {
@@ -34,7 +34,7 @@ func TestBuiltinMaterials(t *testing.T) {
 		if !strings.Contains(m.Source, "typical, verify for your material") || len(m.Source) < 40 {
 			t.Errorf("%s: source %q does not name its basis and say it is typical", name, m.Source)
 		}
-		if m.Class != Plastic && m.Class != Metal {
+		if m.Class != Plastic && m.Class != Metal && m.Class != Glass {
 			t.Errorf("%s: class %q", name, m.Class)
 		}
 		for prop, v := range map[string]float64{"tensile_strength": m.TensileStrength, "elastic_modulus": m.ElasticModulus,

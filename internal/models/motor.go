@@ -29,12 +29,15 @@ var motorKind = calc.Kind{
 		{Name: "swept_volume", Dim: units.Volume, Unit: "cm3", Meaning: "volume one piston sweeps in one stroke"},
 		{Name: "expansion_pressure", Dim: units.Pressure, Unit: "bar", Meaning: "cylinder pressure at bottom dead centre, when the exhaust opens"},
 		{Name: "expansion_temperature", Dim: units.Temperature, Unit: "degC", Meaning: "air temperature at bottom dead centre, when the exhaust opens"},
+		{Name: "exhaust_temperature", Dim: units.Temperature, Unit: "degC", Meaning: "mass-averaged temperature of the air the cylinder exhausts: the blowdown to ambient and the exhaust stroke"},
 		{Name: "indicated_work", Dim: units.Energy, Unit: "J", Meaning: "gas work of all cylinders on the pistons in one revolution"},
 		{Name: "indicated_power", Dim: units.Power, Unit: "W", Meaning: "gas work per unit time, before friction"},
 		{Name: "mean_torque", Dim: units.Torque, Unit: "N m", Meaning: "indicated work per revolution over 2π: the mean torque the motor delivers, before friction"},
 		{Name: "air_consumption", Dim: units.VolumeFlow, Unit: "L/min", Meaning: "air admitted, as free air: its volume at ambient pressure and the supply air's own temperature"},
+		{Name: "air_mass_flow", Dim: units.MassFlow, Unit: "g/s", Meaning: "mass of air admitted per unit time"},
 		{Name: "efficiency", Dim: units.Dimensionless, Unit: "", Meaning: "indicated work over the work of the same air expanding isothermally from supply to ambient pressure"},
 		{Name: "energy_fluctuation", Dim: units.Energy, Unit: "J", Meaning: "swing of the energy a flywheel must store and give back against a constant load torque"},
+		{Name: "start_torque", Dim: units.Torque, Unit: "N m", Meaning: "least torque the supply air gives the crank from rest, over every crank angle, from the cylinders whose inlet is open there: 0 where the motor can stall (a single cylinder has dead centres)"},
 	},
 	Charts:   []string{"pv"},
 	Chart:    motorChart,
@@ -75,9 +78,35 @@ Air consumption
   temperature): V_free = (p_s·V1 − p_a·V0)/p_a, and
   air_consumption = z·V_free·N.
 
-Expansion temperature
-  T_e = T_s·(p_e/p_s)^((n−1)/n), the air at bottom dead centre. Below
-  0 °C the cold-exhaust caution says that moisture will freeze there.
+Air mass flow
+  ṁ = z·(p_s·V1 − p_a·V0)/(R·T_s)·N, R = 287.05 J/(kg K) (dry air).
+
+Expansion and exhaust temperature
+  T_e = T_s·(p_e/p_s)^((n−1)/n), the air at bottom dead centre. What leaves
+  the cylinder is colder still: when the exhaust opens the air blows down
+  to p_a, and what stays behind expands further, reversibly and
+  adiabatically (γ = 1.4), to T_r = T_e·(p_a/p_e)^((γ−1)/γ); the piston
+  then pushes that out. An energy balance on the cylinder (the air leaving
+  carries its enthalpy out of the internal energy left behind) gives the
+  mass-averaged temperature of all that leaves:
+  T_ex = ((p_e − p_a)·V2/γ + p_a·(V2 − V0)) / (p_e·V2/T_e − p_a·V0/T_r)
+  When the expansion ends below ambient, air at T_s flows in instead,
+  and what the piston pushes out is the mix,
+  T_ex = p_a / (p_e/T_e + (p_a − p_e)/(γ·T_s)).
+  Below 0 °C the cold-exhaust caution quotes T_ex: moisture will freeze in
+  the exhaust. It is not raised when the expansion ends below ambient,
+  where the over-expansion NOTICE says what to change.
+
+Start torque
+  From rest, a cylinder whose inlet is open (from top dead centre to the
+  cut-off angle θ_c, where x(θ_c) = x_c·s) is at p_s and pushes with
+  (p_s − p_a)·A·dx/dθ; one whose inlet is shut gives nothing. start_torque
+  is the least sum over every crank angle (sampled as the torque curve,
+  and at each top dead centre and just past each cut-off). A single
+  cylinder has dead centres: at top dead centre the rod gives no leverage,
+  and after cut-off the inlet is shut, so its start torque is 0 and the
+  dead-centre CAUTION says so. Several cylinders start from any angle only
+  if their inlets overlap enough.
 
 Efficiency
   η = W1 / (p_a·V_free·ln(p_s/p_a)), the indicated work over the work the
@@ -199,6 +228,7 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 			display.Gauge(c.ps-c.pa, in.Customary()), display.Number(in.Value("cutoff"), ""), display.Number(w1, "J"))}
 	}
 	ts := in.Value("supply_temperature")
+	te := ts * math.Pow(pe/c.ps, (c.n-1)/c.n)
 	steps := crankSteps(g.cylinders)
 	gas := phaseSum(sampleRevolution(steps, c.gasTorque), g.cylinders)
 	eLow, eHigh := excessEnergyRange(gas, meanLoad)
@@ -218,13 +248,16 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 	res := []calc.Result{
 		{Name: "swept_volume", Value: swept, Dim: units.Volume, Trace: calc.Trace{Formula: "Vs = π/4 · D² · s", Substituted: "= π/4 · (" + mm(g.bore) + ")² · " + mm(2*g.crankRadius)}},
 		{Name: "expansion_pressure", Value: pe, Dim: units.Pressure, Trace: calc.Trace{Formula: "p_e = p_s · (V1/V2)^n, V1 = Vc + x_c·Vs, V2 = Vc + Vs", Substituted: "= " + bara(c.ps) + " · (" + cm3(c.v1) + " / " + cm3(c.v2) + ")^" + num(c.n)}},
-		{Name: "expansion_temperature", Value: ts * math.Pow(pe/c.ps, (c.n-1)/c.n), Dim: units.Temperature, Trace: calc.Trace{Formula: "T_e = T_s · (p_e/p_s)^((n−1)/n)", Substituted: "= " + display.Number(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
+		{Name: "expansion_temperature", Value: te, Dim: units.Temperature, Trace: calc.Trace{Formula: "T_e = T_s · (p_e/p_s)^((n−1)/n)", Substituted: "= " + display.Number(ts, "K") + " · (" + bara(pe) + " / " + bara(c.ps) + ")^((" + num(c.n) + " − 1)/" + num(c.n) + ")"}},
+		exhaustTemperature(c, pe, te, ts, cust),
 		{Name: "indicated_work", Value: work, Dim: units.Energy, Trace: calc.Trace{Formula: "W = z · (p_s·(V1 − Vc) + " + expandTrace + " − p_a·Vs)", Substituted: "= " + num(z) + " · (" + wBar(c.ps) + " · " + wCm3(c.v1-c.v0) + " + " + display.NumberSig(expand, "J", wSig) + " − " + wBar(c.pa) + " · " + wCm3(swept) + ")"}},
 		{Name: "indicated_power", Value: work * revs, Dim: units.Power, Trace: calc.Trace{Formula: "P_i = W · N", Substituted: "= " + display.Number(work, "J") + " · " + rps}},
 		{Name: "mean_torque", Value: work / (2 * math.Pi), Dim: units.Torque, Trace: calc.Trace{Formula: "T_m = W / 2π", Substituted: "= " + display.Number(work, "J") + " / 2π"}},
-		{Name: "air_consumption", Value: z * free * revs, Dim: units.VolumeFlow, Trace: calc.Trace{Formula: "Q = z · (p_s·V1 − p_a·Vc) / p_a · N (free air at p_a and T_s)", Substituted: "= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1) + " − " + bara(c.pa) + " · " + cm3(c.v0) + ") / " + bara(c.pa) + " · " + rps}},
+		{Name: "air_consumption", Value: z * free * revs, Dim: units.VolumeFlow, Gas: units.GasState{Pressure: c.pa, Temperature: ts}, Trace: calc.Trace{Formula: "Q = z · (p_s·V1 − p_a·Vc) / p_a · N (free air at p_a and T_s)", Substituted: "= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1) + " − " + bara(c.pa) + " · " + cm3(c.v0) + ") / " + bara(c.pa) + " · " + rps}},
+		{Name: "air_mass_flow", Value: z * c.pa * free / (airGasConstant * ts) * revs, Dim: units.MassFlow, Trace: calc.Trace{Formula: "ṁ = z · (p_s·V1 − p_a·Vc) / (R·T_s) · N, R = 287.05 J/(kg K)", Substituted: "= " + num(z) + " · (" + bara(c.ps) + " · " + cm3(c.v1) + " − " + bara(c.pa) + " · " + cm3(c.v0) + ") / (287.05 J/(kg K) · " + display.Number(ts, "K") + ") · " + rps}},
 		{Name: "efficiency", Value: w1 / wIso, Dim: units.Dimensionless, Trace: calc.Trace{Formula: "η = W1 / (p_a · V_free · ln(p_s/p_a))", Substituted: "= " + display.Number(w1, "J") + " / (" + bara(c.pa) + " · " + cm3(free) + " · ln(" + bara(c.ps) + " / " + bara(c.pa) + "))"}},
 		{Name: "energy_fluctuation", Value: eHigh - eLow, Dim: units.Energy, Trace: calc.Trace{Formula: "ΔE = max − min of ∫(T_m − T(θ)) dθ", Substituted: "= " + display.Number(eHigh, "J") + " − (" + display.Number(eLow, "J") + ")"}},
+		startTorque(c, m, steps, cust),
 	}
 	out := &calc.Outcome{Results: res}
 	if in.WantCurves() {
@@ -236,6 +269,91 @@ func evaluateMotor(in *calc.Inputs) (*calc.Outcome, error) {
 				"A later cut-off gives more work for a little more air.", bara(pe), bara(c.pa))})
 	}
 	return out, nil
+}
+
+// exhaustGamma is the ratio of specific heats of air for the blowdown
+// (ideal diatomic gas).
+const exhaustGamma = 1.4
+
+// exhaustTemperature is the mass-averaged temperature of the air the
+// cylinder exhausts: blown down from (p_e, T_e) to ambient at bottom dead
+// centre, the rest pushed out by the piston; or, when the expansion ends
+// below ambient, the mix with the air at T_s that flows in.
+func exhaustTemperature(c motorCycle, pe, te, ts float64, cust bool) calc.Result {
+	g := exhaustGamma
+	bara, cm3, kelvin := display.TraceIn(cust, "bar(a)"), display.TraceIn(cust, "cm3"), func(t float64) string { return display.Number(t, "K") }
+	if pe < c.pa {
+		return calc.Result{Name: "exhaust_temperature", Value: c.pa / (pe/te + (c.pa-pe)/(g*ts)), Dim: units.Temperature, Trace: calc.Trace{
+			Formula:     "T_ex = p_a / (p_e/T_e + (p_a − p_e)/(γ·T_s)), γ = 1.4 (expansion below ambient: air at T_s flows in, and the mix is pushed out)",
+			Substituted: fmt.Sprintf("= %s / (%s/%s + (%s − %s)/(1.4 · %s))", bara(c.pa), bara(pe), kelvin(te), bara(c.pa), bara(pe), kelvin(ts))}}
+	}
+	tr := te * math.Pow(c.pa/pe, (g-1)/g)
+	// The blowdown's share is a small difference when p_e is near p_a.
+	pSig := display.TraceInSig(cust, "bar(a)", display.FiguresFor(pe, pe-c.pa))
+	return calc.Result{Name: "exhaust_temperature", Value: ((pe-c.pa)*c.v2/g + c.pa*(c.v2-c.v0)) / (pe*c.v2/te - c.pa*c.v0/tr), Dim: units.Temperature, Trace: calc.Trace{
+		Formula: "T_ex = ((p_e − p_a)·V2/γ + p_a·(V2 − Vc)) / (p_e·V2/T_e − p_a·Vc/T_r), T_r = T_e·(p_a/p_e)^((γ−1)/γ), γ = 1.4 (blowdown to ambient, then the exhaust stroke)",
+		Substituted: fmt.Sprintf("= ((%s − %s) · %s/1.4 + %s · (%s − %s)) / (%s · %s/%s − %s · %s/%s)",
+			pSig(pe), pSig(c.pa), cm3(c.v2), bara(c.pa), cm3(c.v2), cm3(c.v0), bara(pe), cm3(c.v2), kelvin(te), bara(c.pa), cm3(c.v0), kelvin(tr))}}
+}
+
+// cutoffAngle is the crank angle from top dead centre at which the piston
+// has travelled the cut-off fraction of its stroke.
+func cutoffAngle(c motorCycle, cutoff float64) float64 {
+	x := cutoff * 2 * c.crank.r
+	lo, hi := 0.0, math.Pi
+	for range 100 {
+		mid := (lo + hi) / 2
+		if c.crank.position(mid) < x {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// startTorque is the least torque the supply air gives the crank from rest
+// over every crank angle: the cylinders whose inlet is open there push at
+// the supply pressure, the others give nothing.
+func startTorque(c motorCycle, m motorInput, steps int, cust bool) calc.Result {
+	z := m.geom.cylinders
+	thetaC := cutoffAngle(c, m.cutoff)
+	phase := 2 * math.Pi / float64(z)
+	// at sums the pushes at crank angle theta; skip is a cylinder whose
+	// inlet has just closed there.
+	at := func(theta float64, skip int) float64 {
+		sum := 0.0
+		for k := range z {
+			local := math.Mod(theta-float64(k)*phase+4*math.Pi, 2*math.Pi)
+			if k != skip && local < thetaC {
+				sum += (c.ps - c.pa) * c.area * c.crank.velocity(local)
+			}
+		}
+		return sum
+	}
+	least, where := math.Inf(1), 0.0
+	try := func(theta float64, skip int) {
+		if t := at(theta, skip); t < least {
+			least, where = t, theta
+		}
+	}
+	for i := range steps {
+		try(2*math.Pi*float64(i)/float64(steps), -1)
+	}
+	for k := range z {
+		try(float64(k)*phase, -1)
+		try(float64(k)*phase+thetaC, k)
+	}
+	deg := func(rad float64) string { return display.Number(math.Mod(rad, 2*math.Pi)*180/math.Pi, "°") }
+	why := fmt.Sprintf("least at θ = %s, cut-off at θ_c = %s, %s", deg(where), deg(thetaC), phasing(z))
+	if least <= 0 && z == 1 {
+		why = fmt.Sprintf("0 at top dead centre, where the rod gives no leverage, and from cut-off at θ_c = %s to bottom dead centre, where the inlet is shut: a single cylinder has dead centres", deg(thetaC))
+	} else if least <= 0 {
+		why = fmt.Sprintf("0 at θ = %s, where no inlet is open with leverage on the crank (cut-off at θ_c = %s, %s)", deg(where), deg(thetaC), phasing(z))
+	}
+	return calc.Result{Name: "start_torque", Value: math.Max(least, 0), Dim: units.Torque, Trace: calc.Trace{
+		Formula:     "T_start = min over θ of Σ (p_s − p_a)·A·dx/dθ over the cylinders whose inlet is open (0 ≤ θ_k < θ_c)",
+		Substituted: fmt.Sprintf("= %s (%s)", display.TraceIn(cust, "N m")(math.Max(least, 0)), why)}}
 }
 
 // motorCurves returns the indicator diagram of one cylinder, closed at top

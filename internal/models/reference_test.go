@@ -73,6 +73,7 @@ var references = map[string]referenceFunc{
 	"machine":    machineReference,
 	"motor":      motorReference,
 	"multistage": multistageReference,
+	"plate":      plateReference,
 	"tank":       tankReference,
 	"tube":       tubeReference,
 	"valve":      valveReference,

@@ -105,9 +105,9 @@ func TestTubeInputErrors(t *testing.T) {
 			[]string{"wall thickness 10 mm", "inner radius 10 mm"}},
 		{"wall past the radius from outer", map[string]any{"wall_thickness": nil, "outer_diameter": "50 mm"}, "outer_diameter",
 			[]string{"wall thickness 15 mm", "inner radius 10 mm"}},
-		{"zero gauge", map[string]any{"pressure": "0 bar"}, "pressure", []string{"0 bar(g)", "internal pressure only"}},
-		{"vacuum", map[string]any{"pressure": "-0.5 bar"}, "pressure", []string{"-0.5 bar(g)", "external pressure"}},
-		{"absolute below ambient", map[string]any{"pressure": "0.9 bar(a)"}, "pressure", []string{"bar(g)", "not above ambient"}},
+		{"zero gauge", map[string]any{"pressure": "0 bar"}, "pressure", []string{"0 bar(g) is ambient", "no pressure difference"}},
+		{"length under internal pressure", map[string]any{"length": "300 mm"}, "length", []string{"outside pressure", "10 bar(g) (11.01 bar(a))", "leave length out"}},
+		{"pneumatic test under vacuum", map[string]any{"pressure": "-0.5 bar", "volume": "10 L"}, "volume", []string{"internal pressure", "leave volume out"}},
 		{"unknown material", map[string]any{"material": "stainles-304"}, "material", []string{`did you mean "stainless-304"?`}},
 		{"missing material", map[string]any{"material": nil}, "material", []string{"missing"}},
 	} {

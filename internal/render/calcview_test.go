@@ -317,6 +317,39 @@ func testCatalog(t testing.TB) *calc.Catalog {
 	return c
 }
 
+// TestVacuumTargetReadings: a vacuum target written as a gauge or vacuum
+// reading, or in plain hPa, is converted with the block's ambient and its
+// input row shows both readings. At 1 atm: -900 mbar(g) is 101 325 − 90 000
+// = 11 325 Pa(a) = 113 mbar(a); 27 inHg vac is 101 325 − 27 · 3386.389
+// = 9892.5 Pa(a) = 2.92 inHg(a) (NIST SP 811 App. B: 1 inHg = 3386.389 Pa);
+// plain hPa on an absolute input reads absolute: 100 hPa = 100 hPa(a).
+func TestVacuumTargetReadings(t *testing.T) {
+	for _, c := range []struct{ target, want string }{
+		{"-900 mbar(g)", "113 mbar(a) · −900 mbar(g)"},
+		{"27 inHg vac", "2.92 inHg(a) · −27.0 inHg(g)"},
+		{"100 hPa", "100 hPa(a) · −913 hPa(g)"},
+	} {
+		e := evaluated(t, `id = "pot"
+kind = "vacuum"
+bore = "50 mm"
+stroke = "40 mm"
+rod_length = "100 mm"
+clearance_ratio = 0.02
+speed = "1200 rpm"
+vessel_volume = "20 L"
+target_pressure = "`+c.target+`"
+`)
+		var buf bytes.Buffer
+		w := bufio.NewWriter(&buf)
+		writeInputs(w, e, nil)
+		_ = w.Flush()
+		// The table keeps each number with its unit by a no-break space.
+		if !strings.Contains(strings.ReplaceAll(buf.String(), "\u00a0", " "), esc(c.want)) {
+			t.Errorf("target %q: input table lacks %q:\n%s", c.target, c.want, buf.String())
+		}
+	}
+}
+
 // TestResultGroups: the results [show] names come first in its order, then
 // any result a caution marks or a claim fails (the stage block fails its
 // swept_volume claim and, with no relief valve named, its max_pressure

@@ -2,13 +2,13 @@ package render
 
 import (
 	"bytes"
-	"encoding/csv"
 	"errors"
 	"fmt"
 	"image/color"
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -82,52 +82,185 @@ type DrawnChart struct {
 // chart, which the caller does. id makes the SVGs' element ids unique in
 // the page; csvHref is the link to the chart's data.
 func DrawChart(c *calc.Chart, id, csvHref string) (*DrawnChart, error) {
-	var out bytes.Buffer
-	fmt.Fprintf(&out, `<figure class="sg-chart" id="%s">`+"\n", esc(id))
+	sc := chartScratches.Get().(*chartScratch)
+	defer chartScratches.Put(sc)
+	sc.buf = append(sc.buf[:0], `<figure class="sg-chart" id="`...)
+	sc.buf = appendEscaped(sc.buf, id)
+	sc.buf = append(sc.buf, "\">\n"...)
+	series := convertSeries(c)
 	for _, l := range []chartLayout{wideChart, narrowChart} {
-		svg, err := drawSVG(c, l, id+strings.TrimPrefix(l.class, "sg-chart"))
-		if err != nil {
+		if err := appendSVG(sc, c, series, l, id+strings.TrimPrefix(l.class, "sg-chart")); err != nil {
 			return nil, err
 		}
-		out.Write(svg)
 	}
-	out.WriteString("<figcaption>")
-	fmt.Fprintf(&out, `<span class="sg-chart-title">%s</span>`, esc(c.Title))
-	out.WriteString(`<span class="sg-chart-key">`)
+	out := sc.buf
+	out = append(out, `<figcaption><span class="sg-chart-title">`...)
+	out = appendEscaped(out, c.Title)
+	out = append(out, `</span><span class="sg-chart-key">`...)
 	for _, panel := range c.Panels {
 		for j, s := range panel.Series {
-			fmt.Fprintf(&out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s%d" stroke-width="2"%s d="M1 5H29"/></svg>%s</span>`,
-				j%len(seriesColors), dashAttr(s.Style), esc(s.Name))
+			out = append(out, `<span class="sg-key"><svg width="30" height="10" aria-hidden="true"><path class="s`...)
+			out = strconv.AppendInt(out, int64(j%len(seriesColors)), 10)
+			out = append(out, `" stroke-width="2"`...)
+			out = appendDashAttr(out, s.Style)
+			out = append(out, ` d="M1 5H29"/></svg>`...)
+			out = appendEscaped(out, s.Name)
+			out = append(out, `</span>`...)
 		}
 	}
-	out.WriteString(`</span>`)
+	out = append(out, `</span>`...)
 	if csvHref != "" {
 		// The hidden words tell a list of the page's links which chart's data it is.
-		fmt.Fprintf(&out, ` <a class="sg-chart-data" href="%s">data (CSV)<span class="sg-sr"> of %s</span></a>`, esc(csvHref), esc(c.Title))
+		out = append(out, ` <a class="sg-chart-data" href="`...)
+		out = appendEscaped(out, csvHref)
+		out = append(out, `">data (CSV)<span class="sg-sr"> of `...)
+		out = appendEscaped(out, c.Title)
+		out = append(out, `</span></a>`...)
 	}
-	out.WriteString("</figcaption>\n</figure>\n")
-	data, err := chartCSV(c)
+	out = append(out, "</figcaption>\n</figure>\n"...)
+	sc.buf = out
+	d := &DrawnChart{Name: c.Name, HTML: string(out)}
+	// The CSV is written in the same buffer and copied out at its size.
+	out, err := appendChartCSV(out[:0], c)
 	if err != nil {
 		return nil, err
 	}
-	return &DrawnChart{Name: c.Name, HTML: out.String(), CSV: data}, nil
+	sc.buf = out
+	d.CSV = bytes.Clone(out)
+	return d, nil
 }
 
-// drawSVG draws a chart in one layout as an inline SVG named by its title
-// and description; id makes its element ids unique in the page.
-func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
-	xs := func(v []float64) ([]float64, error) { return toUnit(v, c.X, c.Ambient) }
+// chartScratch is the room a chart is drawn in, reused from chart to
+// chart: its HTML and CSV are some tens of kilobytes each, and growing
+// fresh buffers to that size for every chart was a good part of the bytes
+// a build allocated.
+type chartScratch struct {
+	buf    []byte     // the HTML, then the CSV
+	points []vg.Point // a line's points on the canvas
+}
+
+var chartScratches = sync.Pool{New: func() any {
+	return &chartScratch{buf: make([]byte, 0, 64<<10), points: make([]vg.Point, 0, maxPoints+1)}
+}}
+
+// seriesPoints is one series of a chart as it is drawn: in display units,
+// log10 taken on a log panel, thinned, with the range of all its points.
+// err is the problem its data has, reported where the drawing reaches it.
+type seriesPoints struct {
+	pts                    plotter.XYs
+	xMin, xMax, yMin, yMax float64
+	err                    error
+}
+
+// convertSeries converts every series of a chart once for both drawings.
+func convertSeries(c *calc.Chart) [][]seriesPoints {
+	out := make([][]seriesPoints, len(c.Panels))
+	for i, panel := range c.Panels {
+		out[i] = make([]seriesPoints, len(panel.Series))
+		for j, s := range panel.Series {
+			out[i][j] = convertOne(s, c.X, panel.Y, c.Ambient)
+		}
+	}
+	return out
+}
+
+func convertOne(s calc.Series, xAxis, yAxis calc.Axis, ambient float64) seriesPoints {
+	sp := seriesPoints{xMin: math.Inf(1), xMax: math.Inf(-1), yMin: math.Inf(1), yMax: math.Inf(-1)}
+	xConv, err := unitConversion(xAxis, ambient)
+	if err == nil {
+		err = checkFinite(s.X, xAxis, xConv)
+	}
+	if err != nil {
+		sp.err = err
+		return sp
+	}
+	yConv, err := unitConversion(yAxis, ambient)
+	if err == nil {
+		err = checkFinite(s.Y, yAxis, yConv)
+	}
+	if err != nil {
+		sp.err = err
+		return sp
+	}
+	n := len(s.X)
+	if n != len(s.Y) || n < 2 {
+		sp.err = fmt.Errorf("series %q has %d x and %d y values", s.Name, n, len(s.Y))
+		return sp
+	}
+	step := thinStep(n)
+	pts := make(plotter.XYs, 0, (n-1)/step+2)
+	var last plotter.XY
+	for k := range n {
+		x, y := xConv.apply(s.X[k]), yConv.apply(s.Y[k])
+		if yAxis.Log {
+			if y <= 0 {
+				sp.err = fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
+				return sp
+			}
+			y = math.Log10(y)
+		}
+		last = plotter.XY{X: x, Y: y}
+		if k%step == 0 {
+			pts = append(pts, last)
+		}
+		// On finite values the built-in min and max agree with math.Min
+		// and math.Max, -0 included. Only an axis without a unit passes
+		// on values that are not; the drawing refuses them.
+		sp.xMin, sp.xMax = min(sp.xMin, x), max(sp.xMax, x)
+		sp.yMin, sp.yMax = min(sp.yMin, y), max(sp.yMax, y)
+	}
+	if pts[len(pts)-1] != last {
+		pts = append(pts, last)
+	}
+	// What plotter.NewLine refuses.
+	for _, pt := range pts {
+		if err := plotter.CheckFloats(pt.X, pt.Y); err != nil {
+			sp.err = err
+			return sp
+		}
+	}
+	sp.pts = pts
+	return sp
+}
+
+// appendSVG draws a chart in one layout as an inline SVG named by its
+// title and description, appended to sc.buf; id makes its element ids
+// unique in the page.
+func appendSVG(sc *chartScratch, c *calc.Chart, series [][]seriesPoints, l chartLayout, id string) error {
+	out := sc.buf
 	noteRoom := 0.0
 	if c.EdgeNote != "" {
 		noteRoom = float64(l.labelFont) + 4
 	}
 	height := l.panelHeight*float64(len(c.Panels)) + 40 + noteRoom
-	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses)
+	tid, did := id+"-title", id+"-desc"
+	out = append(out, `<svg class="sg-chart-svg `...)
+	out = append(out, l.class...)
+	out = append(out, `" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 `...)
+	out = strconv.AppendFloat(out, l.width, 'f', -1, 64)
+	out = append(out, ' ')
+	out = strconv.AppendFloat(out, height, 'f', -1, 64)
+	out = append(out, `" role="img" aria-labelledby="`...)
+	out = appendEscaped(out, tid)
+	out = append(out, ' ')
+	out = appendEscaped(out, did)
+	out = append(out, "\">\n<title id=\""...)
+	out = appendEscaped(out, tid)
+	out = append(out, `">`...)
+	out = appendEscaped(out, c.Title)
+	out = append(out, "</title>\n<desc id=\""...)
+	out = appendEscaped(out, did)
+	out = append(out, `">`...)
+	out = appendEscaped(out, c.Desc)
+	out = append(out, "</desc>\n"...)
+	canvas := newSVGCanvas(vg.Length(l.width), vg.Length(height), colorClasses, out)
+	canvas.points = sc.points
+	defer func() { sc.buf, sc.points = canvas.buf, canvas.points }()
 	plots := make([][]*plot.Plot, len(c.Panels))
 	xMin, xMax := math.Inf(1), math.Inf(-1)
 	for i, panel := range c.Panels {
 		p := plot.New()
-		useMemoText(p)
+		useMeasuredText(p)
 		p.BackgroundColor = nil
 		styleAxis(&p.X, l)
 		styleAxis(&p.Y, l)
@@ -138,58 +271,39 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		}
 		if i == len(c.Panels)-1 {
 			p.X.Label.Text = axisLabel(c.X)
-			p.X.Tick.Marker = xTicks
+			p.X.Tick.Marker = &onceTicks{Ticker: xTicks}
 		} else {
-			p.X.Tick.Marker = unlabelled{xTicks}
+			p.X.Tick.Marker = &onceTicks{Ticker: unlabelled{xTicks}}
 		}
-		p.Y.Tick.Marker = niceTicks{most: l.ticks}
+		var yTicks plot.Ticker = niceTicks{most: l.ticks}
 		// A log panel plots log10 of its values on a linear axis, ticked
 		// as decades: gonum's log scale places the axis title's box at
 		// the log of the arithmetic middle and left a blank band above
 		// the plot.
 		if panel.Y.Log {
-			p.Y.Tick.Marker = exponentTicks{most: l.ticks}
+			yTicks = exponentTicks{most: l.ticks}
 		}
+		p.Y.Tick.Marker = &onceTicks{Ticker: yTicks}
 		grid := plotter.NewGrid()
 		grid.Vertical.Color, grid.Horizontal.Color = gridColor, gridColor
 		grid.Vertical.Width, grid.Horizontal.Width = 0.5, 0.5
-		p.Add(grid)
+		p.Add(chartGrid{grid})
 		words := &labelLayer{}
 		yMin, yMax := math.Inf(1), math.Inf(-1)
 		for j, s := range panel.Series {
-			x, err := xs(s.X)
-			if err != nil {
-				return nil, err
+			sp := series[i][j]
+			if sp.err != nil {
+				return sp.err
 			}
-			y, err := toUnit(s.Y, panel.Y, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			if len(x) != len(y) || len(x) < 2 {
-				return nil, fmt.Errorf("series %q has %d x and %d y values", s.Name, len(x), len(y))
-			}
-			pts := make(plotter.XYs, len(x))
-			for k := range x {
-				if panel.Y.Log {
-					if y[k] <= 0 {
-						return nil, fmt.Errorf("series %q has a value at or below zero on a log scale", s.Name)
-					}
-					y[k] = math.Log10(y[k])
-				}
-				pts[k] = plotter.XY{X: x[k], Y: y[k]}
-				xMin, xMax = math.Min(xMin, x[k]), math.Max(xMax, x[k])
-				yMin, yMax = math.Min(yMin, y[k]), math.Max(yMax, y[k])
-			}
-			line, err := plotter.NewLine(thin(pts))
-			if err != nil {
-				return nil, err
-			}
+			xMin, xMax = math.Min(xMin, sp.xMin), math.Max(xMax, sp.xMax)
+			yMin, yMax = math.Min(yMin, sp.yMin), math.Max(yMax, sp.yMax)
+			line := &plotter.Line{XYs: sp.pts, LineStyle: plotter.DefaultLineStyle}
 			line.Color = seriesColors[j%len(seriesColors)]
 			line.Width = 1.8
 			line.Dashes = dashes(s.Style)
-			p.Add(plainLine{line})
+			p.Add(newPlainLine(line))
 			if err := addLabels(words, s.Labels, c, panel, l); err != nil {
-				return nil, err
+				return err
 			}
 		}
 		// Magnitudes start from zero, so that slopes are not exaggerated.
@@ -199,7 +313,7 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		}
 		for _, m := range panel.Marks {
 			if err := addMark(p, words, m, c, panel, yMin, yMax, l); err != nil {
-				return nil, err
+				return err
 			}
 		}
 		if len(words.sets) > 0 {
@@ -222,33 +336,27 @@ func drawSVG(c *calc.Chart, l chartLayout, id string) ([]byte, error) {
 		dc.FillText(style, vg.Point{X: vg.Length(l.width) - tiles.PadRight, Y: vg.Length(height) - 4}, c.EdgeNote)
 	}
 	if canvas.nonFinite {
-		return nil, errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
+		return errors.New("its values span too narrow or too wide a range to draw; check the block's inputs for a size or speed far from any real machine's")
 	}
-	var out bytes.Buffer
-	tid, did := id+"-title", id+"-desc"
-	fmt.Fprintf(&out, `<svg class="sg-chart-svg %s" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %s %s" role="img" aria-labelledby="%s %s">`+"\n",
-		l.class, strconv.FormatFloat(l.width, 'f', -1, 64), strconv.FormatFloat(height, 'f', -1, 64), esc(tid), esc(did))
-	fmt.Fprintf(&out, "<title id=\"%s\">%s</title>\n<desc id=\"%s\">%s</desc>\n", esc(tid), esc(c.Title), esc(did), esc(c.Desc))
-	out.Write(canvas.buf.Bytes())
-	out.WriteString("</svg>\n")
-	return out.Bytes(), nil
+	canvas.buf = append(canvas.buf, "</svg>\n"...)
+	return nil
 }
 
-func dashAttr(s calc.LineStyle) string {
+// appendDashAttr appends the stroke-dasharray attribute of a line style,
+// or nothing for a solid line.
+func appendDashAttr(b []byte, s calc.LineStyle) []byte {
 	d := dashes(s)
 	if len(d) == 0 {
-		return ""
+		return b
 	}
-	var b bytes.Buffer
-	b.WriteString(` stroke-dasharray="`)
+	b = append(b, ` stroke-dasharray="`...)
 	for i, v := range d {
 		if i > 0 {
-			b.WriteByte(' ')
+			b = append(b, ' ')
 		}
-		writeNum(&b, float64(v))
+		b = appendNum(b, float64(v))
 	}
-	b.WriteByte('"')
-	return b.String()
+	return append(b, '"')
 }
 
 func styleAxis(a *plot.Axis, l chartLayout) {
@@ -447,50 +555,73 @@ func (degreeTicks) Ticks(min, max float64) []plot.Tick {
 	return ticks
 }
 
-// toUnit converts SI values to an axis's display unit. Every unit specgen
-// knows is an affine function of SI (a factor, and an offset for degC,
-// degF and gauge pressures), so two conversions fix it for all values.
+// toUnit converts SI values to an axis's display unit.
 func toUnit(si []float64, a calc.Axis, ambient float64) ([]float64, error) {
+	conv, err := unitConversion(a, ambient)
+	if err != nil {
+		return nil, err
+	}
 	out := make([]float64, len(si))
-	if a.Unit == "" {
+	if conv.identity {
 		copy(out, si)
 		return out, nil
 	}
-	at0, err := units.FromSI(0, a.Dim, a.Unit, ambient)
-	if err != nil {
-		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
-	}
-	at1, err := units.FromSI(1, a.Dim, a.Unit, ambient)
-	if err != nil {
-		return nil, fmt.Errorf("axis %q: %w", a.Label, err)
-	}
 	for i, v := range si {
-		out[i] = at0 + (at1-at0)*v
+		out[i] = conv.apply(v)
 		if math.IsNaN(out[i]) || math.IsInf(out[i], 0) {
-			return nil, fmt.Errorf("axis %q: a value is not a finite number", a.Label)
+			return nil, nonFiniteError(a)
 		}
 	}
 	return out, nil
+}
+
+// affine converts SI values to a display unit. Every unit specgen knows is
+// an affine function of SI (a factor, and an offset for degC, degF and
+// gauge pressures), so two conversions fix it for all values. An axis
+// without a unit shows its values as they are.
+type affine struct {
+	at0, slope float64
+	identity   bool
+}
+
+func (f affine) apply(v float64) float64 {
+	if f.identity {
+		return v
+	}
+	return f.at0 + f.slope*v
+}
+
+// unitConversion returns the conversion to an axis's display unit.
+func unitConversion(a calc.Axis, ambient float64) (affine, error) {
+	if a.Unit == "" {
+		return affine{identity: true}, nil
+	}
+	at0, err := units.FromSI(0, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return affine{}, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
+	at1, err := units.FromSI(1, a.Dim, a.Unit, ambient)
+	if err != nil {
+		return affine{}, fmt.Errorf("axis %q: %w", a.Label, err)
+	}
+	return affine{at0: at0, slope: at1 - at0}, nil
+}
+
+func nonFiniteError(a calc.Axis) error {
+	return fmt.Errorf("axis %q: a value is not a finite number", a.Label)
 }
 
 // maxPoints is the most points a drawn line keeps: more are invisible at
 // chart size and cost time and bytes. The CSV keeps them all.
 const maxPoints = 361
 
-// thin keeps every k-th point of a line, and its last point.
-func thin(pts plotter.XYs) plotter.XYs {
-	if len(pts) <= maxPoints {
-		return pts
+// thinStep is the k of a line of n points that keeps every k-th point,
+// and its last, to draw at most maxPoints.
+func thinStep(n int) int {
+	if n <= maxPoints {
+		return 1
 	}
-	step := (len(pts) + maxPoints - 2) / (maxPoints - 1)
-	out := make(plotter.XYs, 0, maxPoints+1)
-	for i := 0; i < len(pts); i += step {
-		out = append(out, pts[i])
-	}
-	if last := pts[len(pts)-1]; out[len(out)-1] != last {
-		out = append(out, last)
-	}
-	return out
+	return (n + maxPoints - 2) / (maxPoints - 1)
 }
 
 func addLabels(words *labelLayer, labels []calc.PointLabel, c *calc.Chart, panel calc.Panel, l chartLayout) error {
@@ -574,7 +705,7 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 		return err
 	}
 	line.Color, line.Width, line.Dashes = markColor, 1, []vg.Length{2, 2}
-	p.Add(line)
+	p.Add(&markLine{plainLine: newPlainLine(line)})
 	if m.Label == "" {
 		return nil
 	}
@@ -590,14 +721,23 @@ func addMark(p *plot.Plot, words *labelLayer, m calc.Mark, c *calc.Chart, panel 
 	return nil
 }
 
-// plainLine is a line without glyph boxes: gonum/plot asks a line for a
-// box around every point, many times while it lays out the axes, and that
-// was most of a chart's cost. A line needs no room beyond its data range.
-type plainLine struct{ line *plotter.Line }
+// onceTicks remembers the ticks of an axis: gonum/plot asks an axis for
+// its ticks a dozen times while it lays out and draws a chart, always for
+// the same range once the range is set. The ticks it returns are only
+// read.
+type onceTicks struct {
+	plot.Ticker
+	lo, hi float64
+	ticks  []plot.Tick
+	done   bool
+}
 
-func (l plainLine) Plot(c draw.Canvas, p *plot.Plot) { l.line.Plot(c, p) }
-
-func (l plainLine) DataRange() (xmin, xmax, ymin, ymax float64) { return l.line.DataRange() }
+func (o *onceTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !o.done || lo != o.lo || hi != o.hi {
+		o.ticks, o.lo, o.hi, o.done = o.Ticker.Ticks(lo, hi), lo, hi, true
+	}
+	return o.ticks
+}
 
 // unlabelled keeps a ticker's ticks and blanks their labels, for the x
 // axes of upper panels. A blank, not an empty, label keeps a tick major,
@@ -614,39 +754,14 @@ func (u unlabelled) Ticks(min, max float64) []plot.Tick {
 	return ticks
 }
 
-// csvNumber writes a value to 8 significant figures, as data for other
-// programs rather than for reading.
-func csvNumber(v float64) string { return strconv.FormatFloat(v, 'g', 8, 64) }
-
-// chartCSV writes every series as rows of series, x, x unit, y, y unit.
-func chartCSV(c *calc.Chart) ([]byte, error) {
-	var buf bytes.Buffer
-	w := csv.NewWriter(&buf)
-	_ = w.Write([]string{"series", c.X.Label, "x unit", "y", "y unit"})
-	for _, panel := range c.Panels {
-		for _, s := range panel.Series {
-			x, err := toUnit(s.X, c.X, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			y, err := toUnit(s.Y, panel.Y, c.Ambient)
-			if err != nil {
-				return nil, err
-			}
-			for i := range x {
-				_ = w.Write([]string{s.Name, csvNumber(x[i]), c.X.Unit, csvNumber(y[i]), panel.Y.Unit})
-			}
-		}
-	}
-	w.Flush()
-	return buf.Bytes(), w.Error()
-}
-
 // labelLayer draws a panel's words (process names, mark labels) after its
 // lines, moving a word that would overlap one already drawn a line
 // towards the middle of the panel: close stages, or two limits at one
 // temperature, printed over each other.
-type labelLayer struct{ sets []*plotter.Labels }
+type labelLayer struct {
+	sets  []*plotter.Labels
+	boxes boxMemo
+}
 
 func (l *labelLayer) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
@@ -705,9 +820,11 @@ func (l *labelLayer) DataRange() (xmin, xmax, ymin, ymax float64) {
 }
 
 func (l *labelLayer) GlyphBoxes(p *plot.Plot) []plot.GlyphBox {
-	var out []plot.GlyphBox
-	for _, set := range l.sets {
-		out = append(out, set.GlyphBoxes(p)...)
-	}
-	return out
+	return l.boxes.get(p, func() []plot.GlyphBox {
+		var out []plot.GlyphBox
+		for _, set := range l.sets {
+			out = append(out, set.GlyphBoxes(p)...)
+		}
+		return out
+	})
 }

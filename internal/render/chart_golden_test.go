@@ -13,7 +13,7 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
-var update = flag.Bool("update", false, "rewrite the golden SVGs in testdata/charts")
+var update = flag.Bool("update", false, "rewrite the golden SVGs and CSV in testdata/charts")
 
 // chartCase is one file of testdata/charts: blocks, and the chart of one
 // of them to draw.
@@ -71,29 +71,19 @@ func (c chartCase) chart(t testing.TB) *calc.Chart {
 	return ch
 }
 
-// TestGoldenCharts draws one chart of each type and compares the SVG
-// with testdata/charts/*.svg byte for byte; -update accepts new output
-// (look at it in a browser before you commit it).
+// TestGoldenCharts draws one chart of each type and compares the SVGs
+// and the CSV with testdata/charts/*.svg.html and *.csv byte for byte;
+// -update accepts new output (look at it in a browser before you commit
+// it).
 func TestGoldenCharts(t *testing.T) {
 	kinds := map[string]bool{}
 	for _, c := range chartCases(t) {
 		t.Run(c.Name, func(t *testing.T) {
 			d := c.draw(t)
-			golden := filepath.Join("..", "..", "testdata", "charts", c.Name+".svg.html")
-			if *update {
-				if err := os.WriteFile(golden, []byte(d.HTML), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run with -update to write it)", err)
-			}
-			if !bytes.Equal([]byte(d.HTML), want) {
-				t.Errorf("chart differs from %s (run go test ./internal/render -run GoldenCharts -update to accept)", golden)
-			}
-			if again := c.draw(t); again.HTML != d.HTML {
+			base := filepath.Join("..", "..", "testdata", "charts", c.Name)
+			compareGolden(t, base+".svg.html", []byte(d.HTML))
+			compareGolden(t, base+".csv", d.CSV)
+			if again := c.draw(t); again.HTML != d.HTML || !bytes.Equal(again.CSV, d.CSV) {
 				t.Error("two drawings of one chart differ")
 			}
 		})
@@ -105,6 +95,25 @@ func TestGoldenCharts(t *testing.T) {
 		if len(k.Charts) > 0 && !kinds[name] {
 			t.Errorf("kind %s draws charts but has no golden chart", name)
 		}
+	}
+}
+
+// compareGolden compares got with the golden file, or rewrites the file
+// with -update.
+func compareGolden(t *testing.T, golden string, got []byte) {
+	t.Helper()
+	if *update {
+		if err := os.WriteFile(golden, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Fatalf("%v (run with -update to write it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("output differs from %s (run go test ./internal/render -run GoldenCharts -update to accept)", golden)
 	}
 }
 

@@ -1,7 +1,10 @@
 package render
 
 import (
+	"math"
+	"strings"
 	"sync"
+	"sync/atomic"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -9,45 +12,134 @@ import (
 	"gonum.org/v1/plot/vg"
 )
 
-// memoText is gonum/plot's plain text handler with its measurements
-// remembered: laying out a chart measures the same tick labels many times,
-// and measuring dominated the cost of a chart. Measurements depend only on
-// the text and the font, so sharing them between charts is safe.
-type memoText struct {
-	text.Handler
-	extents sync.Map // font.Font → font.Extents
-	boxes   sync.Map // boxKey → [3]vg.Length
+// measuredText is gonum/plot's plain text handler with its measurements
+// kept: laying out a chart measures the same tick labels many times, and
+// gonum walks a string's glyphs and kerning pairs through the font's
+// tables every time. A string's width in font units does not depend on
+// the size, so one table per face serves every size; the sizes are
+// scaled with gonum's own arithmetic, so every length is the same to the
+// last bit and so is the drawing.
+type measuredText struct {
+	text.Plain
+	mu    sync.Mutex                     // held to add a face
+	faces atomic.Pointer[[]*faceMetrics] // read without a lock
 }
 
-type boxKey struct {
-	txt string
-	fnt font.Font
+// faceMetrics are one face's measurements in font units.
+type faceMetrics struct {
+	font                    font.Font // as asked for, Size 0
+	face                    font.Face // as the font cache gives it, Size upem
+	upem                    vg.Length
+	ascent, descent, height vg.Length
+	mu                      sync.RWMutex
+	widths                  map[string]vg.Length
 }
 
-var chartText = &memoText{Handler: plot.DefaultTextHandler}
+var chartText = &measuredText{Plain: plot.DefaultTextHandler.(text.Plain)}
 
-func (m *memoText) Extents(fnt font.Font) font.Extents {
-	if e, ok := m.extents.Load(fnt); ok {
-		return e.(font.Extents)
+// metrics returns the measurements of fnt's face, whatever its size.
+func (m *measuredText) metrics(fnt font.Font) *faceMetrics {
+	fnt.Size = 0
+	if faces := m.faces.Load(); faces != nil {
+		for _, f := range *faces {
+			if f.font == fnt {
+				return f
+			}
+		}
 	}
-	e := m.Handler.Extents(fnt)
-	m.extents.Store(fnt, e)
-	return e
-}
-
-func (m *memoText) Box(txt string, fnt font.Font) (width, height, depth vg.Length) {
-	key := boxKey{txt, fnt}
-	if b, ok := m.boxes.Load(key); ok {
-		v := b.([3]vg.Length)
-		return v[0], v[1], v[2]
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	var faces []*faceMetrics
+	if old := m.faces.Load(); old != nil {
+		faces = *old
 	}
-	width, height, depth = m.Handler.Box(txt, fnt)
-	m.boxes.Store(key, [3]vg.Length{width, height, depth})
-	return width, height, depth
+	for _, f := range faces {
+		if f.font == fnt {
+			return f
+		}
+	}
+	// Measured at a size of one em per font unit, gonum's scale factor is
+	// exactly 1 and its lengths are the font units themselves.
+	probe := m.Fonts.Lookup(fnt, 0)
+	upem := vg.Length(float64(probe.Face.UnitsPerEm()))
+	face := m.Fonts.Lookup(fnt, upem)
+	e := face.Extents()
+	f := &faceMetrics{font: fnt, face: face, upem: upem, ascent: e.Ascent, descent: e.Descent, height: e.Height,
+		widths: map[string]vg.Length{}}
+	grown := append(append(make([]*faceMetrics, 0, len(faces)+1), faces...), f)
+	m.faces.Store(&grown)
+	return f
 }
 
-// useMemoText points every text style of a plot at the memoising handler.
-func useMemoText(p *plot.Plot) {
+// scale is gonum's factor from font units to points at size.
+func (f *faceMetrics) scale(size vg.Length) vg.Length { return size / f.upem }
+
+// width returns the width of a line of text at size.
+func (f *faceMetrics) width(txt string, size vg.Length) vg.Length {
+	f.mu.RLock()
+	w, ok := f.widths[txt]
+	f.mu.RUnlock()
+	if !ok {
+		w = f.face.Width(txt)
+		f.mu.Lock()
+		f.widths[txt] = w
+		f.mu.Unlock()
+	}
+	return w * f.scale(size)
+}
+
+func (m *measuredText) Extents(fnt font.Font) font.Extents {
+	f := m.metrics(fnt)
+	s := f.scale(fnt.Size)
+	return font.Extents{Ascent: f.ascent * s, Descent: f.descent * s, Height: f.height * s}
+}
+
+func (m *measuredText) Box(txt string, fnt font.Font) (width, height, depth vg.Length) {
+	f := m.metrics(fnt)
+	s := f.scale(fnt.Size)
+	return f.width(txt, fnt.Size), f.ascent * s, f.descent * s
+}
+
+// Lines splits text into lines as text.Plain does; the one line of a
+// chart's words needs no search for line breaks.
+func (m *measuredText) Lines(txt string) []string {
+	if strings.IndexByte(txt, '\n') < 0 {
+		return []string{txt}
+	}
+	return m.Plain.Lines(txt)
+}
+
+// Draw places text as text.Plain does, with the widths it has measured.
+func (m *measuredText) Draw(c vg.Canvas, txt string, sty text.Style, pt vg.Point) {
+	txt = strings.TrimRight(txt, "\n")
+	if len(txt) == 0 {
+		return
+	}
+	f := m.metrics(sty.Font)
+	face := f.face
+	face.Font.Size = sty.Font.Size
+	c.SetColor(sty.Color)
+	if sty.Rotation != 0 {
+		c.Push()
+		c.Rotate(sty.Rotation)
+	}
+	sin64, cos64 := math.Sincos(sty.Rotation)
+	cos, sin := vg.Length(cos64), vg.Length(sin64)
+	pt.X, pt.Y = pt.Y*sin+pt.X*cos, pt.Y*cos-pt.X*sin
+	lines := m.Lines(txt)
+	pt.Y += sty.Height(txt)*vg.Length(sty.YAlign) - f.ascent*f.scale(sty.Font.Size)
+	for i, line := range lines {
+		xoffs := vg.Length(sty.XAlign) * f.width(line, sty.Font.Size)
+		n := vg.Length(len(lines) - i)
+		c.FillString(face, pt.Add(vg.Point{X: xoffs, Y: n * sty.Font.Size}), line)
+	}
+	if sty.Rotation != 0 {
+		c.Pop()
+	}
+}
+
+// useMeasuredText points every text style of a plot at the measuring handler.
+func useMeasuredText(p *plot.Plot) {
 	p.TextHandler = chartText
 	p.Title.TextStyle.Handler = chartText
 	p.Legend.TextStyle.Handler = chartText

@@ -320,17 +320,26 @@ func (s *Site) pageCautions(p *Page) template.HTML {
 }
 
 // pressureCalcs reports whether any of the blocks ids is a calculation of
-// a kind that involves pressure, and whether all of those are vacuum
-// calculations.
+// a kind that involves pressure, and whether those are vacuum calculations:
+// at least one holds vacuum and none holds compressed air (a lid given only
+// the pressure difference across it is neither).
 func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
-	allVacuum = true
+	vacuum, compressed := false, false
 	for _, id := range ids {
-		if e, ok := s.Calc.Lookup(id); ok && e.Block.Kind.Has(calc.HoldsPressure) {
-			any = true
-			allVacuum = allVacuum && e.Block.Kind.Has(calc.HoldsVacuum)
+		e, ok := s.Calc.Lookup(id)
+		if !ok || !e.Block.Kind.Has(calc.HoldsPressure) {
+			continue
+		}
+		any = true
+		switch {
+		case e.HoldsVacuum():
+			vacuum = true
+		case e.Block.Kind.Has(calc.Wall) && e.Block.Kind.WorkingPressure.Key == "":
+		default:
+			compressed = true
 		}
 	}
-	return any, any && allVacuum
+	return any, vacuum && !compressed
 }
 
 // refView is an inline value as shown: its text and its link.

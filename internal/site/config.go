@@ -51,6 +51,9 @@ type SafetyConfig struct {
 	MinimumFactor        float64 `toml:"minimum_factor"`
 	MinimumFactorMetal   float64 `toml:"minimum_factor_metal"`
 	MinimumFactorPlastic float64 `toml:"minimum_factor_plastic"`
+	// MinimumFactorBuckling is on the collapse pressure of walls under
+	// outside pressure; minimum_factor leaves it alone.
+	MinimumFactorBuckling float64 `toml:"minimum_factor_buckling"`
 }
 
 // MarkdownConfig holds the Markdown settings.
@@ -60,7 +63,7 @@ type MarkdownConfig struct {
 }
 
 var configKeys = []string{"base_url", "description", "markdown", "markdown.raw_html", "materials", "safety", "safety.minimum_factor",
-	"safety.minimum_factor_metal", "safety.minimum_factor_plastic", "sig_figs", "title"}
+	"safety.minimum_factor_buckling", "safety.minimum_factor_metal", "safety.minimum_factor_plastic", "sig_figs", "title"}
 
 // materialName is what a material added in specgen.toml may be called.
 var materialName = regexp.MustCompile(`^[a-z0-9][a-z0-9._-]*$`)
@@ -89,6 +92,7 @@ func (cfg *Config) makeEnv(lines map[string]int) (*models.Env, inputerr.List) {
 		{"minimum_factor", cfg.Safety.MinimumFactor, []*float64{&safety.MinimumFactorMetal, &safety.MinimumFactorBrittle}},
 		{"minimum_factor_metal", cfg.Safety.MinimumFactorMetal, []*float64{&safety.MinimumFactorMetal}},
 		{"minimum_factor_plastic", cfg.Safety.MinimumFactorPlastic, []*float64{&safety.MinimumFactorBrittle}},
+		{"minimum_factor_buckling", cfg.Safety.MinimumFactorBuckling, []*float64{&safety.MinimumFactorBuckling}},
 	} {
 		key := "safety." + f.key
 		if _, set := lines[key]; !set {

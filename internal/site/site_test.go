@@ -412,8 +412,10 @@ func TestFolderWithoutIndexLinked(t *testing.T) {
 }
 
 // TestStandardCautionFitsThePage: a page whose only pressure calculation is
-// a vacuum one gets the vacuum wording; one with compressed air the other;
-// both say that local codes and licensed practice govern.
+// a vacuum one gets the vacuum wording, and so does one with a tube pumped
+// down and a lid given only the difference across it; one with compressed
+// air, or a lid alone, the other; all say that local codes and licensed
+// practice govern.
 func TestStandardCautionFitsThePage(t *testing.T) {
 	root := t.TempDir()
 	pump := "```calc\nid = \"pump\"\nkind = \"vacuum\"\nbore = \"50 mm\"\nstroke = \"40 mm\"\nrod_length = \"90 mm\"\n" +
@@ -422,10 +424,18 @@ func TestStandardCautionFitsThePage(t *testing.T) {
 	writeFile(t, filepath.Join(root, "content", "both.md"), "# Both\n\nThe pump reaches =[pump.ultimate_pressure mbar].\n\n"+
 		"```calc\nid = \"stage\"\nkind = \"compressor\"\nbore = \"28 mm\"\nstroke = \"32 mm\"\nrod_length = \"70 mm\"\n"+
 		"clearance_volume = \"1.8 cm3\"\nspeed = \"900 rpm\"\ndischarge_pressure = \"6 bar\"\n```\n")
+	lid := func(id string) string {
+		return "```calc\nid = \"" + id + "\"\nkind = \"plate\"\nshape = \"circular\"\ndiameter = \"200 mm\"\nthickness = \"10 mm\"\n" +
+			"material = \"s235\"\npressure_difference = \"1 bar\"\n```\n"
+	}
+	writeFile(t, filepath.Join(root, "content", "walls.md"), "# Walls\n\n"+lid("top")+"\n"+
+		"```calc\nid = \"shell\"\nkind = \"tube\"\ninner_diameter = \"150 mm\"\nwall_thickness = \"2 mm\"\npressure = \"-0.9 bar(g)\"\nmaterial = \"s235\"\n```\n")
+	writeFile(t, filepath.Join(root, "content", "lid.md"), "# Lid\n\n"+lid("cover"))
 	if _, err := Build(root, Options{}); err != nil {
 		t.Fatal(err)
 	}
-	for page, want := range map[string]string{"index.html": "weight of the atmosphere", "both.html": "Compressed air stores energy"} {
+	for page, want := range map[string]string{"index.html": "weight of the atmosphere", "both.html": "Compressed air stores energy",
+		"walls.html": "weight of the atmosphere", "lid.html": "Compressed air stores energy"} {
 		b, err := os.ReadFile(filepath.Join(root, DefaultOut, page))
 		if err != nil {
 			t.Fatal(err)

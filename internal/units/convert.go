@@ -7,8 +7,8 @@ import "math"
 // units subtract ambient (Pa), absolute units do not. Pressure and Stress
 // units are interchangeable, but a stress takes no (a) or (g) mark;
 // temperature units serve for a TemperatureDifference, without offset. A
-// flow of standard air (SCFM) shows the free-air flow si at ambient as the
-// standard air it is. A spelling that names one unit per dimension
+// flow of standard or normal air (SCFM, Nl/min) shows the free-air flow si
+// at ambient and 20 °C as the reference air it is, by mass. A spelling that names one unit per dimension
 // ("ft-lb") is read as dim. A unit of another dimension, or a result that
 // is not finite, is an error.
 func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, error) {
@@ -32,9 +32,8 @@ func FromSI(si float64, dim Dimension, unit string, ambient float64) (float64, e
 	if !difference && u.Offset != 0 && math.Abs(si-u.Offset) <= 1e-12*u.Offset {
 		si = u.Offset
 	}
-	if u.Standard {
-		// Free air at ambient is this much standard air (same temperature).
-		si *= ambient / standardPressure
+	if u.Standard() {
+		si /= u.freeAirPerReference(ambient)
 	}
 	v := u.fromSI(si, difference)
 	if !finite(v) {
@@ -55,8 +54,8 @@ func ToSI(v float64, dim Dimension, unit string, ambient float64) (float64, erro
 	switch {
 	case dim == Pressure && u.Ref != Absolute:
 		si += ambient
-	case u.Standard:
-		si *= standardPressure / ambient
+	case u.Standard():
+		si *= u.freeAirPerReference(ambient)
 	}
 	return si, nil
 }

@@ -23,7 +23,7 @@ var customaryUnits = map[string]bool{
 // neutralUnits are used alike in both systems.
 var neutralUnits = map[string]bool{
 	"": true, "%": true, "rpm": true, "rev/s": true, "rad/s": true, "rad": true, "deg": true,
-	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true, "mmHg vac": true,
+	"ms": true, "s": true, "min": true, "h": true, "atm": true, "torr": true, "mmHg": true, "K": true, "mmHg vac": true, "Hz": true, "Torr L/s": true,
 }
 
 // metricUnits are the metric symbols of the unit table. Every symbol of
@@ -37,7 +37,7 @@ var metricUnits = map[string]bool{
 	"J": true, "kJ": true, "MJ": true, "Wh": true, "kWh": true, "g": true, "kg": true, "kg/m3": true, "g/cm3": true,
 	"N/mm": true, "N/m": true, "kN/m": true, "mm/s": true, "m/s": true, "m/min": true, "m/s2": true, "g/s": true,
 	"kg/s": true, "kg/h": true, "J/kg": true, "kJ/kg": true, "kg m2": true, "kg mm2": true, "g cm2": true,
-	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true, "NL/min": true, "Nm3/h": true, "kW/(m3/min)": true, "W/(L/min)": true, "W/(m3/s)": true,
+	"J/m3": true, "kJ/m3": true, "J/L": true, "kWh/m3": true, "Nl/min": true, "l/min ANR": true, "Pa m3/s": true, "mbar L/s": true, "hPa(a)": true, "hPa(g)": true, "Nm3/h": true, "kW/(m3/min)": true, "W/(L/min)": true, "W/(m3/s)": true,
 }
 
 // SystemOf tells which system a unit symbol (as LookupUnit gives it)

@@ -41,6 +41,7 @@ const (
 	// SpecificPower is shaft power per unit of volume flow delivered, J/m3
 	// in SI; kept apart from pressure, which has the same base units.
 	SpecificPower
+	Throughput // a gas flow as pressure times volume per time, such as a leak
 )
 
 // dimensionInfo holds the words used for a dimension in messages.
@@ -78,6 +79,7 @@ var dimensions = [...]dimensionInfo{
 	PressureDifference:    {"pressure difference", "bar(d), mbar(d), kPa(d), MPa(d), psid", "Pa(d)"},
 	EnergyPerVolume:       {"energy per volume", "kJ/m3, J/L, kWh/m3", "J/m3"},
 	SpecificPower:         {"specific power", "kW/(m3/min), W/(L/min), hp/cfm", "W/(m3/s)"},
+	Throughput:            {"gas throughput", "mbar L/s, Pa m3/s, Torr L/s", "Pa m3/s"},
 }
 
 // valid reports whether d is one of the declared dimensions.

@@ -44,6 +44,7 @@ var exponentsOf = [len(dimensions)]Exponents{
 	PressureDifference:    {-1, 1, -2, 0},
 	EnergyPerVolume:       {-1, 1, -2, 0},
 	SpecificPower:         {-1, 1, -2, 0},
+	Throughput:            {2, 1, -3, 0},
 }
 
 // namedOrder is the order in which Named tries the dimensions that share
@@ -53,7 +54,7 @@ var exponentsOf = [len(dimensions)]Exponents{
 // quotient is one.
 var namedOrder = []Dimension{
 	Dimensionless, Length, Area, Volume, VolumeFlow, PressureDifference, Stress, EnergyPerVolume, SpecificPower,
-	TemperatureDifference, RotationalSpeed, Angle, Force, Energy, Torque, Power, Mass, Density,
+	TemperatureDifference, RotationalSpeed, Angle, Force, Energy, Torque, Power, Throughput, Mass, Density,
 	Stiffness, Time, Velocity, Acceleration, MassFlow, SpecificEnergy, Inertia,
 }
 

@@ -90,6 +90,8 @@ func Parse(s string, want Dimension) (Quantity, error) {
 		return Quantity{}, newError(text, ": below absolute zero")
 	case want == Pressure && u.Ref == Absolute && value < 0:
 		return Quantity{}, newError(text, ": an absolute pressure cannot be negative")
+	case want == Pressure && u.Vacuum() && v < 0:
+		return Quantity{}, newError(text, ": a vacuum reading counts down from ambient and is not negative; write a pressure above ambient as gauge, e.g. \"2 psig\"")
 	}
 	return Quantity{Value: value, Dim: want, Unit: u, Text: text, Number: numText}, nil
 }

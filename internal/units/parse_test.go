@@ -65,7 +65,7 @@ func TestParseErrors(t *testing.T) {
 }
 
 func TestPressureRef(t *testing.T) {
-	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute}
+	refs := map[string]PressureRef{"unmarked": Unmarked, "gauge": Gauge, "absolute": Absolute, "unsettled": Unsettled}
 	var file struct {
 		Case []struct {
 			Text     string
@@ -145,7 +145,7 @@ func TestStandardFlow(t *testing.T) {
 			t.Errorf("Parse(%q): %v (source %q)", c.Text, err, c.Source)
 			continue
 		}
-		if !q.Unit.Standard || q.Unit.Symbol != c.Unit {
+		if !q.Unit.Standard() || q.Unit.Symbol != c.Unit {
 			t.Errorf("Parse(%q): unit %+v, want standard %s", c.Text, q.Unit, c.Unit)
 		}
 		if got := q.Absolute(c.Ambient); !closeTo(got, c.FreeAir, 1e-9) {

@@ -23,7 +23,7 @@ func Pretty(symbol string) string {
 		return "psia"
 	case "psi(d)":
 		return "psid"
-	case "inHg vac", "mmHg vac":
+	case "inHg vac", "mmHg vac", "l/min ANR":
 		return symbol // a word after the unit, not a product
 	}
 	return prettyParts.Replace(symbol)

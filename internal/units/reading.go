@@ -54,7 +54,7 @@ func reading(key string) (factor float64, exps Exponents, ok bool) {
 // wordReading reads one word of a unit: a table unit without offset or
 // mark, or a prefixed SI unit with an optional power ("dm3", "kN").
 func wordReading(word string) (float64, Exponents, bool) {
-	if u, ok := unitIndex[word]; ok && u.Offset == 0 && u.Ref == Unmarked && !u.Standard && u.Dim != Pressure {
+	if u, ok := unitIndex[word]; ok && u.Offset == 0 && u.Ref == Unmarked && !u.Standard() && u.Dim != Pressure {
 		return u.Factor, ExponentsOf(u.Dim), true
 	}
 	for _, p := range siPrefixes {

@@ -2,14 +2,23 @@ package units
 
 import (
 	"fmt"
+	"math"
+	"strconv"
 	"strings"
 	"unicode"
 )
 
-// StandardAir says what a flow of standard air (SCFM, NL/min, Nm3/h) is,
-// for traces and messages.
-var StandardAir = fmt.Sprintf("standard air: dry, %s kPa(a), %s °C (the ISO 8778 standard reference atmosphere, from memory), read as free air at the ambient pressure",
-	Format(standardPressure/1e3, 3), Format(standardTemperature-celsius0, 2))
+// ReferenceAir says what a flow in the standard unit u is, for traces and
+// messages: "air at 0 °C, 101.325 kPa(a) (DIN 1343 normal conditions), …".
+func (u Unit) ReferenceAir() string {
+	name := "the ISO 8778 standard reference atmosphere"
+	if u.Reference == din1343 {
+		name = "DIN 1343 normal conditions"
+	}
+	plain := func(v float64) string { return strconv.FormatFloat(math.Round(v*1e3)/1e3, 'f', -1, 64) }
+	return fmt.Sprintf("air at %s kPa(a) and %s °C, dry (%s, from memory), read by mass as free air at the ambient pressure and %s °C",
+		plain(u.Reference.Pressure/1e3), plain(u.Reference.Temperature-celsius0), name, plain(freeAirTemperature-celsius0))
+}
 
 // ambiguous are spellings that name one unit per dimension, by canonical
 // symbol: the trade writes "ft-lb" for a torque and for an energy, and "F"

@@ -23,14 +23,21 @@ const (
 	revolution = 2 * math.Pi // rad
 )
 
-// The standard reference atmosphere of pneumatics (ISO 8778, which ISO 1217
-// takes for its standard flows; quoted from memory): standard air is dry
-// air at 100 kPa absolute and 20 °C. A flow of standard air reads as free
-// air at the ambient pressure of the block, at the same 20 °C.
-const (
-	standardPressure    = 100e3  // Pa absolute
-	standardTemperature = 293.15 // K
+// Reference states of flows of standard and normal air (quoted from
+// memory): the ISO 8778 standard reference atmosphere (ANR), dry air at
+// 100 kPa absolute and 20 °C, which ISO 1217 takes for standard flows and
+// SCFM follows; DIN 1343 normal conditions, 0 °C and 101.325 kPa, for
+// Nl/min and Nm3/h. Humidity is not modelled: flows convert as dry air, by
+// mass.
+var (
+	iso8778 = GasState{Pressure: 100e3, Temperature: celsius0 + 20}
+	din1343 = GasState{Pressure: atm, Temperature: celsius0}
 )
+
+// freeAirTemperature is the temperature at which a standard flow is read
+// as free air where no block says otherwise: 20 °C, a workshop's air
+// (common practice).
+const freeAirTemperature = celsius0 + 20
 
 // unitDef is one row of the unit table: a canonical symbol and the other
 // spellings (already in normalized form) that mean the same unit.
@@ -39,9 +46,9 @@ type unitDef struct {
 	aliases []string
 }
 
-// standardDef makes the row of a flow of standard air.
-func standardDef(sym string, factor float64, aliases ...string) unitDef {
-	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Standard: true}, aliases}
+// standardDef makes the row of a flow of air measured at the reference state ref.
+func standardDef(sym string, factor float64, ref GasState, aliases ...string) unitDef {
+	return unitDef{Unit{Symbol: sym, Dim: VolumeFlow, Factor: factor, Reference: ref}, aliases}
 }
 
 // vacuumDef makes the row of a vacuum gauge's unit: gauge, read downward.
@@ -99,15 +106,26 @@ var unitTable = joinDefs(
 		def("m3/s", VolumeFlow, 1),
 		def("cfm", VolumeFlow, foot*foot*foot/60, "ft3/min", "CFM"),
 
-		// Flows of standard air (see standardPressure).
-		standardDef("SCFM", foot*foot*foot/60, "scfm"),
-		standardDef("NL/min", 1e-3/60, "Nl/min", "SLPM", "slpm"),
-		standardDef("Nm3/h", 1.0/3600),
+		// Flows of standard and normal air (see iso8778).
+		standardDef("SCFM", foot*foot*foot/60, iso8778, "scfm"),
+		standardDef("l/min ANR", 1e-3/60, iso8778, "L/min ANR", "l/min(ANR)", "L/min(ANR)"),
+		standardDef("Nl/min", 1e-3/60, din1343, "NL/min", "SLPM", "slpm"),
+		standardDef("Nm3/h", 1.0/3600, din1343),
+
+		// Gas throughput, as leaks and vacuum pumps are rated.
+		def("Pa m3/s", Throughput, 1),
+		def("mbar L/s", Throughput, 100*1e-3, "mbar l/s"),
+		def("Torr L/s", Throughput, torr*1e-3, "Torr l/s", "torr L/s", "torr l/s"),
 	},
 	// Pressures. A plain unit reads gauge (specgen's convention for the
 	// workshop habit of reading the dial); marks make it explicit.
 	pressureDefs("Pa", 1, []string{"N/m2"}, nil, nil),
-	pressureDefs("hPa", 100, nil, nil, nil),
+	// hPa is absolute in weather reports and gauge on some dials: unsettled.
+	[]unitDef{
+		{Unit{Symbol: "hPa", Dim: Pressure, Factor: 100, Ref: Unsettled}, nil},
+		{Unit{Symbol: "hPa(g)", Dim: Pressure, Factor: 100, Ref: Gauge}, nil},
+		{Unit{Symbol: "hPa(a)", Dim: Pressure, Factor: 100, Ref: Absolute}, nil},
+	},
 	pressureDefs("kPa", 1e3, nil, []string{"kPag"}, []string{"kPaa"}),
 	pressureDefs("MPa", 1e6, nil, nil, nil),
 	pressureDefs("bar", 1e5, nil, []string{"barg"}, []string{"bara"}),
@@ -145,6 +163,8 @@ var unitTable = joinDefs(
 		// min⁻¹ is the rotational speed of European nameplates (DIN 1301).
 		def("rpm", RotationalSpeed, revolution/60, "r/min", "rev/min", "RPM", "1/min", "min 1"),
 		def("rev/s", RotationalSpeed, revolution, "r/s"),
+		// A rotational frequency: one revolution per second.
+		def("Hz", RotationalSpeed, revolution),
 		def("rad/s", RotationalSpeed, 1),
 
 		def("rad", Angle, 1),

@@ -12,7 +12,18 @@ const (
 	Gauge
 	// Absolute is marked absolute ("bar(a)", "psia") or absolute by nature ("atm", "torr").
 	Absolute
+	// Unsettled is an unmarked unit the trade reads either way: "hPa" is
+	// absolute in weather reports and gauge on some dials. The caller
+	// decides: absolute where only an absolute pressure makes sense, else
+	// it needs its mark. Quantity.Absolute reads it gauge.
+	Unsettled
 )
+
+// GasState is a pressure (Pa, absolute) and a temperature (K) that a volume
+// of air is measured at.
+type GasState struct {
+	Pressure, Temperature float64
+}
 
 // Unit is one spelling of a unit.
 type Unit struct {
@@ -21,10 +32,15 @@ type Unit struct {
 	Factor float64     // SI = value*Factor + Offset
 	Offset float64     // non-zero only for degC and degF
 	Ref    PressureRef // for pressure units: what the value is measured from
-	// Standard marks a flow of standard air (SCFM, NL/min): its SI value
-	// is that of free air at the ambient pressure (see Quantity.Absolute).
-	Standard bool
+	// Reference is, for a flow of standard or normal air (SCFM, Nl/min,
+	// l/min ANR), the state its volume is measured at; its SI value is that
+	// of free air at the ambient pressure and 20 °C, by mass (see
+	// Quantity.Absolute). Zero for other units.
+	Reference GasState
 }
+
+// Standard reports whether u is a flow of standard or normal air.
+func (u Unit) Standard() bool { return u.Reference != GasState{} }
 
 // Vacuum reports whether u is a vacuum gauge's unit ("inHg vac"): a gauge
 // unit read downward from ambient, which its negative factor does.
