@@ -1,22 +1,12 @@
 package site
 
 import (
-	"bytes"
 	"fmt"
-	"html/template"
 	"os"
 	"path/filepath"
 	"runtime"
 	"strings"
 	"testing"
-
-	"github.com/yuin/goldmark"
-	"github.com/yuin/goldmark/extension"
-	"github.com/yuin/goldmark/parser"
-	"github.com/yuin/goldmark/renderer"
-	"github.com/yuin/goldmark/util"
-
-	"github.com/millrace-workshop/specgen/internal/calc"
 )
 
 // writeChartedSite writes a site of n pages where every page holds a
@@ -104,46 +94,3 @@ func benchCharted(b *testing.B, pages int) {
 // loaded site holds faster than its pages.
 func BenchmarkChartedBuild1k(b *testing.B) { benchCharted(b, 1000) }
 func BenchmarkChartedBuild5k(b *testing.B) { benchCharted(b, 5000) }
-
-// BenchmarkChartedFloor does with the charted site's 1,000 pages the least
-// any generator does (as BenchmarkFloor): goldmark, chroma, one
-// html/template layout, the files written. BenchmarkChartedBuild1k is
-// measured against it.
-func BenchmarkChartedFloor(b *testing.B) {
-	root := b.TempDir()
-	const pages = 1000
-	writeChartedSite(b, root, pages, 250)
-	rels, err := findPages(root)
-	if err != nil {
-		b.Fatal(err)
-	}
-	md := goldmark.New(
-		goldmark.WithExtensions(extension.GFM, extension.Footnote),
-		goldmark.WithParserOptions(parser.WithAutoHeadingID()),
-		goldmark.WithRendererOptions(renderer.WithNodeRenderers(util.Prioritized(floorCode{}, 100))),
-	)
-	layout := template.Must(template.New("page").Parse(`<!DOCTYPE html><html><head><title>{{.Title}}</title></head><body><main>{{.Body}}</main></body></html>`))
-	out := b.TempDir()
-	b.ReportAllocs()
-	for b.Loop() {
-		calc.Parallel(len(rels), func(i int) {
-			src, err := os.ReadFile(filepath.Join(root, ContentDir, rels[i]))
-			if err != nil {
-				b.Error(err)
-				return
-			}
-			var body, page bytes.Buffer
-			if err := md.Convert(src, &body); err != nil {
-				b.Error(err)
-				return
-			}
-			_ = layout.Execute(&page, map[string]any{"Title": rels[i], "Body": template.HTML(body.String())})
-			p := filepath.Join(out, strings.TrimSuffix(rels[i], ".md")+".html")
-			_ = os.MkdirAll(filepath.Dir(p), 0o755)
-			if err := os.WriteFile(p, page.Bytes(), 0o644); err != nil {
-				b.Error(err)
-			}
-		})
-	}
-	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(pages+1), "ns/page")
-}
