@@ -19,24 +19,26 @@ import (
 // holds little more per page than the page's own HTML until it writes it.
 type Prepared struct {
 	// html is the page's HTML compressed: from when a page is read to
-	// when it is written, it is the biggest thing a site holds of it, and
-	// it shrinks some fourfold at a few microseconds a page.
+	// when it is written, it and the page's text are the biggest things a
+	// site holds of it, and they shrink some fourfold at a few
+	// microseconds a page.
 	html    []byte
 	htmlLen int
 	holes   []Hole
+	// text is the page's prose for the search index, compressed, with
+	// the places of its values.
+	text       []byte
+	textLen    int
+	textPlaces []place
 	// Headings are the headings of levels 2 and 3, in order.
 	Headings []PreparedHeading
-	// Text is the page's prose for the search index, a block a line:
-	// headings, paragraphs, lists and tables, without code, calculation
-	// blocks or raw HTML.
-	Text Parts
 }
 
 // PreparedHeading is a heading whose text may quote inline values.
 type PreparedHeading struct {
 	Level int
 	ID    string
-	Text  Parts
+	Text  Spliced
 }
 
 // HoleKind says what fills a hole.
@@ -65,51 +67,42 @@ type Hole struct {
 	Source string
 }
 
-// TextPart is a piece of text: as is, or, when Ref >= 0, the value of the
-// document's Ref-th value reference (in ValueRefs order).
-type TextPart struct {
-	Text string
-	Ref  int
+// Spliced is text with places where the values of inline references go.
+type Spliced struct {
+	text   string
+	places []place
 }
 
-// Parts is a text with inline values in it.
-type Parts []TextPart
+// place is where the value of the document's ref-th value reference (in
+// ValueRefs order) goes in a text.
+type place struct{ at, ref int }
 
-// String joins the parts, with value giving the text of each reference.
-func (ps Parts) String(value func(ref int) string) string {
+// String is the text with value giving the text of each reference.
+func (s Spliced) String(value func(ref int) string) string {
+	return splice(s.text, s.places, value)
+}
+
+func splice(text string, places []place, value func(ref int) string) string {
 	var b strings.Builder
-	for _, p := range ps {
-		if p.Ref >= 0 {
-			b.WriteString(value(p.Ref))
-		} else {
-			b.WriteString(p.Text)
-		}
+	at := 0
+	for _, p := range places {
+		b.WriteString(text[at:p.at])
+		b.WriteString(value(p.ref))
+		at = p.at
 	}
+	b.WriteString(text[at:])
 	return b.String()
 }
 
-// partsWriter collects text and references into Parts.
-type partsWriter struct {
-	parts Parts
-	buf   bytes.Buffer
+// splicedWriter collects text and the places of references in it.
+type splicedWriter struct {
+	buf    bytes.Buffer
+	places []place
 }
 
-func (pw *partsWriter) ref(i int) {
-	pw.flush()
-	pw.parts = append(pw.parts, TextPart{Ref: i})
-}
+func (sw *splicedWriter) ref(i int) { sw.places = append(sw.places, place{at: sw.buf.Len(), ref: i}) }
 
-func (pw *partsWriter) flush() {
-	if pw.buf.Len() > 0 {
-		pw.parts = append(pw.parts, TextPart{Text: pw.buf.String(), Ref: -1})
-		pw.buf.Reset()
-	}
-}
-
-func (pw *partsWriter) done() Parts {
-	pw.flush()
-	return pw.parts
-}
+func (sw *splicedWriter) done() Spliced { return Spliced{text: sw.buf.String(), places: sw.places} }
 
 // preparing records the holes of a page being prepared. The nodes that
 // leave a hole point to it while the page is rendered.
@@ -152,7 +145,7 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	for i, n := range doc.CautionLists() {
 		n.prep, prep.index[n] = prep, i
 	}
-	text := doc.textParts(refIndex)
+	text := doc.prose(refIndex)
 	headings := doc.headingParts(3, refIndex)
 	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
 		return nil, err
@@ -161,7 +154,23 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Prepared{html: html, htmlLen: out.Len(), holes: prep.holes, Headings: headings, Text: text}, nil
+	textZ, err := compress([]byte(text.text))
+	if err != nil {
+		return nil, err
+	}
+	return &Prepared{html: html, htmlLen: out.Len(), holes: prep.holes,
+		text: textZ, textLen: len(text.text), textPlaces: text.places, Headings: headings}, nil
+}
+
+// SearchText is the page's prose for the search index, a block a line:
+// headings, paragraphs, lists and tables, without code, calculation blocks
+// or raw HTML; value gives the text of each inline value.
+func (p *Prepared) SearchText(value func(ref int) string) (string, error) {
+	text, err := decompress(p.text, p.textLen)
+	if err != nil {
+		return "", err
+	}
+	return splice(string(text), p.textPlaces, value), nil
 }
 
 // Write writes the page's HTML with fill writing each hole.

@@ -87,7 +87,10 @@ func TestPreparedMatchesRender(t *testing.T) {
 	if len(headings) != 1 || headings[0].Text != "Sweep of 1.5 units" || headings[0].ID == "" {
 		t.Errorf("headings %+v; want one, \"Sweep of 1.5 units\" with its id", headings)
 	}
-	text := prep.Text.String(value)
+	text, err := prep.SearchText(value)
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, part := range []string{"Sweep of 1.5 units\n", "It sweeps 2.5 units; ", "3.5 units"} {
 		if !bytes.Contains([]byte(text), []byte(part)) {
 			t.Errorf("text %q lacks %q", text, part)

@@ -459,7 +459,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
-	text := p.body.Text.String(func(ref int) string { return s.refText(p, ref) })
+	text, err := p.body.SearchText(func(ref int) string { return s.refText(p, ref) })
+	if err != nil {
+		return nil, searchEntry{}, err
+	}
 	return out, newSearchEntry(p, text, headings), nil
 }
 
