@@ -18,17 +18,12 @@ import (
 // their inline values left open. The syntax tree is not kept, so a site
 // holds little more per page than the page's own HTML until it writes it.
 type Prepared struct {
-	// html is the page's HTML compressed: from when a page is read to
-	// when it is written, it and the page's text are the biggest things a
-	// site holds of it, and they shrink some fourfold at a few
-	// microseconds a page.
-	html    []byte
-	htmlLen int
-	holes   []Hole
-	// text is the page's prose for the search index, compressed, with
-	// the places of its values.
-	text       []byte
-	textLen    int
+	// html is the page's HTML.
+	html  Packed
+	holes []Hole
+	// text is the page's prose for the search index, with the places of
+	// its values.
+	text       Packed
 	textPlaces []place
 	// Headings are the headings of levels 2 and 3, in order.
 	Headings []PreparedHeading
@@ -150,23 +145,22 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
-	html, err := compress(out.Bytes())
+	html, err := Pack(out.Bytes())
 	if err != nil {
 		return nil, err
 	}
-	textZ, err := compress([]byte(text.text))
+	textZ, err := Pack([]byte(text.text))
 	if err != nil {
 		return nil, err
 	}
-	return &Prepared{html: html, htmlLen: out.Len(), holes: prep.holes,
-		text: textZ, textLen: len(text.text), textPlaces: text.places, Headings: headings}, nil
+	return &Prepared{html: html, holes: prep.holes, text: textZ, textPlaces: text.places, Headings: headings}, nil
 }
 
 // SearchText is the page's prose for the search index, a block a line:
 // headings, paragraphs, lists and tables, without code, calculation blocks
 // or raw HTML; value gives the text of each inline value.
 func (p *Prepared) SearchText(value func(ref int) string) (string, error) {
-	text, err := decompress(p.text, p.textLen)
+	text, err := p.text.Bytes()
 	if err != nil {
 		return "", err
 	}
@@ -175,7 +169,7 @@ func (p *Prepared) SearchText(value func(ref int) string) (string, error) {
 
 // Write writes the page's HTML with fill writing each hole.
 func (p *Prepared) Write(w io.Writer, fill func(w util.BufWriter, h Hole)) error {
-	html, err := decompress(p.html, p.htmlLen)
+	html, err := p.html.Bytes()
 	if err != nil {
 		return err
 	}
@@ -190,6 +184,14 @@ func (p *Prepared) Write(w io.Writer, fill func(w util.BufWriter, h Hole)) error
 	return bw.Flush()
 }
 
+// Packed is data kept deflated in memory until it is written: what a big
+// site holds of every page until its end (its HTML, its text) shrinks some
+// fourfold at a few microseconds a page.
+type Packed struct {
+	z []byte
+	n int
+}
+
 // Compressors are reused: each holds some hundreds of kilobytes of state.
 var (
 	compressors = sync.Pool{New: func() any {
@@ -199,29 +201,29 @@ var (
 	decompressors = sync.Pool{New: func() any { return flate.NewReader(bytes.NewReader(nil)) }}
 )
 
-// compress deflates b.
-func compress(b []byte) ([]byte, error) {
+// Pack deflates b.
+func Pack(b []byte) (Packed, error) {
 	var out bytes.Buffer
 	zw := compressors.Get().(*flate.Writer)
 	defer compressors.Put(zw)
 	zw.Reset(&out)
 	if _, err := zw.Write(b); err != nil {
-		return nil, err
+		return Packed{}, err
 	}
 	if err := zw.Close(); err != nil {
-		return nil, err
+		return Packed{}, err
 	}
-	return bytes.Clone(out.Bytes()), nil
+	return Packed{z: bytes.Clone(out.Bytes()), n: len(b)}, nil
 }
 
-// decompress inflates z, which holds n bytes.
-func decompress(z []byte, n int) ([]byte, error) {
+// Bytes inflates the packed data.
+func (p Packed) Bytes() ([]byte, error) {
 	zr := decompressors.Get().(io.ReadCloser)
 	defer decompressors.Put(zr)
-	if err := zr.(flate.Resetter).Reset(bytes.NewReader(z), nil); err != nil {
+	if err := zr.(flate.Resetter).Reset(bytes.NewReader(p.z), nil); err != nil {
 		return nil, err
 	}
-	out := make([]byte, n)
+	out := make([]byte, p.n)
 	if _, err := io.ReadFull(zr, out); err != nil {
 		return nil, err
 	}

@@ -339,13 +339,15 @@ func (s *Site) emit(put func(name string, write func(io.Writer) error) error, pr
 		return nil
 	}
 	errs := make([]error, len(s.Pages))
-	entries := make([]searchEntry, len(s.Pages))
+	entries := make([]render.Packed, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
 	calc.Parallel(len(s.Pages), func(i int) {
 		p := s.Pages[i]
 		files, entry, err := s.renderPage(p)
-		entries[i] = entry
+		if err == nil {
+			entries[i], err = entry.packed()
+		}
 		if err != nil {
 			errs[i] = err
 			return
