@@ -71,7 +71,9 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 			p.blocks = append(p.blocks, b)
 		}
 	}
-	for _, r := range doc.ValueRefs() {
+	refs := doc.ValueRefs()
+	p.refs = make([]valueRef, 0, len(refs)) // kept to the end: no room to spare
+	for _, r := range refs {
 		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
 			Written: r.Written, Problem: r.Problem, Line: doc.Line(r.Offset)})
 	}
@@ -100,13 +102,12 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	p.links = doc.LinkRefs()
-	p.anchors = map[string]bool{}
-	for _, id := range doc.AnchorIDs() {
-		p.anchors[id] = true
-	}
+	p.anchors = doc.AnchorIDs()
 	for _, b := range p.blocks {
-		p.anchors[render.BlockAnchor(b.ID)] = true
+		p.anchors = append(p.anchors, render.BlockAnchor(b.ID))
 	}
+	slices.Sort(p.anchors)
+	p.anchors = slices.Clip(slices.Compact(p.anchors))
 	return errs.Sorted()
 }
 
