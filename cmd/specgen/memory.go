@@ -7,12 +7,13 @@ import (
 	"runtime/metrics"
 )
 
-// The soft memory limit leaves half the live heap again as room for
-// garbage, so that the collector's work per page stays the same as a site
-// grows; below the floor it is not set tighter, and the collector's own
-// pacing (twice the live heap) holds a site of a few thousand pages.
+// The soft memory limit leaves a third of the live heap again as room for
+// garbage, so that the collector's work per page stays the same as a very
+// big site grows; below the floor it is not set tighter, and the
+// collector's own pacing (twice the live heap) holds a site of a few
+// thousand pages.
 const (
-	headroomShare = 0.5
+	headroomShare = 0.35
 	limitFloor    = 256 << 20
 )
 
