@@ -7,19 +7,21 @@ import (
 	"runtime/metrics"
 )
 
-// The room the soft memory limit leaves above the live heap: a share of it,
-// so that the collector's work per page stays the same as a site grows, and
-// at least a floor, so that a small site is never held tight.
+// The soft memory limit leaves a third of the live heap again as room for
+// garbage, so that the collector's work per page stays the same as a very
+// big site grows; below the floor it is not set tighter, and the
+// collector's own pacing (twice the live heap) holds a site of a few
+// thousand pages.
 const (
-	headroomShare = 0.6
-	headroomFloor = 48 << 20
+	headroomShare = 0.35
+	limitFloor    = 256 << 20
 )
 
 // followLiveHeap keeps the soft memory limit at what the program holds, the
-// live heap and the runtime's own memory, plus headroom, set again after
-// every collection. A fixed limit either stays out of reach of a small
-// site or lies so close above a big one's live heap that the collector runs
-// without pause; one that follows the live data does neither.
+// live heap and the runtime's own memory, plus headroom, and at least
+// limitFloor, set again after every collection. A fixed limit lies so close
+// above a big site's live heap that the collector runs without pause; one
+// that follows the live data never does.
 func followLiveHeap() {
 	samples := []metrics.Sample{
 		{Name: "/gc/heap/live:bytes"},
@@ -45,8 +47,8 @@ func followLiveHeap() {
 		if total > heap {
 			runtimeOwn = total - heap
 		}
-		headroom := max(uint64(float64(live)*headroomShare), headroomFloor)
-		debug.SetMemoryLimit(int64(min(live+runtimeOwn+headroom, math.MaxInt64)))
+		headroom := uint64(float64(live) * headroomShare)
+		debug.SetMemoryLimit(int64(min(max(live+runtimeOwn+headroom, limitFloor), math.MaxInt64)))
 		runtime.SetFinalizer(&gcSentinel{}, afterCollection)
 	}
 	runtime.SetFinalizer(&gcSentinel{}, afterCollection)

@@ -33,7 +33,7 @@ func (r *calcRenderer) renderValue(w util.BufWriter, source []byte, node ast.Nod
 	}
 	n := node.(*ValueRef)
 	if n.prep != nil {
-		n.prep.hole(w, n, Hole{Kind: HoleValue, Block: n.Block, Result: n.Result})
+		n.prep.hole(w, n, Hole{Kind: HoleValue})
 		return ast.WalkSkipChildren, nil
 	}
 	if n.Problem != "" {

@@ -3,8 +3,10 @@ package render
 import (
 	"bufio"
 	"bytes"
+	"compress/flate"
 	"io"
 	"strings"
+	"sync"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/util"
@@ -16,21 +18,22 @@ import (
 // their inline values left open. The syntax tree is not kept, so a site
 // holds little more per page than the page's own HTML until it writes it.
 type Prepared struct {
-	html  string
+	// html is the page's HTML.
+	html  Packed
 	holes []Hole
+	// text is the page's prose for the search index, with the places of
+	// its values.
+	text       Packed
+	textPlaces []place
 	// Headings are the headings of levels 2 and 3, in order.
 	Headings []PreparedHeading
-	// Text is the page's prose for the search index, a block a line:
-	// headings, paragraphs, lists and tables, without code, calculation
-	// blocks or raw HTML.
-	Text Parts
 }
 
 // PreparedHeading is a heading whose text may quote inline values.
 type PreparedHeading struct {
 	Level int
 	ID    string
-	Text  Parts
+	Text  Spliced
 }
 
 // HoleKind says what fills a hole.
@@ -57,55 +60,44 @@ type Hole struct {
 	Line   int
 	Level  int
 	Source string
-	// For an inline value: what it names.
-	Block, Result string
 }
 
-// TextPart is a piece of text: as is, or, when Ref >= 0, the value of the
-// document's Ref-th value reference (in ValueRefs order).
-type TextPart struct {
-	Text string
-	Ref  int
+// Spliced is text with places where the values of inline references go.
+type Spliced struct {
+	text   string
+	places []place
 }
 
-// Parts is a text with inline values in it.
-type Parts []TextPart
+// place is where the value of the document's ref-th value reference (in
+// ValueRefs order) goes in a text.
+type place struct{ at, ref int }
 
-// String joins the parts, with value giving the text of each reference.
-func (ps Parts) String(value func(ref int) string) string {
+// String is the text with value giving the text of each reference.
+func (s Spliced) String(value func(ref int) string) string {
+	return splice(s.text, s.places, value)
+}
+
+func splice(text string, places []place, value func(ref int) string) string {
 	var b strings.Builder
-	for _, p := range ps {
-		if p.Ref >= 0 {
-			b.WriteString(value(p.Ref))
-		} else {
-			b.WriteString(p.Text)
-		}
+	at := 0
+	for _, p := range places {
+		b.WriteString(text[at:p.at])
+		b.WriteString(value(p.ref))
+		at = p.at
 	}
+	b.WriteString(text[at:])
 	return b.String()
 }
 
-// partsWriter collects text and references into Parts.
-type partsWriter struct {
-	parts Parts
-	buf   bytes.Buffer
+// splicedWriter collects text and the places of references in it.
+type splicedWriter struct {
+	buf    bytes.Buffer
+	places []place
 }
 
-func (pw *partsWriter) ref(i int) {
-	pw.flush()
-	pw.parts = append(pw.parts, TextPart{Ref: i})
-}
+func (sw *splicedWriter) ref(i int) { sw.places = append(sw.places, place{at: sw.buf.Len(), ref: i}) }
 
-func (pw *partsWriter) flush() {
-	if pw.buf.Len() > 0 {
-		pw.parts = append(pw.parts, TextPart{Text: pw.buf.String(), Ref: -1})
-		pw.buf.Reset()
-	}
-}
-
-func (pw *partsWriter) done() Parts {
-	pw.flush()
-	return pw.parts
-}
+func (sw *splicedWriter) done() Spliced { return Spliced{text: sw.buf.String(), places: sw.places} }
 
 // preparing records the holes of a page being prepared. The nodes that
 // leave a hole point to it while the page is rendered.
@@ -148,23 +140,92 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	for i, n := range doc.CautionLists() {
 		n.prep, prep.index[n] = prep, i
 	}
-	text := doc.textParts(refIndex)
+	text := doc.prose(refIndex)
 	headings := doc.headingParts(3, refIndex)
 	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
-	return &Prepared{html: out.String(), holes: prep.holes, Headings: headings, Text: text}, nil
+	html, err := Pack(out.Bytes())
+	if err != nil {
+		return nil, err
+	}
+	textZ, err := Pack([]byte(text.text))
+	if err != nil {
+		return nil, err
+	}
+	return &Prepared{html: html, holes: prep.holes, text: textZ, textPlaces: text.places, Headings: headings}, nil
+}
+
+// SearchText is the page's prose for the search index, a block a line:
+// headings, paragraphs, lists and tables, without code, calculation blocks
+// or raw HTML; value gives the text of each inline value.
+func (p *Prepared) SearchText(value func(ref int) string) (string, error) {
+	text, err := p.text.Bytes()
+	if err != nil {
+		return "", err
+	}
+	return splice(string(text), p.textPlaces, value), nil
 }
 
 // Write writes the page's HTML with fill writing each hole.
 func (p *Prepared) Write(w io.Writer, fill func(w util.BufWriter, h Hole)) error {
+	html, err := p.html.Bytes()
+	if err != nil {
+		return err
+	}
 	bw := bufio.NewWriter(w)
 	at := 0
 	for _, h := range p.holes {
-		_, _ = bw.WriteString(p.html[at:h.at])
+		_, _ = bw.Write(html[at:h.at])
 		fill(bw, h)
 		at = h.at
 	}
-	_, _ = bw.WriteString(p.html[at:])
+	_, _ = bw.Write(html[at:])
 	return bw.Flush()
+}
+
+// Packed is data kept deflated in memory until it is written: what a big
+// site holds of every page until its end (its HTML, its text) shrinks some
+// fourfold at a few microseconds a page.
+type Packed struct {
+	z []byte
+	n int
+}
+
+// Compressors are reused: each holds some hundreds of kilobytes of state.
+var (
+	compressors = sync.Pool{New: func() any {
+		w, _ := flate.NewWriter(nil, flate.BestSpeed) // a valid level: no error
+		return w
+	}}
+	decompressors = sync.Pool{New: func() any { return flate.NewReader(bytes.NewReader(nil)) }}
+)
+
+// Pack deflates b.
+func Pack(b []byte) (Packed, error) {
+	var out bytes.Buffer
+	zw := compressors.Get().(*flate.Writer)
+	defer compressors.Put(zw)
+	zw.Reset(&out)
+	if _, err := zw.Write(b); err != nil {
+		return Packed{}, err
+	}
+	if err := zw.Close(); err != nil {
+		return Packed{}, err
+	}
+	return Packed{z: bytes.Clone(out.Bytes()), n: len(b)}, nil
+}
+
+// Bytes inflates the packed data.
+func (p Packed) Bytes() ([]byte, error) {
+	zr := decompressors.Get().(io.ReadCloser)
+	defer decompressors.Put(zr)
+	if err := zr.(flate.Resetter).Reset(bytes.NewReader(p.z), nil); err != nil {
+		return nil, err
+	}
+	out := make([]byte, p.n)
+	if _, err := io.ReadFull(zr, out); err != nil {
+		return nil, err
+	}
+	return out, nil
 }

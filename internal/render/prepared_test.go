@@ -45,6 +45,7 @@ func TestPreparedMatchesRender(t *testing.T) {
 
 	doc = md.Parse([]byte(preparedPage), 4)
 	doc.TakeTitle()
+	refs := doc.ValueRefs()
 	prep, err := md.Prepare(doc)
 	if err != nil {
 		t.Fatal(err)
@@ -55,7 +56,8 @@ func TestPreparedMatchesRender(t *testing.T) {
 		holes[h.Kind]++
 		switch h.Kind {
 		case HoleValue:
-			WriteValue(w, h.Block, h.Result, value(h.Index), fmt.Sprintf("#v%d", h.Index))
+			r := refs[h.Index]
+			WriteValue(w, r.Block, r.Result, value(h.Index), fmt.Sprintf("#v%d", h.Index))
 		case HoleBlock:
 			if h.Line != 15 || h.Level != 3 {
 				t.Errorf("block hole at line %d, level %d; want the fence's file line 15, under an h2: level 3", h.Line, h.Level)
@@ -85,7 +87,10 @@ func TestPreparedMatchesRender(t *testing.T) {
 	if len(headings) != 1 || headings[0].Text != "Sweep of 1.5 units" || headings[0].ID == "" {
 		t.Errorf("headings %+v; want one, \"Sweep of 1.5 units\" with its id", headings)
 	}
-	text := prep.Text.String(value)
+	text, err := prep.SearchText(value)
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, part := range []string{"Sweep of 1.5 units\n", "It sweeps 2.5 units; ", "3.5 units"} {
 		if !bytes.Contains([]byte(text), []byte(part)) {
 			t.Errorf("text %q lacks %q", text, part)

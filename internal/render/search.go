@@ -4,12 +4,12 @@ import (
 	"github.com/yuin/goldmark/ast"
 )
 
-// textParts is the page's prose as plain text, for the search index: its
+// prose is the page's prose as plain text, for the search index: its
 // headings, paragraphs, lists and tables, one a line, with its inline
 // values (numbered by refIndex) left open. Code, calculation blocks and raw
 // HTML are left out.
-func (d *Document) textParts(refIndex map[*ValueRef]int) Parts {
-	var pw partsWriter
+func (d *Document) prose(refIndex map[*ValueRef]int) Spliced {
+	var pw splicedWriter
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering || n.Type() != ast.TypeBlock || hasBlockChild(n) {
 			return ast.WalkContinue, nil

@@ -50,7 +50,7 @@ func (d *Document) headingParts(maxLevel int, refIndex map[*ValueRef]int) []Prep
 		if h.Level >= 2 && h.Level <= maxLevel {
 			id, _ := h.AttributeString("id")
 			idBytes, _ := id.([]byte)
-			var pw partsWriter
+			var pw splicedWriter
 			writeText(&pw.buf, h, d.Source, func(r *ValueRef) { pw.ref(refIndex[r]) })
 			out = append(out, PreparedHeading{Level: h.Level, ID: string(idBytes), Text: pw.done()})
 		}

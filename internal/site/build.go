@@ -485,7 +485,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		return nil
 	}
 	errs := make([]error, len(s.Pages))
-	entries := make([]searchEntry, len(s.Pages))
+	entries := make([]render.Packed, len(s.Pages))
 	records := make([]pageRecord, len(s.Pages))
 	s.progress = progress
 	var rendered atomic.Int64
@@ -502,7 +502,12 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
-			entries[i], records[i] = rec.Search, rec
+			packed, err := rec.Search.packed()
+			if err != nil {
+				errs[i] = err
+				return
+			}
+			entries[i], records[i] = packed, rec
 			for _, b := range p.blocks {
 				for range b.Show.Charts {
 					s.chartDone(b.ID)
@@ -513,7 +518,9 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 			}
 		} else {
 			files, entry, err := s.renderPage(p)
-			entries[i] = entry
+			if err == nil {
+				entries[i], err = entry.packed()
+			}
 			if err != nil {
 				errs[i] = err
 				return
@@ -651,7 +658,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 		return nil, searchEntry{}, err
 	}
 	out[p.Out] = page
-	text := p.body.Text.String(func(ref int) string { return s.refText(p, ref) })
+	text, err := p.body.SearchText(func(ref int) string { return s.refText(p, ref) })
+	if err != nil {
+		return nil, searchEntry{}, err
+	}
 	return out, newSearchEntry(p, text, headings), nil
 }
 

@@ -21,10 +21,10 @@ import (
 )
 
 // curveBudget is how many bytes of curves the charted blocks of a site keep
-// from evaluation until their charts are drawn (some 1,200 compressor
+// from evaluation until their charts are drawn (some 600 compressor
 // blocks); past it, the curves of a block are sampled again when drawn, so
 // that a big site's memory does not grow with every chart it holds.
-var curveBudget int64 = 32 << 20
+var curveBudget int64 = 16 << 20
 
 // valueRef is an inline value of a page, as written, with its file line.
 // When Problem is set it is no well-formed reference, and Block, Result
@@ -71,7 +71,9 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 			p.blocks = append(p.blocks, b)
 		}
 	}
-	for _, r := range doc.ValueRefs() {
+	refs := doc.ValueRefs()
+	p.refs = make([]valueRef, 0, len(refs)) // kept to the end: no room to spare
+	for _, r := range refs {
 		p.refs = append(p.refs, valueRef{Block: r.Block, Result: r.Result, Unit: r.Unit,
 			Written: r.Written, Problem: r.Problem, Line: doc.Line(r.Offset)})
 	}
@@ -100,13 +102,12 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	p.links = doc.LinkRefs()
-	p.anchors = map[string]bool{}
-	for _, id := range doc.AnchorIDs() {
-		p.anchors[id] = true
-	}
+	p.anchors = doc.AnchorIDs()
 	for _, b := range p.blocks {
-		p.anchors[render.BlockAnchor(b.ID)] = true
+		p.anchors = append(p.anchors, render.BlockAnchor(b.ID))
 	}
+	slices.Sort(p.anchors)
+	p.anchors = slices.Clip(slices.Compact(p.anchors))
 	return errs.Sorted()
 }
 
@@ -229,8 +230,9 @@ func (s *Site) fill(p *Page, charts pageCharts) func(w util.BufWriter, h render.
 			}
 			render.WriteBlockAt(w, e, h.Source, charts.blocks[h.Line], links, h.Level)
 		case render.HoleValue:
-			v, _ := s.formatRef(p, p.refs[h.Index])
-			render.WriteValue(w, h.Block, h.Result, v.Shown, v.Href)
+			ref := p.refs[h.Index]
+			v, _ := s.formatRef(p, ref)
+			render.WriteValue(w, ref.Block, ref.Result, v.Shown, v.Href)
 		case render.HoleChartRef:
 			render.WriteChartRef(w, charts.fences[h.Index])
 		case render.HoleCautions:

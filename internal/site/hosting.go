@@ -6,6 +6,8 @@ import (
 	"io"
 	"net/url"
 	"slices"
+
+	"github.com/millrace-workshop/specgen/internal/render"
 )
 
 // The files a build writes for web hosts besides the pages.
@@ -19,7 +21,7 @@ const (
 // emitHosting writes what web hosts look for: the search index, the 404
 // page (unless the site has its own) and, with a base_url, sitemap.xml
 // (unless the site has its own).
-func (s *Site) emitHosting(put func(name string, write func(io.Writer) error) error, names *outputNames, entries []searchEntry) error {
+func (s *Site) emitHosting(put func(name string, write func(io.Writer) error) error, names *outputNames, entries []render.Packed) error {
 	if err := put(searchIndexFile, func(w io.Writer) error { return writeSearchIndex(w, entries) }); err != nil {
 		return err
 	}

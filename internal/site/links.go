@@ -80,7 +80,7 @@ func (s *Site) checkLinks(static map[string]bool) inputerr.List {
 				fail("there is no file %s in static/; %s", target, nearFiles(target, static))
 				continue
 			}
-			if frag != "" && !to.anchors[frag] && !to.unread {
+			if frag != "" && !to.hasAnchor(frag) && !to.unread {
 				fail("%s has no heading or block with the anchor #%s", to.File, frag)
 			}
 		}

@@ -7,6 +7,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"unicode/utf8"
@@ -47,7 +48,7 @@ type Page struct {
 	// links are the page's links and images; anchors the ids of its
 	// headings, for checking links into it.
 	links   []render.LinkRef
-	anchors map[string]bool
+	anchors []string // sorted
 	// unread marks a page that could not be read (its problem is
 	// reported): it has its place, but no content, headings or blocks.
 	unread bool
@@ -63,6 +64,12 @@ func (p *Page) Dir() string {
 		return ""
 	}
 	return d
+}
+
+// hasAnchor reports whether the page has an element with the id.
+func (p *Page) hasAnchor(id string) bool {
+	_, found := slices.BinarySearch(p.anchors, id)
+	return found
 }
 
 // frontLine is the file line of a front-matter key (1 when unknown).

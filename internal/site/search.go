@@ -80,15 +80,25 @@ func distinctWords(text string, n int) string {
 	return strings.Join(words, " ")
 }
 
+// packed is the entry as the index holds it until every page is rendered:
+// its JSON, deflated. json.Marshal escapes <, > and & and the line
+// separators U+2028 and U+2029: the text cannot end the script or break
+// its lines.
+func (e searchEntry) packed() (render.Packed, error) {
+	b, err := json.Marshal(e)
+	if err != nil {
+		return render.Packed{}, err
+	}
+	return render.Pack(b)
+}
+
 // writeSearchIndex writes the index script: one call of specgenSearchIndex
-// with every page's entry, in the site's page order.
-func writeSearchIndex(w io.Writer, entries []searchEntry) error {
+// with every page's entry (packed), in the site's page order.
+func writeSearchIndex(w io.Writer, entries []render.Packed) error {
 	bw := bufio.NewWriter(w)
 	bw.WriteString("specgenSearchIndex([\n")
 	for i, e := range entries {
-		// json.Marshal escapes <, > and & and the line separators U+2028
-		// and U+2029: the text cannot end the script or break its lines.
-		b, err := json.Marshal(e)
+		b, err := e.Bytes()
 		if err != nil {
 			return err
 		}
