@@ -350,7 +350,7 @@ func (c Claim) MarkFor(si float64, dim units.Dimension, ambient float64, vacuum 
 	if dim != units.Pressure || !(vacuum || si < ambient) {
 		return ""
 	}
-	if u, err := units.LookupUnit(c.Unit); err != nil || u.Ref != units.Unmarked {
+	if u, ok := units.Known(c.Unit); !ok || u.Ref != units.Unmarked {
 		return ""
 	}
 	absolute := display.AbsoluteUnit(c.Unit)
@@ -365,11 +365,11 @@ func (c Claim) readAbsolute(si float64, dim units.Dimension, ambient float64) (s
 	if dim != units.Pressure {
 		return "", false
 	}
-	if u, err := units.LookupUnit(c.Unit); err != nil || u.Ref != units.Unmarked {
+	if u, ok := units.Known(c.Unit); !ok || u.Ref != units.Unmarked {
 		return "", false
 	}
-	abs, err := units.LookupUnit(c.Unit + "(a)")
-	if err != nil {
+	abs, ok := units.Known(c.Unit + "(a)")
+	if !ok {
 		return "", false
 	}
 	v, err := units.FromSI(si, dim, abs.Symbol, ambient)

@@ -69,7 +69,7 @@ func (e *exprEval) show(v exprVal, unit string, abs bool, sig int) string {
 			unit = display.UnitFor(units.TemperatureDifference, e.customary)
 		}
 	case units.TemperatureDifference:
-		if u, err := units.LookupUnit(unit); err == nil && u.Offset != 0 {
+		if u, ok := units.Known(unit); ok && u.Offset != 0 {
 			unit = display.UnitFor(units.TemperatureDifference, units.SystemOf(u.Symbol) == units.Customary)
 		}
 	}
@@ -81,7 +81,7 @@ func (e *exprEval) show(v exprVal, unit string, abs bool, sig int) string {
 		}
 	}
 	pretty := ""
-	if u, err := units.LookupUnit(unit); err == nil {
+	if u, ok := units.Known(unit); ok {
 		pretty = units.Pretty(u.Symbol)
 	}
 	if pretty == "°" {

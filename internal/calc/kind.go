@@ -210,6 +210,9 @@ type Inputs struct {
 	env     any
 	// noCurves tells the model that nothing will draw or read its curves.
 	noCurves bool
+	// curvesOnly: a chart's second run of the model, of which only the
+	// curves are read.
+	curvesOnly bool
 	// customary: the block is written in US customary units.
 	customary bool
 	// linksWithheld: an early evaluation, with no Link inputs, for the
@@ -232,15 +235,20 @@ func NewInputs(ambient float64, env any) *Inputs {
 // for a model that lays out tables in round numbers of them.
 func (in *Inputs) Customary() bool { return in.customary }
 
-// sampling is a copy of in for running the model again with its curves
-// sampled; the model may write to its own copy.
+// sampling is a copy of in for running the model again for its curves
+// alone; the model may write to its own copy.
 func (in *Inputs) sampling() *Inputs {
 	cp := *in
 	cp.values, cp.lists, cp.given = maps.Clone(in.values), maps.Clone(in.lists), maps.Clone(in.given)
 	cp.names, cp.links = maps.Clone(in.names), maps.Clone(in.links)
-	cp.noCurves = false
+	cp.noCurves, cp.curvesOnly = false, true
 	return &cp
 }
+
+// CurvesOnly reports a run of the model for a chart whose curves were not
+// kept: only the outcome's Curves are read, and they must come out as the
+// first run's would have, so a model may skip its results to get them.
+func (in *Inputs) CurvesOnly() bool { return in.curvesOnly }
 
 // WantCurves reports whether the block's curves are used (by its charts or
 // by a block that links to it); a model may skip sampling them otherwise.

@@ -112,7 +112,7 @@ func (e *Evaluated) Quantity(name string) (si float64, dim units.Dimension, unit
 // unitFromShown is the unit of a formatted value such as "19.7 cm³".
 func unitFromShown(text string) string {
 	_, unit, _ := strings.Cut(text, " ")
-	if u, err := units.LookupUnit(unit); err == nil {
+	if u, ok := units.Known(unit); ok {
 		return u.Symbol
 	}
 	return ""

@@ -54,7 +54,7 @@ func MarkedPressureUnit(si float64, unit string, ambient float64) string {
 	if si < ambient {
 		mark = "(a)"
 	}
-	if m, err := units.LookupUnit(u.Symbol + mark); err == nil {
+	if m, ok := units.Known(u.Symbol + mark); ok {
 		return m.Symbol
 	}
 	return unit
@@ -66,7 +66,7 @@ func AbsoluteUnit(unit string) string {
 	if err != nil || u.Ref == units.Absolute {
 		return unit
 	}
-	if a, err := units.LookupUnit(markless(u.Symbol) + "(a)"); err == nil {
+	if a, ok := units.Known(markless(u.Symbol) + "(a)"); ok {
 		return a.Symbol
 	}
 	return "bar(a)"
@@ -119,7 +119,7 @@ func PressureFigures(abs float64, unit string, ambient float64, sig int) int {
 // ambient, "9.05 mbar(a) · −1010 mbar(g)" below it. Units that are absolute
 // by nature (torr, atm) show alone.
 func PressurePair(abs float64, unit string, ambient float64, sig int) string {
-	if u, err := units.LookupUnit(unit); err == nil && u.Ref == units.Absolute && !strings.HasSuffix(u.Symbol, "(a)") {
+	if u, ok := units.Known(unit); ok && u.Ref == units.Absolute && !strings.HasSuffix(u.Symbol, "(a)") {
 		s, _ := Value(abs, units.Pressure, u.Symbol, ambient, sig)
 		return s
 	}
@@ -162,7 +162,7 @@ func pressureBase(unit string) string {
 	case "atm", "torr":
 		return "kPa"
 	}
-	if _, err := units.LookupUnit(s + "(a)"); err != nil {
+	if _, ok := units.Known(s + "(a)"); !ok {
 		return "bar"
 	}
 	return s

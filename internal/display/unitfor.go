@@ -51,7 +51,7 @@ func DifferenceUnit(unit string) string {
 	if err != nil || u.Dim != units.Pressure || u.Ref == units.Absolute {
 		return unit
 	}
-	if d, err := units.LookupUnit(strings.TrimSuffix(u.Symbol, "(g)") + "(d)"); err == nil {
+	if d, ok := units.Known(strings.TrimSuffix(u.Symbol, "(g)") + "(d)"); ok {
 		return d.Symbol
 	}
 	return unit

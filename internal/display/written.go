@@ -39,7 +39,7 @@ func Written(text string) string {
 	var words []string
 	for _, w := range strings.Fields(claimSigns.Replace(text)) {
 		if n := leadingNumber.FindString(w); n != "" && n != w {
-			if _, err := units.LookupUnit(w[len(n):]); err == nil {
+			if _, ok := units.Known(w[len(n):]); ok {
 				words = append(words, n, w[len(n):])
 				continue
 			}
@@ -54,7 +54,7 @@ func Written(text string) string {
 			if leadingNumber.MatchString(words[i]) {
 				break
 			}
-			if u, err := units.LookupUnit(strings.Join(words[i:j], " ")); err == nil && u.Symbol != "" {
+			if u, ok := units.Known(strings.Join(words[i:j], " ")); ok && u.Symbol != "" {
 				taken, word = j-i, units.Pretty(u.Symbol)
 				break
 			}

@@ -182,6 +182,9 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 
 	cyc := c.cycleAt(c.p1, c.p2)
 	steps := crankSteps(c.cylinders)
+	if in.CurvesOnly() {
+		return &calc.Outcome{Curves: compressorCurves(cyc, c, nil, steps)}, nil
+	}
 	gasOne := sampleRevolution(steps, cyc.gasTorque)
 	gas := phaseSum(gasOne, c.cylinders)
 	peakTorque := gas[0]
@@ -385,8 +388,12 @@ func phaseSum(one []float64, z int) []float64 {
 	sum := make([]float64, m)
 	for k := range z {
 		shift := k * m / z
-		for i := range sum {
-			sum[i] += one[(i-shift+m)%m]
+		// sum[i] += one[(i−shift) mod m], in two runs without the modulus.
+		for i, v := range one[m-shift:] {
+			sum[i] += v
+		}
+		for i, v := range one[:m-shift] {
+			sum[shift+i] += v
 		}
 	}
 	return sum
@@ -402,7 +409,15 @@ func excessEnergyRange(torque []float64, mean float64) (low, high float64) {
 	// Each step by the cubic through four samples (fourth order), not a
 	// trapezoid: smooth stretches of torque integrate far more closely, and
 	// at the kinks of valve events it is no worse.
-	at := func(i int) float64 { return torque[((i%m)+m)%m] }
+	at := func(i int) float64 { // i from −1 to m+1, wrapped
+		switch {
+		case i < 0:
+			return torque[i+m]
+		case i >= m:
+			return torque[i-m]
+		}
+		return torque[i]
+	}
 	acc := 0.0
 	for i := range torque {
 		step := h/2*(at(i)+at(i+1)) - h/24*(at(i+2)-at(i+1)-at(i)+at(i-1))
@@ -439,7 +454,9 @@ func vertex(e []float64, i int) float64 {
 }
 
 // compressorCurves returns the p-V diagram of one cylinder with its
-// isothermal compression line, and the crankshaft torque curves.
+// isothermal compression line, and the crankshaft torque curves. gas is
+// the phased gas torque at each of the steps, or nil to work out the
+// points drawn alone (as exactly: the same sums of the same samples).
 func compressorCurves(cyc *indicatorCycle, c cylinder, gas []float64, steps int) []calc.Curve {
 	stride := steps / curvePoints
 	pick := func(f func(i int) float64) []float64 {
@@ -470,17 +487,37 @@ func compressorCurves(cyc *indicatorCycle, c cylinder, gas []float64, steps int)
 	for i := 0; i <= steps; i += stride {
 		theta = append(theta, angle(i))
 	}
-	curves := []calc.Curve{pv, iso, {Name: "gas_torque", XDim: units.Angle, YDim: units.Torque,
-		X: theta, Y: pick(func(i int) float64 { return gas[i] })}}
+	gasAt := func(i int) float64 { return phaseAt(cyc.gasTorque, i, steps, c.cylinders) }
+	if gas != nil {
+		gasAt = func(i int) float64 { return gas[i] }
+	}
+	gasY := pick(gasAt)
+	curves := []calc.Curve{pv, iso, {Name: "gas_torque", XDim: units.Angle, YDim: units.Torque, X: theta, Y: gasY}}
 	if c.mass > 0 {
-		inertia := phaseSum(sampleRevolution(steps, func(t float64) float64 {
-			return cyc.inertiaTorque(t, c.mass, c.omega)
-		}), c.cylinders)
+		inertiaY := pick(func(i int) float64 {
+			return phaseAt(func(t float64) float64 { return cyc.inertiaTorque(t, c.mass, c.omega) }, i, steps, c.cylinders)
+		})
+		totalY := make([]float64, len(gasY))
+		for i := range totalY {
+			totalY[i] = gasY[i] + inertiaY[i]
+		}
 		curves = append(curves,
-			calc.Curve{Name: "inertia_torque", XDim: units.Angle, YDim: units.Torque,
-				X: theta, Y: pick(func(i int) float64 { return inertia[i] })},
-			calc.Curve{Name: "total_torque", XDim: units.Angle, YDim: units.Torque,
-				X: theta, Y: pick(func(i int) float64 { return gas[i] + inertia[i] })})
+			calc.Curve{Name: "inertia_torque", XDim: units.Angle, YDim: units.Torque, X: theta, Y: inertiaY},
+			calc.Curve{Name: "total_torque", XDim: units.Angle, YDim: units.Torque, X: theta, Y: totalY})
 	}
 	return curves
+}
+
+// phaseAt is phaseSum(sampleRevolution(m, f), z)[i], worked out for step i
+// alone: the same samples added in the same order.
+func phaseAt(f func(theta float64) float64, i, m, z int) float64 {
+	sum := 0.0
+	for k := range z {
+		j := i - k*m/z
+		if j < 0 {
+			j += m
+		}
+		sum += f(2 * math.Pi * float64(j) / float64(m))
+	}
+	return sum
 }

@@ -28,6 +28,16 @@ func (g sliderCrank) position(theta float64) float64 {
 	return 2*g.r*half*half + rs*rs/(g.l+g.rodRoot(sin))
 }
 
+// motion returns position(theta) and velocity(theta), the same numbers,
+// with the sine and the root they share worked out once.
+func (g sliderCrank) motion(theta float64) (x, dx float64) {
+	sin, cos := math.Sincos(theta)
+	half := math.Sin(theta / 2)
+	root := g.rodRoot(sin)
+	rs := g.r * sin
+	return 2*g.r*half*half + rs*rs/(g.l+root), g.r * sin * (1 + g.r*cos/root)
+}
+
 // velocity returns dx/dθ = r sin θ (1 + r cos θ / sqrt(l² − r² sin² θ)).
 func (g sliderCrank) velocity(theta float64) float64 {
 	sin, cos := math.Sincos(theta)
@@ -83,8 +93,12 @@ func (c *indicatorCycle) volume(theta float64) float64 {
 // pressure returns the cylinder pressure (Pa absolute) at crank angle
 // theta; the suction stroke runs from 0 to π, compression from π to 2π.
 func (c *indicatorCycle) pressure(theta float64) float64 {
-	v := c.volume(theta)
-	if math.Mod(theta, 2*math.Pi) <= math.Pi {
+	return c.pressureAt(theta, c.volume(theta))
+}
+
+// pressureAt is pressure(theta) given the volume v there.
+func (c *indicatorCycle) pressureAt(theta, v float64) float64 {
+	if firstHalf(theta) {
 		if v >= c.suctionFrom {
 			return c.p1
 		}
@@ -100,7 +114,18 @@ func (c *indicatorCycle) pressure(theta float64) float64 {
 // crank at theta, by virtual work: T = −(p − p_amb)·A·dx/dθ. It is positive
 // when the crank must drive the piston (compression and delivery).
 func (c *indicatorCycle) gasTorque(theta float64) float64 {
-	return -(c.pressure(theta) - c.ambient) * c.area * c.crank.velocity(theta)
+	x, dx := c.crank.motion(theta)
+	return -(c.pressureAt(theta, c.clearance+c.area*x) - c.ambient) * c.area * dx
+}
+
+// firstHalf reports whether crank angle theta falls in the first half of
+// its revolution, (theta mod 2π) ≤ π; a revolution's own angles need no
+// remainder, the costliest step of a sample.
+func firstHalf(theta float64) bool {
+	if theta >= 0 && theta < 2*math.Pi {
+		return theta <= math.Pi
+	}
+	return math.Mod(theta, 2*math.Pi) <= math.Pi
 }
 
 // inertiaTorque returns the load torque needed to accelerate a

@@ -514,7 +514,7 @@ func fillCurve(t tankInput) calc.Curve {
 // units gets steps of psi instead, fewer of them, as psi are small.
 func fillTable(t tankInput) calc.Table {
 	unit, perUnit, maxRows := "bar", 1e5, fillTableMaxRows
-	if psi, err := units.LookupUnit("psi"); err == nil && t.customary {
+	if psi, ok := units.Known("psi"); ok && t.customary {
 		unit, perUnit, maxRows = "psi", psi.Factor, fillTableMaxRowsPsi
 	}
 	c := calc.Table{Title: "Fill time by tank pressure",

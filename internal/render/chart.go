@@ -377,7 +377,7 @@ func axisLabel(a calc.Axis) string {
 		return a.Label
 	}
 	unit := units.Pretty(a.Unit)
-	if u, err := units.LookupUnit(a.Unit); err == nil && u.Dim == units.Pressure {
+	if u, ok := units.Known(a.Unit); ok && u.Dim == units.Pressure {
 		base := strings.TrimSuffix(strings.TrimSuffix(unit, "(a)"), "(g)")
 		switch u.Ref {
 		case units.Absolute:

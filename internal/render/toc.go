@@ -175,6 +175,9 @@ func writeText(buf *bytes.Buffer, n ast.Node, source []byte, ref func(*ValueRef)
 // resolved ("AT&amp;T" reads "AT&T"). Goldmark's own writer does the
 // work, so that the title and contents never differ from the page body.
 func shownText(value []byte) string {
+	if bytes.IndexAny(value, "&\\\x00") < 0 {
+		return string(value) // no escape, reference or NUL: shown as written
+	}
 	var b strings.Builder
 	w := bufio.NewWriter(&b)
 	gmhtml.DefaultWriter.Write(w, value)

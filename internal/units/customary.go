@@ -75,7 +75,7 @@ func CustomaryFor(unit string) string {
 	if !ok {
 		return unit
 	}
-	if _, err := LookupUnit(c + mark); err != nil {
+	if _, ok := Known(c + mark); !ok {
 		return unit
 	}
 	return c + mark

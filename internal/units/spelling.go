@@ -59,6 +59,15 @@ var foldedSpellings = func() map[string][]string {
 	return m
 }()
 
+// Known returns the unit spelled s and true, or false when s names none.
+// It is LookupUnit without the error, and without the search for a near
+// miss that the error's message needs: the way to ask whether a word is a
+// unit.
+func Known(s string) (Unit, bool) {
+	u, ok, _ := lookup(normalize(s), -1)
+	return u, ok
+}
+
 // LookupUnitAs returns the unit spelled s, read as the dimension want: a
 // spelling that names one unit per dimension ("ft-lb") names want's. See
 // LookupUnit.
