@@ -57,6 +57,12 @@ type Summary struct {
 	UpToDate bool      // nothing had changed since the last build: nothing was redone
 }
 
+// plainBudget is how many bytes of prepared pages and search entries a
+// build keeps as they are before it deflates the rest: a site of a few
+// thousand pages spends no time packing, a bigger one holds this much
+// more than the deflated data.
+const plainBudget = 24 << 20
+
 // Site is a loaded site: configuration, layouts and parsed pages.
 type Site struct {
 	Root    string
@@ -67,6 +73,7 @@ type Site struct {
 	// readingAt is each page's place in reading.
 	readingAt map[*Page]int
 	md        *render.Markdown
+	packer    *render.Packer // of md, and of the search entries
 	layouts   *layouts
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
@@ -142,7 +149,9 @@ func load(root string, opt loadOptions) (*Site, error) {
 	if rels == nil {
 		return nil, reported()
 	}
-	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML)), outcomes: opt.outcomes}
+	packer := render.NewPacker(plainBudget)
+	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes,
+		md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML), render.WithPacker(packer))}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
@@ -502,7 +511,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
-			packed, err := rec.Search.packed()
+			packed, err := rec.Search.packed(s.packer)
 			if err != nil {
 				errs[i] = err
 				return
@@ -519,7 +528,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		} else {
 			files, entry, err := s.renderPage(p)
 			if err == nil {
-				entries[i], err = entry.packed()
+				entries[i], err = entry.packed(s.packer)
 			}
 			if err != nil {
 				errs[i] = err
