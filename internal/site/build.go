@@ -640,6 +640,14 @@ func (s *Site) Home() string {
 	return s.reading[0].Out
 }
 
+// bodyBuffers hold pages' bodies while they are laid out: a page's body
+// is some tens of kilobytes, written in many small pieces.
+var bodyBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
+// layoutRoom is what a layout adds to a page's body, the most of it
+// navigation, which is bounded (navReach), with room to spare.
+const layoutRoom = 24 << 10
+
 // renderPage lays out one page; it returns the page and the chart data
 // files beside it, keyed by output path, and the page's entry of the
 // search index.
@@ -653,8 +661,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
-	var body bytes.Buffer
-	if err := p.body.Write(&body, s.fill(p, charts)); err != nil {
+	body := bodyBuffers.Get().(*bytes.Buffer)
+	defer bodyBuffers.Put(body)
+	body.Reset()
+	if err := p.body.Write(body, s.fill(p, charts)); err != nil {
 		return nil, searchEntry{}, err
 	}
 	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
@@ -709,6 +719,7 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
 	}
 	var buf bytes.Buffer
+	buf.Grow(len(info.Content) + layoutRoom) // one allocation for most pages
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}
