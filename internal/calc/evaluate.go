@@ -44,6 +44,7 @@ type Set struct {
 	// blocks whose WithoutLinks results others quote.
 	early map[string]*Evaluated
 	opts  Options
+	index setIndex
 }
 
 // Lookup returns the evaluated block with the given id.
