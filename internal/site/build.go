@@ -61,7 +61,7 @@ type Summary struct {
 // build keeps as they are before it deflates the rest: a site of a few
 // thousand pages spends no time packing, a bigger one holds this much
 // more than the deflated data.
-const plainBudget = 24 << 20
+const plainBudget = 16 << 20
 
 // Site is a loaded site: configuration, layouts and parsed pages.
 type Site struct {
