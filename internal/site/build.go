@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"cmp"
 	"context"
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"html/template"
@@ -18,7 +19,6 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
 	"github.com/millrace-workshop/specgen/internal/render"
-	"github.com/millrace-workshop/specgen/internal/results"
 	"github.com/millrace-workshop/specgen/internal/version"
 )
 
@@ -109,6 +109,11 @@ type loadOptions struct {
 	// build that takes most of them over from the last one.
 	later bool
 	pages *pageCache // the pages last read, to read again only changed ones
+	// forms are what the last builds took from each page's source, used
+	// for pages whose hash in sums (by path from content/) is as it was
+	// then; pages read from their files join them.
+	forms *pageForms
+	sums  map[string][sha256.Size]byte
 	// revision, when revisionRead, is the git revision already read (nil
 	// outside git), which the pages show.
 	revision     *Revision
@@ -158,9 +163,15 @@ func load(root string, opt loadOptions) (*Site, error) {
 		if pages[i] = opt.pages.lookup(root, rels[i]); pages[i] != nil {
 			return
 		}
+		if sum, ok := opt.sums[rels[i]]; ok && opt.later {
+			if pages[i] = opt.forms.page(rels[i], sum, cfg.catalog); pages[i] != nil {
+				return
+			}
+		}
 		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog, opt.later)
 		if errs[i] == nil {
 			opt.pages.keep(pages[i])
+			opt.forms.keep(pages[i])
 		}
 	})
 	if err := keep(collect(errs)); err != nil {
@@ -237,17 +248,18 @@ func Build(root string, opts Options) (*Summary, error) {
 	// The output is looked over while the inputs are read.
 	intact := make(chan bool, 1)
 	go func() { intact <- last.intact(out) }()
-	fp, revision, fpErr := fingerprint(root, out)
+	fp, revision, sums, fpErr := fingerprint(root, out)
 	wasIntact := <-intact
 	if wasIntact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
 			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}
 	// What the last build left is read while the pages are.
-	outcomes := readingOutcomes(root)
+	outcomes, forms := readingOutcomes(root), readingPageForms(root)
 	reusable := make(chan *lastOutput, 1)
 	go func() { reusable <- last.reusable(root, out, wasIntact) }()
-	s, err := load(root, loadOptions{outcomes: outcomes, later: last.rendersLike(root), revision: revision, revisionRead: fpErr == nil})
+	s, err := load(root, loadOptions{outcomes: outcomes, later: last.rendersLike(root), revision: revision, revisionRead: fpErr == nil,
+		forms: forms.forms(), sums: sums})
 	takeOver := <-reusable
 	if err != nil {
 		return nil, err
@@ -267,6 +279,9 @@ func Build(root string, opts Options) (*Summary, error) {
 	sum.Problems, sum.Tally = problems, tally
 	if o := outcomes.store(); o != nil {
 		_ = o.save(filepath.Join(root, CacheDir))
+	}
+	if f := forms.forms(); f != nil {
+		_ = f.save(filepath.Join(root, CacheDir))
 	}
 	if fpErr == nil {
 		remember(root, out, fp, sum.Pages, problems, tally, record, files)
@@ -323,6 +338,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 			mu.Unlock()
 			return st.create(name, write)
 		},
+		last: last.read,
 		keep: func(name string) bool {
 			if interrupted() || !last.linkInto(st.dir, name) {
 				return false
@@ -391,6 +407,7 @@ func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord, recor
 			mu.Unlock()
 			return nil
 		},
+		last: func(name string) []byte { return files[name] },
 		keep: func(name string) bool {
 			data, ok := files[name]
 			if ok {
@@ -447,9 +464,14 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	defer waitResults()
 	if previous == nil || previous.Results != blocks.all || !to.keep("results.json") {
 		go func() {
-			resultsWritten <- put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) })
+			resultsWritten <- put("results.json", func(w io.Writer) error {
+				var err error
+				record.Entries, err = s.writeResults(w, to, previous, blocks)
+				return err
+			})
 		}()
 	} else {
+		record.Entries = previous.Entries
 		resultsWritten <- nil
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
@@ -653,7 +675,7 @@ const layoutRoom = 24 << 10
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
-	if err := p.prepare(s.md, s.Config.catalog); err != nil {
+	if err := p.prepare(s.Root, s.md, s.Config.catalog); err != nil {
 		return nil, searchEntry{}, err
 	}
 	up := rootPrefix(p.Out)

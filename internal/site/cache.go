@@ -3,6 +3,7 @@ package site
 import (
 	"bytes"
 	"crypto/sha256"
+	"debug/elf"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
@@ -53,12 +54,13 @@ type outputFile struct {
 // fingerprint hashes everything a build reads: the specgen binary, the
 // output folder, the git revision shown on data sheets, specgen.toml and
 // every file under content/, templates/ and static/. It returns the
-// revision too, which the build then shows.
-func fingerprint(root, out string) (string, *Revision, error) {
+// revision too, which the build then shows, and the hash of each file of
+// content/ by its path from there.
+func fingerprint(root, out string) (string, *Revision, map[string][sha256.Size]byte, error) {
 	h := sha256.New()
 	self, err := binaryHash()
 	if err != nil {
-		return "", nil, err
+		return "", nil, nil, err
 	}
 	fmt.Fprintf(h, "specgen %s\nout %s\n", self, out)
 	// git runs while the files are read.
@@ -75,73 +77,109 @@ func fingerprint(root, out string) (string, *Revision, error) {
 	}
 	sort.Strings(paths)
 	// Files are hashed in parallel, each on its own, then in order.
-	sums := make([][]byte, len(paths))
+	lines := make([][]byte, len(paths))
+	sums := make([][sha256.Size]byte, len(paths))
 	errs := make([]error, len(paths))
-	calc.Parallel(len(paths), func(i int) { sums[i], errs[i] = fileDigest(root, paths[i]) })
+	calc.Parallel(len(paths), func(i int) { lines[i], sums[i], errs[i] = fileDigest(root, paths[i]) })
 	r := <-revision
 	if r != nil {
 		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
 	}
-	for i := range paths {
+	content := filepath.Join(root, ContentDir) + string(filepath.Separator)
+	bySource := make(map[string][sha256.Size]byte, len(paths))
+	for i, p := range paths {
 		if errs[i] != nil {
-			return "", nil, errs[i]
+			return "", nil, nil, errs[i]
 		}
-		h.Write(sums[i])
+		h.Write(lines[i])
+		if rel, ok := strings.CutPrefix(p, content); ok && lines[i] != nil {
+			bySource[filepath.ToSlash(rel)] = sums[i]
+		}
 	}
-	return hex.EncodeToString(h.Sum(nil)), r, nil
+	return hex.EncodeToString(h.Sum(nil)), r, bySource, nil
 }
 
 // fileDigest identifies a file by its path from the root, its mode and
-// the hash of its contents; a missing file gives nothing.
-func fileDigest(root, p string) ([]byte, error) {
+// the hash of its contents, which it returns too; a missing file gives
+// nothing.
+func fileDigest(root, p string) ([]byte, [sha256.Size]byte, error) {
+	var sum [sha256.Size]byte
 	info, err := os.Lstat(p)
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, nil
+		return nil, sum, nil
 	}
 	if err != nil {
-		return nil, err
+		return nil, sum, err
 	}
 	rel, _ := filepath.Rel(root, p)
-	var sum [sha256.Size]byte
 	if info.Mode().IsRegular() {
 		data, err := os.ReadFile(p)
 		if err != nil {
-			return nil, err
+			return nil, sum, err
 		}
 		sum = sha256.Sum256(data)
 	}
-	return fmt.Appendf(nil, "file %q %v %x\n", filepath.ToSlash(rel), info.Mode(), sum), nil
+	return fmt.Appendf(nil, "file %q %v %x\n", filepath.ToSlash(rel), info.Mode(), sum), sum, nil
 }
 
-var (
-	selfHash     string
-	selfHashErr  error
-	selfHashOnce sync.Once
-)
+// binaryHash identifies the running specgen, so that a cache never
+// outlives the code that wrote it. Tests stand another binary in.
+var binaryHash = sync.OnceValues(func() (string, error) {
+	exe, err := os.Executable()
+	if err != nil {
+		return "", err
+	}
+	return executableID(exe)
+})
 
-// binaryHash identifies the running specgen by the hash of its
-// executable, so that a cache never outlives the code that wrote it.
-func binaryHash() (string, error) {
-	selfHashOnce.Do(func() {
-		exe, err := os.Executable()
-		if err != nil {
-			selfHashErr = err
-			return
-		}
-		f, err := os.Open(exe)
-		if err != nil {
-			selfHashErr = err
-			return
-		}
-		defer f.Close()
-		h := sha256.New()
-		if _, err := io.Copy(h, f); err != nil {
-			selfHashErr = err
-			return
-		}
-		selfHash = hex.EncodeToString(h.Sum(nil))
-	})
-	return selfHash, selfHashErr
+// executableID identifies an executable by the build ID the Go linker
+// writes into an ELF file, whose last part hashes the file's content,
+// read in microseconds; else (another format, or no build ID) by the
+// hash of the whole file.
+func executableID(exe string) (string, error) {
+	if id := goBuildID(exe); id != "" {
+		return "go build ID " + id, nil
+	}
+	f, err := os.Open(exe)
+	if err != nil {
+		return "", err
+	}
+	defer f.Close()
+	h := sha256.New()
+	if _, err := io.Copy(h, f); err != nil {
+		return "", err
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// goBuildID reads the Go build ID of an ELF executable from its note,
+// "" when it has none. The ID's last part, after a slash, is the content
+// ID, the hash of the linked file; an ID without one is not taken.
+func goBuildID(exe string) string {
+	f, err := elf.Open(exe)
+	if err != nil {
+		return ""
+	}
+	defer f.Close()
+	s := f.Section(".note.go.buildid")
+	if s == nil {
+		return ""
+	}
+	note, err := s.Data()
+	if err != nil || len(note) < 16 {
+		return ""
+	}
+	nameSize, descSize, tag := f.ByteOrder.Uint32(note), f.ByteOrder.Uint32(note[4:]), f.ByteOrder.Uint32(note[8:])
+	const goBuildIDTag = 4
+	descAt := 12 + (uint64(nameSize)+3)&^3
+	if tag != goBuildIDTag || nameSize != 4 || string(note[12:16]) != "Go\x00\x00" || descAt+uint64(descSize) > uint64(len(note)) {
+		return ""
+	}
+	id := string(note[descAt : descAt+uint64(descSize)])
+	if i := strings.LastIndexByte(id, '/'); i < 0 || i == len(id)-1 {
+		return ""
+	}
+	return id
 }
 
 // manifestPath is where the manifest for an output folder lives.
@@ -279,6 +317,32 @@ func (l *lastOutput) linkInto(dir, name string) bool {
 		err = os.Link(from, to)
 	}
 	return err == nil || copyFile(from, to) == nil
+}
+
+// read reads the last build's file name, nil when it is no longer as that
+// build left it.
+func (l *lastOutput) read(name string) []byte {
+	if l == nil {
+		return nil
+	}
+	want, ok := l.files[name]
+	if !ok {
+		return nil
+	}
+	f, err := os.Open(filepath.Join(l.dir, filepath.FromSlash(name)))
+	if err != nil {
+		return nil
+	}
+	defer f.Close()
+	info, err := f.Stat()
+	if err != nil || !want.is(info) {
+		return nil
+	}
+	data, err := io.ReadAll(f)
+	if err != nil || int64(len(data)) != want.Size {
+		return nil
+	}
+	return data
 }
 
 // copyFile copies a file, keeping its modification time, so that the

@@ -12,6 +12,7 @@ import (
 	"sort"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // buildRecord is what one build's output was made from, so that the next
@@ -23,6 +24,16 @@ type buildRecord struct {
 	// Results is the key of results.json: every block as evaluated.
 	Results string                `json:"results"`
 	Pages   map[string]pageRecord `json:"pages"` // by source file
+	// Entries are the places of the blocks' entries in results.json, by
+	// block id.
+	Entries map[string]resultsEntry `json:"entries"`
+}
+
+// resultsEntry is where one block's entry lies in results.json, and the
+// key it was made from: the block as evaluated, with its place.
+type resultsEntry struct {
+	Key     string
+	At, Len int64
 }
 
 // pageRecord is what one page's render produced.
@@ -39,6 +50,8 @@ type sink struct {
 	// keep takes a file as the last build left it, or reports false
 	// (there was no last build, or the file is no longer as it was).
 	keep func(name string) bool
+	// last reads a file as the last build left it, nil when it cannot.
+	last func(name string) []byte
 	// record: the build is recorded, for the next one to take over from.
 	record bool
 }
@@ -207,4 +220,34 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 		}
 	}
 	return d.sum()
+}
+
+// writeResults writes results.json, taking the entry of every block whose
+// key is as the last build recorded it from that build's file.
+func (s *Site) writeResults(w io.Writer, to sink, previous *buildRecord, blocks blockDigests) (map[string]resultsEntry, error) {
+	list := s.blocks()
+	var old []byte
+	var last map[string]resultsEntry
+	if previous != nil && len(previous.Entries) > 0 && blocks.own != nil {
+		old, last = to.last("results.json"), previous.Entries
+	}
+	lens := make([]int64, len(list))
+	at, err := results.WriteEntries(w, len(list), func(i int) ([]byte, error) {
+		id := list[i].Block.ID
+		if e, ok := last[id]; ok && old != nil && e.Key == blocks.own[id] && e.At >= 0 && e.Len >= 0 && e.At+e.Len <= int64(len(old)) {
+			lens[i] = e.Len
+			return old[e.At : e.At+e.Len], nil
+		}
+		b, err := results.Entry(list[i])
+		lens[i] = int64(len(b))
+		return b, err
+	})
+	if err != nil || blocks.own == nil {
+		return nil, err
+	}
+	entries := make(map[string]resultsEntry, len(list))
+	for i, e := range list {
+		entries[e.Block.ID] = resultsEntry{Key: blocks.own[e.Block.ID], At: at[i], Len: lens[i]}
+	}
+	return entries, nil
 }

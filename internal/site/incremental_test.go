@@ -59,7 +59,7 @@ func (e siteEdit) apply(t *testing.T, root string) {
 	p := filepath.Join(root, filepath.FromSlash(e.file))
 	switch {
 	case e.old == "" && e.new == "":
-		if err := os.Remove(p); err != nil {
+		if err := os.RemoveAll(p); err != nil {
 			t.Fatal(err)
 		}
 		return
@@ -96,6 +96,8 @@ type incrementalCase struct {
 	// commit: the site is a git repository, and the edit a new commit
 	// (the revision data sheets show).
 	commit bool
+	// binary: the edited site is built by another specgen binary.
+	binary bool
 }
 
 // incrementalCases are the edits, one of each way a page's output can
@@ -139,9 +141,22 @@ func incrementalCases(t *testing.T) []incrementalCase {
 			remade: []string{"b/notes.html"}},
 		{name: "an output file deleted by hand", edits: []siteEdit{{"dist/a/stage.lp.pv.csv", "", ""}},
 			remade: []string{"a/stage.html"}},
+		// Entries of unchanged blocks are taken from the last results.json
+		// only while it is as that build left it.
+		{name: "results.json edited by hand, then a block", edits: []siteEdit{{"dist/results.json", `"id": "hp"`, `"id": "hp by hand"`},
+			{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
 		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
 		{name: "a new commit", commit: true, edits: []siteEdit{{"content/index.md", "The home page.", "The home page, committed."}}},
 		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
+		{name: "a new specgen binary", binary: true, edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
+		// The cache is safe to delete or damage, each file of it.
+		{name: "the cache deleted", edits: []siteEdit{{CacheDir, "", ""}, {"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
+		{name: "the page forms deleted", edits: []siteEdit{{CacheDir + "/" + pageFormsFile, "", ""},
+			{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}, remade: []string{"b/notes.html"}},
+		{name: "the page forms damaged", edits: []siteEdit{{CacheDir + "/" + pageFormsFile, "", "not a gob stream"},
+			{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}, remade: []string{"b/notes.html"}},
+		{name: "the outcomes damaged", edits: []siteEdit{{CacheDir + "/" + outcomesFile, "", "not a gob stream"},
+			{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
 	}
 }
 
@@ -174,6 +189,11 @@ func editIncrementalSite(t *testing.T, root string, c incrementalCase) {
 	}
 	if c.commit {
 		gitIn(t, root, "commit", "-q", "-a", "-m", "An edit")
+	}
+	if c.binary {
+		running := binaryHash
+		binaryHash = func() (string, error) { return "another specgen", nil }
+		t.Cleanup(func() { binaryHash = running })
 	}
 }
 
@@ -438,8 +458,8 @@ func TestOutcomeStoreAdds(t *testing.T) {
 // a fresh render of the edited site, file by file.
 func TestSessionNeverStale(t *testing.T) {
 	for _, c := range incrementalCases(t) {
-		if strings.HasPrefix(c.edits[0].file, DefaultOut+"/") {
-			continue // the preview writes no output folder
+		if strings.HasPrefix(c.edits[0].file, DefaultOut+"/") || strings.HasPrefix(c.edits[0].file, CacheDir) {
+			continue // the preview writes no output folder and no cache
 		}
 		t.Run(c.name, func(t *testing.T) {
 			root := t.TempDir()
