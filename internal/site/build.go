@@ -82,6 +82,7 @@ type Site struct {
 	// listingPages list every caution of the site, in page order.
 	listingPages []*Page
 	revision     *Revision
+	generator    string // version.Generator, read once
 	// outcomes, when set, keeps the models' outcomes between builds.
 	outcomes calc.OutcomeStore
 	// progress hears of charts drawn during render; charts counts them.
@@ -155,7 +156,7 @@ func load(root string, opt loadOptions) (*Site, error) {
 		return nil, reported()
 	}
 	packer := render.NewPacker(plainBudget)
-	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes,
+	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes, generator: version.Generator(),
 		md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML), render.WithPacker(packer))}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
@@ -709,6 +710,14 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 // pageInfo describes page p to its template, all but what its Markdown
 // renders to (Content and the TOC).
 func (s *Site) pageInfo(p *Page) PageInfo {
+	info := s.pageInfoBut(p)
+	info.Cautions = pageCautions(s.shownCautions(p))
+	return info
+}
+
+// pageInfoBut is pageInfo but for Cautions, which shownCautions lists the
+// makings of.
+func (s *Site) pageInfoBut(p *Page) PageInfo {
 	info := PageInfo{
 		Title:       p.Title,
 		Heading:     cmp.Or(p.Heading, p.Title),
@@ -717,7 +726,6 @@ func (s *Site) pageInfo(p *Page) PageInfo {
 		URL:         p.Out,
 		Caution:     s.standardCaution(p),
 		Alert:       s.pageAlert(p),
-		Cautions:    s.pageCautions(p),
 	}
 	if s.Config.BaseURL != "" {
 		info.Canonical = s.Config.BaseURL + href(p.Out)
@@ -729,7 +737,7 @@ func (s *Site) pageInfo(p *Page) PageInfo {
 // is rootPrefix.
 func (s *Site) siteData(rootPrefix string) SiteData {
 	return SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
-		Generator: version.Generator()}
+		Generator: s.generator}
 }
 
 // layout lays out page p, whose way up to the site's root is rootPrefix,

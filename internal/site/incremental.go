@@ -198,7 +198,9 @@ func (s *Site) blockDigests() blockDigests {
 func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d := newDigest()
 	d.add(renderFP, p.File, p.Out, p.sourceSum[:], p.listsCautions)
-	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfo(p)))
+	// The caution boxes as what they show: rendering them is the most of
+	// a page's layout data.
+	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfoBut(p)), s.shownCautions(p))
 	for _, b := range p.blocks {
 		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
 		for _, key := range slices.Sorted(maps.Keys(b.Values)) {
