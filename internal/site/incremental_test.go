@@ -494,3 +494,86 @@ func TestSessionNeverStale(t *testing.T) {
 		})
 	}
 }
+
+// TestDeepCopySharesNothing fills every field of a memo, copies it and
+// walks both: no slice, map or pointer of the copy is the original's, and
+// the copy is equal to it. Values that hold only numbers and strings are
+// copied whole, which is a deep copy since strings cannot be changed.
+func TestDeepCopySharesNothing(t *testing.T) {
+	m := &calc.Memo{}
+	fill(reflect.ValueOf(m).Elem(), 0)
+	c := deepCopy(m)
+	if !reflect.DeepEqual(c, m) {
+		t.Fatal("the copy differs from the memo")
+	}
+	var walk func(a, b reflect.Value, path string)
+	walk = func(a, b reflect.Value, path string) {
+		switch a.Kind() {
+		case reflect.Pointer:
+			if a.Pointer() == b.Pointer() {
+				t.Errorf("%s: the copy shares the pointer", path)
+			}
+			walk(a.Elem(), b.Elem(), path)
+		case reflect.Slice:
+			if a.Len() > 0 && a.Pointer() == b.Pointer() {
+				t.Errorf("%s: the copy shares the slice", path)
+			}
+			for i := range a.Len() {
+				walk(a.Index(i), b.Index(i), path+"[]")
+			}
+		case reflect.Map:
+			if a.Pointer() == b.Pointer() {
+				t.Errorf("%s: the copy shares the map", path)
+			}
+			for _, k := range a.MapKeys() {
+				walk(a.MapIndex(k), b.MapIndex(k), path+"[]")
+			}
+		case reflect.Struct:
+			for i := range a.NumField() {
+				walk(a.Field(i), b.Field(i), path+"."+a.Type().Field(i).Name)
+			}
+		}
+	}
+	walk(reflect.ValueOf(c), reflect.ValueOf(m), "Memo")
+}
+
+// fill gives every field reachable from v a value other than zero: two
+// elements for slices and maps.
+func fill(v reflect.Value, n int) {
+	switch v.Kind() {
+	case reflect.Bool:
+		v.SetBool(true)
+	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64:
+		v.SetInt(int64(n + 1))
+	case reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64:
+		v.SetUint(uint64(n + 1))
+	case reflect.Float32, reflect.Float64:
+		v.SetFloat(float64(n) + 0.5)
+	case reflect.String:
+		v.SetString(fmt.Sprint("s", n))
+	case reflect.Pointer:
+		v.Set(reflect.New(v.Type().Elem()))
+		fill(v.Elem(), n)
+	case reflect.Slice:
+		v.Set(reflect.MakeSlice(v.Type(), 2, 2))
+		for i := range 2 {
+			fill(v.Index(i), n+i)
+		}
+	case reflect.Map:
+		v.Set(reflect.MakeMap(v.Type()))
+		for i := range 2 {
+			k, e := reflect.New(v.Type().Key()).Elem(), reflect.New(v.Type().Elem()).Elem()
+			fill(k, n+i)
+			fill(e, n+i)
+			v.SetMapIndex(k, e)
+		}
+	case reflect.Struct:
+		for i := range v.NumField() {
+			fill(v.Field(i), n+i)
+		}
+	case reflect.Array:
+		for i := range v.Len() {
+			fill(v.Index(i), n+i)
+		}
+	}
+}
