@@ -94,8 +94,9 @@ func Write(w io.Writer, blocks []*calc.Evaluated) error {
 func Entry(e *calc.Evaluated) ([]byte, error) { return json.MarshalIndent(blockOf(e), "    ", "  ") }
 
 // WriteEntries is Write with the n blocks' entries given by entry, each as
-// Entry makes it. It returns where each entry starts in what it wrote, so
-// that a later build can take those of unchanged blocks over.
+// Entry makes it; what entry returns is written before it is called again.
+// It returns where each entry starts in what it wrote, so that a later
+// build can take those of unchanged blocks over.
 func WriteEntries(w io.Writer, n int, entry func(i int) ([]byte, error)) ([]int64, error) {
 	cw := &countingWriter{w: w}
 	bw := bufio.NewWriter(cw)

@@ -339,7 +339,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 			mu.Unlock()
 			return st.create(name, write)
 		},
-		last: last.read,
+		last: last.open,
 		keep: func(name string) bool {
 			if interrupted() || !last.linkInto(st.dir, name) {
 				return false
@@ -408,7 +408,12 @@ func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord, recor
 			mu.Unlock()
 			return nil
 		},
-		last: func(name string) []byte { return files[name] },
+		last: func(name string) lastFile {
+			if data, ok := files[name]; ok {
+				return lastBytes{bytes.NewReader(data)}
+			}
+			return nil
+		},
 		keep: func(name string) bool {
 			data, ok := files[name]
 			if ok {

@@ -319,9 +319,9 @@ func (l *lastOutput) linkInto(dir, name string) bool {
 	return err == nil || copyFile(from, to) == nil
 }
 
-// read reads the last build's file name, nil when it is no longer as that
-// build left it.
-func (l *lastOutput) read(name string) []byte {
+// open opens the last build's file name, nil when it is no longer as
+// that build left it.
+func (l *lastOutput) open(name string) lastFile {
 	if l == nil {
 		return nil
 	}
@@ -333,16 +333,11 @@ func (l *lastOutput) read(name string) []byte {
 	if err != nil {
 		return nil
 	}
-	defer f.Close()
-	info, err := f.Stat()
-	if err != nil || !want.is(info) {
+	if info, err := f.Stat(); err != nil || !want.is(info) {
+		f.Close()
 		return nil
 	}
-	data, err := io.ReadAll(f)
-	if err != nil || int64(len(data)) != want.Size {
-		return nil
-	}
-	return data
+	return f
 }
 
 // copyFile copies a file, keeping its modification time, so that the

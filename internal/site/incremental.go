@@ -1,6 +1,7 @@
 package site
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"io"
@@ -50,8 +51,8 @@ type sink struct {
 	// keep takes a file as the last build left it, or reports false
 	// (there was no last build, or the file is no longer as it was).
 	keep func(name string) bool
-	// last reads a file as the last build left it, nil when it cannot.
-	last func(name string) []byte
+	// last opens a file as the last build left it, nil when it cannot.
+	last func(name string) lastFile
 	// record: the build is recorded, for the next one to take over from.
 	record bool
 }
@@ -224,21 +225,39 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	return d.sum()
 }
 
+// lastFile is a file of the last build, read in pieces.
+type lastFile interface {
+	io.ReaderAt
+	io.Closer
+}
+
+// lastBytes is a file of the last build held in memory.
+type lastBytes struct{ *bytes.Reader }
+
+func (lastBytes) Close() error { return nil }
+
 // writeResults writes results.json, taking the entry of every block whose
 // key is as the last build recorded it from that build's file.
 func (s *Site) writeResults(w io.Writer, to sink, previous *buildRecord, blocks blockDigests) (map[string]resultsEntry, error) {
 	list := s.blocks()
-	var old []byte
+	var old lastFile
 	var last map[string]resultsEntry
 	if previous != nil && len(previous.Entries) > 0 && blocks.own != nil {
-		old, last = to.last("results.json"), previous.Entries
+		if old = to.last("results.json"); old != nil {
+			defer old.Close()
+			last = previous.Entries
+		}
 	}
 	lens := make([]int64, len(list))
+	var buf []byte
 	at, err := results.WriteEntries(w, len(list), func(i int) ([]byte, error) {
 		id := list[i].Block.ID
-		if e, ok := last[id]; ok && old != nil && e.Key == blocks.own[id] && e.At >= 0 && e.Len >= 0 && e.At+e.Len <= int64(len(old)) {
-			lens[i] = e.Len
-			return old[e.At : e.At+e.Len], nil
+		if e, ok := last[id]; ok && e.Key == blocks.own[id] && e.At >= 0 && e.Len >= 0 && e.Len < 1<<30 {
+			buf = slices.Grow(buf[:0], int(e.Len))[:e.Len]
+			if _, err := old.ReadAt(buf, e.At); err == nil {
+				lens[i] = e.Len
+				return buf, nil
+			}
 		}
 		b, err := results.Entry(list[i])
 		lens[i] = int64(len(b))
