@@ -331,12 +331,15 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 			if interrupted() {
 				return ErrInterrupted
 			}
-			// A file kept before its page had to be made again is a link
-			// to the last output: never write through it.
-			_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
 			mu.Lock()
+			_, linked := kept[name]
 			written = append(written, name)
 			mu.Unlock()
+			if linked {
+				// A file kept before its page had to be made again is a
+				// link to the last output: never write through it.
+				_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
+			}
 			return st.create(name, write)
 		},
 		last: last.open,
