@@ -18,7 +18,10 @@ import (
 // build after an edit, the preview). The key is a digest of everything the
 // model sees except the catalog's settings: a store serves one catalog,
 // and one build of specgen, only. Both methods may be called from several
-// goroutines at once; what Outcome returns is the caller's to change.
+// goroutines at once; what Outcome returns is the caller's to change, but
+// for its curves' points, which a store may share: curves are read only,
+// as every block linked to one and every chart drawn from it reads the
+// same points.
 type OutcomeStore interface {
 	Outcome(key string) (*Memo, bool)
 	Keep(key string, m *Memo)

@@ -228,13 +228,21 @@ func writeOutcomes(dir, name string, h outcomesHeader, keys []string, memos map[
 	return err
 }
 
-// deepCopy copies a memo and everything it reaches, so that neither the
-// store nor the build it hands memos to sees the other's changes.
+// deepCopy copies a memo and everything it reaches but its curves' points,
+// which are read only (calc.OutcomeStore), so that neither the store nor
+// the build it hands memos to sees the other's changes.
 func deepCopy(m *calc.Memo) *calc.Memo {
 	return copyValue(reflect.ValueOf(m)).Interface().(*calc.Memo)
 }
 
+// curveType is what deepCopy copies only shallowly: a curve's points are
+// the most of a memo.
+var curveType = reflect.TypeFor[calc.Curve]()
+
 func copyValue(v reflect.Value) reflect.Value {
+	if v.Type() == curveType {
+		return v
+	}
 	switch v.Kind() {
 	case reflect.Pointer:
 		if v.IsNil() {
