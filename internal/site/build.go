@@ -542,7 +542,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
-			packed, err := rec.Search.packed(s.packer)
+			packed, err := s.packer.Pack(rec.Search)
 			if err != nil {
 				errs[i] = err
 				return
@@ -558,14 +558,18 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 			}
 		} else {
 			files, entry, err := s.renderPage(p)
+			var search []byte
 			if err == nil {
-				entries[i], err = entry.packed(s.packer)
+				search, err = entry.json()
+			}
+			if err == nil {
+				entries[i], err = s.packer.Pack(search)
 			}
 			if err != nil {
 				errs[i] = err
 				return
 			}
-			records[i] = pageRecord{Key: key, Files: slices.Sorted(maps.Keys(files)), Search: entry}
+			records[i] = pageRecord{Key: key, Files: slices.Sorted(maps.Keys(files)), Search: search}
 			for _, name := range records[i].Files {
 				if err := claim(p, name); err != nil {
 					errs[i] = err

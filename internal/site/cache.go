@@ -26,7 +26,7 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 3
+const cacheFormat = 4
 
 // manifest records one build: what went in (a fingerprint of every input
 // and of the specgen binary), what came out, and what each page's output
@@ -257,14 +257,6 @@ func (m *manifest) reusable(root, out string, intact bool) *lastOutput {
 	var r buildRecord
 	if gob.NewDecoder(bytes.NewReader(b)).Decode(&r) != nil {
 		return nil
-	}
-	for file, p := range r.Pages {
-		// gob gives an empty list back as nil, which the index would show
-		// as null.
-		if p.Search.Headings == nil {
-			p.Search.Headings = [][2]string{}
-			r.Pages[file] = p
-		}
 	}
 	return &lastOutput{dir: out, files: m.Files, record: &r, intact: intact}
 }

@@ -39,9 +39,9 @@ type resultsEntry struct {
 
 // pageRecord is what one page's render produced.
 type pageRecord struct {
-	Key    string      `json:"key"`    // pageKey
-	Files  []string    `json:"files"`  // its output files, sorted
-	Search searchEntry `json:"search"` // its entry of the search index
+	Key    string   `json:"key"`    // pageKey
+	Files  []string `json:"files"`  // its output files, sorted
+	Search []byte   `json:"search"` // its entry of the search index, as the index holds it
 }
 
 // sink receives a build's output files.
