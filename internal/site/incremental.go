@@ -131,10 +131,7 @@ func (s *Site) blockDigests() blockDigests {
 	n := len(s.Calc.Blocks)
 	own, placeless := make([]string, n), make([]string, n)
 	calc.Parallel(n, func(i int) {
-		own[i] = newDigest().add(s.Calc.Blocks[i]).sum()
-		d := newDigest()
-		d.placeless = true
-		placeless[i] = d.add(s.Calc.Blocks[i]).sum()
+		own[i], placeless[i] = newDigest().withTwin().add(s.Calc.Blocks[i]).sums()
 	})
 	parent := map[string]string{}
 	var find func(id string) string

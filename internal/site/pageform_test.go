@@ -96,3 +96,27 @@ func TestPageFormKeepsPage(t *testing.T) {
 func fieldValue(v reflect.Value) any {
 	return reflect.NewAt(v.Type(), v.Addr().UnsafePointer()).Elem().Interface()
 }
+
+// TestDigestTwin checks a digest with a placeless twin against the two
+// walks it stands in for, on every block of the demo site: the digest is
+// the placed one, the twin's the placeless one.
+func TestDigestTwin(t *testing.T) {
+	s, err := Load(filepath.Join("..", ".."))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range s.Calc.Blocks {
+		placed, placeless := newDigest().withTwin().add(e).sums()
+		if want := newDigest().add(e).sum(); placed != want {
+			t.Errorf("block %s: the digest with a twin differs from the digest alone", e.Block.ID)
+		}
+		d := newDigest()
+		d.placeless = true
+		if want := d.add(e).sum(); placeless != want {
+			t.Errorf("block %s: the twin differs from a placeless digest", e.Block.ID)
+		}
+		if placed == placeless {
+			t.Errorf("block %s: the twin covers where the block stands", e.Block.ID)
+		}
+	}
+}
