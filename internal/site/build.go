@@ -249,7 +249,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	// The output is looked over while the inputs are read.
 	intact := make(chan bool, 1)
 	go func() { intact <- last.intact(out) }()
-	fp, revision, sums, fpErr := fingerprint(root, out)
+	fp, revision, sums, sources, fpErr := fingerprint(root, out, last)
 	wasIntact := <-intact
 	if wasIntact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
@@ -285,7 +285,7 @@ func Build(root string, opts Options) (*Summary, error) {
 		_ = f.save(filepath.Join(root, CacheDir))
 	}
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems, tally, record, files)
+		remember(root, out, fp, sources, sum.Pages, problems, tally, record, files)
 	}
 	return sum, nil
 }

@@ -16,6 +16,7 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"time"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
@@ -26,7 +27,7 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 4
+const cacheFormat = 5
 
 // manifest records one build: what went in (a fingerprint of every input
 // and of the specgen binary), what came out, and what each page's output
@@ -43,6 +44,8 @@ type manifest struct {
 	// the record's render fingerprint, known without reading it.
 	Record string `json:"record"`
 	Render string `json:"render"`
+	// Sources are the source files as the build looked at them.
+	Sources sourceStats `json:"sources"`
 }
 
 // outputFile is what a written file looked like, to notice later edits.
@@ -53,16 +56,19 @@ type outputFile struct {
 
 // fingerprint hashes everything a build reads: the specgen binary, the
 // output folder, the git revision shown on data sheets, specgen.toml and
-// every file under content/, templates/ and static/. It returns the
-// revision too, which the build then shows, and the hash of each file of
-// content/ by its path from there.
-func fingerprint(root, out string) (string, *Revision, map[string][sha256.Size]byte, error) {
+// every file under content/, templates/ and static/. A file whose status
+// is as last recorded, and was already then older than racyAge, is taken
+// at the hash recorded. It returns the revision too, which the build then
+// shows, the hash of each file of content/ by its path from there, and
+// what the next build may take over.
+func fingerprint(root, out string, last *manifest) (string, *Revision, map[string][sha256.Size]byte, sourceStats, error) {
 	h := sha256.New()
 	self, err := binaryHash()
 	if err != nil {
-		return "", nil, nil, err
+		return "", nil, nil, sourceStats{}, err
 	}
 	fmt.Fprintf(h, "specgen %s\nout %s\n", self, out)
+	taken := time.Now().UnixNano()
 	// git runs while the files are read.
 	revision := make(chan *Revision, 1)
 	go func() { revision <- revisionOf(root) }()
@@ -76,50 +82,117 @@ func fingerprint(root, out string) (string, *Revision, map[string][sha256.Size]b
 		})
 	}
 	sort.Strings(paths)
+	var trusted map[string]sourceStat
+	if last != nil {
+		trusted = last.Sources.Files
+	}
 	// Files are hashed in parallel, each on its own, then in order.
 	lines := make([][]byte, len(paths))
-	sums := make([][sha256.Size]byte, len(paths))
+	stats := make([]sourceStat, len(paths))
 	errs := make([]error, len(paths))
-	calc.Parallel(len(paths), func(i int) { lines[i], sums[i], errs[i] = fileDigest(root, paths[i]) })
+	calc.Parallel(len(paths), func(i int) {
+		rel, _ := filepath.Rel(root, paths[i])
+		rel = filepath.ToSlash(rel)
+		was, ok := trusted[rel]
+		lines[i], stats[i], errs[i] = fileDigest(rel, paths[i], was, ok && last.Sources.settled(was))
+	})
 	r := <-revision
 	if r != nil {
 		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
 	}
 	content := filepath.Join(root, ContentDir) + string(filepath.Separator)
 	bySource := make(map[string][sha256.Size]byte, len(paths))
+	next := sourceStats{Taken: taken, Files: make(map[string]sourceStat, len(paths))}
 	for i, p := range paths {
 		if errs[i] != nil {
-			return "", nil, nil, errs[i]
+			return "", nil, nil, sourceStats{}, errs[i]
+		}
+		if lines[i] == nil {
+			continue
 		}
 		h.Write(lines[i])
-		if rel, ok := strings.CutPrefix(p, content); ok && lines[i] != nil {
-			bySource[filepath.ToSlash(rel)] = sums[i]
+		rel, _ := filepath.Rel(root, p)
+		next.Files[filepath.ToSlash(rel)] = stats[i]
+		if rel, ok := strings.CutPrefix(p, content); ok {
+			bySource[filepath.ToSlash(rel)] = stats[i].Sum
 		}
 	}
-	return hex.EncodeToString(h.Sum(nil)), r, bySource, nil
+	return hex.EncodeToString(h.Sum(nil)), r, bySource, next, nil
+}
+
+// racyAge is how long before a build's look at the sources a file must
+// have last changed for the next build to take its hash from that look:
+// a file changed within the same tick of the disk's clock as it was
+// looked at could change again without its status showing it. It is
+// wider than any disk's tick (two seconds on FAT). Tests shorten it.
+var racyAge = 3 * time.Second
+
+// sourceStats are the source files as one build looked at them: when,
+// and each file's status and hash, by path from the site root.
+type sourceStats struct {
+	Taken int64                 `json:"taken_ns"`
+	Files map[string]sourceStat `json:"files"`
+}
+
+// sourceStat is a file's status (size, mode, inode, modification and
+// change times: any write changes the change time, which cannot be set
+// back) and the hash of its contents.
+type sourceStat struct {
+	Size  int64             `json:"size"`
+	Mode  uint32            `json:"mode"`
+	Inode uint64            `json:"ino"`
+	MTime int64             `json:"mtime_ns"`
+	CTime int64             `json:"ctime_ns"`
+	Sum   [sha256.Size]byte `json:"-"`
+	Hash  string            `json:"sha256"`
+}
+
+// settled reports whether a file recorded in these stats had last changed
+// well before they were taken, so that a change since shows in its status.
+func (s sourceStats) settled(f sourceStat) bool {
+	limit := s.Taken - int64(racyAge)
+	return f.CTime != 0 && f.MTime < limit && f.CTime < limit
+}
+
+// statOf is a file's status, without its hash; the change time is 0
+// where the system does not tell it.
+func statOf(info fs.FileInfo) sourceStat {
+	inode, ctime := inodeAndChangeTime(info)
+	return sourceStat{Size: info.Size(), Mode: uint32(info.Mode()), Inode: inode, MTime: info.ModTime().UnixNano(), CTime: ctime}
+}
+
+// same reports whether two statuses are of one unchanged file.
+func (f sourceStat) same(g sourceStat) bool {
+	return f.Size == g.Size && f.Mode == g.Mode && f.Inode == g.Inode && f.MTime == g.MTime && f.CTime == g.CTime
 }
 
 // fileDigest identifies a file by its path from the root, its mode and
-// the hash of its contents, which it returns too; a missing file gives
-// nothing.
-func fileDigest(root, p string) ([]byte, [sha256.Size]byte, error) {
-	var sum [sha256.Size]byte
+// the hash of its contents, which it returns with its status; a missing
+// file gives nothing. A file whose status is as was, trusted, is taken at
+// was's hash.
+func fileDigest(rel, p string, was sourceStat, trusted bool) ([]byte, sourceStat, error) {
 	info, err := os.Lstat(p)
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, sum, nil
+		return nil, sourceStat{}, nil
 	}
 	if err != nil {
-		return nil, sum, err
+		return nil, sourceStat{}, err
 	}
-	rel, _ := filepath.Rel(root, p)
-	if info.Mode().IsRegular() {
+	st := statOf(info)
+	switch {
+	case trusted && st.same(was) && was.Hash != "":
+		if _, err := hex.Decode(st.Sum[:], []byte(was.Hash)); err != nil {
+			return fileDigest(rel, p, was, false)
+		}
+	case info.Mode().IsRegular():
 		data, err := os.ReadFile(p)
 		if err != nil {
-			return nil, sum, err
+			return nil, sourceStat{}, err
 		}
-		sum = sha256.Sum256(data)
+		st.Sum = sha256.Sum256(data)
 	}
-	return fmt.Appendf(nil, "file %q %v %x\n", filepath.ToSlash(rel), info.Mode(), sum), sum, nil
+	st.Hash = hex.EncodeToString(st.Sum[:])
+	return fmt.Appendf(nil, "file %q %v %x\n", rel, info.Mode(), st.Sum), st, nil
 }
 
 // binaryHash identifies the running specgen, so that a cache never
@@ -360,8 +433,8 @@ func copyFile(from, to string) error {
 
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
-func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord, files map[string]outputFile) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: files}
+func remember(root, out, fp string, sources sourceStats, pages int, problems []Problem, tally Tally, record *buildRecord, files map[string]outputFile) {
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Sources: sources, Pages: pages, Problems: problems, Tally: tally, Files: files}
 	if files != nil {
 		writeManifest(root, out, m, record)
 		return

@@ -133,3 +133,26 @@ func TestExecutableID(t *testing.T) {
 		t.Errorf("a file without a build ID is known as %q, not by its hash", id)
 	}
 }
+
+// TestSourceStatsSettled: a source's recorded hash is taken over only when
+// the file had last changed racyAge or more before the build looked at
+// it, and only where its change time is known.
+func TestSourceStatsSettled(t *testing.T) {
+	taken := time.Now().UnixNano()
+	stats := sourceStats{Taken: taken}
+	old := taken - int64(racyAge) - 1
+	for _, c := range []struct {
+		name         string
+		mtime, ctime int64
+		want         bool
+	}{
+		{"changed well before", old, old, true},
+		{"written within the disk's tick", taken - 1, taken - 1, false},
+		{"its time set back", old, taken - 1, false},
+		{"no change time known", old, 0, false},
+	} {
+		if got := stats.settled(sourceStat{MTime: c.mtime, CTime: c.ctime}); got != c.want {
+			t.Errorf("%s: settled = %v, want %v", c.name, got, c.want)
+		}
+	}
+}

@@ -14,6 +14,7 @@ import (
 	"strings"
 	"syscall"
 	"testing"
+	"time"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/templates"
@@ -98,6 +99,10 @@ type incrementalCase struct {
 	commit bool
 	// binary: the edited site is built by another specgen binary.
 	binary bool
+	// sameTimes: the edits keep each file's size and modification time,
+	// and the first build's look at the sources is trusted at once: only
+	// the files' change times tell the edit.
+	sameTimes bool
 }
 
 // incrementalCases are the edits, one of each way a page's output can
@@ -148,6 +153,10 @@ func incrementalCases(t *testing.T) []incrementalCase {
 		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
 		{name: "a new commit", commit: true, edits: []siteEdit{{"content/index.md", "The home page.", "The home page, committed."}}},
 		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
+		{name: "a page rewritten at its size and time", sameTimes: true,
+			edits: []siteEdit{{"content/b/notes.md", "The figure is", "The figure IS"}}, remade: []string{"b/notes.html"}},
+		{name: "a quoted block rewritten at its size and time", sameTimes: true,
+			edits: []siteEdit{{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
 		{name: "a new specgen binary", binary: true, edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
 		// The cache is safe to delete or damage, each file of it.
 		{name: "the cache deleted", edits: []siteEdit{{CacheDir, "", ""}, {"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
@@ -170,6 +179,14 @@ func writeIncrementalSite(t *testing.T, root string, c incrementalCase) {
 	for _, e := range c.setup {
 		e.apply(t, root)
 	}
+	if c.sameTimes {
+		racy := racyAge
+		racyAge = 0
+		t.Cleanup(func() { racyAge = racy })
+		// The disk's clock may not have ticked since the files were
+		// written: the build must look at them later than that.
+		time.Sleep(20 * time.Millisecond)
+	}
 	if c.commit {
 		if _, err := exec.LookPath("git"); err != nil {
 			t.Skip("git is not installed")
@@ -185,7 +202,18 @@ func writeIncrementalSite(t *testing.T, root string, c incrementalCase) {
 func editIncrementalSite(t *testing.T, root string, c incrementalCase) {
 	t.Helper()
 	for _, e := range c.edits {
+		p := filepath.Join(root, filepath.FromSlash(e.file))
+		before, err := os.Stat(p)
 		e.apply(t, root)
+		if c.sameTimes {
+			after, err2 := os.Stat(p)
+			if err != nil || err2 != nil || after.Size() != before.Size() {
+				t.Fatalf("%s: the edit does not keep the file's size", e.file)
+			}
+			if err := os.Chtimes(p, before.ModTime(), before.ModTime()); err != nil {
+				t.Fatal(err)
+			}
+		}
 	}
 	if c.commit {
 		gitIn(t, root, "commit", "-q", "-a", "-m", "An edit")
