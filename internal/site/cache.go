@@ -11,8 +11,10 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"maps"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"sync"
@@ -27,7 +29,7 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 5
+const cacheFormat = 6
 
 // manifest records one build: what went in (a fingerprint of every input
 // and of the specgen binary), what came out, and what each page's output
@@ -327,11 +329,52 @@ func (m *manifest) reusable(root, out string, intact bool) *lastOutput {
 	if err != nil || sha256Hex(b) != m.Record {
 		return nil
 	}
-	var r buildRecord
-	if gob.NewDecoder(bytes.NewReader(b)).Decode(&r) != nil {
+	r, err := readRecord(bytes.NewReader(b))
+	if err != nil {
 		return nil
 	}
-	return &lastOutput{dir: out, files: m.Files, record: &r, intact: intact}
+	return &lastOutput{dir: out, files: m.Files, record: r, intact: intact}
+}
+
+// recordPage is one page of a record's file.
+type recordPage struct {
+	File string
+	Page pageRecord
+}
+
+// writeRecord writes a build's record as a gob stream: the record without
+// its pages, then each page, in order, so that no message is big.
+func writeRecord(w io.Writer, r *buildRecord) error {
+	enc := gob.NewEncoder(w)
+	if err := enc.Encode(buildRecord{Render: r.Render, Results: r.Results, Entries: r.Entries}); err != nil {
+		return err
+	}
+	for _, file := range slices.Sorted(maps.Keys(r.Pages)) {
+		if err := enc.Encode(recordPage{File: file, Page: r.Pages[file]}); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// readRecord reads what writeRecord wrote.
+func readRecord(rd io.Reader) (*buildRecord, error) {
+	dec := gob.NewDecoder(rd)
+	var r buildRecord
+	if err := dec.Decode(&r); err != nil {
+		return nil, err
+	}
+	r.Pages = map[string]pageRecord{}
+	for {
+		var p recordPage
+		switch err := dec.Decode(&p); {
+		case err == io.EOF:
+			return &r, nil
+		case err != nil:
+			return nil, err
+		}
+		r.Pages[p.File] = p.Page
+	}
 }
 
 // rendersLike reports whether the last build rendered its pages as the
@@ -469,7 +512,8 @@ func writeManifest(root, out string, m manifest, record *buildRecord) {
 	// record without its manifest is never trusted.
 	if record != nil {
 		var rb bytes.Buffer
-		if gob.NewEncoder(&rb).Encode(record) == nil && writeAside(recordPath(root, out), rb.Bytes()) == nil {
+		rb.Grow(len(record.Pages) << 11)
+		if writeRecord(&rb, record) == nil && writeAside(recordPath(root, out), rb.Bytes()) == nil {
 			m.Record, m.Render = sha256Hex(rb.Bytes()), record.Render
 		}
 	}
