@@ -99,7 +99,7 @@ func Entry(e *calc.Evaluated) ([]byte, error) { return json.MarshalIndent(blockO
 // build can take those of unchanged blocks over.
 func WriteEntries(w io.Writer, n int, entry func(i int) ([]byte, error)) ([]int64, error) {
 	cw := &countingWriter{w: w}
-	bw := bufio.NewWriter(cw)
+	bw := bufio.NewWriterSize(cw, 64<<10) // a big site's file is megabytes
 	generator, err := json.Marshal(version.Generator())
 	if err != nil {
 		return nil, err
