@@ -175,6 +175,7 @@ func load(root string, opt loadOptions) (*Site, error) {
 			opt.forms.keep(pages[i])
 		}
 	})
+	opt.forms.loaded()
 	if err := keep(collect(errs)); err != nil {
 		return nil, err
 	}

@@ -68,6 +68,8 @@ type pageForms struct {
 	used      map[string]pageFormEntry
 	// added: this build read a page the file did not hold as it is.
 	added bool
+	// held is how many forms the file held.
+	held int
 }
 
 // readPageForms reads the forms kept in the cache folder dir; a file that
@@ -91,7 +93,18 @@ func readPageForms(dir, namespace string) *pageForms {
 			return f
 		}
 		f.last[e.Rel] = e
+		f.held++
 	}
+}
+
+// loaded drops the forms the build did not use: every page is read.
+func (f *pageForms) loaded() {
+	if f == nil {
+		return
+	}
+	f.mu.Lock()
+	f.last = nil
+	f.mu.Unlock()
 }
 
 // page makes the page content/rel from its form when the file's hash is
@@ -147,7 +160,7 @@ func (f *pageForms) keep(p *Page) {
 // whole or not at all, when they differ from what the file holds. A file
 // that cannot be written only costs the next build its shortcut.
 func (f *pageForms) save(dir string) error {
-	if !f.added && len(f.used) == len(f.last) {
+	if !f.added && len(f.used) == f.held {
 		return nil
 	}
 	if err := os.MkdirAll(dir, 0o755); err != nil {
