@@ -358,6 +358,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 	var previous *buildRecord
 	if last != nil {
 		previous = last.record
+		last.makeFolders(st)
 	}
 	made, err := s.emit(to, opts.Progress, previous)
 	if err == nil && interrupted() {
