@@ -30,14 +30,7 @@ func TestGasTorqueAsDefined(t *testing.T) {
 		withInputs(map[string]any{"discharge_pressure": "40 bar", "clearance_volume": "4 cm3"}), // dead-head: valves never open
 		withInputs(map[string]any{"polytropic_index": 1.0}),
 	} {
-		in, err := caseInputs(compressorKind, raw, standardAtmosphere, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
-		c, err := readCompressor(in)
-		if err != nil {
-			t.Fatal(err)
-		}
+		c := testCompressor(t, raw)
 		cyc := c.cycleAt(c.p1, c.p2)
 		for i := -3600; i <= 7200; i++ {
 			th := 2 * math.Pi * float64(i) / 3600
@@ -76,15 +69,7 @@ func TestPhaseSumByShift(t *testing.T) {
 func TestCurvesAloneAsWithResults(t *testing.T) {
 	for _, z := range []int{1, 2, 3, 7} {
 		for _, mass := range []any{nil, "85 g"} {
-			raw := withInputs(map[string]any{"cylinders": z, "reciprocating_mass": mass})
-			in, err := caseInputs(compressorKind, raw, standardAtmosphere, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
-			c, err := readCompressor(in)
-			if err != nil {
-				t.Fatal(err)
-			}
+			c := testCompressor(t, withInputs(map[string]any{"cylinders": z, "reciprocating_mass": mass}))
 			cyc, steps := c.cycleAt(c.p1, c.p2), crankSteps(z)
 			gas := phaseSum(sampleRevolution(steps, cyc.gasTorque), z)
 			full, alone := compressorCurves(cyc, c, gas, steps), compressorCurves(cyc, c, nil, steps)
@@ -118,4 +103,18 @@ func sameCurves(a, b []calc.Curve) bool {
 		}
 	}
 	return true
+}
+
+// testCompressor reads a compressor block's cylinder from raw inputs.
+func testCompressor(t *testing.T, raw map[string]any) cylinder {
+	t.Helper()
+	in, err := caseInputs(compressorKind, raw, standardAtmosphere, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := readCompressor(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
 }
