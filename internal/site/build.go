@@ -11,6 +11,7 @@ import (
 	"io"
 	"maps"
 	"os"
+	"path"
 	"path/filepath"
 	"slices"
 	"sync"
@@ -358,7 +359,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 	var previous *buildRecord
 	if last != nil {
 		previous = last.record
-		last.makeFolders(st)
+		s.makeFolders(st)
 	}
 	made, err := s.emit(to, opts.Progress, previous)
 	if err == nil && interrupted() {
@@ -387,6 +388,25 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 		files[name] = outputFile{Size: info.Size(), ModTime: info.ModTime().UnixNano()}
 	}
 	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, made, files, nil
+}
+
+// makeFolders makes in the staging folder the folder of every page,
+// parents first, once each, so that a page's files taken over from the
+// last build are linked at the first try. Every folder made holds a page
+// or a folder that does, as in a build made afresh.
+func (s *Site) makeFolders(st *staging) {
+	folders := map[string]bool{}
+	for _, p := range s.Pages {
+		for dir := path.Dir(p.Out); dir != "." && !folders[dir]; dir = path.Dir(dir) {
+			folders[dir] = true
+		}
+	}
+	for _, dir := range slices.Sorted(maps.Keys(folders)) {
+		p := filepath.Join(st.dir, filepath.FromSlash(dir))
+		if os.Mkdir(p, 0o755) == nil {
+			st.made.Store(p, true)
+		}
+	}
 }
 
 // Render produces every output file in memory, keyed by output path (the

@@ -13,7 +13,6 @@ import (
 	"io/fs"
 	"maps"
 	"os"
-	"path"
 	"path/filepath"
 	"slices"
 	"sort"
@@ -447,27 +446,6 @@ func (l *lastOutput) open(name string) lastFile {
 		return nil
 	}
 	return f
-}
-
-// makeFolders makes in the staging folder every folder of the last
-// build's output, parents first, once each: the files taken over are then
-// linked at the first try.
-func (l *lastOutput) makeFolders(st *staging) {
-	if l == nil {
-		return
-	}
-	folders := map[string]bool{}
-	for name := range l.files {
-		for dir := path.Dir(name); dir != "." && !folders[dir]; dir = path.Dir(dir) {
-			folders[dir] = true
-		}
-	}
-	for _, dir := range slices.Sorted(maps.Keys(folders)) {
-		p := filepath.Join(st.dir, filepath.FromSlash(dir))
-		if os.Mkdir(p, 0o755) == nil {
-			st.made.Store(p, true)
-		}
-	}
 }
 
 // copyFile copies a file, keeping its modification time, so that the

@@ -133,6 +133,8 @@ func incrementalCases(t *testing.T) []incrementalCase {
 		{name: "the order of a folder's first page", edits: []siteEdit{{"content/b/notes.md", "order = 2", "order = 0"}}},
 		{name: "a new page", edits: []siteEdit{{"content/a/new.md", "", "+++\ntitle = \"New\"\norder = 3\n+++\n# New\n\nNew page.\n"}},
 			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "a/new.html", "safety.html"}},
+		{name: "a folder's only page deleted", setup: []siteEdit{{"content/c/only.md", "", "# Only\n\nThe one page of c.\n"}},
+			edits: []siteEdit{{"content/c/only.md", "", ""}}},
 		{name: "a deleted page", edits: []siteEdit{{"content/b/notes.md", "", ""}},
 			// fig leaves lp's component.
 			remade: []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/motor.html", "b/summary.html"}},
@@ -318,9 +320,12 @@ func inodes(t *testing.T, dir string) map[string]uint64 {
 }
 
 // sameTree fails unless folders a and b hold the same files with the same
-// bytes.
+// bytes, in the same folders.
 func sameTree(t *testing.T, a, b string) {
 	t.Helper()
+	if da, db := folders(t, a), folders(t, b); !slices.Equal(da, db) {
+		t.Errorf("the incremental build has the folders %q, a fresh one %q", da, db)
+	}
 	fa, fb := readTree(t, a), readTree(t, b)
 	for _, name := range slices.Sorted(maps.Keys(fa)) {
 		other, ok := fb[name]
@@ -605,4 +610,22 @@ func fill(v reflect.Value, n int) {
 			fill(v.Index(i), n+i)
 		}
 	}
+}
+
+// folders lists the folders within dir, sorted.
+func folders(t *testing.T, dir string) []string {
+	t.Helper()
+	var list []string
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err == nil && d.IsDir() && p != dir {
+			rel, _ := filepath.Rel(dir, p)
+			list = append(list, filepath.ToSlash(rel))
+		}
+		return err
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	slices.Sort(list)
+	return list
 }
