@@ -228,13 +228,21 @@ func writeOutcomes(dir, name string, h outcomesHeader, keys []string, memos map[
 	return err
 }
 
-// deepCopy copies a memo and everything it reaches, so that neither the
-// store nor the build it hands memos to sees the other's changes.
+// deepCopy copies a memo and everything it reaches but its curves' points,
+// which are read only (calc.OutcomeStore), so that neither the store nor
+// the build it hands memos to sees the other's changes.
 func deepCopy(m *calc.Memo) *calc.Memo {
 	return copyValue(reflect.ValueOf(m)).Interface().(*calc.Memo)
 }
 
+// curveType is what deepCopy copies only shallowly: a curve's points are
+// the most of a memo.
+var curveType = reflect.TypeFor[calc.Curve]()
+
 func copyValue(v reflect.Value) reflect.Value {
+	if v.Type() == curveType {
+		return v
+	}
 	switch v.Kind() {
 	case reflect.Pointer:
 		if v.IsNil() {
@@ -248,7 +256,7 @@ func copyValue(v reflect.Value) reflect.Value {
 			return v
 		}
 		c := reflect.MakeSlice(v.Type(), v.Len(), v.Len())
-		if plainKind(v.Type().Elem().Kind()) {
+		if plainType(v.Type().Elem()) {
 			reflect.Copy(c, v)
 			return c
 		}
@@ -267,6 +275,9 @@ func copyValue(v reflect.Value) reflect.Value {
 		}
 		return c
 	case reflect.Struct:
+		if plainType(v.Type()) {
+			return v
+		}
 		c := reflect.New(v.Type()).Elem()
 		for i := range v.NumField() {
 			c.Field(i).Set(copyValue(v.Field(i)))
@@ -278,9 +289,29 @@ func copyValue(v reflect.Value) reflect.Value {
 	return v
 }
 
-// plainKind reports whether values of kind k hold no references.
-func plainKind(k reflect.Kind) bool {
-	return k >= reflect.Bool && k <= reflect.Complex128 || k == reflect.String
+// plainTypes caches plainType.
+var plainTypes sync.Map // reflect.Type → bool
+
+// plainType reports whether values of type t hold no references but
+// strings, which cannot be changed: a copy of the value is a deep copy.
+func plainType(t reflect.Type) bool {
+	if plain, ok := plainTypes.Load(t); ok {
+		return plain.(bool)
+	}
+	plain := false
+	switch k := t.Kind(); {
+	case k >= reflect.Bool && k <= reflect.Complex128 || k == reflect.String:
+		plain = true
+	case k == reflect.Array:
+		plain = plainType(t.Elem())
+	case k == reflect.Struct:
+		plain = true
+		for i := range t.NumField() {
+			plain = plain && plainType(t.Field(i).Type)
+		}
+	}
+	plainTypes.Store(t, plain)
+	return plain
 }
 
 // pendingOutcomes is the cache folder's outcome store while it is read:
