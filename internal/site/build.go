@@ -80,6 +80,7 @@ type Site struct {
 	Calc      *calc.Set
 	blockPage map[string]*Page     // block id → the page that holds it
 	cautions  []render.CautionItem // every caution of the site, for caution lists
+	refViews  map[*Page][]refView  // each page's inline values as shown
 	// listingPages list every caution of the site, in page order.
 	listingPages []*Page
 	revision     *Revision
@@ -275,7 +276,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
-	sum, record, files, err := s.write(opts, takeOver, true)
+	sum, record, files, settled, err := s.write(opts, takeOver, true)
 	if err != nil {
 		return nil, err
 	}
@@ -288,6 +289,9 @@ func Build(root string, opts Options) (*Summary, error) {
 	}
 	if fpErr == nil {
 		remember(root, out, fp, sources, sum.Pages, problems, tally, record, files)
+	}
+	if err := settled(); err != nil {
+		return nil, err
 	}
 	return sum, nil
 }
@@ -305,8 +309,11 @@ func outputPath(root, out string) string {
 
 // Write renders every page and swaps the finished output into place.
 func (s *Site) Write(opts Options) (*Summary, error) {
-	sum, _, _, err := s.write(opts, nil, false)
-	return sum, err
+	sum, _, _, settled, err := s.write(opts, nil, false)
+	if err != nil {
+		return nil, err
+	}
+	return sum, settled()
 }
 
 // write renders the site into a staging folder beside the output and
@@ -315,15 +322,16 @@ func (s *Site) Write(opts Options) (*Summary, error) {
 // written through: the last output stays as it was until the swap. It
 // returns this build's record and its output files as the manifest keeps
 // them (nil when they could not all be read). Without record it makes
-// neither.
-func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *buildRecord, map[string]outputFile, error) {
+// neither. The old output may still be going when it returns: settled
+// waits for it.
+func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *buildRecord, map[string]outputFile, func() error, error) {
 	out := outputPath(s.Root, opts.Out)
 	if err := checkOutputDir(s.Root, out); err != nil {
-		return nil, nil, nil, err
+		return nil, nil, nil, nil, err
 	}
 	st, err := newStaging(out)
 	if err != nil {
-		return nil, nil, nil, err
+		return nil, nil, nil, nil, err
 	}
 	interrupted := func() bool { return opts.Context != nil && opts.Context.Err() != nil }
 	var mu sync.Mutex
@@ -367,14 +375,14 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 	}
 	if err != nil {
 		st.abandon()
-		return nil, nil, nil, err
+		return nil, nil, nil, nil, err
 	}
 	if err := st.commit(); err != nil {
 		st.abandon()
-		return nil, nil, nil, err
+		return nil, nil, nil, nil, err
 	}
 	if !record {
-		return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil, nil, nil
+		return &Summary{Out: out, Pages: len(s.Pages), Written: true}, nil, nil, st.settled, nil
 	}
 	// Kept files are as the last manifest has them; written ones (and
 	// any kept one written over after all) are looked at.
@@ -387,7 +395,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 		}
 		files[name] = outputFile{Size: info.Size(), ModTime: info.ModTime().UnixNano()}
 	}
-	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, made, files, nil
+	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, made, files, st.settled, nil
 }
 
 // makeFolders makes in the staging folder the folder of every page,

@@ -158,31 +158,41 @@ func (s *Site) evaluate() error {
 		_, evaluated := set.Lookup(id)
 		return known && !evaluated
 	}
-	for _, p := range s.Pages {
+	// Each inline value is formatted once, here, and shown from then on.
+	views := make([][]refView, len(s.Pages))
+	pageErrs := make([][]*inputerr.Error, len(s.Pages))
+	calc.Parallel(len(s.Pages), func(i int) {
+		p := s.Pages[i]
 		for _, n := range p.charts {
 			if unevaluated(n.Block) {
 				continue
 			}
 			if err := s.checkChartName(p, n); err != nil {
-				errs = append(errs, err)
+				pageErrs[i] = append(pageErrs[i], err)
 			}
 		}
-		for _, ref := range p.refs {
+		views[i] = make([]refView, len(p.refs))
+		for j, ref := range p.refs {
 			if ref.Problem == "" && unevaluated(ref.Block) {
 				continue
 			}
-			if _, err := s.formatRef(p, ref); err != nil {
-				errs = append(errs, err)
+			var err *inputerr.Error
+			if views[i][j], err = s.formatRef(p, ref); err != nil {
+				pageErrs[i] = append(pageErrs[i], err)
 			}
+		}
+	})
+	s.refViews = make(map[*Page][]refView, len(s.Pages))
+	for i, p := range s.Pages {
+		s.refViews[p] = views[i]
+		for _, err := range pageErrs[i] {
+			errs = append(errs, err)
 		}
 	}
 	if len(errs) == 0 {
 		// A title that quotes a value shows it, in <title> and navigation too.
 		for _, p := range s.Pages {
-			p.setHeading(func(i int) string {
-				v, _ := s.formatRef(p, p.refs[i])
-				return v.Shown
-			})
+			p.setHeading(func(i int) string { return s.shownRef(p, i).Shown })
 		}
 	}
 	// Curves are only drawn from now on: a big site keeps those it charts.
@@ -230,8 +240,7 @@ func (s *Site) fill(p *Page, charts pageCharts) func(w util.BufWriter, h render.
 			}
 			render.WriteBlockAt(w, e, h.Source, charts.blocks[h.Line], links, h.Level)
 		case render.HoleValue:
-			ref := p.refs[h.Index]
-			v, _ := s.formatRef(p, ref)
+			ref, v := p.refs[h.Index], s.shownRef(p, h.Index)
 			render.WriteValue(w, ref.Block, ref.Result, v.Shown, v.Href)
 		case render.HoleChartRef:
 			render.WriteChartRef(w, charts.fences[h.Index])
@@ -249,7 +258,7 @@ func (s *Site) fill(p *Page, charts pageCharts) func(w util.BufWriter, h render.
 // refText is the text of page p's ref-th inline value as its headings and
 // search entry show it: its value, or as written when it has none.
 func (s *Site) refText(p *Page, ref int) string {
-	if v, _ := s.formatRef(p, p.refs[ref]); v.Shown != "" {
+	if v := s.shownRef(p, ref); v.Shown != "" {
 		return v.Shown
 	}
 	return p.refs[ref].Written
@@ -361,6 +370,16 @@ func (s *Site) pressureCalcs(ids []string) (any, allVacuum bool) {
 
 // refView is an inline value as shown: its text and its link.
 type refView struct{ Shown, Href string }
+
+// shownRef is page p's i-th inline value as shown, formatted when the site
+// was evaluated (zero when it could not be).
+func (s *Site) shownRef(p *Page, i int) refView {
+	if views, ok := s.refViews[p]; ok {
+		return views[i]
+	}
+	v, _ := s.formatRef(p, p.refs[i])
+	return v
+}
 
 // formatRef formats one inline value and links it to its block, or says
 // what is wrong with it.

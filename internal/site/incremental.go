@@ -207,9 +207,8 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 			}
 		}
 	}
-	for _, ref := range p.refs {
-		v, _ := s.formatRef(p, ref)
-		d.add(ref, v)
+	for i, ref := range p.refs {
+		d.add(ref, s.shownRef(p, i))
 	}
 	for _, n := range p.charts {
 		d.add(n, blocks.connected[n.Block])

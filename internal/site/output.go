@@ -87,7 +87,8 @@ func realPath(p string) string {
 // place only when the whole build succeeded.
 type staging struct {
 	dir, target string
-	made        sync.Map // folders within dir known to exist
+	made        sync.Map   // folders within dir known to exist
+	removed     chan error // the old output's removal, once commit has started it
 }
 
 func newStaging(target string) (*staging, error) {
@@ -138,7 +139,9 @@ func (s *staging) knownFolder(dir string) bool {
 	return ok
 }
 
-// commit moves the finished build into place and removes the old output.
+// commit moves the finished build into place and starts removing the
+// old output, which settled waits for: what the build still has to write
+// besides its output need not wait for thousands of files to go.
 func (s *staging) commit() error {
 	old := ""
 	if _, err := os.Lstat(s.target); err == nil {
@@ -154,9 +157,18 @@ func (s *staging) commit() error {
 		return err
 	}
 	if old != "" {
-		return os.RemoveAll(old)
+		s.removed = make(chan error, 1)
+		go func() { s.removed <- os.RemoveAll(old) }()
 	}
 	return nil
+}
+
+// settled waits until the old output is removed.
+func (s *staging) settled() error {
+	if s.removed == nil {
+		return nil
+	}
+	return <-s.removed
 }
 
 // abandon removes the unfinished build.
