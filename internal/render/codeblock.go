@@ -8,7 +8,6 @@ import (
 	"github.com/alecthomas/chroma/v2"
 	chromahtml "github.com/alecthomas/chroma/v2/formatters/html"
 	"github.com/alecthomas/chroma/v2/lexers"
-	"github.com/alecthomas/chroma/v2/styles"
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
@@ -93,6 +92,7 @@ var codeBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
 
 var lexerCache sync.Map // language → chroma.Lexer, or nil for none
 
-// highlightStyle only decides which token classes exist; colours come from
-// the site stylesheet (see SyntaxCSS).
-var highlightStyle = styles.Fallback
+// highlightStyle is the style the formatter is handed; with classes it
+// sets no colour in the page, which come from the site stylesheet (see
+// SyntaxCSS). Ours, so that chroma's styles need not be loaded at start.
+var highlightStyle = lightCode
