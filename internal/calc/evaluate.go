@@ -292,7 +292,7 @@ func (c *Catalog) Evaluate(blocks []*Block, opts Options) (*Set, error) {
 			}
 			charted := opts.Charted == nil || opts.Charted(b.ID)
 			overBudget := opts.CurveBudget > 0 && keptCurves.Load() >= opts.CurveBudget
-			want := linked[b.ID] || (charted && !overBudget)
+			want := linked[b.ID] || (charted && !overBudget && !b.Kind.CurvesOnDemand)
 			outs[i].e, outs[i].err = c.evaluateBlock(b, set, opts, want, false)
 			switch {
 			case outs[i].err != nil:

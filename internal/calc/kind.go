@@ -34,6 +34,11 @@ type Kind struct {
 	// LinkHint is added to the message when a block names one of this
 	// kind where a link takes another: what to name instead.
 	LinkHint string
+	// CurvesOnDemand: the kind works out the points of its charts alone,
+	// and cheaply, when run with Inputs.CurvesOnly. Its charted blocks are
+	// then evaluated without curves, which are neither kept nor stored
+	// between builds, and sampled when a chart is drawn.
+	CurvesOnDemand bool
 	// Evaluate computes the results from validated inputs. Input problems
 	// that single-input ranges cannot catch are returned as *InputError.
 	Evaluate func(in *Inputs) (*Outcome, error)

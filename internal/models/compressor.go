@@ -20,6 +20,7 @@ var compressorKind = calc.Kind{
 	Roles:           calc.HoldsPressure | calc.Delivers | calc.Crank,
 	WorkingPressure: calc.WorkingPressure{Key: "discharge_pressure", Name: "discharge pressure"},
 	Raises:          []string{"no-delivery"},
+	CurvesOnDemand:  true, // compressorCurves(…, nil, …)
 	Inputs: append(append(cylinderInputs("bore", "stroke", "crank_radius", "rod_length", "clearance_volume", "clearance_ratio",
 		"cylinders", "speed"),
 		calc.InputSpec{Name: "discharge_pressure", Dim: units.Pressure, Range: positiveUpTo(1e9), Meaning: "pressure the cylinder delivers against, up to 1 GPa"},
