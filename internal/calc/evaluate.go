@@ -704,7 +704,10 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		}
 		return e, nil
 	}
-	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
+	// The outcome may be a memo other blocks share: what the set adds
+	// (cautions the rules raise, their acknowledgements) goes to copies.
+	e.Results, e.Curves, e.Tables = slices.Clip(out.Results), slices.Clip(out.Curves), slices.Clip(out.Tables)
+	e.Cautions = slices.Clone(out.Cautions)
 	e.in = in
 	if err := set.sameAsEarly(e); err != nil {
 		return nil, err
