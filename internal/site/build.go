@@ -83,6 +83,9 @@ type Site struct {
 	chartsTotal int
 	// drawsLeft counts, by block id, the charts of the block still to draw.
 	drawsLeft map[string]*atomic.Int32
+	// writtenOnce: the site is written once (Build), so a page's prepared
+	// content goes as soon as the page is written.
+	writtenOnce bool
 }
 
 // MaxErrors is how many input problems one run reports; the rest are
@@ -251,6 +254,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
+	s.writtenOnce = true
 	sum, record, files, err := s.write(opts, takeOver, true)
 	if err != nil {
 		return nil, err
@@ -535,6 +539,9 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					errs[i] = err
 					return
 				}
+			}
+			if s.writtenOnce {
+				p.body = nil
 			}
 		}
 		if n := rendered.Add(1); progress != nil {
