@@ -44,7 +44,7 @@ type Block struct {
 	// blocks may name it, and Evaluate checks the inputs it could read,
 	// but it is not evaluated, nor is any block that needs it.
 	Broken  bool
-	lines   map[string]int // TOML-relative line of each key
+	lines   []keyLine // TOML-relative line of each key, sorted by key
 	catalog *Catalog
 }
 
@@ -141,7 +141,7 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 	if _, err := toml.Decode(src, &raw); err != nil {
 		return nil, b.tomlError(err)
 	}
-	b.lines = KeyLines(src)
+	b.lines = keyLineList(src)
 	var errs inputerr.List
 	fail := func(key, format string, args ...any) {
 		errs = append(errs, &inputerr.Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
@@ -439,18 +439,23 @@ func (b *Block) LineOf(key string) int { return b.lineOf(key) }
 
 // lineOf is the file line of a key ("expect.displacement" for tables).
 func (b *Block) lineOf(key string) int {
-	if l, ok := b.lines[key]; ok {
-		return b.Line + l
+	byKey := func(kl keyLine, key string) int { return strings.Compare(kl.key, key) }
+	if i, ok := slices.BinarySearchFunc(b.lines, key, byKey); ok {
+		return b.Line + int(b.lines[i].line)
 	}
 	// A key written as a table (bore.x = ..., or [bore]) is on the line of
-	// its first entry.
-	first := 0
-	for k, l := range b.lines {
-		if strings.HasPrefix(k, key+".") && (first == 0 || l < first) {
-			first = l
+	// its first entry; the table's keys sort together.
+	first := int32(0)
+	i, _ := slices.BinarySearchFunc(b.lines, key+".", byKey)
+	for _, kl := range b.lines[i:] {
+		if !strings.HasPrefix(kl.key, key+".") {
+			break
+		}
+		if first == 0 || kl.line < first {
+			first = kl.line
 		}
 	}
-	return b.Line + first
+	return b.Line + int(first)
 }
 
 // tomlError places a TOML syntax error on its file line.

@@ -538,6 +538,9 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves, linksWithheld: early}
+	// At most one input a spec; cut to size below, as a big site keeps
+	// every block's.
+	e.Inputs = make([]InputValue, 0, len(b.Kind.Inputs))
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
@@ -665,6 +668,12 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	}
 	if b.Broken {
 		return nil, errBroken
+	}
+	switch {
+	case len(e.Inputs) == 0:
+		e.Inputs = nil
+	case len(e.Inputs) < cap(e.Inputs):
+		e.Inputs = slices.Clone(e.Inputs)
 	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
 	if systems[units.Customary]+systems[units.Metric] == 0 {
