@@ -27,8 +27,10 @@ type Block struct {
 	Line  int    // file line of the opening fence
 	// Source is the block's TOML as written.
 	Source string
-	// Values are the inputs as written, by key.
-	Values map[string]Value
+	// Values are the inputs as written, sorted by key (Value looks one
+	// up): a list takes a fraction of a map's memory, and a big site keeps
+	// every block's.
+	Values []Value
 	// Ambient is the ambient pressure text, "" for the default.
 	Ambient Value
 	Expect  []Claim
@@ -50,6 +52,7 @@ type Block struct {
 
 // Value is one input as the user wrote it.
 type Value struct {
+	Key  string
 	Text string // the string, or the number's TOML text
 	// Ref is the block and result of a "=id.result" reference, else empty.
 	RefBlock, RefResult string
@@ -58,6 +61,15 @@ type Value struct {
 	// Items are the values of a List input written as a list, as written.
 	Items []string
 	Line  int // file line
+}
+
+// Value returns the input written for key.
+func (b *Block) Value(key string) (Value, bool) {
+	i, ok := slices.BinarySearchFunc(b.Values, key, func(v Value, key string) int { return strings.Compare(v.Key, key) })
+	if !ok {
+		return Value{}, false
+	}
+	return b.Values[i], true
 }
 
 // Deps lists the blocks a value needs evaluated first: the one it quotes,
@@ -113,7 +125,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		return b, nil
 	}
 	if b == nil {
-		b = &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+		b = &Block{File: file, Line: fenceLine, Source: src, catalog: c}
 	}
 	if b.ID == "" || !idPattern.MatchString(b.ID) {
 		// Not even TOML: the id as written, if it can be seen.
@@ -133,7 +145,7 @@ var writtenID = regexp.MustCompile(`(?m)^[ \t]*id[ \t]*=[ \t]*"([a-z0-9][a-z0-9_
 // parseBlock decodes one calc block; with an error, the block is what it
 // could read, or nil.
 func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, error) {
-	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+	b := &Block{File: file, Line: fenceLine, Source: src, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
 		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
 	}
@@ -243,8 +255,10 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 			b.Ambient = val
 			continue
 		}
-		b.Values[key] = val
+		val.Key = key
+		b.Values = append(b.Values, val)
 	}
+	slices.SortFunc(b.Values, func(x, y Value) int { return strings.Compare(x.Key, y.Key) })
 	for _, in := range b.Kind.Inputs {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {

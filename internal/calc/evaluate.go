@@ -409,8 +409,8 @@ func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string
 // its results, of the input's dimension.
 func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inputerr.List {
 	var errs inputerr.List
-	for _, key := range sortedValueKeys(b) {
-		v := b.Values[key]
+	for _, v := range b.Values {
+		key := v.Key
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		if len(v.Links) > 0 {
 			in, _ := b.Kind.Input(key)
@@ -483,15 +483,6 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 	return errs
 }
 
-func sortedValueKeys(b *Block) []string {
-	keys := make([]string, 0, len(b.Values))
-	for k := range b.Values {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	return keys
-}
-
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
 func Parallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
@@ -544,7 +535,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
-		v, given := b.Values[spec.Name]
+		v, given := b.Value(spec.Name)
 		switch spec.Type {
 		case Name:
 			if !given && (spec.Default == "" || !defaultApplies(spec, b)) {
@@ -687,7 +678,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		var ie *InputError
 		if errors.As(err, &ie) {
 			line := b.Line
-			if v, ok := b.Values[ie.Key]; ok {
+			if v, ok := b.Value(ie.Key); ok {
 				line = v.Line
 			}
 			return nil, inputerr.List{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
@@ -896,7 +887,7 @@ func defaultApplies(spec InputSpec, b *Block) bool {
 	if spec.DefaultWith == "" {
 		return true
 	}
-	_, given := b.Values[spec.DefaultWith]
+	_, given := b.Value(spec.DefaultWith)
 	return given
 }
 

@@ -5,10 +5,8 @@ import (
 	"encoding/hex"
 	"io"
 	"io/fs"
-	"maps"
 	"os"
 	"path/filepath"
-	"slices"
 	"sort"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
@@ -188,8 +186,8 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfo(p)))
 	for _, b := range p.blocks {
 		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
-		for _, key := range slices.Sorted(maps.Keys(b.Values)) {
-			for _, id := range b.Values[key].Deps() {
+		for _, v := range b.Values {
+			for _, id := range v.Deps() {
 				d.add(id, s.blockLink(p, id))
 			}
 		}
