@@ -113,13 +113,15 @@ type Evaluated struct {
 
 // InputValue is one input as read: what was written, or the default.
 type InputValue struct {
-	Name    string
-	Text    string // as written, or the default's text
-	Value   float64
-	Dim     units.Dimension
-	Default bool   // not written by the user
-	From    string // "=id.result" when the value came from another block
-	Type    InputType
+	Name  string
+	Text  string // as written, or the default's text
+	Value float64
+	Dim   units.Dimension
+	From  string // "=id.result" when the value came from another block
+	Type  InputType
+	// Default: not written by the user. Beside Type, so that the two
+	// share a word: a big site keeps every block's inputs.
+	Default bool
 	Links   []string // the blocks a Link or LinkList input names
 	// Values are the values of a List input written as a list (Value is
 	// the first); nil otherwise.
