@@ -199,10 +199,15 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 	}
 
 	keys := make([]string, 0, len(raw))
+	inputs := 0
 	for k := range raw {
 		keys = append(keys, k)
+		if !slices.Contains(commonKeys, k) {
+			inputs++
+		}
 	}
 	sort.Strings(keys)
+	b.Values = make([]Value, 0, inputs) // a big site keeps every block's: no room to spare
 	if b.Kind.FreeInputs {
 		// The block's own inputs join a copy of its kind.
 		k := *b.Kind
@@ -256,9 +261,8 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 			continue
 		}
 		val.Key = key
-		b.Values = append(b.Values, val)
+		b.Values = append(b.Values, val) // in the order of keys: sorted
 	}
-	slices.SortFunc(b.Values, func(x, y Value) int { return strings.Compare(x.Key, y.Key) })
 	for _, in := range b.Kind.Inputs {
 		// A key written with a bad value has its own error already.
 		if _, written := raw[in.Name]; !written && in.Default == "" && !in.Optional {

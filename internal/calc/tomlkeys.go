@@ -33,7 +33,11 @@ func keyLineList(src string) []keyLine {
 	scanKeys(src, func(key string, line int) { list = append(list, keyLine{key: key, line: int32(line)}) })
 	// Stable: of a key set twice, the first line stays first.
 	slices.SortStableFunc(list, func(a, b keyLine) int { return strings.Compare(a.key, b.key) })
-	return slices.CompactFunc(list, func(a, b keyLine) bool { return a.key == b.key })
+	list = slices.CompactFunc(list, func(a, b keyLine) bool { return a.key == b.key })
+	if len(list) < cap(list) {
+		list = slices.Clone(list) // blank lines and comments left room
+	}
+	return list
 }
 
 // scanKeys calls found for every key of a TOML document, dotted with its
