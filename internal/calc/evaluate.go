@@ -44,6 +44,7 @@ type Set struct {
 	// blocks whose WithoutLinks results others quote.
 	early map[string]*Evaluated
 	opts  Options
+	index setIndex
 }
 
 // Lookup returns the evaluated block with the given id.
@@ -488,21 +489,19 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
 func Parallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
+	// Each worker takes the next index from a counter: no goroutine hands
+	// them out, and none waits on another between items.
+	var next atomic.Int64
+	work := func() {
+		for i := int(next.Add(1) - 1); i < n; i = int(next.Add(1) - 1) {
+			f(i)
+		}
+	}
 	var wg sync.WaitGroup
-	next := make(chan int)
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range next {
-				f(i)
-			}
-		}()
+	for range workers - 1 {
+		wg.Go(work)
 	}
-	for i := 0; i < n; i++ {
-		next <- i
-	}
-	close(next)
+	work()
 	wg.Wait()
 }
 

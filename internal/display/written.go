@@ -3,23 +3,47 @@ package display
 import (
 	"regexp"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/millrace-workshop/specgen/internal/units"
 )
 
-// hyphenMinus finds a hyphen-minus that is the sign of a number: at the
-// start, or after a space, bracket or sign, and before a digit.
-var hyphenMinus = regexp.MustCompile(`(^|[\s(\[=±≤≥<>/])-([0-9.])`)
-
 // Minus writes the sign of each negative number in a shown value as the
 // minus sign U+2212 of typeset text (ISO 80000-2), which the formulas of a
-// working use too: "-3.2 °C" reads "−3.2 °C". A hyphen within a word or an
-// exponent ("1.2e-5") stays.
+// working use too: "-3.2 °C" reads "−3.2 °C". A hyphen is a sign at the
+// start, or after white space, a bracket, a sign or a slash, and before a
+// digit or a point; one within a word or an exponent ("1.2e-5") stays.
 func Minus(s string) string {
-	if !strings.Contains(s, "-") {
-		return s // nothing to change, and no pattern to run
+	var b strings.Builder
+	from := 0
+	for i := strings.IndexByte(s, '-'); i >= 0 && i < len(s); {
+		if i+1 < len(s) && (s[i+1] >= '0' && s[i+1] <= '9' || s[i+1] == '.') && signPlace(s[:i]) {
+			b.WriteString(s[from:i])
+			b.WriteString("\u2212")
+			from = i + 1
+		}
+		next := strings.IndexByte(s[i+1:], '-')
+		if next < 0 {
+			break
+		}
+		i += 1 + next
 	}
-	return hyphenMinus.ReplaceAllString(s, "${1}\u2212${2}")
+	if from == 0 {
+		return s
+	}
+	b.WriteString(s[from:])
+	return b.String()
+}
+
+// signPlace reports whether a hyphen after before is the sign of a number:
+// before is empty or ends in white space, an opening bracket, a relation
+// or sign, or a slash.
+func signPlace(before string) bool {
+	if before == "" {
+		return true
+	}
+	r, _ := utf8.DecodeLastRuneInString(before)
+	return strings.ContainsRune("\t\n\f\r ([=±≤≥<>/", r)
 }
 
 // claimSigns are the ASCII spellings of the signs a claim is written with.

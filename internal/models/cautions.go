@@ -242,6 +242,20 @@ func pressureParts(s *calc.Set) []*calc.Evaluated {
 	return parts
 }
 
+// relieves reports whether relief valve v relieves block id: it names id,
+// or a block that names id (the receiver a compressor fills, say).
+func relieves(s *calc.Set, v *calc.Evaluated, id string) bool {
+	if links(v, id) {
+		return true
+	}
+	for _, p := range s.LinkedFrom(id) {
+		if p != v && links(v, p.Block.ID) {
+			return true
+		}
+	}
+	return false
+}
+
 // links reports whether e names id in any of its Link or LinkList inputs.
 func links(e *calc.Evaluated, id string) bool {
 	for _, in := range e.Inputs {
@@ -252,29 +266,58 @@ func links(e *calc.Evaluated, id string) bool {
 	return false
 }
 
+// exposedParts returns the pressure parts (partAt: their order) that
+// compressor c can pressurise, in order: those on its page, those that
+// name it, and those named by a relief valve that names it too.
+func exposedParts(s *calc.Set, c *calc.Evaluated, partAt map[*calc.Evaluated]int) []*calc.Evaluated {
+	seen := map[*calc.Evaluated]bool{}
+	var out []*calc.Evaluated
+	add := func(p *calc.Evaluated) {
+		if _, isPart := partAt[p]; isPart && !seen[p] {
+			seen[p] = true
+			out = append(out, p)
+		}
+	}
+	for _, p := range s.InFile(c.Block.File) {
+		add(p)
+	}
+	for _, e := range s.LinkedFrom(c.Block.ID) {
+		add(e)
+		if _, ok := e.Result("cracking_pressure"); ok && e.Block.Kind.Has(calc.Relieves) {
+			for _, in := range e.Inputs {
+				for _, id := range in.Links {
+					if p, ok := s.Lookup(id); ok {
+						add(p)
+					}
+				}
+			}
+		}
+	}
+	slices.SortFunc(out, func(a, b *calc.Evaluated) int { return partAt[a] - partAt[b] })
+	return out
+}
+
 func noRelief(s *calc.Set) []calc.Raised {
 	var out []calc.Raised
 	parts := pressureParts(s)
+	partAt := make(map[*calc.Evaluated]int, len(parts))
+	for i, p := range parts {
+		partAt[p] = i
+	}
 	var valves []*calc.Evaluated
-	for _, e := range s.Blocks {
-		if _, ok := e.Result("cracking_pressure"); ok && e.Block.Kind.Has(calc.Relieves) {
+	for _, e := range s.Having(calc.Relieves) {
+		if _, ok := e.Result("cracking_pressure"); ok {
 			valves = append(valves, e)
 		}
 	}
-	for _, c := range s.Blocks {
+	for _, c := range s.Having(calc.Delivers) {
 		dead, ok := c.Result("max_pressure")
-		if !ok || !c.Block.Kind.Has(calc.Delivers) {
+		if !ok {
 			continue
 		}
-		for _, p := range parts {
-			exposed := p.Block.File == c.Block.File || links(p, c.Block.ID)
-			for _, v := range valves {
-				if links(v, c.Block.ID) && links(v, p.Block.ID) {
-					exposed = true
-				}
-			}
+		for _, p := range exposedParts(s, c, partAt) {
 			allow, name, _, _ := ratingOf(p)
-			if !exposed || dead.Value <= allow {
+			if dead.Value <= allow {
 				continue
 			}
 			// The relief must open below the part's allowable pressure.
@@ -321,14 +364,8 @@ func reliefUnnamed(s *calc.Set) []calc.Raised {
 		// A relief on the receiver the compressor fills (the usual place)
 		// relieves the compressor too, as the no-relief rule counts it.
 		named := false
-		for _, v := range s.Blocks {
-			if !v.Block.Kind.Has(calc.Relieves) {
-				continue
-			}
-			named = named || links(v, c.Block.ID)
-			for _, p := range s.Blocks {
-				named = named || (p != v && links(v, p.Block.ID) && links(p, c.Block.ID))
-			}
+		for _, v := range s.Having(calc.Relieves) {
+			named = named || relieves(s, v, c.Block.ID)
 		}
 		if named {
 			continue
@@ -615,8 +652,8 @@ func vacuumWall(w *calc.Evaluated) bool {
 // block e, with their safety factors, or says that none checks them.
 func wallsChecked(s *calc.Set, e *calc.Evaluated) string {
 	var named []string
-	for _, w := range s.Blocks {
-		if w.Block.File != e.Block.File || !vacuumWall(w) {
+	for _, w := range s.InFile(e.Block.File) {
+		if !vacuumWall(w) {
 			continue
 		}
 		var factors []string

@@ -41,16 +41,12 @@ func reliefOpening(s *calc.Set, id string) (float64, bool) {
 		return 0, false
 	}
 	lowest, found := math.Inf(1), false
-	for _, v := range s.Blocks {
+	for _, v := range s.Having(calc.Relieves) {
 		set, ok := v.Result("cracking_pressure")
-		if !ok || !v.Block.Kind.Has(calc.Relieves) {
+		if !ok {
 			continue
 		}
-		protects := links(v, id)
-		for _, p := range s.Blocks {
-			protects = protects || (p != v && links(v, p.Block.ID) && links(p, id))
-		}
-		if protects {
+		if relieves(s, v, id) {
 			// The valve vents to ambient: it opens at ambient + its setting.
 			lowest, found = math.Min(lowest, set.Value+v.Ambient), true
 		}

@@ -3,6 +3,7 @@ package models
 import (
 	"fmt"
 	"math"
+	"sync"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/display"
@@ -185,8 +186,10 @@ func evaluateCompressor(in *calc.Inputs) (*calc.Outcome, error) {
 	if in.CurvesOnly() {
 		return &calc.Outcome{Curves: compressorCurves(cyc, c, nil, steps)}, nil
 	}
-	gasOne := sampleRevolution(steps, cyc.gasTorque)
-	gas := phaseSum(gasOne, c.cylinders)
+	oneBuf, sumBuf := revolutionScratch(steps), revolutionScratch(steps)
+	defer revolutions.Put(oneBuf)
+	defer revolutions.Put(sumBuf)
+	gas := phaseSumInto(*sumBuf, sampleInto(*oneBuf, cyc.gasTorque), c.cylinders)
 	peakTorque := gas[0]
 	for _, t := range gas {
 		peakTorque = math.Max(peakTorque, t)
@@ -373,19 +376,45 @@ func crankSteps(z int) int {
 
 // sampleRevolution samples f at m equal steps of crank angle, θ_i = 2π·i/m.
 func sampleRevolution(m int, f func(theta float64) float64) []float64 {
-	out := make([]float64, m)
+	return sampleInto(make([]float64, m), f)
+}
+
+// sampleInto is sampleRevolution into out, m = len(out).
+func sampleInto(out []float64, f func(theta float64) float64) []float64 {
+	m := len(out)
 	for i := range out {
 		out[i] = f(2 * math.Pi * float64(i) / float64(m))
 	}
 	return out
 }
 
+// revolutions hold a revolution's worth of samples between evaluations:
+// a block's torque is sampled at thousands of steps, and read only while
+// the block is evaluated.
+var revolutions = sync.Pool{New: func() any { return new([]float64) }}
+
+// revolutionScratch returns scratch space of m samples from revolutions;
+// its contents are undefined.
+func revolutionScratch(m int) *[]float64 {
+	buf := revolutions.Get().(*[]float64)
+	if cap(*buf) < m {
+		*buf = make([]float64, m)
+	}
+	*buf = (*buf)[:m]
+	return buf
+}
+
 // phaseSum adds the curve of z evenly phased cylinders: cylinder k passes
 // TDC at 2π·k/z, so its value at step i is one's at step i − k·m/z.
 // len(one) must be a multiple of z.
 func phaseSum(one []float64, z int) []float64 {
+	return phaseSumInto(make([]float64, len(one)), one, z)
+}
+
+// phaseSumInto is phaseSum into sum, len(sum) = len(one).
+func phaseSumInto(sum, one []float64, z int) []float64 {
 	m := len(one)
-	sum := make([]float64, m)
+	clear(sum)
 	for k := range z {
 		shift := k * m / z
 		// sum[i] += one[(i−shift) mod m], in two runs without the modulus.
@@ -405,7 +434,9 @@ func phaseSum(one []float64, z int) []float64 {
 func excessEnergyRange(torque []float64, mean float64) (low, high float64) {
 	m := len(torque)
 	h := 2 * math.Pi / float64(m)
-	e := make([]float64, m) // e[i] at θ_(i+1); the running sum is periodic
+	buf := revolutionScratch(m)
+	defer revolutions.Put(buf)
+	e := *buf // e[i] at θ_(i+1); the running sum is periodic
 	// Each step by the cubic through four samples (fourth order), not a
 	// trapezoid: smooth stretches of torque integrate far more closely, and
 	// at the kinks of valve events it is no worse.

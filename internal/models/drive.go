@@ -317,16 +317,16 @@ func unnamedRelief(s *calc.Set) []calc.Raised {
 				fed[st.id] = true
 			}
 		}
-		for _, e := range s.Blocks {
-			if l := receiverSupply(e); e.Block.Kind.Has(calc.Receiver) && l != nil && fed[l.ID] {
+		for _, e := range s.Having(calc.Receiver) {
+			if l := receiverSupply(e); l != nil && fed[l.ID] {
 				fed[e.Block.ID] = true
 			}
 		}
 		var highest *calc.Evaluated
 		top := ld.discharge
-		for _, v := range s.Blocks {
+		for _, v := range s.Having(calc.Relieves) {
 			crack, ok := v.Result("cracking_pressure")
-			if !ok || !v.Block.Kind.Has(calc.Relieves) || v.ModelInputs() == nil || v.Ambient+crack.Value <= top {
+			if !ok || v.ModelInputs() == nil || v.Ambient+crack.Value <= top {
 				continue
 			}
 			for _, p := range v.ModelInputs().LinksOf("protects") {

@@ -468,12 +468,35 @@ func breakable(name string) string { return strings.ReplaceAll(esc(name), "_", "
 // grouped, negative numbers with a minus sign.
 func shownValue(s string) string { return display.Minus(groupFigures(s)) }
 
+// hasDigitRun reports whether s holds n ASCII digits in a row.
+func hasDigitRun(s string, n int) bool {
+	run := 0
+	for i := 0; i < len(s); i++ {
+		if s[i] >= '0' && s[i] <= '9' {
+			if run++; run >= n {
+				return true
+			}
+		} else {
+			run = 0
+		}
+	}
+	return false
+}
+
 var figure = regexp.MustCompile(`[-\w.]*\d[\w.]*`)
 
 // groupFigures groups the digits of the whole numbers of five or more
 // digits in a shown value (6 140 000 W) as the chart ticks do; a decimal
 // fraction or a word with digits in it (an id) is left as it is.
 func groupFigures(s string) string {
+	if !hasDigitRun(s, 5) {
+		return s // no whole number long enough to group
+	}
+	return groupEachFigure(s)
+}
+
+// groupEachFigure is groupFigures without its shortcut.
+func groupEachFigure(s string) string {
 	return figure.ReplaceAllStringFunc(s, func(f string) string {
 		digits := strings.TrimPrefix(f, "-")
 		for _, r := range digits {

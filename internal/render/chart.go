@@ -326,7 +326,7 @@ func appendSVG(sc *chartScratch, c *calc.Chart, series [][]seriesPoints, l chart
 	}
 	tiles := draw.Tiles{Rows: len(c.Panels), Cols: 1, PadY: 12, PadTop: 8 + vg.Length(noteRoom), PadBottom: 4, PadLeft: 4, PadRight: 12}
 	dc := draw.New(canvas)
-	canvases := plot.Align(plots, tiles, dc)
+	canvases := alignPlots(plots, tiles, dc)
 	for i, row := range plots {
 		row[0].Draw(canvases[i][0])
 	}

@@ -31,8 +31,7 @@ type faceMetrics struct {
 	face                    font.Face // as the font cache gives it, Size upem
 	upem                    vg.Length
 	ascent, descent, height vg.Length
-	mu                      sync.RWMutex
-	widths                  map[string]vg.Length
+	widths                  sync.Map // string → vg.Length; read without a shared write
 }
 
 var chartText = &measuredText{Plain: plot.DefaultTextHandler.(text.Plain)}
@@ -64,8 +63,7 @@ func (m *measuredText) metrics(fnt font.Font) *faceMetrics {
 	upem := vg.Length(float64(probe.Face.UnitsPerEm()))
 	face := m.Fonts.Lookup(fnt, upem)
 	e := face.Extents()
-	f := &faceMetrics{font: fnt, face: face, upem: upem, ascent: e.Ascent, descent: e.Descent, height: e.Height,
-		widths: map[string]vg.Length{}}
+	f := &faceMetrics{font: fnt, face: face, upem: upem, ascent: e.Ascent, descent: e.Descent, height: e.Height}
 	grown := append(append(make([]*faceMetrics, 0, len(faces)+1), faces...), f)
 	m.faces.Store(&grown)
 	return f
@@ -76,15 +74,11 @@ func (f *faceMetrics) scale(size vg.Length) vg.Length { return size / f.upem }
 
 // width returns the width of a line of text at size.
 func (f *faceMetrics) width(txt string, size vg.Length) vg.Length {
-	f.mu.RLock()
-	w, ok := f.widths[txt]
-	f.mu.RUnlock()
-	if !ok {
-		w = f.face.Width(txt)
-		f.mu.Lock()
-		f.widths[txt] = w
-		f.mu.Unlock()
+	if w, ok := f.widths.Load(txt); ok {
+		return w.(vg.Length) * f.scale(size)
 	}
+	w := f.face.Width(txt)
+	f.widths.Store(txt, w)
 	return w * f.scale(size)
 }
 

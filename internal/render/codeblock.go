@@ -50,8 +50,10 @@ func (r *codeBlockRenderer) render(w util.BufWriter, source []byte, node ast.Nod
 func writeCode(w util.BufWriter, lang, code string) {
 	if lexer := lexerFor(lang); lexer != nil {
 		if it, err := lexer.Tokenise(nil, code); err == nil {
-			var out bytes.Buffer
-			if codeFormatter.Format(&out, highlightStyle, it) == nil {
+			out := codeBuffers.Get().(*bytes.Buffer)
+			defer codeBuffers.Put(out)
+			out.Reset()
+			if codeFormatter.Format(out, highlightStyle, it) == nil {
 				_, _ = w.WriteString(`<div class="sg-code" data-lang="` + string(util.EscapeHTML([]byte(lang))) + `">`)
 				_, _ = w.Write(out.Bytes())
 				_, _ = w.WriteString("</div>\n")
@@ -85,6 +87,9 @@ func lexerFor(lang string) chroma.Lexer {
 	lexerCache.Store(lang, lexer)
 	return lexer
 }
+
+// codeBuffers hold highlighted code until it is written to the page.
+var codeBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
 
 var lexerCache sync.Map // language → chroma.Lexer, or nil for none
 

@@ -20,6 +20,7 @@ import (
 type Markdown struct {
 	md      goldmark.Markdown
 	rawHTML bool
+	packer  *Packer
 }
 
 // Option configures a Markdown.
@@ -29,6 +30,11 @@ type Option func(*Markdown)
 // as text, so that a page cannot inject markup or scripts into the site.
 func WithRawHTML(allow bool) Option {
 	return func(m *Markdown) { m.rawHTML = allow }
+}
+
+// WithPacker has prepared pages packed by p (by default deflated).
+func WithPacker(p *Packer) Option {
+	return func(m *Markdown) { m.packer = p }
 }
 
 // New returns a Markdown with GFM tables, task lists, strikethrough,

@@ -3,10 +3,8 @@ package render
 import (
 	"bufio"
 	"bytes"
-	"compress/flate"
 	"io"
 	"strings"
-	"sync"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/util"
@@ -145,11 +143,11 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
-	html, err := Pack(out.Bytes())
+	html, err := m.packer.Pack(out.Bytes())
 	if err != nil {
 		return nil, err
 	}
-	textZ, err := Pack([]byte(text.text))
+	textZ, err := m.packer.Pack([]byte(text.text))
 	if err != nil {
 		return nil, err
 	}
@@ -182,50 +180,4 @@ func (p *Prepared) Write(w io.Writer, fill func(w util.BufWriter, h Hole)) error
 	}
 	_, _ = bw.Write(html[at:])
 	return bw.Flush()
-}
-
-// Packed is data kept deflated in memory until it is written: what a big
-// site holds of every page until its end (its HTML, its text) shrinks some
-// fourfold at a few microseconds a page.
-type Packed struct {
-	z []byte
-	n int
-}
-
-// Compressors are reused: each holds some hundreds of kilobytes of state.
-var (
-	compressors = sync.Pool{New: func() any {
-		w, _ := flate.NewWriter(nil, flate.BestSpeed) // a valid level: no error
-		return w
-	}}
-	decompressors = sync.Pool{New: func() any { return flate.NewReader(bytes.NewReader(nil)) }}
-)
-
-// Pack deflates b.
-func Pack(b []byte) (Packed, error) {
-	var out bytes.Buffer
-	zw := compressors.Get().(*flate.Writer)
-	defer compressors.Put(zw)
-	zw.Reset(&out)
-	if _, err := zw.Write(b); err != nil {
-		return Packed{}, err
-	}
-	if err := zw.Close(); err != nil {
-		return Packed{}, err
-	}
-	return Packed{z: bytes.Clone(out.Bytes()), n: len(b)}, nil
-}
-
-// Bytes inflates the packed data.
-func (p Packed) Bytes() ([]byte, error) {
-	zr := decompressors.Get().(io.ReadCloser)
-	defer decompressors.Put(zr)
-	if err := zr.(flate.Resetter).Reset(bytes.NewReader(p.z), nil); err != nil {
-		return nil, err
-	}
-	out := make([]byte, p.n)
-	if _, err := io.ReadFull(zr, out); err != nil {
-		return nil, err
-	}
-	return out, nil
 }

@@ -57,6 +57,12 @@ type Summary struct {
 	UpToDate bool      // nothing had changed since the last build: nothing was redone
 }
 
+// plainBudget is how many bytes of prepared pages and search entries a
+// build keeps as they are before it deflates the rest: a site of a few
+// thousand pages spends no time packing, a bigger one holds this much
+// more than the deflated data.
+const plainBudget = 16 << 20
+
 // Site is a loaded site: configuration, layouts and parsed pages.
 type Site struct {
 	Root    string
@@ -67,6 +73,7 @@ type Site struct {
 	// readingAt is each page's place in reading.
 	readingAt map[*Page]int
 	md        *render.Markdown
+	packer    *render.Packer // of md, and of the search entries
 	layouts   *layouts
 	// Calc holds every evaluated calculation block of the site.
 	Calc      *calc.Set
@@ -145,7 +152,9 @@ func load(root string, opt loadOptions) (*Site, error) {
 	if rels == nil {
 		return nil, reported()
 	}
-	s := &Site{Root: root, Config: cfg, layouts: lay, md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML)), outcomes: opt.outcomes}
+	packer := render.NewPacker(plainBudget)
+	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes,
+		md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML), render.WithPacker(packer))}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
 	calc.Parallel(len(rels), func(i int) {
@@ -310,12 +319,15 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 			if interrupted() {
 				return ErrInterrupted
 			}
-			// A file kept before its page had to be made again is a link
-			// to the last output: never write through it.
-			_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
 			mu.Lock()
+			_, linked := kept[name]
 			written = append(written, name)
 			mu.Unlock()
+			if linked {
+				// A file kept before its page had to be made again is a
+				// link to the last output: never write through it.
+				_ = os.Remove(filepath.Join(st.dir, filepath.FromSlash(name)))
+			}
 			return st.create(name, write)
 		},
 		keep: func(name string) bool {
@@ -506,7 +518,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
-			packed, err := rec.Search.packed()
+			packed, err := rec.Search.packed(s.packer)
 			if err != nil {
 				errs[i] = err
 				return
@@ -523,7 +535,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		} else {
 			files, entry, err := s.renderPage(p)
 			if err == nil {
-				entries[i], err = entry.packed()
+				entries[i], err = entry.packed(s.packer)
 			}
 			if err != nil {
 				errs[i] = err
@@ -638,6 +650,14 @@ func (s *Site) Home() string {
 	return s.reading[0].Out
 }
 
+// bodyBuffers hold pages' bodies while they are laid out: a page's body
+// is some tens of kilobytes, written in many small pieces.
+var bodyBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
+// layoutRoom is what a layout adds to a page's body, the most of it
+// navigation, which is bounded (navReach), with room to spare.
+const layoutRoom = 24 << 10
+
 // renderPage lays out one page; it returns the page and the chart data
 // files beside it, keyed by output path, and the page's entry of the
 // search index.
@@ -651,8 +671,10 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
-	var body bytes.Buffer
-	if err := p.body.Write(&body, s.fill(p, charts)); err != nil {
+	body := bodyBuffers.Get().(*bytes.Buffer)
+	defer bodyBuffers.Put(body)
+	body.Reset()
+	if err := p.body.Write(body, s.fill(p, charts)); err != nil {
 		return nil, searchEntry{}, err
 	}
 	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
@@ -707,6 +729,7 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
 	}
 	var buf bytes.Buffer
+	buf.Grow(len(info.Content) + layoutRoom) // one allocation for most pages
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}

@@ -84,12 +84,12 @@ func distinctWords(text string, n int) string {
 // its JSON, deflated. json.Marshal escapes <, > and & and the line
 // separators U+2028 and U+2029: the text cannot end the script or break
 // its lines.
-func (e searchEntry) packed() (render.Packed, error) {
+func (e searchEntry) packed(p *render.Packer) (render.Packed, error) {
 	b, err := json.Marshal(e)
 	if err != nil {
 		return render.Packed{}, err
 	}
-	return render.Pack(b)
+	return p.Pack(b)
 }
 
 // writeSearchIndex writes the index script: one call of specgenSearchIndex

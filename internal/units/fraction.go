@@ -21,6 +21,9 @@ var looseFraction = regexp.MustCompile(`^[+-]?([0-9]+(?:\.[0-9]+)?)(?:[\s\p{Zs}]
 // fraction written otherwise than "2-1/4" or "3/4" is a problem that says
 // how to write it.
 func splitFraction(s string) (number, rest, problem string) {
+	if !strings.Contains(s, "/") {
+		return "", "", "" // both patterns need a slash; most numbers have none
+	}
 	if m := fraction.FindStringSubmatchIndex(s); m != nil && !strings.ContainsAny(s[m[1]:min(m[1]+1, len(s))], "./0123456789") {
 		sign, whole, num, den := s[m[2]:m[3]], s[max(m[4], 0):max(m[5], 0)], s[m[6]:m[7]], s[m[8]:m[9]]
 		d, _ := strconv.ParseFloat(den, 64)
