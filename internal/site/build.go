@@ -446,7 +446,6 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if !to.record || previous != nil && previous.Render != renderFP {
 		previous = nil
 	}
-	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
 	// results.json is written while the pages are; emit returns only
 	// once it is.
 	resultsWritten := make(chan error, 1)
@@ -569,6 +568,8 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if err := s.emitHosting(put, names, entries); err != nil || !to.record {
 		return nil, err
 	}
+	// Made last: the pages' prepared content has gone by now.
+	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
 	for i, p := range s.Pages {
 		record.Pages[p.File] = records[i]
 	}
