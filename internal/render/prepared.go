@@ -144,13 +144,14 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
-	htmlLen := out.Len()
-	out.WriteString(text.text)
-	packed, err := m.packer.Pack(out.Bytes())
+	// Of its own size: a Packer may keep it as it is.
+	page := make([]byte, 0, out.Len()+len(text.text))
+	page = append(append(page, out.Bytes()...), text.text...)
+	packed, err := m.packer.Pack(page)
 	if err != nil {
 		return nil, err
 	}
-	return &Prepared{packed: packed, htmlLen: htmlLen, holes: prep.holes, textPlaces: text.places, Headings: headings}, nil
+	return &Prepared{packed: packed, htmlLen: out.Len(), holes: prep.holes, textPlaces: text.places, Headings: headings}, nil
 }
 
 // SearchText is the page's prose for the search index, a block a line:
