@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"io"
 	"strings"
+	"sync"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/util"
@@ -114,12 +115,18 @@ func (p *preparing) hole(w util.BufWriter, n ast.Node, h Hole) {
 	p.holes = append(p.holes, h)
 }
 
+// pageBuffers hold pages as Prepare renders them: what it keeps is a copy
+// of its own size, so the buffer, grown to a page's size, serves the next.
+var pageBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
 // Prepare renders a parsed page with holes for what evaluation will find,
 // and takes its headings and text. The document is spent: Render it no
 // more.
 func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
-	var out bytes.Buffer
-	prep := &preparing{out: &out, index: map[ast.Node]int{}, lineOffset: doc.LineOffset}
+	out := pageBuffers.Get().(*bytes.Buffer)
+	out.Reset()
+	defer pageBuffers.Put(out)
+	prep := &preparing{out: out, index: map[ast.Node]int{}, lineOffset: doc.LineOffset}
 	refs := doc.ValueRefs()
 	refIndex := make(map[*ValueRef]int, len(refs))
 	for i, r := range refs {
@@ -141,7 +148,7 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	}
 	text := doc.prose(refIndex)
 	headings := doc.headingParts(3, refIndex)
-	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
+	if err := m.md.Renderer().Render(out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
 	// Of its own size: a Packer may keep it as it is.
