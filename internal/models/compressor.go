@@ -498,9 +498,24 @@ func compressorCurves(cyc *indicatorCycle, c cylinder, gas []float64, steps int)
 		return out
 	}
 	angle := func(i int) float64 { return 2 * math.Pi * float64(i) / float64(steps) }
+	// At each point drawn the volume, the pressure and a single cylinder's
+	// gas torque share the piston's position and speed.
 	pv := calc.Curve{Name: "pv", XDim: units.Volume, YDim: units.Pressure,
-		X: pick(func(i int) float64 { return cyc.volume(angle(i)) }),
-		Y: pick(func(i int) float64 { return cyc.pressure(angle(i)) })}
+		X: make([]float64, 0, curvePoints+1), Y: make([]float64, 0, curvePoints+1)}
+	var gasY []float64
+	alone := gas == nil && c.cylinders == 1
+	for i := 0; i <= steps; i += stride {
+		th := angle(i % steps)
+		x, dx := cyc.crank.motion(th)
+		v := cyc.clearance + cyc.area*x
+		p := cyc.pressureAt(th, v)
+		pv.X, pv.Y = append(pv.X, v), append(pv.Y, p)
+		if alone {
+			sum := 0.0 // as phaseAt adds: a −0 torque reads 0
+			sum += -(p - cyc.ambient) * cyc.area * dx
+			gasY = append(gasY, sum)
+		}
+	}
 
 	// Isothermal compression from bottom dead centre to the discharge
 	// pressure (or to the clearance volume, whichever comes first).
@@ -518,11 +533,12 @@ func compressorCurves(cyc *indicatorCycle, c cylinder, gas []float64, steps int)
 	for i := 0; i <= steps; i += stride {
 		theta = append(theta, angle(i))
 	}
-	gasAt := func(i int) float64 { return phaseAt(cyc.gasTorque, i, steps, c.cylinders) }
-	if gas != nil {
-		gasAt = func(i int) float64 { return gas[i] }
+	switch {
+	case gas != nil:
+		gasY = pick(func(i int) float64 { return gas[i] })
+	case !alone:
+		gasY = pick(func(i int) float64 { return phaseAt(cyc.gasTorque, i, steps, c.cylinders) })
 	}
-	gasY := pick(gasAt)
 	curves := []calc.Curve{pv, iso, {Name: "gas_torque", XDim: units.Angle, YDim: units.Torque, X: theta, Y: gasY}}
 	if c.mass > 0 {
 		inertiaY := pick(func(i int) float64 {

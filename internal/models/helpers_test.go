@@ -2,6 +2,8 @@ package models
 
 import (
 	"errors"
+	"maps"
+	"slices"
 	"strings"
 	"testing"
 
@@ -50,13 +52,22 @@ func inputsIn(env *Env, ambient float64, values map[string]float64) *calc.Inputs
 // apart, and evaluates them together.
 func evaluateSources(t *testing.T, file string, srcs []string) *calc.Set {
 	t.Helper()
+	return evaluatePages(t, map[string][]string{file: srcs})
+}
+
+// evaluatePages is evaluateSources for the blocks of several pages,
+// evaluated together.
+func evaluatePages(t *testing.T, pages map[string][]string) *calc.Set {
+	t.Helper()
 	var blocks []*calc.Block
-	for i, src := range srcs {
-		b, err := testCatalog.ParseBlock(file, 20*i, src)
-		if err != nil {
-			t.Fatal(err)
+	for _, file := range slices.Sorted(maps.Keys(pages)) {
+		for i, src := range pages[file] {
+			b, err := testCatalog.ParseBlock(file, 20*i, src)
+			if err != nil {
+				t.Fatal(err)
+			}
+			blocks = append(blocks, b)
 		}
-		blocks = append(blocks, b)
 	}
 	set, err := testCatalog.Evaluate(blocks, calc.Options{})
 	if err != nil {

@@ -24,20 +24,7 @@ func TestSetIndexAsScan(t *testing.T) {
 			"id = \"v2\"\nkind = \"valve\"\n" + valve + "protects = [\"t2\"]\n",
 		},
 	}
-	var blocks []*calc.Block
-	for _, file := range []string{"content/a.md", "content/b.md"} {
-		for i, src := range pages[file] {
-			b, err := testCatalog.ParseBlock(file, 20*i, src)
-			if err != nil {
-				t.Fatal(err)
-			}
-			blocks = append(blocks, b)
-		}
-	}
-	set, err := testCatalog.Evaluate(blocks, calc.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	set := evaluatePages(t, pages)
 	scan := func(keep func(e *calc.Evaluated) bool) []*calc.Evaluated {
 		var out []*calc.Evaluated
 		for _, e := range set.Blocks {

@@ -659,6 +659,35 @@ var bodyBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
 // navigation, which is bounded (navReach), with room to spare.
 const layoutRoom = 24 << 10
 
+// contentMark stands for a page's content while its layout runs: no
+// template text or escaped value holds a NUL. Escaped, in an attribute or
+// a script, its NULs are gone but its words are not.
+const (
+	contentMark      = "\x00specgen-content-mark\x00"
+	contentMarkWords = "content-mark"
+)
+
+// layoutWith lays out page p with content, its rendered Markdown. The
+// layout runs with a mark where the content goes, which is then put in
+// its place: the tens of kilobytes of a page's content are copied once,
+// not passed through the template's printing. A layout that shows the
+// content other than once, as it is, runs again with the content itself.
+func (s *Site) layoutWith(p *Page, rootPrefix string, info PageInfo, content []byte) ([]byte, error) {
+	info.Content = contentMark
+	framed, err := s.layout(p, rootPrefix, info)
+	if err != nil {
+		return nil, err
+	}
+	if at := bytes.Index(framed, []byte(contentMark)); at >= 0 && bytes.Count(framed, []byte(contentMarkWords)) == 1 {
+		page := make([]byte, 0, len(framed)-len(contentMark)+len(content))
+		page = append(page, framed[:at]...)
+		page = append(page, content...)
+		return append(page, framed[at+len(contentMark):]...), nil
+	}
+	info.Content = template.HTML(content)
+	return s.layout(p, rootPrefix, info)
+}
+
 // renderPage lays out one page; it returns the page and the chart data
 // files beside it, keyed by output path, and the page's entry of the
 // search index.
@@ -680,10 +709,9 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	}
 	headings := p.body.HeadingsWith(func(ref int) string { return s.refText(p, ref) })
 	info := s.pageInfo(p)
-	info.Content = template.HTML(body.String())
 	info.TOCCount = len(headings)
 	info.TOC = render.Nest(headings)
-	page, err := s.layout(p, up, info)
+	page, err := s.layoutWith(p, up, info, body.Bytes())
 	if err != nil {
 		return nil, searchEntry{}, err
 	}
@@ -730,7 +758,7 @@ func (s *Site) layout(p *Page, rootPrefix string, info PageInfo) ([]byte, error)
 		return nil, &inputerr.Error{File: p.File, Msg: err.Error()}
 	}
 	var buf bytes.Buffer
-	buf.Grow(len(info.Content) + layoutRoom) // one allocation for most pages
+	buf.Grow(len(info.Content) + layoutRoom) // one allocation for most layouts
 	if err := tpl.Execute(&buf, data); err != nil {
 		return nil, templateError(err, tpl.Name(), "while laying out "+p.File+": ")
 	}

@@ -8,6 +8,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"github.com/millrace-workshop/specgen/internal/inputerr"
 )
@@ -86,6 +87,7 @@ func realPath(p string) string {
 // place only when the whole build succeeded.
 type staging struct {
 	dir, target string
+	made        sync.Map // folders within dir known to exist
 }
 
 func newStaging(target string) (*staging, error) {
@@ -111,8 +113,11 @@ func newStaging(target string) (*staging, error) {
 // create writes one output file, relative to the output folder.
 func (s *staging) create(rel string, write func(io.Writer) error) error {
 	p := filepath.Join(s.dir, filepath.FromSlash(rel))
-	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-		return err
+	if dir := filepath.Dir(p); !s.knownFolder(dir) {
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return err
+		}
+		s.made.Store(dir, true)
 	}
 	f, err := os.OpenFile(p, os.O_CREATE|os.O_WRONLY|os.O_TRUNC, 0o644)
 	if err != nil {
@@ -123,6 +128,14 @@ func (s *staging) create(rel string, write func(io.Writer) error) error {
 		err = cerr
 	}
 	return err
+}
+
+// knownFolder reports whether folder dir was made (or found) for an
+// earlier file: a folder holds many files, and asking again for each costs
+// a system call.
+func (s *staging) knownFolder(dir string) bool {
+	_, ok := s.made.Load(dir)
+	return ok
 }
 
 // commit moves the finished build into place and removes the old output.

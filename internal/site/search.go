@@ -6,6 +6,7 @@ import (
 	"io"
 	"strings"
 	"unicode"
+	"unicode/utf8"
 
 	"github.com/millrace-workshop/specgen/internal/render"
 )
@@ -65,16 +66,26 @@ func excerpt(text string, n int) string {
 func distinctWords(text string, n int) string {
 	seen := map[string]bool{}
 	var words []string
-	for _, w := range strings.FieldsFunc(strings.ToLower(text), func(r rune) bool {
-		return !unicode.IsLetter(r) && !unicode.IsDigit(r)
-	}) {
-		if seen[w] {
+	lower := strings.ToLower(text)
+	inWord := func(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) }
+	// The fields of strings.FieldsFunc, taken one at a time, so that a
+	// long page stops at the n-th word.
+	for i := 0; i < len(lower) && len(words) < n; {
+		r, size := utf8.DecodeRuneInString(lower[i:])
+		if !inWord(r) {
+			i += size
 			continue
 		}
-		seen[w] = true
-		words = append(words, w)
-		if len(words) == n {
-			break
+		start := i
+		for i < len(lower) {
+			if r, size = utf8.DecodeRuneInString(lower[i:]); !inWord(r) {
+				break
+			}
+			i += size
+		}
+		if w := lower[start:i]; !seen[w] {
+			seen[w] = true
+			words = append(words, w)
 		}
 	}
 	return strings.Join(words, " ")

@@ -1,0 +1,58 @@
+package site
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestLayoutContentPlaces checks that a page's content reaches every place
+// a layout puts it, as the template would put it: once as HTML (the mark
+// put in its place), twice, and in an attribute, where html/template
+// keeps its text alone.
+func TestLayoutContentPlaces(t *testing.T) {
+	for _, c := range []struct {
+		name, layout string
+		want         []string
+	}{
+		{"once", `<main>{{.Page.Content}}</main>`, []string{"<main><p>Bore <em>32 mm</em> &amp; more.</p>\n</main>"}},
+		{"twice", `<main>{{.Page.Content}}</main><aside>{{.Page.Content}}</aside>`,
+			[]string{"<main><p>Bore <em>32 mm</em> &amp; more.</p>\n</main>", "<aside><p>Bore <em>32 mm</em> &amp; more.</p>\n</aside>"}},
+		{"attribute", `<main>{{.Page.Content}}</main><div data-copy="{{.Page.Content}}"></div>`,
+			[]string{"<main><p>Bore <em>32 mm</em> &amp; more.</p>\n</main>", `data-copy="Bore 32 mm &amp; more.`}},
+		{"none", `<main>{{.Page.Title}}</main>`, []string{"<main>Bore</main>"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			root := t.TempDir()
+			files := map[string]string{
+				"content/bore.md":     "+++\ntitle = \"Bore\"\n+++\nBore *32 mm* & more.\n",
+				"templates/page.html": c.layout,
+			}
+			for name, text := range files {
+				p := filepath.Join(root, filepath.FromSlash(name))
+				if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+					t.Fatal(err)
+				}
+				if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
+			if _, err := Build(root, Options{}); err != nil {
+				t.Fatal(err)
+			}
+			page, err := os.ReadFile(filepath.Join(root, DefaultOut, "bore.html"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, w := range c.want {
+				if !strings.Contains(string(page), w) {
+					t.Errorf("the page lacks %q:\n%s", w, page)
+				}
+			}
+			if strings.ContainsRune(string(page), 0) || strings.Contains(string(page), contentMarkWords) {
+				t.Errorf("the content mark is left in the page:\n%s", page)
+			}
+		})
+	}
+}
