@@ -247,19 +247,28 @@ func (c *Curve) UnmarshalBinary(b []byte) error {
 		return errCurveData
 	}
 	c.XDim, c.YDim, c.Dashed, b = units.Dimension(x), units.Dimension(y), b[0] == 1, b[1:]
-	for _, vs := range []*[]float64{&c.X, &c.Y} {
-		n, ok := uvarint()
-		if !ok || uint64(len(b))/8 < n {
-			return errCurveData
-		}
-		*vs = make([]float64, n)
-		for i := range *vs {
-			(*vs)[i] = math.Float64frombits(binary.LittleEndian.Uint64(b[8*i:]))
-		}
-		b = b[8*n:]
-	}
-	if len(b) != 0 {
+	nx, ok := uvarint()
+	if !ok || uint64(len(b))/8 < nx {
 		return errCurveData
 	}
+	xs := b[:8*nx]
+	b = b[8*nx:]
+	ny, ok := uvarint()
+	if !ok || uint64(len(b))/8 != ny {
+		return errCurveData
+	}
+	// One array holds both, X capped so that appending to it copies.
+	points := make([]float64, nx+ny)
+	readFloats(points[:nx], xs)
+	readFloats(points[nx:], b)
+	c.X, c.Y = points[:nx:nx], points[nx:]
 	return nil
+}
+
+// readFloats sets vs from the little-endian bits in b, eight bytes each.
+func readFloats(vs []float64, b []byte) {
+	b = b[:8*len(vs)]
+	for i := range vs {
+		vs[i] = math.Float64frombits(binary.LittleEndian.Uint64(b[8*i : 8*i+8]))
+	}
 }

@@ -86,31 +86,58 @@ type Caution struct {
 // id; keys sorted), so that a big site's results are never held in memory
 // whole.
 func Write(w io.Writer, blocks []*calc.Evaluated) error {
-	bw := bufio.NewWriter(w)
+	_, err := WriteEntries(w, len(blocks), func(i int) ([]byte, error) { return Entry(blocks[i]) })
+	return err
+}
+
+// Entry is one evaluated block's entry of results.json as Write writes it.
+func Entry(e *calc.Evaluated) ([]byte, error) { return json.MarshalIndent(blockOf(e), "    ", "  ") }
+
+// WriteEntries is Write with the n blocks' entries given by entry, each as
+// Entry makes it; what entry returns is written before it is called again.
+// It returns where each entry starts in what it wrote, so that a later
+// build can take those of unchanged blocks over.
+func WriteEntries(w io.Writer, n int, entry func(i int) ([]byte, error)) ([]int64, error) {
+	cw := &countingWriter{w: w}
+	bw := bufio.NewWriterSize(cw, 64<<10) // a big site's file is megabytes
 	generator, err := json.Marshal(version.Generator())
 	if err != nil {
-		return err
+		return nil, err
 	}
 	fmt.Fprintf(bw, "{\n  \"version\": %d,\n  \"generator\": %s,\n", Version, generator)
-	if len(blocks) == 0 {
+	if n == 0 {
 		bw.WriteString("  \"blocks\": []\n}\n")
-		return bw.Flush()
+		return nil, bw.Flush()
 	}
 	bw.WriteString("  \"blocks\": [\n")
-	for i, e := range blocks {
-		b, err := json.MarshalIndent(blockOf(e), "    ", "  ")
+	at := make([]int64, n)
+	for i := range n {
+		b, err := entry(i)
 		if err != nil {
-			return err
+			return nil, err
 		}
 		bw.WriteString("    ")
+		at[i] = cw.n + int64(bw.Buffered())
 		bw.Write(b)
-		if i < len(blocks)-1 {
+		if i < n-1 {
 			bw.WriteString(",")
 		}
 		bw.WriteString("\n")
 	}
 	bw.WriteString("  ]\n}\n")
-	return bw.Flush()
+	return at, bw.Flush()
+}
+
+// countingWriter counts what it passes on.
+type countingWriter struct {
+	w io.Writer
+	n int64
+}
+
+func (c *countingWriter) Write(p []byte) (int, error) {
+	n, err := c.w.Write(p)
+	c.n += int64(n)
+	return n, err
 }
 
 // Of returns the contents of results.json for evaluated blocks, sorted by id.

@@ -37,6 +37,25 @@ func TestWriteMatchesWholeEncoding(t *testing.T) {
 		t.Fatalf("streamed results.json differs from the whole encoding:\n%s\nwant:\n%s", streamed.Bytes(), want)
 	}
 
+	// Each entry is where WriteEntries says, as Entry makes it.
+	var again bytes.Buffer
+	at, err := results.WriteEntries(&again, len(s.Calc.Blocks), func(i int) ([]byte, error) { return results.Entry(s.Calc.Blocks[i]) })
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(again.Bytes(), streamed.Bytes()) {
+		t.Error("WriteEntries wrote another file than Write")
+	}
+	for i, e := range s.Calc.Blocks {
+		entry, err := results.Entry(e)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if end := at[i] + int64(len(entry)); end > int64(again.Len()) || !bytes.Equal(again.Bytes()[at[i]:end], entry) {
+			t.Errorf("block %s: its entry is not at %d", e.Block.ID, at[i])
+		}
+	}
+
 	path := filepath.Join(t.TempDir(), "results.json")
 	if err := os.WriteFile(path, streamed.Bytes(), 0o644); err != nil {
 		t.Fatal(err)

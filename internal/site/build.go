@@ -4,12 +4,14 @@ import (
 	"bytes"
 	"cmp"
 	"context"
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"html/template"
 	"io"
 	"maps"
 	"os"
+	"path"
 	"path/filepath"
 	"slices"
 	"sync"
@@ -18,7 +20,6 @@ import (
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/internal/inputerr"
 	"github.com/millrace-workshop/specgen/internal/render"
-	"github.com/millrace-workshop/specgen/internal/results"
 	"github.com/millrace-workshop/specgen/internal/version"
 )
 
@@ -82,6 +83,7 @@ type Site struct {
 	// listingPages list every caution of the site, in page order.
 	listingPages []*Page
 	revision     *Revision
+	generator    string // version.Generator, read once
 	// outcomes, when set, keeps the models' outcomes between builds.
 	outcomes calc.OutcomeStore
 	// progress hears of charts drawn during render; charts counts them.
@@ -112,6 +114,11 @@ type loadOptions struct {
 	// build that takes most of them over from the last one.
 	later bool
 	pages *pageCache // the pages last read, to read again only changed ones
+	// forms are what the last builds took from each page's source, used
+	// for pages whose hash in sums (by path from content/) is as it was
+	// then; pages read from their files join them.
+	forms *pageForms
+	sums  map[string][sha256.Size]byte
 	// revision, when revisionRead, is the git revision already read (nil
 	// outside git), which the pages show.
 	revision     *Revision
@@ -153,7 +160,7 @@ func load(root string, opt loadOptions) (*Site, error) {
 		return nil, reported()
 	}
 	packer := render.NewPacker(plainBudget)
-	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes,
+	s := &Site{Root: root, Config: cfg, layouts: lay, packer: packer, outcomes: opt.outcomes, generator: version.Generator(),
 		md: render.New(render.WithRawHTML(cfg.Markdown.RawHTML), render.WithPacker(packer))}
 	pages := make([]*Page, len(rels))
 	errs := make([]error, len(rels))
@@ -161,11 +168,18 @@ func load(root string, opt loadOptions) (*Site, error) {
 		if pages[i] = opt.pages.lookup(root, rels[i]); pages[i] != nil {
 			return
 		}
+		if sum, ok := opt.sums[rels[i]]; ok && opt.later {
+			if pages[i] = opt.forms.page(rels[i], sum, cfg.catalog); pages[i] != nil {
+				return
+			}
+		}
 		pages[i], errs[i] = loadPage(root, rels[i], s.md, cfg.catalog, opt.later)
 		if errs[i] == nil {
 			opt.pages.keep(pages[i])
+			opt.forms.keep(pages[i])
 		}
 	})
+	opt.forms.loaded()
 	if err := keep(collect(errs)); err != nil {
 		return nil, err
 	}
@@ -240,17 +254,18 @@ func Build(root string, opts Options) (*Summary, error) {
 	// The output is looked over while the inputs are read.
 	intact := make(chan bool, 1)
 	go func() { intact <- last.intact(out) }()
-	fp, revision, fpErr := fingerprint(root, out)
+	fp, revision, sums, sources, fpErr := fingerprint(root, out, last)
 	wasIntact := <-intact
 	if wasIntact && fpErr == nil && last.Fingerprint == fp {
 		return &Summary{Out: out, Pages: last.Pages, Problems: last.Problems, Tally: last.Tally, UpToDate: true,
 			Written: !opts.Strict || len(last.Problems) == 0}, nil
 	}
 	// What the last build left is read while the pages are.
-	outcomes := readingOutcomes(root)
+	outcomes, forms := readingOutcomes(root), readingPageForms(root)
 	reusable := make(chan *lastOutput, 1)
 	go func() { reusable <- last.reusable(root, out, wasIntact) }()
-	s, err := load(root, loadOptions{outcomes: outcomes, later: last.rendersLike(root), revision: revision, revisionRead: fpErr == nil})
+	s, err := load(root, loadOptions{outcomes: outcomes, later: last.rendersLike(root), revision: revision, revisionRead: fpErr == nil,
+		forms: forms.forms(), sums: sums})
 	takeOver := <-reusable
 	if err != nil {
 		return nil, err
@@ -272,8 +287,11 @@ func Build(root string, opts Options) (*Summary, error) {
 	if o := outcomes.store(); o != nil {
 		_ = o.save(filepath.Join(root, CacheDir))
 	}
+	if f := forms.forms(); f != nil {
+		_ = f.save(filepath.Join(root, CacheDir))
+	}
 	if fpErr == nil {
-		remember(root, out, fp, sum.Pages, problems, tally, record, files)
+		remember(root, out, fp, sources, sum.Pages, problems, tally, record, files)
 	}
 	return sum, nil
 }
@@ -330,6 +348,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 			}
 			return st.create(name, write)
 		},
+		last: last.open,
 		keep: func(name string) bool {
 			if interrupted() || !last.linkInto(st.dir, name) {
 				return false
@@ -344,6 +363,7 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 	var previous *buildRecord
 	if last != nil {
 		previous = last.record
+		s.makeFolders(st)
 	}
 	made, err := s.emit(to, opts.Progress, previous)
 	if err == nil && interrupted() {
@@ -374,6 +394,25 @@ func (s *Site) write(opts Options, last *lastOutput, record bool) (*Summary, *bu
 	return &Summary{Out: out, Pages: len(s.Pages), Written: true}, made, files, nil
 }
 
+// makeFolders makes in the staging folder the folder of every page,
+// parents first, once each, so that a page's files taken over from the
+// last build are linked at the first try. Every folder made holds a page
+// or a folder that does, as in a build made afresh.
+func (s *Site) makeFolders(st *staging) {
+	folders := map[string]bool{}
+	for _, p := range s.Pages {
+		for dir := path.Dir(p.Out); dir != "." && !folders[dir]; dir = path.Dir(dir) {
+			folders[dir] = true
+		}
+	}
+	for _, dir := range slices.Sorted(maps.Keys(folders)) {
+		p := filepath.Join(st.dir, filepath.FromSlash(dir))
+		if os.Mkdir(p, 0o755) == nil {
+			st.made.Store(p, true)
+		}
+	}
+}
+
 // Render produces every output file in memory, keyed by output path (the
 // preview serves them from there).
 func (s *Site) Render() (map[string][]byte, error) {
@@ -396,6 +435,12 @@ func (s *Site) renderFiles(files map[string][]byte, previous *buildRecord, recor
 			mu.Lock()
 			made[name] = buf.Bytes()
 			mu.Unlock()
+			return nil
+		},
+		last: func(name string) lastFile {
+			if data, ok := files[name]; ok {
+				return lastBytes{bytes.NewReader(data)}
+			}
 			return nil
 		},
 		keep: func(name string) bool {
@@ -446,6 +491,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if !to.record || previous != nil && previous.Render != renderFP {
 		previous = nil
 	}
+	record := &buildRecord{Render: renderFP, Results: blocks.all}
 	// results.json is written while the pages are; emit returns only
 	// once it is.
 	resultsWritten := make(chan error, 1)
@@ -453,9 +499,14 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	defer waitResults()
 	if previous == nil || previous.Results != blocks.all || !to.keep("results.json") {
 		go func() {
-			resultsWritten <- put("results.json", func(w io.Writer) error { return results.Write(w, s.blocks()) })
+			resultsWritten <- put("results.json", func(w io.Writer) error {
+				var err error
+				record.Entries, err = s.writeResults(w, to, previous, blocks)
+				return err
+			})
 		}()
 	} else {
+		record.Entries = previous.Entries
 		resultsWritten <- nil
 	}
 	fixed := map[string][]byte{"assets/syntax.css": render.SyntaxCSS()}
@@ -517,7 +568,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
-			packed, err := rec.Search.packed(s.packer)
+			packed, err := s.packer.Pack(rec.Search)
 			if err != nil {
 				errs[i] = err
 				return
@@ -533,14 +584,18 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 			}
 		} else {
 			files, entry, err := s.renderPage(p)
+			var search []byte
 			if err == nil {
-				entries[i], err = entry.packed(s.packer)
+				search, err = entry.json()
+			}
+			if err == nil {
+				entries[i], err = s.packer.Pack(search)
 			}
 			if err != nil {
 				errs[i] = err
 				return
 			}
-			records[i] = pageRecord{Key: key, Files: slices.Sorted(maps.Keys(files)), Search: entry}
+			records[i] = pageRecord{Key: key, Files: slices.Sorted(maps.Keys(files)), Search: search}
 			for _, name := range records[i].Files {
 				if err := claim(p, name); err != nil {
 					errs[i] = err
@@ -569,7 +624,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 		return nil, err
 	}
 	// Made last: the pages' prepared content has gone by now.
-	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
+	record.Pages = make(map[string]pageRecord, len(s.Pages))
 	for i, p := range s.Pages {
 		record.Pages[p.File] = records[i]
 	}
@@ -693,7 +748,7 @@ func (s *Site) layoutWith(p *Page, rootPrefix string, info PageInfo, content []b
 // search index.
 func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 	out := map[string][]byte{}
-	if err := p.prepare(s.md, s.Config.catalog); err != nil {
+	if err := p.prepare(s.Root, s.md, s.Config.catalog); err != nil {
 		return nil, searchEntry{}, err
 	}
 	up := rootPrefix(p.Out)
@@ -726,6 +781,14 @@ func (s *Site) renderPage(p *Page) (map[string][]byte, searchEntry, error) {
 // pageInfo describes page p to its template, all but what its Markdown
 // renders to (Content and the TOC).
 func (s *Site) pageInfo(p *Page) PageInfo {
+	info := s.pageInfoBut(p)
+	info.Cautions = pageCautions(s.shownCautions(p))
+	return info
+}
+
+// pageInfoBut is pageInfo but for Cautions, which shownCautions lists the
+// makings of.
+func (s *Site) pageInfoBut(p *Page) PageInfo {
 	info := PageInfo{
 		Title:       p.Title,
 		Heading:     cmp.Or(p.Heading, p.Title),
@@ -734,7 +797,6 @@ func (s *Site) pageInfo(p *Page) PageInfo {
 		URL:         p.Out,
 		Caution:     s.standardCaution(p),
 		Alert:       s.pageAlert(p),
-		Cautions:    s.pageCautions(p),
 	}
 	if s.Config.BaseURL != "" {
 		info.Canonical = s.Config.BaseURL + href(p.Out)
@@ -746,7 +808,7 @@ func (s *Site) pageInfo(p *Page) PageInfo {
 // is rootPrefix.
 func (s *Site) siteData(rootPrefix string) SiteData {
 	return SiteData{Title: s.Config.Title, Description: s.Config.Description, Home: href(rootPrefix + s.Home()), Revision: s.revision,
-		Generator: version.Generator()}
+		Generator: s.generator}
 }
 
 // layout lays out page p, whose way up to the site's root is rootPrefix,

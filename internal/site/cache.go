@@ -3,6 +3,7 @@ package site
 import (
 	"bytes"
 	"crypto/sha256"
+	"debug/elf"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
@@ -10,11 +11,14 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"maps"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"sync"
+	"time"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 )
@@ -25,7 +29,7 @@ import (
 const CacheDir = ".specgen-cache"
 
 // cacheFormat changes whenever the manifest's layout does.
-const cacheFormat = 3
+const cacheFormat = 6
 
 // manifest records one build: what went in (a fingerprint of every input
 // and of the specgen binary), what came out, and what each page's output
@@ -42,6 +46,8 @@ type manifest struct {
 	// the record's render fingerprint, known without reading it.
 	Record string `json:"record"`
 	Render string `json:"render"`
+	// Sources are the source files as the build looked at them.
+	Sources sourceStats `json:"sources"`
 }
 
 // outputFile is what a written file looked like, to notice later edits.
@@ -52,15 +58,19 @@ type outputFile struct {
 
 // fingerprint hashes everything a build reads: the specgen binary, the
 // output folder, the git revision shown on data sheets, specgen.toml and
-// every file under content/, templates/ and static/. It returns the
-// revision too, which the build then shows.
-func fingerprint(root, out string) (string, *Revision, error) {
+// every file under content/, templates/ and static/. A file whose status
+// is as last recorded, and was already then older than racyAge, is taken
+// at the hash recorded. It returns the revision too, which the build then
+// shows, the hash of each file of content/ by its path from there, and
+// what the next build may take over.
+func fingerprint(root, out string, last *manifest) (string, *Revision, map[string][sha256.Size]byte, sourceStats, error) {
 	h := sha256.New()
 	self, err := binaryHash()
 	if err != nil {
-		return "", nil, err
+		return "", nil, nil, sourceStats{}, err
 	}
 	fmt.Fprintf(h, "specgen %s\nout %s\n", self, out)
+	taken := time.Now().UnixNano()
 	// git runs while the files are read.
 	revision := make(chan *Revision, 1)
 	go func() { revision <- revisionOf(root) }()
@@ -74,74 +84,177 @@ func fingerprint(root, out string) (string, *Revision, error) {
 		})
 	}
 	sort.Strings(paths)
+	var trusted map[string]sourceStat
+	if last != nil {
+		trusted = last.Sources.Files
+	}
 	// Files are hashed in parallel, each on its own, then in order.
-	sums := make([][]byte, len(paths))
+	lines := make([][]byte, len(paths))
+	stats := make([]sourceStat, len(paths))
 	errs := make([]error, len(paths))
-	calc.Parallel(len(paths), func(i int) { sums[i], errs[i] = fileDigest(root, paths[i]) })
+	calc.Parallel(len(paths), func(i int) {
+		rel, _ := filepath.Rel(root, paths[i])
+		rel = filepath.ToSlash(rel)
+		was, ok := trusted[rel]
+		lines[i], stats[i], errs[i] = fileDigest(rel, paths[i], was, ok && last.Sources.settled(was))
+	})
 	r := <-revision
 	if r != nil {
 		fmt.Fprintf(h, "revision %s %s %v\n", r.Commit, r.Date, r.Modified)
 	}
-	for i := range paths {
+	content := filepath.Join(root, ContentDir) + string(filepath.Separator)
+	bySource := make(map[string][sha256.Size]byte, len(paths))
+	next := sourceStats{Taken: taken, Files: make(map[string]sourceStat, len(paths))}
+	for i, p := range paths {
 		if errs[i] != nil {
-			return "", nil, errs[i]
+			return "", nil, nil, sourceStats{}, errs[i]
 		}
-		h.Write(sums[i])
+		if lines[i] == nil {
+			continue
+		}
+		h.Write(lines[i])
+		rel, _ := filepath.Rel(root, p)
+		next.Files[filepath.ToSlash(rel)] = stats[i]
+		if rel, ok := strings.CutPrefix(p, content); ok {
+			bySource[filepath.ToSlash(rel)] = stats[i].Sum
+		}
 	}
-	return hex.EncodeToString(h.Sum(nil)), r, nil
+	return hex.EncodeToString(h.Sum(nil)), r, bySource, next, nil
+}
+
+// racyAge is how long before a build's look at the sources a file must
+// have last changed for the next build to take its hash from that look:
+// a file changed within the same tick of the disk's clock as it was
+// looked at could change again without its status showing it. It is
+// wider than any disk's tick (two seconds on FAT). Tests shorten it.
+var racyAge = 3 * time.Second
+
+// sourceStats are the source files as one build looked at them: when,
+// and each file's status and hash, by path from the site root.
+type sourceStats struct {
+	Taken int64                 `json:"taken_ns"`
+	Files map[string]sourceStat `json:"files"`
+}
+
+// sourceStat is a file's status (size, mode, inode, modification and
+// change times: any write changes the change time, which cannot be set
+// back) and the hash of its contents.
+type sourceStat struct {
+	Size  int64             `json:"size"`
+	Mode  uint32            `json:"mode"`
+	Inode uint64            `json:"ino"`
+	MTime int64             `json:"mtime_ns"`
+	CTime int64             `json:"ctime_ns"`
+	Sum   [sha256.Size]byte `json:"-"`
+	Hash  string            `json:"sha256"`
+}
+
+// settled reports whether a file recorded in these stats had last changed
+// well before they were taken, so that a change since shows in its status.
+func (s sourceStats) settled(f sourceStat) bool {
+	limit := s.Taken - int64(racyAge)
+	return f.CTime != 0 && f.MTime < limit && f.CTime < limit
+}
+
+// statOf is a file's status, without its hash; the change time is 0
+// where the system does not tell it.
+func statOf(info fs.FileInfo) sourceStat {
+	inode, ctime := inodeAndChangeTime(info)
+	return sourceStat{Size: info.Size(), Mode: uint32(info.Mode()), Inode: inode, MTime: info.ModTime().UnixNano(), CTime: ctime}
+}
+
+// same reports whether two statuses are of one unchanged file.
+func (f sourceStat) same(g sourceStat) bool {
+	return f.Size == g.Size && f.Mode == g.Mode && f.Inode == g.Inode && f.MTime == g.MTime && f.CTime == g.CTime
 }
 
 // fileDigest identifies a file by its path from the root, its mode and
-// the hash of its contents; a missing file gives nothing.
-func fileDigest(root, p string) ([]byte, error) {
+// the hash of its contents, which it returns with its status; a missing
+// file gives nothing. A file whose status is as was, trusted, is taken at
+// was's hash.
+func fileDigest(rel, p string, was sourceStat, trusted bool) ([]byte, sourceStat, error) {
 	info, err := os.Lstat(p)
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, nil
+		return nil, sourceStat{}, nil
 	}
 	if err != nil {
-		return nil, err
+		return nil, sourceStat{}, err
 	}
-	rel, _ := filepath.Rel(root, p)
-	var sum [sha256.Size]byte
-	if info.Mode().IsRegular() {
+	st := statOf(info)
+	switch {
+	case trusted && st.same(was) && was.Hash != "":
+		if _, err := hex.Decode(st.Sum[:], []byte(was.Hash)); err != nil {
+			return fileDigest(rel, p, was, false)
+		}
+	case info.Mode().IsRegular():
 		data, err := os.ReadFile(p)
 		if err != nil {
-			return nil, err
+			return nil, sourceStat{}, err
 		}
-		sum = sha256.Sum256(data)
+		st.Sum = sha256.Sum256(data)
 	}
-	return fmt.Appendf(nil, "file %q %v %x\n", filepath.ToSlash(rel), info.Mode(), sum), nil
+	st.Hash = hex.EncodeToString(st.Sum[:])
+	return fmt.Appendf(nil, "file %q %v %x\n", rel, info.Mode(), st.Sum), st, nil
 }
 
-var (
-	selfHash     string
-	selfHashErr  error
-	selfHashOnce sync.Once
-)
+// binaryHash identifies the running specgen, so that a cache never
+// outlives the code that wrote it. Tests stand another binary in.
+var binaryHash = sync.OnceValues(func() (string, error) {
+	exe, err := os.Executable()
+	if err != nil {
+		return "", err
+	}
+	return executableID(exe)
+})
 
-// binaryHash identifies the running specgen by the hash of its
-// executable, so that a cache never outlives the code that wrote it.
-func binaryHash() (string, error) {
-	selfHashOnce.Do(func() {
-		exe, err := os.Executable()
-		if err != nil {
-			selfHashErr = err
-			return
-		}
-		f, err := os.Open(exe)
-		if err != nil {
-			selfHashErr = err
-			return
-		}
-		defer f.Close()
-		h := sha256.New()
-		if _, err := io.Copy(h, f); err != nil {
-			selfHashErr = err
-			return
-		}
-		selfHash = hex.EncodeToString(h.Sum(nil))
-	})
-	return selfHash, selfHashErr
+// executableID identifies an executable by the build ID the Go linker
+// writes into an ELF file, whose last part hashes the file's content,
+// read in microseconds; else (another format, or no build ID) by the
+// hash of the whole file.
+func executableID(exe string) (string, error) {
+	if id := goBuildID(exe); id != "" {
+		return "go build ID " + id, nil
+	}
+	f, err := os.Open(exe)
+	if err != nil {
+		return "", err
+	}
+	defer f.Close()
+	h := sha256.New()
+	if _, err := io.Copy(h, f); err != nil {
+		return "", err
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// goBuildID reads the Go build ID of an ELF executable from its note,
+// "" when it has none. The ID's last part, after a slash, is the content
+// ID, the hash of the linked file; an ID without one is not taken.
+func goBuildID(exe string) string {
+	f, err := elf.Open(exe)
+	if err != nil {
+		return ""
+	}
+	defer f.Close()
+	s := f.Section(".note.go.buildid")
+	if s == nil {
+		return ""
+	}
+	note, err := s.Data()
+	if err != nil || len(note) < 16 {
+		return ""
+	}
+	nameSize, descSize, tag := f.ByteOrder.Uint32(note), f.ByteOrder.Uint32(note[4:]), f.ByteOrder.Uint32(note[8:])
+	const goBuildIDTag = 4
+	descAt := 12 + (uint64(nameSize)+3)&^3
+	if tag != goBuildIDTag || nameSize != 4 || string(note[12:16]) != "Go\x00\x00" || descAt+uint64(descSize) > uint64(len(note)) {
+		return ""
+	}
+	id := string(note[descAt : descAt+uint64(descSize)])
+	if i := strings.LastIndexByte(id, '/'); i < 0 || i == len(id)-1 {
+		return ""
+	}
+	return id
 }
 
 // manifestPath is where the manifest for an output folder lives.
@@ -216,19 +329,52 @@ func (m *manifest) reusable(root, out string, intact bool) *lastOutput {
 	if err != nil || sha256Hex(b) != m.Record {
 		return nil
 	}
-	var r buildRecord
-	if gob.NewDecoder(bytes.NewReader(b)).Decode(&r) != nil {
+	r, err := readRecord(bytes.NewReader(b))
+	if err != nil {
 		return nil
 	}
-	for file, p := range r.Pages {
-		// gob gives an empty list back as nil, which the index would show
-		// as null.
-		if p.Search.Headings == nil {
-			p.Search.Headings = [][2]string{}
-			r.Pages[file] = p
+	return &lastOutput{dir: out, files: m.Files, record: r, intact: intact}
+}
+
+// recordPage is one page of a record's file.
+type recordPage struct {
+	File string
+	Page pageRecord
+}
+
+// writeRecord writes a build's record as a gob stream: the record without
+// its pages, then each page, in order, so that no message is big.
+func writeRecord(w io.Writer, r *buildRecord) error {
+	enc := gob.NewEncoder(w)
+	if err := enc.Encode(buildRecord{Render: r.Render, Results: r.Results, Entries: r.Entries}); err != nil {
+		return err
+	}
+	for _, file := range slices.Sorted(maps.Keys(r.Pages)) {
+		if err := enc.Encode(recordPage{File: file, Page: r.Pages[file]}); err != nil {
+			return err
 		}
 	}
-	return &lastOutput{dir: out, files: m.Files, record: &r, intact: intact}
+	return nil
+}
+
+// readRecord reads what writeRecord wrote.
+func readRecord(rd io.Reader) (*buildRecord, error) {
+	dec := gob.NewDecoder(rd)
+	var r buildRecord
+	if err := dec.Decode(&r); err != nil {
+		return nil, err
+	}
+	r.Pages = map[string]pageRecord{}
+	for {
+		var p recordPage
+		switch err := dec.Decode(&p); {
+		case err == io.EOF:
+			return &r, nil
+		case err != nil:
+			return nil, err
+		}
+		r.Pages[p.File] = p.Page
+	}
 }
 
 // rendersLike reports whether the last build rendered its pages as the
@@ -281,6 +427,27 @@ func (l *lastOutput) linkInto(dir, name string) bool {
 	return err == nil || copyFile(from, to) == nil
 }
 
+// open opens the last build's file name, nil when it is no longer as
+// that build left it.
+func (l *lastOutput) open(name string) lastFile {
+	if l == nil {
+		return nil
+	}
+	want, ok := l.files[name]
+	if !ok {
+		return nil
+	}
+	f, err := os.Open(filepath.Join(l.dir, filepath.FromSlash(name)))
+	if err != nil {
+		return nil
+	}
+	if info, err := f.Stat(); err != nil || !want.is(info) {
+		f.Close()
+		return nil
+	}
+	return f
+}
+
 // copyFile copies a file, keeping its modification time, so that the
 // copy is recorded as the last build recorded the original.
 func copyFile(from, to string) error {
@@ -309,8 +476,8 @@ func copyFile(from, to string) error {
 
 // remember writes the manifest of a finished build. A cache that cannot
 // be written only costs the next build its shortcut.
-func remember(root, out, fp string, pages int, problems []Problem, tally Tally, record *buildRecord, files map[string]outputFile) {
-	m := manifest{Format: cacheFormat, Fingerprint: fp, Pages: pages, Problems: problems, Tally: tally, Files: files}
+func remember(root, out, fp string, sources sourceStats, pages int, problems []Problem, tally Tally, record *buildRecord, files map[string]outputFile) {
+	m := manifest{Format: cacheFormat, Fingerprint: fp, Sources: sources, Pages: pages, Problems: problems, Tally: tally, Files: files}
 	if files != nil {
 		writeManifest(root, out, m, record)
 		return
@@ -345,7 +512,8 @@ func writeManifest(root, out string, m manifest, record *buildRecord) {
 	// record without its manifest is never trusted.
 	if record != nil {
 		var rb bytes.Buffer
-		if gob.NewEncoder(&rb).Encode(record) == nil && writeAside(recordPath(root, out), rb.Bytes()) == nil {
+		rb.Grow(len(record.Pages) << 11)
+		if writeRecord(&rb, record) == nil && writeAside(recordPath(root, out), rb.Bytes()) == nil {
 			m.Record, m.Render = sha256Hex(rb.Bytes()), record.Render
 		}
 	}

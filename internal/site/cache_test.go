@@ -1,8 +1,13 @@
 package site
 
 import (
+	"crypto/sha256"
+	"encoding/hex"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"runtime"
+	"strings"
 	"testing"
 	"time"
 )
@@ -96,4 +101,58 @@ func BenchmarkRebuildUnchanged(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(pages+1), "ns/page")
+}
+
+// TestExecutableID checks the build ID read from this test's own binary
+// against the one the Go tool reads, and that a file without one is known
+// by the hash of its whole content, which it stands in for.
+func TestExecutableID(t *testing.T) {
+	exe, err := os.Executable()
+	if err != nil {
+		t.Fatal(err)
+	}
+	goTool, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("the go tool is not installed")
+	}
+	out, err := exec.Command(goTool, "tool", "buildid", exe).Output()
+	if err != nil {
+		t.Fatalf("go tool buildid: %v", err)
+	}
+	want := strings.TrimSpace(string(out))
+	if got := goBuildID(exe); runtime.GOOS == "linux" && got != want {
+		t.Errorf("build ID %q, the go tool reads %q", got, want)
+	}
+	plain := filepath.Join(t.TempDir(), "plain")
+	writeFile(t, plain, "not an executable")
+	id, err := executableID(plain)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if sum := sha256.Sum256([]byte("not an executable")); id != hex.EncodeToString(sum[:]) {
+		t.Errorf("a file without a build ID is known as %q, not by its hash", id)
+	}
+}
+
+// TestSourceStatsSettled: a source's recorded hash is taken over only when
+// the file had last changed racyAge or more before the build looked at
+// it, and only where its change time is known.
+func TestSourceStatsSettled(t *testing.T) {
+	taken := time.Now().UnixNano()
+	stats := sourceStats{Taken: taken}
+	old := taken - int64(racyAge) - 1
+	for _, c := range []struct {
+		name         string
+		mtime, ctime int64
+		want         bool
+	}{
+		{"changed well before", old, old, true},
+		{"written within the disk's tick", taken - 1, taken - 1, false},
+		{"its time set back", old, taken - 1, false},
+		{"no change time known", old, 0, false},
+	} {
+		if got := stats.settled(sourceStat{MTime: c.mtime, CTime: c.ctime}); got != c.want {
+			t.Errorf("%s: settled = %v, want %v", c.name, got, c.want)
+		}
+	}
 }

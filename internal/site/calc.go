@@ -103,7 +103,10 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 	}
 	p.links = doc.LinkRefs()
 	headings := doc.AnchorIDs()
-	p.anchors = append(make([]string, 0, len(headings)+len(p.blocks)), headings...) // kept to the end: no room to spare
+	p.anchors = nil
+	if n := len(headings) + len(p.blocks); n > 0 {
+		p.anchors = append(make([]string, 0, n), headings...) // kept to the end: no room to spare
+	}
 	for _, b := range p.blocks {
 		p.anchors = append(p.anchors, render.BlockAnchor(b.ID))
 	}
@@ -304,18 +307,34 @@ func (s *Site) blocksShown(p *Page) []string {
 	return ids
 }
 
-// pageCautions renders the caution boxes of every block the page shows.
-func (s *Site) pageCautions(p *Page) template.HTML {
-	var b strings.Builder
-	w := bufio.NewWriter(&b)
+// shownCaution is a caution of a block a page shows.
+type shownCaution struct {
+	Block string
+	Note  calc.CautionNote
+}
+
+// shownCautions lists the cautions of every block the page shows, in the
+// order its caution boxes show them (pageCautions).
+func (s *Site) shownCautions(p *Page) []shownCaution {
+	var list []shownCaution
 	for _, id := range s.blocksShown(p) {
 		e, ok := s.Calc.Lookup(id)
 		if !ok {
 			continue
 		}
 		for _, c := range e.Cautions {
-			render.WriteCaution(w, c, "Rule "+c.Rule+", block "+id)
+			list = append(list, shownCaution{Block: id, Note: c})
 		}
+	}
+	return list
+}
+
+// pageCautions renders the caution boxes of the cautions shown.
+func pageCautions(shown []shownCaution) template.HTML {
+	var b strings.Builder
+	w := bufio.NewWriter(&b)
+	for _, c := range shown {
+		render.WriteCaution(w, c.Note, "Rule "+c.Note.Rule+", block "+c.Block)
 	}
 	_ = w.Flush()
 	return template.HTML(b.String())

@@ -29,6 +29,11 @@ type digest struct {
 	// File and Line fields of package calc's types): what a block shows
 	// on other pages does not depend on where it stands on its own.
 	placeless bool
+	// twin, when set, is a placeless digest of the same values, made in
+	// the same walk; placed counts the place fields being walked, which
+	// the twin leaves out.
+	twin   *digest
+	placed int
 }
 
 // digests are reused: a build makes a few for every page and block.
@@ -42,8 +47,23 @@ func newDigest() *digest {
 	d.h.Reset()
 	d.buf = d.buf[:0]
 	clear(d.seen)
-	d.placeless = false
+	d.placeless, d.twin, d.placed = false, nil, 0
 	return d
+}
+
+// withTwin gives d a placeless twin (see digest.twin); sums ends both.
+func (d *digest) withTwin() *digest {
+	d.twin = newDigest()
+	d.twin.placeless = true
+	return d
+}
+
+// sums is the digest of everything added and its twin's, which leaves
+// out where the values were written. Neither is used after it.
+func (d *digest) sums() (placed, placeless string) {
+	placeless = d.twin.sum()
+	d.twin = nil
+	return d.sum(), placeless
 }
 
 // Types a digest does not walk into. A Kind is part of the specgen binary,
@@ -75,6 +95,18 @@ var (
 func (d *digest) flush() {
 	d.h.Write(d.buf)
 	d.buf = d.buf[:0]
+	if d.twin != nil {
+		d.twin.flush()
+	}
+}
+
+// write hashes b as it is, past the buffer.
+func (d *digest) write(b []byte) {
+	d.flush()
+	d.h.Write(b)
+	if d.twin != nil && d.placed == 0 {
+		d.twin.h.Write(b)
+	}
 }
 
 // sum is the digest of everything added, in hex. The digest is not used
@@ -89,6 +121,9 @@ func (d *digest) sum() string {
 
 func (d *digest) num(v uint64) {
 	d.buf = binary.LittleEndian.AppendUint64(d.buf, v)
+	if d.twin != nil && d.placed == 0 {
+		d.twin.buf = binary.LittleEndian.AppendUint64(d.twin.buf, v)
+	}
 	if len(d.buf) > 8192 {
 		d.flush()
 	}
@@ -97,11 +132,13 @@ func (d *digest) num(v uint64) {
 func (d *digest) str(s string) {
 	d.num(uint64(len(s)))
 	if len(s) > 4096 {
-		d.flush()
-		d.h.Write([]byte(s))
+		d.write([]byte(s))
 		return
 	}
 	d.buf = append(d.buf, s...)
+	if d.twin != nil && d.placed == 0 {
+		d.twin.buf = append(d.twin.buf, s...)
+	}
 }
 
 // add hashes the values, one after the other.
@@ -151,8 +188,16 @@ func (d *digest) value(v reflect.Value) {
 	case reflect.Struct:
 		d.str(t.String())
 		for i := range v.NumField() {
-			if t.PkgPath() == calcPackage && (howField[t.Field(i).Name] || d.placeless && placeField[t.Field(i).Name]) {
-				continue
+			if t.PkgPath() == calcPackage && (howField[t.Field(i).Name] || placeField[t.Field(i).Name]) {
+				switch {
+				case howField[t.Field(i).Name] || d.placeless:
+					continue
+				case d.twin != nil:
+					d.placed++
+					d.value(v.Field(i))
+					d.placed--
+					continue
+				}
 			}
 			d.value(v.Field(i))
 		}
@@ -181,8 +226,7 @@ func (d *digest) slice(v reflect.Value) {
 		// machine that made it only.
 		fs := v.Interface().([]float64)
 		if len(fs) > 0 {
-			d.flush()
-			d.h.Write(unsafe.Slice((*byte)(unsafe.Pointer(&fs[0])), len(fs)*8))
+			d.write(unsafe.Slice((*byte)(unsafe.Pointer(&fs[0])), len(fs)*8))
 		}
 		return
 	}
@@ -245,7 +289,9 @@ func (d *digest) pointer(v reflect.Value) {
 		b := v.Interface().(*calc.Block)
 		d.add(b.ID, b.Source, b.Broken)
 		if !d.placeless {
+			d.placed++
 			d.add(b.File, b.Line)
+			d.placed--
 		}
 		return
 	}

@@ -1,15 +1,18 @@
 package site
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
+	"github.com/millrace-workshop/specgen/internal/results"
 )
 
 // buildRecord is what one build's output was made from, so that the next
@@ -21,13 +24,23 @@ type buildRecord struct {
 	// Results is the key of results.json: every block as evaluated.
 	Results string                `json:"results"`
 	Pages   map[string]pageRecord `json:"pages"` // by source file
+	// Entries are the places of the blocks' entries in results.json, by
+	// block id.
+	Entries map[string]resultsEntry `json:"entries"`
+}
+
+// resultsEntry is where one block's entry lies in results.json, and the
+// key it was made from: the block as evaluated, with its place.
+type resultsEntry struct {
+	Key     string
+	At, Len int64
 }
 
 // pageRecord is what one page's render produced.
 type pageRecord struct {
-	Key    string      `json:"key"`    // pageKey
-	Files  []string    `json:"files"`  // its output files, sorted
-	Search searchEntry `json:"search"` // its entry of the search index
+	Key    string   `json:"key"`    // pageKey
+	Files  []string `json:"files"`  // its output files, sorted
+	Search []byte   `json:"search"` // its entry of the search index, as the index holds it
 }
 
 // sink receives a build's output files.
@@ -37,6 +50,8 @@ type sink struct {
 	// keep takes a file as the last build left it, or reports false
 	// (there was no last build, or the file is no longer as it was).
 	keep func(name string) bool
+	// last opens a file as the last build left it, nil when it cannot.
+	last func(name string) lastFile
 	// record: the build is recorded, for the next one to take over from.
 	record bool
 }
@@ -115,10 +130,7 @@ func (s *Site) blockDigests() blockDigests {
 	n := len(s.Calc.Blocks)
 	own, placeless := make([]string, n), make([]string, n)
 	calc.Parallel(n, func(i int) {
-		own[i] = newDigest().add(s.Calc.Blocks[i]).sum()
-		d := newDigest()
-		d.placeless = true
-		placeless[i] = d.add(s.Calc.Blocks[i]).sum()
+		own[i], placeless[i] = newDigest().withTwin().add(s.Calc.Blocks[i]).sums()
 	})
 	parent := map[string]string{}
 	var find func(id string) string
@@ -183,7 +195,9 @@ func (s *Site) blockDigests() blockDigests {
 func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d := newDigest()
 	d.add(renderFP, p.File, p.Out, p.sourceSum[:], p.listsCautions)
-	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfo(p)))
+	// The caution boxes as what they show: rendering them is the most of
+	// a page's layout data.
+	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfoBut(p)), s.shownCautions(p))
 	for _, b := range p.blocks {
 		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
 		for _, v := range b.Values {
@@ -205,4 +219,52 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 		}
 	}
 	return d.sum()
+}
+
+// lastFile is a file of the last build, read in pieces.
+type lastFile interface {
+	io.ReaderAt
+	io.Closer
+}
+
+// lastBytes is a file of the last build held in memory.
+type lastBytes struct{ *bytes.Reader }
+
+func (lastBytes) Close() error { return nil }
+
+// writeResults writes results.json, taking the entry of every block whose
+// key is as the last build recorded it from that build's file.
+func (s *Site) writeResults(w io.Writer, to sink, previous *buildRecord, blocks blockDigests) (map[string]resultsEntry, error) {
+	list := s.blocks()
+	var old lastFile
+	var last map[string]resultsEntry
+	if previous != nil && len(previous.Entries) > 0 && blocks.own != nil {
+		if old = to.last("results.json"); old != nil {
+			defer old.Close()
+			last = previous.Entries
+		}
+	}
+	lens := make([]int64, len(list))
+	var buf []byte
+	at, err := results.WriteEntries(w, len(list), func(i int) ([]byte, error) {
+		id := list[i].Block.ID
+		if e, ok := last[id]; ok && e.Key == blocks.own[id] && e.At >= 0 && e.Len >= 0 && e.Len < 1<<30 {
+			buf = slices.Grow(buf[:0], int(e.Len))[:e.Len]
+			if _, err := old.ReadAt(buf, e.At); err == nil {
+				lens[i] = e.Len
+				return buf, nil
+			}
+		}
+		b, err := results.Entry(list[i])
+		lens[i] = int64(len(b))
+		return b, err
+	})
+	if err != nil || blocks.own == nil {
+		return nil, err
+	}
+	entries := make(map[string]resultsEntry, len(list))
+	for i, e := range list {
+		entries[e.Block.ID] = resultsEntry{Key: blocks.own[e.Block.ID], At: at[i], Len: lens[i]}
+	}
+	return entries, nil
 }

@@ -14,6 +14,7 @@ import (
 	"strings"
 	"syscall"
 	"testing"
+	"time"
 
 	"github.com/millrace-workshop/specgen/internal/calc"
 	"github.com/millrace-workshop/specgen/templates"
@@ -59,7 +60,7 @@ func (e siteEdit) apply(t *testing.T, root string) {
 	p := filepath.Join(root, filepath.FromSlash(e.file))
 	switch {
 	case e.old == "" && e.new == "":
-		if err := os.Remove(p); err != nil {
+		if err := os.RemoveAll(p); err != nil {
 			t.Fatal(err)
 		}
 		return
@@ -96,6 +97,12 @@ type incrementalCase struct {
 	// commit: the site is a git repository, and the edit a new commit
 	// (the revision data sheets show).
 	commit bool
+	// binary: the edited site is built by another specgen binary.
+	binary bool
+	// sameTimes: the edits keep each file's size and modification time,
+	// and the first build's look at the sources is trusted at once: only
+	// the files' change times tell the edit.
+	sameTimes bool
 }
 
 // incrementalCases are the edits, one of each way a page's output can
@@ -126,6 +133,8 @@ func incrementalCases(t *testing.T) []incrementalCase {
 		{name: "the order of a folder's first page", edits: []siteEdit{{"content/b/notes.md", "order = 2", "order = 0"}}},
 		{name: "a new page", edits: []siteEdit{{"content/a/new.md", "", "+++\ntitle = \"New\"\norder = 3\n+++\n# New\n\nNew page.\n"}},
 			remade: []string{"a/index.html", "a/stage.html", "a/tank.html", "a/new.html", "safety.html"}},
+		{name: "a folder's only page deleted", setup: []siteEdit{{"content/c/only.md", "", "# Only\n\nThe one page of c.\n"}},
+			edits: []siteEdit{{"content/c/only.md", "", ""}}},
 		{name: "a deleted page", edits: []siteEdit{{"content/b/notes.md", "", ""}},
 			// fig leaves lp's component.
 			remade: []string{"a/stage.html", "a/tank.html", "b/relief.html", "b/motor.html", "b/summary.html"}},
@@ -139,9 +148,26 @@ func incrementalCases(t *testing.T) []incrementalCase {
 			remade: []string{"b/notes.html"}},
 		{name: "an output file deleted by hand", edits: []siteEdit{{"dist/a/stage.lp.pv.csv", "", ""}},
 			remade: []string{"a/stage.html"}},
+		// Entries of unchanged blocks are taken from the last results.json
+		// only while it is as that build left it.
+		{name: "results.json edited by hand, then a block", edits: []siteEdit{{"dist/results.json", `"id": "hp"`, `"id": "hp by hand"`},
+			{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
 		{name: "specgen.toml", edits: []siteEdit{{"specgen.toml", "Test workshop", "The workshop"}}},
 		{name: "a new commit", commit: true, edits: []siteEdit{{"content/index.md", "The home page.", "The home page, committed."}}},
 		{name: "a template", edits: []siteEdit{{"templates/page.html", "", pageOverride(t)}}},
+		{name: "a page rewritten at its size and time", sameTimes: true,
+			edits: []siteEdit{{"content/b/notes.md", "The figure is", "The figure IS"}}, remade: []string{"b/notes.html"}},
+		{name: "a quoted block rewritten at its size and time", sameTimes: true,
+			edits: []siteEdit{{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
+		{name: "a new specgen binary", binary: true, edits: []siteEdit{{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
+		// The cache is safe to delete or damage, each file of it.
+		{name: "the cache deleted", edits: []siteEdit{{CacheDir, "", ""}, {"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}},
+		{name: "the page forms deleted", edits: []siteEdit{{CacheDir + "/" + pageFormsFile, "", ""},
+			{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}, remade: []string{"b/notes.html"}},
+		{name: "the page forms damaged", edits: []siteEdit{{CacheDir + "/" + pageFormsFile, "", "not a gob stream"},
+			{"content/b/notes.md", "The figure is", "Checked twice, the figure is"}}, remade: []string{"b/notes.html"}},
+		{name: "the outcomes damaged", edits: []siteEdit{{CacheDir + "/" + outcomesFile, "", "not a gob stream"},
+			{"content/a/stage.md", `stroke = "28 mm"`, `stroke = "30 mm"`}}, remade: component},
 	}
 }
 
@@ -154,6 +180,14 @@ func writeIncrementalSite(t *testing.T, root string, c incrementalCase) {
 	}
 	for _, e := range c.setup {
 		e.apply(t, root)
+	}
+	if c.sameTimes {
+		racy := racyAge
+		racyAge = 0
+		t.Cleanup(func() { racyAge = racy })
+		// The disk's clock may not have ticked since the files were
+		// written: the build must look at them later than that.
+		time.Sleep(20 * time.Millisecond)
 	}
 	if c.commit {
 		if _, err := exec.LookPath("git"); err != nil {
@@ -170,10 +204,26 @@ func writeIncrementalSite(t *testing.T, root string, c incrementalCase) {
 func editIncrementalSite(t *testing.T, root string, c incrementalCase) {
 	t.Helper()
 	for _, e := range c.edits {
+		p := filepath.Join(root, filepath.FromSlash(e.file))
+		before, err := os.Stat(p)
 		e.apply(t, root)
+		if c.sameTimes {
+			after, err2 := os.Stat(p)
+			if err != nil || err2 != nil || after.Size() != before.Size() {
+				t.Fatalf("%s: the edit does not keep the file's size", e.file)
+			}
+			if err := os.Chtimes(p, before.ModTime(), before.ModTime()); err != nil {
+				t.Fatal(err)
+			}
+		}
 	}
 	if c.commit {
 		gitIn(t, root, "commit", "-q", "-a", "-m", "An edit")
+	}
+	if c.binary {
+		running := binaryHash
+		binaryHash = func() (string, error) { return "another specgen", nil }
+		t.Cleanup(func() { binaryHash = running })
 	}
 }
 
@@ -270,9 +320,12 @@ func inodes(t *testing.T, dir string) map[string]uint64 {
 }
 
 // sameTree fails unless folders a and b hold the same files with the same
-// bytes.
+// bytes, in the same folders.
 func sameTree(t *testing.T, a, b string) {
 	t.Helper()
+	if da, db := folders(t, a), folders(t, b); !slices.Equal(da, db) {
+		t.Errorf("the incremental build has the folders %q, a fresh one %q", da, db)
+	}
 	fa, fb := readTree(t, a), readTree(t, b)
 	for _, name := range slices.Sorted(maps.Keys(fa)) {
 		other, ok := fb[name]
@@ -432,8 +485,8 @@ func TestOutcomeStoreAdds(t *testing.T) {
 // a fresh render of the edited site, file by file.
 func TestSessionNeverStale(t *testing.T) {
 	for _, c := range incrementalCases(t) {
-		if strings.HasPrefix(c.edits[0].file, DefaultOut+"/") {
-			continue // the preview writes no output folder
+		if strings.HasPrefix(c.edits[0].file, DefaultOut+"/") || strings.HasPrefix(c.edits[0].file, CacheDir) {
+			continue // the preview writes no output folder and no cache
 		}
 		t.Run(c.name, func(t *testing.T) {
 			root := t.TempDir()
@@ -467,4 +520,22 @@ func TestSessionNeverStale(t *testing.T) {
 			}
 		})
 	}
+}
+
+// folders lists the folders within dir, sorted.
+func folders(t *testing.T, dir string) []string {
+	t.Helper()
+	var list []string
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err == nil && d.IsDir() && p != dir {
+			rel, _ := filepath.Rel(dir, p)
+			list = append(list, filepath.ToSlash(rel))
+		}
+		return err
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	slices.Sort(list)
+	return list
 }

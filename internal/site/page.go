@@ -206,10 +206,22 @@ func (p *Page) prepareDoc(doc *render.Document, md *render.Markdown) error {
 }
 
 // prepare renders the content of a page loaded to be rendered later from
-// its source, as loadPage would have; the source goes.
-func (p *Page) prepare(md *render.Markdown, cat *calc.Catalog) error {
-	if p.body != nil || p.source == nil {
+// its source, as loadPage would have; the source goes. A page made from
+// its form (pageForms) reads its file under root again, which must be
+// as it was.
+func (p *Page) prepare(root string, md *render.Markdown, cat *calc.Catalog) error {
+	if p.body != nil || p.unread {
 		return nil
+	}
+	if p.source == nil {
+		src, err := os.ReadFile(filepath.Join(root, ContentDir, filepath.FromSlash(p.Rel)))
+		if err != nil {
+			return err
+		}
+		if sha256.Sum256(src) != p.sourceSum {
+			return &inputerr.Error{File: p.File, Msg: "changed while the site was being built; build again"}
+		}
+		p.source = src
 	}
 	_, _, body, offset, _ := parseFrontMatter(p.File, p.source)
 	doc := md.Parse(body, offset)

@@ -91,17 +91,10 @@ func distinctWords(text string, n int) string {
 	return strings.Join(words, " ")
 }
 
-// packed is the entry as the index holds it until every page is rendered:
-// its JSON, deflated. json.Marshal escapes <, > and & and the line
-// separators U+2028 and U+2029: the text cannot end the script or break
-// its lines.
-func (e searchEntry) packed(p *render.Packer) (render.Packed, error) {
-	b, err := json.Marshal(e)
-	if err != nil {
-		return render.Packed{}, err
-	}
-	return p.Pack(b)
-}
+// json is the entry as the index holds it. json.Marshal escapes <, > and
+// & and the line separators U+2028 and U+2029: the text cannot end the
+// script or break its lines.
+func (e searchEntry) json() ([]byte, error) { return json.Marshal(e) }
 
 // writeSearchIndex writes the index script: one call of specgenSearchIndex
 // with every page's entry (packed), in the site's page order.
