@@ -27,8 +27,10 @@ type Block struct {
 	Line  int    // file line of the opening fence
 	// Source is the block's TOML as written.
 	Source string
-	// Values are the inputs as written, by key.
-	Values map[string]Value
+	// Values are the inputs as written, sorted by key (Value looks one
+	// up): a list takes a fraction of a map's memory, and a big site keeps
+	// every block's.
+	Values []Value
 	// Ambient is the ambient pressure text, "" for the default.
 	Ambient Value
 	Expect  []Claim
@@ -44,12 +46,13 @@ type Block struct {
 	// blocks may name it, and Evaluate checks the inputs it could read,
 	// but it is not evaluated, nor is any block that needs it.
 	Broken  bool
-	lines   map[string]int // TOML-relative line of each key
+	lines   []keyLine // TOML-relative line of each key, sorted by key
 	catalog *Catalog
 }
 
 // Value is one input as the user wrote it.
 type Value struct {
+	Key  string
 	Text string // the string, or the number's TOML text
 	// Ref is the block and result of a "=id.result" reference, else empty.
 	RefBlock, RefResult string
@@ -58,6 +61,15 @@ type Value struct {
 	// Items are the values of a List input written as a list, as written.
 	Items []string
 	Line  int // file line
+}
+
+// Value returns the input written for key.
+func (b *Block) Value(key string) (Value, bool) {
+	i, ok := slices.BinarySearchFunc(b.Values, key, func(v Value, key string) int { return strings.Compare(v.Key, key) })
+	if !ok {
+		return Value{}, false
+	}
+	return b.Values[i], true
 }
 
 // Deps lists the blocks a value needs evaluated first: the one it quotes,
@@ -113,7 +125,7 @@ func (c *Catalog) ParseBlock(file string, fenceLine int, src string) (*Block, er
 		return b, nil
 	}
 	if b == nil {
-		b = &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+		b = &Block{File: file, Line: fenceLine, Source: src, catalog: c}
 	}
 	if b.ID == "" || !idPattern.MatchString(b.ID) {
 		// Not even TOML: the id as written, if it can be seen.
@@ -133,7 +145,7 @@ var writtenID = regexp.MustCompile(`(?m)^[ \t]*id[ \t]*=[ \t]*"([a-z0-9][a-z0-9_
 // parseBlock decodes one calc block; with an error, the block is what it
 // could read, or nil.
 func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, error) {
-	b := &Block{File: file, Line: fenceLine, Source: src, Values: map[string]Value{}, catalog: c}
+	b := &Block{File: file, Line: fenceLine, Source: src, catalog: c}
 	if n := lineCount(src); n > MaxBlockLines || len(src) > MaxBlockBytes {
 		return nil, inputerr.List{{File: file, Line: fenceLine, Msg: fmt.Sprintf("the block is %d lines and %d bytes long; a calc block holds one model's inputs, allowed: up to %d lines and %d bytes (is its closing fence missing?)", n, len(src), MaxBlockLines, MaxBlockBytes)}}
 	}
@@ -141,7 +153,7 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 	if _, err := toml.Decode(src, &raw); err != nil {
 		return nil, b.tomlError(err)
 	}
-	b.lines = KeyLines(src)
+	b.lines = keyLineList(src)
 	var errs inputerr.List
 	fail := func(key, format string, args ...any) {
 		errs = append(errs, &inputerr.Error{File: file, Line: b.lineOf(key), Key: key, Msg: fmt.Sprintf(format, args...)})
@@ -187,10 +199,15 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 	}
 
 	keys := make([]string, 0, len(raw))
+	inputs := 0
 	for k := range raw {
 		keys = append(keys, k)
+		if !slices.Contains(commonKeys, k) {
+			inputs++
+		}
 	}
 	sort.Strings(keys)
+	b.Values = make([]Value, 0, inputs) // a big site keeps every block's: no room to spare
 	if b.Kind.FreeInputs {
 		// The block's own inputs join a copy of its kind.
 		k := *b.Kind
@@ -243,7 +260,8 @@ func (c *Catalog) parseBlock(file string, fenceLine int, src string) (*Block, er
 			b.Ambient = val
 			continue
 		}
-		b.Values[key] = val
+		val.Key = key
+		b.Values = append(b.Values, val) // in the order of keys: sorted
 	}
 	for _, in := range b.Kind.Inputs {
 		// A key written with a bad value has its own error already.
@@ -439,18 +457,23 @@ func (b *Block) LineOf(key string) int { return b.lineOf(key) }
 
 // lineOf is the file line of a key ("expect.displacement" for tables).
 func (b *Block) lineOf(key string) int {
-	if l, ok := b.lines[key]; ok {
-		return b.Line + l
+	byKey := func(kl keyLine, key string) int { return strings.Compare(kl.key, key) }
+	if i, ok := slices.BinarySearchFunc(b.lines, key, byKey); ok {
+		return b.Line + int(b.lines[i].line)
 	}
 	// A key written as a table (bore.x = ..., or [bore]) is on the line of
-	// its first entry.
-	first := 0
-	for k, l := range b.lines {
-		if strings.HasPrefix(k, key+".") && (first == 0 || l < first) {
-			first = l
+	// its first entry; the table's keys sort together.
+	first := int32(0)
+	i, _ := slices.BinarySearchFunc(b.lines, key+".", byKey)
+	for _, kl := range b.lines[i:] {
+		if !strings.HasPrefix(kl.key, key+".") {
+			break
+		}
+		if first == 0 || kl.line < first {
+			first = kl.line
 		}
 	}
-	return b.Line + first
+	return b.Line + int(first)
 }
 
 // tomlError places a TOML syntax error on its file line.

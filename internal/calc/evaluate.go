@@ -114,13 +114,15 @@ type Evaluated struct {
 
 // InputValue is one input as read: what was written, or the default.
 type InputValue struct {
-	Name    string
-	Text    string // as written, or the default's text
-	Value   float64
-	Dim     units.Dimension
-	Default bool   // not written by the user
-	From    string // "=id.result" when the value came from another block
-	Type    InputType
+	Name  string
+	Text  string // as written, or the default's text
+	Value float64
+	Dim   units.Dimension
+	From  string // "=id.result" when the value came from another block
+	Type  InputType
+	// Default: not written by the user. Beside Type, so that the two
+	// share a word: a big site keeps every block's inputs.
+	Default bool
 	Links   []string // the blocks a Link or LinkList input names
 	// Values are the values of a List input written as a list (Value is
 	// the first); nil otherwise.
@@ -410,8 +412,8 @@ func linkCandidates(b *Block, in InputSpec, byID map[string]*Block, ids []string
 // its results, of the input's dimension.
 func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inputerr.List {
 	var errs inputerr.List
-	for _, key := range sortedValueKeys(b) {
-		v := b.Values[key]
+	for _, v := range b.Values {
+		key := v.Key
 		fail := func(msg string) { errs = append(errs, &inputerr.Error{File: b.File, Line: v.Line, Key: key, Msg: msg}) }
 		if len(v.Links) > 0 {
 			in, _ := b.Kind.Input(key)
@@ -484,15 +486,6 @@ func (c *Catalog) checkRefs(b *Block, byID map[string]*Block, ids []string) inpu
 	return errs
 }
 
-func sortedValueKeys(b *Block) []string {
-	keys := make([]string, 0, len(b.Values))
-	for k := range b.Values {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	return keys
-}
-
 // Parallel runs f(0..n-1) on all cores and returns when all are done.
 func Parallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
@@ -537,10 +530,13 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	}
 	in := &Inputs{Ambient: e.Ambient, values: map[string]float64{}, lists: map[string][]float64{}, given: map[string]bool{},
 		names: map[string]string{}, links: map[string][]*Linked{}, env: c.env, noCurves: !wantCurves, linksWithheld: early}
+	// At most one input a spec; cut to size below, as a big site keeps
+	// every block's.
+	e.Inputs = make([]InputValue, 0, len(b.Kind.Inputs))
 	systems := map[units.UnitSystem]int{} // of the units the block is written in
 	linkedSystems := map[bool]int{}       // of the blocks it links to, by Customary
 	for _, spec := range b.Kind.Inputs {
-		v, given := b.Values[spec.Name]
+		v, given := b.Value(spec.Name)
 		switch spec.Type {
 		case Name:
 			if !given && (spec.Default == "" || !defaultApplies(spec, b)) {
@@ -665,6 +661,12 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 	if b.Broken {
 		return nil, errBroken
 	}
+	switch {
+	case len(e.Inputs) == 0:
+		e.Inputs = nil
+	case len(e.Inputs) < cap(e.Inputs):
+		e.Inputs = slices.Clone(e.Inputs)
+	}
 	e.customary = systems[units.Customary] > 0 && systems[units.Metric] == 0
 	if systems[units.Customary]+systems[units.Metric] == 0 {
 		// A block that writes no unit (a machine listing its stages) reads
@@ -677,7 +679,7 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		var ie *InputError
 		if errors.As(err, &ie) {
 			line := b.Line
-			if v, ok := b.Values[ie.Key]; ok {
+			if v, ok := b.Value(ie.Key); ok {
 				line = v.Line
 			}
 			return nil, inputerr.List{{File: b.File, Line: line, Key: ie.Key, Msg: ie.Message}}
@@ -703,7 +705,10 @@ func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, ea
 		}
 		return e, nil
 	}
-	e.Results, e.Cautions, e.Curves, e.Tables = out.Results, out.Cautions, out.Curves, out.Tables
+	// The outcome may be a memo other blocks share: what the set adds
+	// (cautions the rules raise, their acknowledgements) goes to copies.
+	e.Results, e.Curves, e.Tables = slices.Clip(out.Results), slices.Clip(out.Curves), slices.Clip(out.Tables)
+	e.Cautions = slices.Clone(out.Cautions)
 	e.in = in
 	if err := set.sameAsEarly(e); err != nil {
 		return nil, err
@@ -883,7 +888,7 @@ func defaultApplies(spec InputSpec, b *Block) bool {
 	if spec.DefaultWith == "" {
 		return true
 	}
-	_, given := b.Values[spec.DefaultWith]
+	_, given := b.Value(spec.DefaultWith)
 	return given
 }
 

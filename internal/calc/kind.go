@@ -96,7 +96,7 @@ type WorkingPressure struct {
 }
 
 // InputType is what an input's value is.
-type InputType int
+type InputType uint8
 
 // The input types.
 const (

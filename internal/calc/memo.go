@@ -18,10 +18,9 @@ import (
 // build after an edit, the preview). The key is a digest of everything the
 // model sees except the catalog's settings: a store serves one catalog,
 // and one build of specgen, only. Both methods may be called from several
-// goroutines at once; what Outcome returns is the caller's to change, but
-// for its curves' points, which a store may share: curves are read only,
-// as every block linked to one and every chart drawn from it reads the
-// same points.
+// goroutines at once. A memo may be shared once kept: a store may hand the
+// one it was given to every block that sees the same inputs, and neither
+// the store nor the engine changes it.
 type OutcomeStore interface {
 	Outcome(key string) (*Memo, bool)
 	Keep(key string, m *Memo)

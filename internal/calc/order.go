@@ -150,8 +150,8 @@ func (p *plan) deps(st step) []dependency {
 		}
 		return out
 	}
-	for _, key := range sortedValueKeys(b) {
-		v := b.Values[key]
+	for _, v := range b.Values {
+		key := v.Key
 		if v.RefBlock != "" {
 			out = append(out, dependency{p.quoted(v), key, v.Line})
 			continue

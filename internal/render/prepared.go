@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"io"
 	"strings"
+	"sync"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/util"
@@ -16,12 +17,13 @@ import (
 // their inline values left open. The syntax tree is not kept, so a site
 // holds little more per page than the page's own HTML until it writes it.
 type Prepared struct {
-	// html is the page's HTML.
-	html  Packed
-	holes []Hole
-	// text is the page's prose for the search index, with the places of
-	// its values.
-	text       Packed
+	// packed is the page's HTML, its first htmlLen bytes, followed by its
+	// prose for the search index: packed together, the prose compresses
+	// against the HTML that holds it, and a page keeps one buffer.
+	packed  Packed
+	htmlLen int
+	holes   []Hole
+	// textPlaces are the places of the values in the prose.
 	textPlaces []place
 	// Headings are the headings of levels 2 and 3, in order.
 	Headings []PreparedHeading
@@ -113,12 +115,18 @@ func (p *preparing) hole(w util.BufWriter, n ast.Node, h Hole) {
 	p.holes = append(p.holes, h)
 }
 
+// pageBuffers hold pages as Prepare renders them: what it keeps is a copy
+// of its own size, so the buffer, grown to a page's size, serves the next.
+var pageBuffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
 // Prepare renders a parsed page with holes for what evaluation will find,
 // and takes its headings and text. The document is spent: Render it no
 // more.
 func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
-	var out bytes.Buffer
-	prep := &preparing{out: &out, index: map[ast.Node]int{}, lineOffset: doc.LineOffset}
+	out := pageBuffers.Get().(*bytes.Buffer)
+	out.Reset()
+	defer pageBuffers.Put(out)
+	prep := &preparing{out: out, index: map[ast.Node]int{}, lineOffset: doc.LineOffset}
 	refs := doc.ValueRefs()
 	refIndex := make(map[*ValueRef]int, len(refs))
 	for i, r := range refs {
@@ -140,37 +148,37 @@ func (m *Markdown) Prepare(doc *Document) (*Prepared, error) {
 	}
 	text := doc.prose(refIndex)
 	headings := doc.headingParts(3, refIndex)
-	if err := m.md.Renderer().Render(&out, doc.Source, doc.Root); err != nil {
+	if err := m.md.Renderer().Render(out, doc.Source, doc.Root); err != nil {
 		return nil, err
 	}
-	html, err := m.packer.Pack(out.Bytes())
+	// Of its own size: a Packer may keep it as it is.
+	page := make([]byte, 0, out.Len()+len(text.text))
+	page = append(append(page, out.Bytes()...), text.text...)
+	packed, err := m.packer.Pack(page)
 	if err != nil {
 		return nil, err
 	}
-	textZ, err := m.packer.Pack([]byte(text.text))
-	if err != nil {
-		return nil, err
-	}
-	return &Prepared{html: html, holes: prep.holes, text: textZ, textPlaces: text.places, Headings: headings}, nil
+	return &Prepared{packed: packed, htmlLen: out.Len(), holes: prep.holes, textPlaces: text.places, Headings: headings}, nil
 }
 
 // SearchText is the page's prose for the search index, a block a line:
 // headings, paragraphs, lists and tables, without code, calculation blocks
 // or raw HTML; value gives the text of each inline value.
 func (p *Prepared) SearchText(value func(ref int) string) (string, error) {
-	text, err := p.text.Bytes()
+	b, err := p.packed.Bytes()
 	if err != nil {
 		return "", err
 	}
-	return splice(string(text), p.textPlaces, value), nil
+	return splice(string(b[p.htmlLen:]), p.textPlaces, value), nil
 }
 
 // Write writes the page's HTML with fill writing each hole.
 func (p *Prepared) Write(w io.Writer, fill func(w util.BufWriter, h Hole)) error {
-	html, err := p.html.Bytes()
+	b, err := p.packed.Bytes()
 	if err != nil {
 		return err
 	}
+	html := b[:p.htmlLen]
 	bw := bufio.NewWriter(w)
 	at := 0
 	for _, h := range p.holes {

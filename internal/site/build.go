@@ -93,6 +93,9 @@ type Site struct {
 	chartsTotal int
 	// drawsLeft counts, by block id, the charts of the block still to draw.
 	drawsLeft map[string]*atomic.Int32
+	// writtenOnce: the site is written once (Build), so a page's prepared
+	// content goes as soon as the page is written.
+	writtenOnce bool
 }
 
 // MaxErrors is how many input problems one run reports; the rest are
@@ -276,6 +279,7 @@ func Build(root string, opts Options) (*Summary, error) {
 	if opts.Strict && len(problems) > 0 {
 		return &Summary{Out: out, Pages: len(s.Pages), Problems: problems, Tally: tally}, nil
 	}
+	s.writtenOnce = true
 	sum, record, files, settled, err := s.write(opts, takeOver, true)
 	if err != nil {
 		return nil, err
@@ -495,7 +499,7 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if !to.record || previous != nil && previous.Render != renderFP {
 		previous = nil
 	}
-	record := &buildRecord{Render: renderFP, Results: blocks.all, Pages: make(map[string]pageRecord, len(s.Pages))}
+	record := &buildRecord{Render: renderFP, Results: blocks.all}
 	// results.json is written while the pages are; emit returns only
 	// once it is.
 	resultsWritten := make(chan error, 1)
@@ -610,6 +614,9 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 					return
 				}
 			}
+			if s.writtenOnce {
+				p.body = nil
+			}
 		}
 		if n := rendered.Add(1); progress != nil {
 			progress("pages rendered", int(n), len(s.Pages))
@@ -624,6 +631,8 @@ func (s *Site) emit(to sink, progress func(stage string, done, total int), previ
 	if err := s.emitHosting(put, names, entries); err != nil || !to.record {
 		return nil, err
 	}
+	// Made last: the pages' prepared content has gone by now.
+	record.Pages = make(map[string]pageRecord, len(s.Pages))
 	for i, p := range s.Pages {
 		record.Pages[p.File] = records[i]
 	}

@@ -102,7 +102,11 @@ func readDoc(p *Page, doc *render.Document, cat *calc.Catalog) error {
 		}
 	}
 	p.links = doc.LinkRefs()
-	p.anchors = doc.AnchorIDs()
+	headings := doc.AnchorIDs()
+	p.anchors = nil
+	if n := len(headings) + len(p.blocks); n > 0 {
+		p.anchors = append(make([]string, 0, n), headings...) // kept to the end: no room to spare
+	}
 	for _, b := range p.blocks {
 		p.anchors = append(p.anchors, render.BlockAnchor(b.ID))
 	}

@@ -6,7 +6,6 @@ import (
 	"encoding/hex"
 	"io"
 	"io/fs"
-	"maps"
 	"os"
 	"path/filepath"
 	"slices"
@@ -201,8 +200,8 @@ func (s *Site) pageKey(p *Page, renderFP string, blocks blockDigests) string {
 	d.add(s.pageData(p, rootPrefix(p.Out), s.pageInfoBut(p)), s.shownCautions(p))
 	for _, b := range p.blocks {
 		d.add(b.ID, b.Line, blocks.own[b.ID], blocks.connected[b.ID])
-		for _, key := range slices.Sorted(maps.Keys(b.Values)) {
-			for _, id := range b.Values[key].Deps() {
+		for _, v := range b.Values {
+			for _, id := range v.Deps() {
 				d.add(id, s.blockLink(p, id))
 			}
 		}

@@ -5,7 +5,6 @@ import (
 	"encoding/gob"
 	"os"
 	"path/filepath"
-	"reflect"
 	"slices"
 	"sync"
 
@@ -24,8 +23,10 @@ const (
 
 // outcomeStore keeps what the models computed from one build to the next
 // (a calc.OutcomeStore): in the cache folder for builds, in memory for the
-// preview. It holds the last build's memos and hands out copies, and
-// gathers the ones this build uses, which replace them when it is saved.
+// preview. It holds the last build's memos and hands them out, shared with
+// every block that sees the same inputs (the engine does not change them),
+// and gathers the ones this build uses, which replace them when it is
+// saved.
 type outcomeStore struct {
 	// namespace identifies the catalog (specgen binary and specgen.toml):
 	// outcomes of another never match.
@@ -106,7 +107,7 @@ func peekHeader(path string) (outcomesHeader, bool) {
 	return h, gob.NewDecoder(bufio.NewReader(f)).Decode(&h) == nil
 }
 
-// Outcome returns a copy of the memo kept for key.
+// Outcome returns the memo kept for key.
 func (o *outcomeStore) Outcome(key string) (*calc.Memo, bool) {
 	o.mu.Lock()
 	m, ok := o.used[key]
@@ -117,15 +118,11 @@ func (o *outcomeStore) Outcome(key string) (*calc.Memo, bool) {
 		}
 	}
 	o.mu.Unlock()
-	if !ok {
-		return nil, false
-	}
-	return deepCopy(m), true
+	return m, ok
 }
 
-// Keep keeps a copy of the memo for key.
+// Keep keeps the memo for key.
 func (o *outcomeStore) Keep(key string, m *calc.Memo) {
-	m = deepCopy(m)
 	o.mu.Lock()
 	o.used[key] = m
 	o.computed = true
@@ -226,92 +223,6 @@ func writeOutcomes(dir, name string, h outcomesHeader, keys []string, memos map[
 		_ = os.Remove(tmp.Name())
 	}
 	return err
-}
-
-// deepCopy copies a memo and everything it reaches but its curves' points,
-// which are read only (calc.OutcomeStore), so that neither the store nor
-// the build it hands memos to sees the other's changes.
-func deepCopy(m *calc.Memo) *calc.Memo {
-	return copyValue(reflect.ValueOf(m)).Interface().(*calc.Memo)
-}
-
-// curveType is what deepCopy copies only shallowly: a curve's points are
-// the most of a memo.
-var curveType = reflect.TypeFor[calc.Curve]()
-
-func copyValue(v reflect.Value) reflect.Value {
-	if v.Type() == curveType {
-		return v
-	}
-	switch v.Kind() {
-	case reflect.Pointer:
-		if v.IsNil() {
-			return v
-		}
-		c := reflect.New(v.Type().Elem())
-		c.Elem().Set(copyValue(v.Elem()))
-		return c
-	case reflect.Slice:
-		if v.IsNil() {
-			return v
-		}
-		c := reflect.MakeSlice(v.Type(), v.Len(), v.Len())
-		if plainType(v.Type().Elem()) {
-			reflect.Copy(c, v)
-			return c
-		}
-		for i := range v.Len() {
-			c.Index(i).Set(copyValue(v.Index(i)))
-		}
-		return c
-	case reflect.Map:
-		if v.IsNil() {
-			return v
-		}
-		c := reflect.MakeMapWithSize(v.Type(), v.Len())
-		it := v.MapRange()
-		for it.Next() {
-			c.SetMapIndex(it.Key(), copyValue(it.Value()))
-		}
-		return c
-	case reflect.Struct:
-		if plainType(v.Type()) {
-			return v
-		}
-		c := reflect.New(v.Type()).Elem()
-		for i := range v.NumField() {
-			c.Field(i).Set(copyValue(v.Field(i)))
-		}
-		return c
-	}
-	// Memos are plain data: exported fields, no interfaces, functions or
-	// channels (TestMemoIsPlainData), which gob could not keep either.
-	return v
-}
-
-// plainTypes caches plainType.
-var plainTypes sync.Map // reflect.Type → bool
-
-// plainType reports whether values of type t hold no references but
-// strings, which cannot be changed: a copy of the value is a deep copy.
-func plainType(t reflect.Type) bool {
-	if plain, ok := plainTypes.Load(t); ok {
-		return plain.(bool)
-	}
-	plain := false
-	switch k := t.Kind(); {
-	case k >= reflect.Bool && k <= reflect.Complex128 || k == reflect.String:
-		plain = true
-	case k == reflect.Array:
-		plain = plainType(t.Elem())
-	case k == reflect.Struct:
-		plain = true
-		for i := range t.NumField() {
-			plain = plain && plainType(t.Field(i).Type)
-		}
-	}
-	plainTypes.Store(t, plain)
-	return plain
 }
 
 // pendingOutcomes is the cache folder's outcome store while it is read:
