@@ -83,18 +83,9 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 	if e.in == nil {
 		return nil, fmt.Errorf("block %s: its chart data was released", e.Block.ID)
 	}
-	curves := e.Curves
-	if e.resample {
-		// The model runs again on the same inputs, so the curves come out
-		// as they would have been kept.
-		out, err := k.Evaluate(e.in.sampling())
-		if err != nil {
-			return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)
-		}
-		if bad := nonFinite(out); bad != "" {
-			return nil, fmt.Errorf("block %s: chart %s: %s is not a finite number with the inputs %s; check that they describe a real machine", e.Block.ID, name, bad, givenInputs(e.Inputs))
-		}
-		curves = out.Curves
+	curves, err := e.chartCurves(name)
+	if err != nil {
+		return nil, err
 	}
 	c, err := k.Chart(name, e.in, &Outcome{Results: e.Results, Curves: curves, Cautions: e.Cautions,
 		FullRange: e.Block.Show.FullRange, ID: e.Block.ID, Set: e.set})
@@ -109,6 +100,27 @@ func (e *Evaluated) Chart(name string) (*Chart, error) {
 		}
 	}
 	return c, nil
+}
+
+// chartCurves returns the block's curves for chart name, sampled again
+// when they were not kept: the model runs again on the same inputs, so they
+// come out as they would have been kept, and they are kept for the block's
+// other charts until DropCurves.
+func (e *Evaluated) chartCurves(name string) ([]Curve, error) {
+	e.curvesMu.Lock()
+	defer e.curvesMu.Unlock()
+	if !e.resample {
+		return e.Curves, nil
+	}
+	out, err := e.Block.Kind.Evaluate(e.in.sampling())
+	if err != nil {
+		return nil, fmt.Errorf("block %s: chart %s: %w", e.Block.ID, name, err)
+	}
+	if bad := nonFinite(out); bad != "" {
+		return nil, fmt.Errorf("block %s: chart %s: %s is not a finite number with the inputs %s; check that they describe a real machine", e.Block.ID, name, bad, givenInputs(e.Inputs))
+	}
+	e.Curves, e.resample = out.Curves, false
+	return e.Curves, nil
 }
 
 // Curve returns the outcome's curve named name.

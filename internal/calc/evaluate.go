@@ -105,8 +105,11 @@ type Evaluated struct {
 	sigFigs  int
 	in       *Inputs // what the model saw, for the caution rules
 	set      *Set    // the blocks evaluated with it, for its charts
-	// resample: Curves are not kept, and Chart samples them again from in.
+	// resample: Curves are not kept, and Chart samples them again from in,
+	// keeping them until DropCurves. curvesMu guards both: charts of a
+	// block may be drawn on several pages at once.
 	resample bool
+	curvesMu *sync.Mutex // shared by a block's evaluations with and without [derive]
 	// customary: every input the block writes with a unit is in US
 	// customary units, so its results show in them too.
 	customary bool
@@ -172,6 +175,8 @@ func (e *Evaluated) Release() {
 // drawn again samples them anew. It must not run while a chart of the
 // block is being drawn.
 func (e *Evaluated) DropCurves() {
+	e.curvesMu.Lock()
+	defer e.curvesMu.Unlock()
 	if e.in != nil && e.Curves != nil {
 		e.Curves, e.resample = nil, true
 	}
@@ -510,7 +515,7 @@ func Parallel(n int, f func(i int)) {
 // evaluateBlock reads a block's inputs and runs its model; early runs it
 // without the block's links, for the results marked WithoutLinks only.
 func (c *Catalog) evaluateBlock(b *Block, set *Set, opts Options, wantCurves, early bool) (*Evaluated, error) {
-	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs}
+	e := &Evaluated{Block: b, Ambient: DefaultAmbient, sigFigs: opts.SigFigs, curvesMu: new(sync.Mutex)}
 	var errs inputerr.List
 	fail := func(key string, line int, msg string) {
 		errs = append(errs, &inputerr.Error{File: b.File, Line: line, Key: key, Msg: msg})
