@@ -11,10 +11,12 @@ import (
 // garbage, so that the collector's work per page stays the same as a very
 // big site grows; below the floor it is not set tighter, and the
 // collector's own pacing (twice the live heap) holds a site of a few
-// thousand pages.
+// thousand pages. The floor bounds the heap while a big site's pages are
+// read, before the first collections have measured it: at 200 MB a site
+// of 10,000 charted pages peaks near 270 MB (256 MB gave 293 MB).
 const (
 	headroomShare = 0.35
-	limitFloor    = 256 << 20
+	limitFloor    = 200 << 20
 )
 
 // followLiveHeap keeps the soft memory limit at what the program holds, the
