@@ -532,3 +532,30 @@ func writeAside(path string, data []byte) error {
 	}
 	return os.Rename(tmp, path)
 }
+
+// pending is what a cache file holds while it is read in the background;
+// its value is the zero value when the file is missing, damaged or of
+// another catalog.
+type pending[T any] struct {
+	ready chan struct{}
+	v     T
+}
+
+// readingCache starts reading a file of root's cache with read, handed
+// the cache folder and the namespace of the catalog the build uses.
+func readingCache[T any](root string, read func(dir, namespace string) T) *pending[T] {
+	p := &pending[T]{ready: make(chan struct{})}
+	go func() {
+		defer close(p.ready)
+		if ns, err := outcomesNamespace(root); err == nil {
+			p.v = read(filepath.Join(root, CacheDir), ns)
+		}
+	}()
+	return p
+}
+
+// wait waits for the file to be read and returns what it holds.
+func (p *pending[T]) wait() T {
+	<-p.ready
+	return p.v
+}

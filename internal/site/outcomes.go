@@ -195,61 +195,29 @@ func (o *outcomeStore) save(dir string) error {
 // aside and then renamed.
 func writeOutcomes(dir, name string, h outcomesHeader, keys []string, memos map[string]*calc.Memo) error {
 	slices.Sort(keys)
-	tmp, err := os.CreateTemp(dir, "."+name+"-")
-	if err != nil {
-		return err
-	}
-	w := bufio.NewWriterSize(tmp, 1<<16)
-	enc := gob.NewEncoder(w)
-	err = enc.Encode(h)
-	for _, k := range keys {
-		if err == nil {
-			err = enc.Encode(outcomeEntry{Key: k, Memo: memos[k]})
+	return writeGobAside(filepath.Join(dir, name), func(enc *gob.Encoder) error {
+		err := enc.Encode(h)
+		for _, k := range keys {
+			if err == nil {
+				err = enc.Encode(outcomeEntry{Key: k, Memo: memos[k]})
+			}
 		}
-	}
-	if err == nil {
-		err = w.Flush()
-	}
-	if cerr := tmp.Close(); err == nil {
-		err = cerr
-	}
-	if err == nil {
-		err = os.Chmod(tmp.Name(), 0o644)
-	}
-	if err == nil {
-		err = os.Rename(tmp.Name(), filepath.Join(dir, name))
-	}
-	if err != nil {
-		_ = os.Remove(tmp.Name())
-	}
-	return err
+		return err
+	})
 }
 
 // pendingOutcomes is the cache folder's outcome store while it is read:
 // the build reads its pages meanwhile, and the first outcome it asks for
 // waits for the rest.
-type pendingOutcomes struct {
-	ready chan struct{}
-	o     *outcomeStore // nil when the catalog could not be named
-}
+type pendingOutcomes struct{ *pending[*outcomeStore] }
 
 // readingOutcomes starts reading the outcomes saved in root's cache.
 func readingOutcomes(root string) *pendingOutcomes {
-	p := &pendingOutcomes{ready: make(chan struct{})}
-	go func() {
-		defer close(p.ready)
-		if ns, err := outcomesNamespace(root); err == nil {
-			p.o = readOutcomeStore(filepath.Join(root, CacheDir), ns)
-		}
-	}()
-	return p
+	return &pendingOutcomes{readingCache(root, readOutcomeStore)}
 }
 
 // store waits for the store and returns it, nil when there is none.
-func (p *pendingOutcomes) store() *outcomeStore {
-	<-p.ready
-	return p.o
-}
+func (p *pendingOutcomes) store() *outcomeStore { return p.wait() }
 
 // Outcome is the store's, once it is read.
 func (p *pendingOutcomes) Outcome(key string) (*calc.Memo, bool) {

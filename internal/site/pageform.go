@@ -220,21 +220,11 @@ func notNil[T any](s []T) []T {
 }
 
 // pendingForms is the cache folder's page forms while they are read.
-type pendingForms struct {
-	ready chan struct{}
-	f     *pageForms // nil when the catalog could not be named
-}
+type pendingForms struct{ *pending[*pageForms] }
 
 // readingPageForms starts reading the page forms saved in root's cache.
 func readingPageForms(root string) *pendingForms {
-	p := &pendingForms{ready: make(chan struct{})}
-	go func() {
-		defer close(p.ready)
-		if ns, err := outcomesNamespace(root); err == nil {
-			p.f = readPageForms(filepath.Join(root, CacheDir), ns)
-		}
-	}()
-	return p
+	return &pendingForms{readingCache(root, readPageForms)}
 }
 
 // forms waits for the forms and returns them, nil when there are none.
@@ -242,6 +232,5 @@ func (p *pendingForms) forms() *pageForms {
 	if p == nil {
 		return nil
 	}
-	<-p.ready
-	return p.f
+	return p.wait()
 }
