@@ -21,7 +21,6 @@ type progress struct {
 	start  time.Time
 	mu     sync.Mutex
 	last   time.Time
-	stage  string
 	counts map[string]string
 	order  []string
 	shown  bool

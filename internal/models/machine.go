@@ -430,15 +430,6 @@ func (m machine) indicatedPower(pt machinePoint, k int) float64 {
 	return pt.mass * stageWork(m.stages[k].suctionT, r, m.stages[k].cyl.n)
 }
 
-// shaftPower is the power the crankshaft takes at the running point.
-func (m machine) shaftPower(pt machinePoint) float64 {
-	total := 0.0
-	for k, s := range m.stages {
-		total += m.indicatedPower(pt, k) / s.cyl.etaMech
-	}
-	return total
-}
-
 // stageTorques samples each stage's gas load torque over one revolution
 // at the running point, every cylinder of it and its phase included.
 func (m machine) stageTorques(pt machinePoint, steps int) [][]float64 {

@@ -25,19 +25,8 @@ func TestLayoutContentPlaces(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			root := t.TempDir()
-			files := map[string]string{
-				"content/bore.md":     "+++\ntitle = \"Bore\"\n+++\nBore *32 mm* & more.\n",
-				"templates/page.html": c.layout,
-			}
-			for name, text := range files {
-				p := filepath.Join(root, filepath.FromSlash(name))
-				if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-					t.Fatal(err)
-				}
-				if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
-					t.Fatal(err)
-				}
-			}
+			siteEdit{"content/bore.md", "", "+++\ntitle = \"Bore\"\n+++\nBore *32 mm* & more.\n"}.apply(t, root)
+			siteEdit{"templates/page.html", "", c.layout}.apply(t, root)
 			if _, err := Build(root, Options{}); err != nil {
 				t.Fatal(err)
 			}
